@@ -1,0 +1,88 @@
+package org.lrbench.bench;
+
+import java.nio.file.Path;
+import org.lrbench.sim.SimSettings;
+import org.lrbench.transport.Address;
+import org.lrbench.transport.AddressException;
+import org.lrbench.units.Dimension;
+import org.lrbench.yaml.Problems;
+import org.lrbench.yaml.ProblemsException;
+import org.lrbench.yaml.YamlFile;
+import org.lrbench.yaml.YamlMap;
+
+/** Reads and validates a bench file. */
+public final class BenchLoader {
+    private static final String[] KEYS = {"bench_format", "name", "max_amplitude", "generator", "digitizer", "simulation"};
+
+    private BenchLoader() {
+    }
+
+    public static BenchConfig load(Path file) throws ProblemsException {
+        Problems problems = new Problems(file.toString());
+        return read(YamlFile.read(file, problems, KEYS), file.toString());
+    }
+
+    public static BenchConfig parse(String text, String name) throws ProblemsException {
+        Problems problems = new Problems(name);
+        return read(YamlFile.parse(text, problems, KEYS), name);
+    }
+
+    private static BenchConfig read(YamlMap root, String source) throws ProblemsException {
+        root.integer("bench_format", true, 1, 1);
+        String name = root.text("name", true);
+        if (name != null && !name.matches("[A-Za-z0-9._-]{1,64}")) {
+            root.problem("name", "'" + name + "' must be 1 to 64 letters, digits, '.', '_' or '-'");
+        }
+        Double max = root.quantity("max_amplitude", Dimension.VOLTAGE, true);
+        if (max != null && !(max > 0)) {
+            root.problem("max_amplitude", "must be greater than 0 V");
+        }
+        InstrumentLink generator = link(root, "generator");
+        InstrumentLink digitizer = link(root, "digitizer");
+        SimSettings sim = simulation(root);
+        root.problems().throwIfAny();
+        return new BenchConfig(source, name, max, generator, digitizer, sim);
+    }
+
+    private static InstrumentLink link(YamlMap root, String key) {
+        YamlMap m = root.map(key, true, "driver", "address");
+        if (m == null) {
+            return null;
+        }
+        String driver = m.text("driver", true);
+        String address = m.text("address", true);
+        if (address == null) {
+            return null;
+        }
+        try {
+            return new InstrumentLink(driver, Address.parse(address));
+        } catch (AddressException e) {
+            m.problem("address", e.getMessage());
+            return null;
+        }
+    }
+
+    private static SimSettings simulation(YamlMap root) {
+        SimSettings d = SimSettings.defaults();
+        YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed");
+        if (m == null) {
+            return d;
+        }
+        Double source = m.quantity("source_impedance", Dimension.RESISTANCE, false);
+        if (source != null && source < 0) {
+            m.problem("source_impedance", "must not be negative");
+        }
+        Double noise = m.quantity("noise", Dimension.VOLTAGE, false);
+        if (noise != null && noise < 0) {
+            m.problem("noise", "must not be negative");
+        }
+        Integer bits = null;
+        if (m.has("resolution")) {
+            String text = m.text("resolution", true);
+            bits = "ideal".equals(text) ? Integer.valueOf(0) : m.integer("resolution", true, 4, 16);
+        }
+        Long seed = m.longValue("seed", false);
+        return new SimSettings(source == null ? d.sourceImpedanceOhm() : source, noise == null ? d.noiseVoltRms() : noise,
+                bits == null ? d.resolutionBits() : bits, seed == null ? d.seed() : seed);
+    }
+}

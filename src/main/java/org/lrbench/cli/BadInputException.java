@@ -1,0 +1,8 @@
+package org.lrbench.cli;
+
+/** Thrown for bad options or files that are not YAML problems; exits with code 2. */
+final class BadInputException extends RuntimeException {
+    BadInputException(String message) {
+        super(message);
+    }
+}

@@ -1,0 +1,78 @@
+package org.lrbench.cli;
+
+import java.nio.file.Path;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.SweepListener;
+import org.lrbench.plan.Plan;
+import org.lrbench.results.LotSummary;
+import org.lrbench.results.PartResult;
+import org.lrbench.results.ResultFiles;
+import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.PartRun;
+import org.lrbench.sim.SimBench;
+import org.lrbench.sim.SimLot;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/** {@code lrbench demo}: measures the simulated demo lot with its plan. */
+@Command(name = "demo", description = "Measure the simulated demo lot (simulator/demo-lot.yaml) with its plan.")
+final class DemoCommand implements Callable<Integer> {
+
+    @Option(names = "--lot-file", paramLabel = "LOT.yaml", description = "simulated lot (default: simulator/demo-lot.yaml)")
+    Path lotFile;
+
+    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
+    Path bench;
+
+    @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
+            description = "folder for the results (default: ${DEFAULT-VALUE})")
+    Path runs;
+
+    @Override
+    public Integer call() throws Exception {
+        Path lotPath = lotFile != null ? lotFile : Home.demoLot();
+        Inputs.requireFile(lotPath, "simulated lot");
+        SimLot lot = SimLot.load(lotPath);
+        Inputs.name("lot", lot.lot());
+        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        Plan plan = Inputs.plan(lot.plan(), b);
+        String sha = Inputs.sha256(lot.plan());
+        DriverLoader drivers = new DriverLoader(Home.drivers());
+        double qAt = ResultText.qFrequency(plan);
+        System.out.printf("lot %s: %d parts of %s (%s), plan %s, simulated bench %s%n%n", lot.lot(), lot.parts().size(),
+                plan.partNumber(), plan.description(), Home.root().relativize(lot.plan().toAbsolutePath()), b.name());
+        ResultText.tableHeader(System.out, qAt);
+        List<PartResult> results = new ArrayList<>();
+        for (int i = 0; i < lot.parts().size(); i++) {
+            SimLot.Part part = lot.parts().get(i);
+            Inputs.name("serial", part.serial());
+            // each part gets its own noise: the bench seed advanced by the part's position
+            BenchConfig partBench = b.withSimulation(b.simulation().withSeed(b.simulation().seed() + i));
+            SimBench sim = new SimBench(partBench.simulation(), plan.senseResistanceOhm(), part.model());
+            PartRun.Request request = new PartRun.Request(plan, sha, partBench, lot.lot(), part.serial(), true,
+                    Home.version());
+            PartResult r;
+            try (BenchInstruments instruments = BenchInstruments.open(partBench, drivers, sim)) {
+                r = PartRun.measure(request, instruments, Sleeper.NONE, SweepListener.NONE);
+            }
+            ResultFiles.writeJson(runs.resolve(lot.lot()).resolve(part.serial() + ".json"), r);
+            results.add(r);
+            ResultText.tableRow(System.out, r, qAt);
+        }
+        LotSummary summary = LotSummary.of(lot.lot(), plan.partNumber(), plan.source(),
+                Instant.now().truncatedTo(ChronoUnit.MILLIS).toString(), results);
+        Path summaryFile = runs.resolve(lot.lot()).resolve("lot-summary.json");
+        ResultFiles.writeJson(summaryFile, summary);
+        System.out.println();
+        ResultText.summary(System.out, summary);
+        System.out.println("results: " + runs.resolve(lot.lot()) + "/");
+        return ExitCodes.PASS;
+    }
+}

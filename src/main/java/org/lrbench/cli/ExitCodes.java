@@ -1,0 +1,22 @@
+package org.lrbench.cli;
+
+import org.lrbench.judge.Verdict;
+
+/** The process exit codes, as the README documents them. */
+final class ExitCodes {
+    static final int PASS = 0;
+    static final int FAIL = 1;
+    static final int BAD_INPUT = 2;
+    static final int INSTRUMENT = 3;
+
+    private ExitCodes() {
+    }
+
+    static int of(Verdict verdict) {
+        return switch (verdict) {
+            case PASS -> PASS;
+            case FAIL -> FAIL;
+            case ERROR -> INSTRUMENT;
+        };
+    }
+}

@@ -1,0 +1,56 @@
+package org.lrbench.cli;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.security.MessageDigest;
+import java.security.NoSuchAlgorithmException;
+import java.util.HexFormat;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.BenchLoader;
+import org.lrbench.plan.Plan;
+import org.lrbench.plan.PlanLoader;
+import org.lrbench.yaml.ProblemsException;
+
+/** Loading what commands share: the bench, the plan, and checks on names that become file names. */
+final class Inputs {
+    private static final String NAME = "[A-Za-z0-9][A-Za-z0-9._-]{0,63}";
+
+    private Inputs() {
+    }
+
+    static BenchConfig bench(Path file) throws ProblemsException {
+        requireFile(file, "bench file");
+        return BenchLoader.load(file);
+    }
+
+    static Plan plan(Path file, BenchConfig bench) throws ProblemsException {
+        requireFile(file, "plan");
+        return PlanLoader.load(file, bench.maxAmplitudeVolt());
+    }
+
+    static void requireFile(Path file, String what) {
+        if (!Files.isRegularFile(file)) {
+            throw new BadInputException(what + " " + file + ": no such file");
+        }
+    }
+
+    /** Lot numbers and serials name folders and files: letters, digits, '.', '_', '-' only. */
+    static String name(String option, String value) {
+        if (value == null || !value.matches(NAME)) {
+            throw new BadInputException(option + " '" + value + "': use 1 to 64 letters, digits, '.', '_' or '-',"
+                    + " starting with a letter or digit");
+        }
+        return value;
+    }
+
+    static String sha256(Path file) {
+        try {
+            return HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(file)));
+        } catch (IOException e) {
+            throw new BadInputException("cannot read " + file + ": " + e.getMessage());
+        } catch (NoSuchAlgorithmException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+}

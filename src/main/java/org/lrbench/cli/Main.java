@@ -1,0 +1,52 @@
+package org.lrbench.cli;
+
+import org.lrbench.instrument.InstrumentException;
+import org.lrbench.yaml.ProblemsException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/** The {@code lrbench} command line. */
+@Command(name = "lrbench", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
+        description = "Inductor incoming inspection on a signal generator and digitizer bench.",
+        subcommands = {DemoCommand.class, CheckCommand.class, RunCommand.class})
+public final class Main implements Runnable {
+
+    public static void main(String[] args) {
+        System.exit(execute(args));
+    }
+
+    /** Runs a command line and returns its exit code (tests call this). */
+    public static int execute(String... args) {
+        CommandLine cli = new CommandLine(new Main());
+        // picocli already exits with 2 (ExitCode.USAGE) on invalid options, matching BAD_INPUT
+        cli.setExecutionExceptionHandler((e, commandLine, parsed) -> {
+            if (e instanceof ProblemsException p) {
+                ResultText.problems(commandLine.getErr(), p.problems());
+                return ExitCodes.BAD_INPUT;
+            }
+            if (e instanceof BadInputException) {
+                commandLine.getErr().println("lrbench: " + e.getMessage());
+                return ExitCodes.BAD_INPUT;
+            }
+            if (e instanceof InstrumentException) {
+                commandLine.getErr().println("lrbench: instrument error: " + e.getMessage());
+                return ExitCodes.INSTRUMENT;
+            }
+            throw e;
+        });
+        return cli.execute(args);
+    }
+
+    @Override
+    public void run() {
+        new CommandLine(this).usage(System.out);
+    }
+
+    /** Reports the program version from the jar manifest. */
+    static final class Version implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            return new String[] {"lrbench " + Home.version()};
+        }
+    }
+}

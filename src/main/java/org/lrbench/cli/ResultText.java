@@ -1,0 +1,84 @@
+package org.lrbench.cli;
+
+import java.io.PrintStream;
+import java.util.List;
+import java.util.Locale;
+import org.lrbench.judge.Characteristic;
+import org.lrbench.judge.Limit;
+import org.lrbench.plan.Plan;
+import org.lrbench.results.LotSummary;
+import org.lrbench.results.PartResult;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
+
+/** How results look on the console: a detailed part report, lot table rows, and a lot summary. */
+final class ResultText {
+    private static final String ROW = "%-14s %12s %12s %10s  %-7s %s%n";
+
+    private ResultText() {
+    }
+
+    static void part(PrintStream out, PartResult r) {
+        out.printf("part %s of lot %s, part number %s, bench %s%s%n", r.serial(), r.lot(), r.partNumber(), r.bench(),
+                r.simulated() ? " (simulated)" : "");
+        if (!r.points().isEmpty()) {
+            out.printf("  %12s %12s %12s %12s %8s%n", "frequency", "R", "X", "L", "Q");
+            for (PartResult.PointRecord p : r.points()) {
+                out.printf("  %12s %12s %12s %12s %8.2f%n", Units.format(p.frequencyHz(), Dimension.FREQUENCY),
+                        Units.format(p.resistanceOhm(), Dimension.RESISTANCE),
+                        Units.format(p.reactanceOhm(), Dimension.RESISTANCE),
+                        Units.format(p.inductanceH(), Dimension.INDUCTANCE), p.qualityFactor());
+            }
+        }
+        if (r.inductanceH() != null) {
+            out.printf("  series R-L model: L = %s +/- %s, R = %s +/- %s (standard uncertainties)%n",
+                    Units.format(r.inductanceH(), Dimension.INDUCTANCE),
+                    Units.format(r.inductanceUncertaintyH(), Dimension.INDUCTANCE),
+                    Units.format(r.seriesResistanceOhm(), Dimension.RESISTANCE),
+                    Units.format(r.seriesResistanceUncertaintyOhm(), Dimension.RESISTANCE));
+        }
+        for (PartResult.LimitRecord l : r.limits()) {
+            out.printf("  %-4s %s (spec %s)%n", l.pass() ? "ok" : "FAIL", l.reason(), l.spec());
+        }
+        if (r.error() != null) {
+            out.println("  error: " + r.error());
+        }
+        out.println("verdict: " + r.verdict().toUpperCase(Locale.ROOT));
+    }
+
+    /** The frequency the table's Q column is shown at: the first Q limit's, else the top of the sweep. */
+    static double qFrequency(Plan plan) {
+        return plan.limits().stream().filter(l -> l.characteristic() == Characteristic.QUALITY_FACTOR)
+                .map(Limit::atFrequencyHz).findFirst().orElse(plan.sweep().highestHz());
+    }
+
+    static void tableHeader(PrintStream out, double qAtHz) {
+        out.printf(ROW, "serial", "L", "R", "Q@" + Units.format(qAtHz, Dimension.FREQUENCY).replace(" ", ""),
+                "verdict", "reason");
+    }
+
+    static void tableRow(PrintStream out, PartResult r, double qAtHz) {
+        String l = r.inductanceH() == null ? "-" : Units.format(r.inductanceH(), Dimension.INDUCTANCE);
+        String res = r.seriesResistanceOhm() == null ? "-" : Units.format(r.seriesResistanceOhm(), Dimension.RESISTANCE);
+        String q = r.inductanceH() == null ? "-" : String.format(Locale.ROOT, "%.1f",
+                2 * Math.PI * qAtHz * r.inductanceH() / r.seriesResistanceOhm());
+        String reason = r.error() != null ? r.error() : String.join("; ", r.failedLimits());
+        out.printf(ROW, r.serial(), l, res, q, r.verdict(), reason);
+    }
+
+    static void summary(PrintStream out, LotSummary s) {
+        double yield = s.measured() == 0 ? 0 : 100.0 * s.passed() / s.measured();
+        out.printf("lot %s (%s): %d measured, %d pass, %d fail, %d error; yield %.1f %%%n", s.lot(), s.partNumber(),
+                s.measured(), s.passed(), s.failed(), s.errors(), yield);
+        if (!s.failedSerials().isEmpty()) {
+            out.println("  failed: " + String.join(", ", s.failedSerials()));
+        }
+        if (!s.errorSerials().isEmpty()) {
+            out.println("  not measured (error): " + String.join(", ", s.errorSerials()));
+        }
+    }
+
+    static void problems(java.io.PrintWriter err, List<?> problems) {
+        problems.forEach(err::println);
+    }
+}

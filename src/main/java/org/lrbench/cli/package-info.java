@@ -1,0 +1,2 @@
+/** The command line: demo, check, run. */
+package org.lrbench.cli;

@@ -1,0 +1,51 @@
+package org.lrbench.driver;
+
+import java.util.Map;
+import org.lrbench.instrument.Identity;
+import org.lrbench.instrument.InstrumentException;
+import org.lrbench.scpi.ScpiNumbers;
+import org.lrbench.scpi.ScpiSession;
+
+/** What every driver-file instrument shares: its session, its driver, and a checked send. */
+abstract class DrivenInstrument {
+    protected final ScpiSession session;
+    protected final DriverFile driver;
+    private Identity identity;
+
+    DrivenInstrument(ScpiSession session, DriverFile driver) {
+        this.session = session;
+        this.driver = driver;
+    }
+
+    /** Asks {@code *IDN?} once and checks it against the driver's identity patterns. */
+    public synchronized Identity identity() {
+        if (identity == null) {
+            Identity id = session.identify();
+            if (!driver.matches(id)) {
+                throw new InstrumentException(session.instrument() + ": '" + id + "' is not an instrument driver "
+                        + driver.name() + " is written for (" + driver.source() + ", identity)");
+            }
+            identity = id;
+        }
+        return identity;
+    }
+
+    /** Sends a configuration command, then drains the error queue and fails on any error. */
+    protected void configure(String operation, Map<String, String> values) {
+        String command = driver.command(operation).render(values);
+        session.write(command);
+        session.checkErrors(driver.errorQuery(), command);
+    }
+
+    /** Sends a numeric query and parses its reply. */
+    protected double queryNumber(String operation, Map<String, String> values) {
+        String command = driver.command(operation).render(values);
+        String reply = session.query(command);
+        try {
+            return ScpiNumbers.parse(reply);
+        } catch (NumberFormatException e) {
+            throw new InstrumentException(session.instrument() + ": reply to '" + command + "' is '" + reply
+                    + "', expected a number");
+        }
+    }
+}

@@ -1,0 +1,42 @@
+package org.lrbench.driver;
+
+import java.time.Duration;
+import java.util.Map;
+import java.util.regex.Pattern;
+import org.lrbench.instrument.Identity;
+import org.lrbench.scpi.TraceEncoding;
+
+/**
+ * A loaded, validated driver: command templates per logical operation, word tables, the trace
+ * encoding (digitizers), the error query, the reply timeout, and patterns for the {@code *IDN?}
+ * fields of the instruments it is written for.
+ */
+public record DriverFile(String name, String source, DriverKind kind, String description,
+                         Map<String, Pattern> identity, Duration timeout, String errorQuery,
+                         Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
+                         TraceEncoding traceEncoding) {
+
+    public CommandTemplate command(String operation) {
+        CommandTemplate t = commands.get(operation);
+        if (t == null) {
+            throw new IllegalStateException("driver " + name + " has no operation " + operation);
+        }
+        return t;
+    }
+
+    /** The SCPI word for a logical word of a table ("shapes", "sine" -> "SINusoid"). */
+    public String word(String table, String logical) {
+        return words.get(table).get(logical);
+    }
+
+    /** Whether an instrument's identity matches every identity pattern of this driver. */
+    public boolean matches(Identity id) {
+        return fieldMatches("manufacturer", id.manufacturer()) && fieldMatches("model", id.model())
+                && fieldMatches("serial", id.serial()) && fieldMatches("firmware", id.firmware());
+    }
+
+    private boolean fieldMatches(String field, String value) {
+        Pattern p = identity.get(field);
+        return p == null || p.matcher(value).matches();
+    }
+}

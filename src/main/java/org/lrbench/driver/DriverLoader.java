@@ -1,0 +1,148 @@
+package org.lrbench.driver;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.regex.Pattern;
+import java.util.regex.PatternSyntaxException;
+import org.lrbench.scpi.TraceEncoding;
+import org.lrbench.units.Dimension;
+import org.lrbench.yaml.Problems;
+import org.lrbench.yaml.ProblemsException;
+import org.lrbench.yaml.YamlFile;
+import org.lrbench.yaml.YamlMap;
+
+/**
+ * Loads {@code drivers/NAME.yaml}. Every operation of the driver's kind must have a template, every
+ * placeholder must be one the operation provides, and word tables must map every logical word to a
+ * SCPI mnemonic; problems are reported with file, line and column.
+ */
+public final class DriverLoader {
+    private static final Pattern MNEMONIC = Pattern.compile("[A-Za-z][A-Za-z0-9]*");
+    private static final Set<String> IDN_FIELDS = Set.of("manufacturer", "model", "serial", "firmware");
+
+    private final Path directory;
+
+    public DriverLoader(Path directory) {
+        this.directory = directory;
+    }
+
+    /** Loads a driver by name from the drivers folder. */
+    public DriverFile load(String name, DriverKind expected) throws ProblemsException {
+        Path file = directory.resolve(name + ".yaml");
+        Problems problems = new Problems(file.toString());
+        if (!name.matches("[A-Za-z0-9._-]+") || !Files.isRegularFile(file)) {
+            problems.add((org.yaml.snakeyaml.nodes.Node) null, "driver",
+                    "no driver file '" + name + ".yaml' in " + directory);
+            problems.throwIfAny();
+        }
+        return read(file, name, expected, problems);
+    }
+
+    /** Loads a driver file from any path (tests, or a bench that names a file). */
+    public static DriverFile read(Path file, String name, DriverKind expected, Problems problems)
+            throws ProblemsException {
+        YamlMap root = YamlFile.read(file, problems,
+                "driver_format", "kind", "description", "identity", "timeout", "error_query",
+                "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes");
+        root.integer("driver_format", true, 1, 1);
+        DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER));
+        if (kind != null && expected != null && kind != expected) {
+            root.problem("kind", "this driver is for a " + kind.key() + "; a " + expected.key() + " driver is needed here");
+        }
+        String description = root.text("description", false);
+        Map<String, Pattern> identity = readIdentity(root);
+        Double timeoutSeconds = root.quantity("timeout", Dimension.TIME, false);
+        String errorQuery = root.text("error_query", false);
+        Map<String, CommandTemplate> commands = new LinkedHashMap<>();
+        Map<String, Map<String, String>> words = new LinkedHashMap<>();
+        TraceEncoding encoding = null;
+        if (kind != null) {
+            YamlMap cmds = root.map("commands", true, kind.operations().keySet().toArray(String[]::new));
+            if (cmds != null) {
+                for (Map.Entry<String, Set<String>> op : kind.operations().entrySet()) {
+                    String text = cmds.text(op.getKey(), true);
+                    if (text != null) {
+                        try {
+                            commands.put(op.getKey(), CommandTemplate.parse(text, op.getValue()));
+                        } catch (IllegalArgumentException e) {
+                            cmds.problem(op.getKey(), e.getMessage());
+                        }
+                    }
+                }
+            }
+            for (Map.Entry<String, List<String>> table : kind.wordTables().entrySet()) {
+                words.put(table.getKey(), readWords(root, table.getKey(), table.getValue()));
+            }
+            for (String other : List.of("shapes", "couplings", "trigger_sources", "slopes")) {
+                if (!kind.wordTables().containsKey(other) && root.has(other)) {
+                    root.problem(other, "not used by a " + kind.key() + " driver");
+                }
+            }
+            if (kind == DriverKind.DIGITIZER) {
+                String key = root.text("trace_format", true);
+                if (key != null) {
+                    encoding = TraceEncoding.byKey(key);
+                    if (encoding == null) {
+                        root.problem("trace_format", "'" + key + "' is not a trace format; allowed: "
+                                + String.join(", ", java.util.Arrays.stream(TraceEncoding.values()).map(TraceEncoding::key).toList()));
+                    }
+                }
+            } else if (root.has("trace_format")) {
+                root.problem("trace_format", "only digitizer drivers have a trace format");
+            }
+        }
+        if (errorQuery != null) {
+            try {
+                CommandTemplate.parse(errorQuery, Set.of());
+            } catch (IllegalArgumentException e) {
+                root.problem("error_query", e.getMessage());
+            }
+        }
+        problems.throwIfAny();
+        Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
+        return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
+                errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding);
+    }
+
+    private static Map<String, Pattern> readIdentity(YamlMap root) {
+        Map<String, Pattern> identity = new LinkedHashMap<>();
+        YamlMap id = root.map("identity", false, IDN_FIELDS.toArray(String[]::new));
+        if (id != null) {
+            for (String field : IDN_FIELDS) {
+                String regex = id.text(field, false);
+                if (regex != null) {
+                    try {
+                        identity.put(field, Pattern.compile(regex));
+                    } catch (PatternSyntaxException e) {
+                        id.problem(field, "not a regular expression: " + e.getDescription());
+                    }
+                }
+            }
+        }
+        return identity;
+    }
+
+    private static Map<String, String> readWords(YamlMap root, String table, List<String> logical) {
+        Map<String, String> out = new LinkedHashMap<>();
+        YamlMap m = root.map(table, true, logical.toArray(String[]::new));
+        if (m == null) {
+            return out;
+        }
+        for (String word : logical) {
+            String scpi = m.text(word, true);
+            if (scpi != null) {
+                if (MNEMONIC.matcher(scpi).matches()) {
+                    out.put(word, scpi);
+                } else {
+                    m.problem(word, "'" + scpi + "' is not a SCPI mnemonic (a letter, then letters and digits)");
+                }
+            }
+        }
+        return out;
+    }
+}

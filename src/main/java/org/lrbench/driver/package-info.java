@@ -1,0 +1,2 @@
+/** Driver files (drivers/*.yaml) and the SCPI instruments they drive. */
+package org.lrbench.driver;

@@ -1,0 +1,4 @@
+package org.lrbench.instrument;
+
+/** Digitizer input coupling. */
+public enum Coupling { DC, AC }

@@ -1,0 +1,34 @@
+package org.lrbench.instrument;
+
+/**
+ * A two-or-more channel digitizer (oscilloscope) by its logical operations. Ranges are full-scale
+ * peak-to-peak values centred on the channel offset. Setters return what the instrument actually
+ * set, since instruments coerce requests to what their hardware can do.
+ */
+public interface Digitizer {
+
+    Identity identity();
+
+    /** Puts the instrument in a known state. */
+    void prepare();
+
+    RangeLimits rangeLimits(int channel);
+
+    /** Sets the full-scale range; returns the range in effect. */
+    double setRange(int channel, double peakToPeakVolt);
+
+    void setOffset(int channel, double volt);
+
+    void setCoupling(int channel, Coupling coupling);
+
+    /** Sets sample interval and record length; returns the time base in effect. */
+    Timing setTiming(double sampleIntervalSecond, int points);
+
+    void setTrigger(TriggerSource source, double levelVolt, boolean rising);
+
+    /** Arms, waits for the trigger and the end of the record. */
+    void acquire();
+
+    /** Transfers one channel of the last record. */
+    Trace fetch(int channel);
+}

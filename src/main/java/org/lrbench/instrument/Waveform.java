@@ -1,0 +1,4 @@
+package org.lrbench.instrument;
+
+/** Generator waveforms. */
+public enum Waveform { SINE, TRIANGLE, SQUARE }

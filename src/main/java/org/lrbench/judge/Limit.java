@@ -1,0 +1,30 @@
+package org.lrbench.judge;
+
+import org.lrbench.units.Units;
+
+/**
+ * A limit of the purchase specification: a characteristic, the frequency it applies at (when it
+ * depends on frequency), and the closed interval [lower, upper] that passes; a one-sided limit has
+ * an infinite bound. {@code spec} keeps how the plan wrote it ("1 mH +/- 10 %").
+ */
+public record Limit(String name, Characteristic characteristic, Double atFrequencyHz,
+                    double lower, double upper, String spec) {
+
+    public boolean contains(double value) {
+        return value >= lower && value <= upper;
+    }
+
+    /** Distance to the nearest bound: positive inside, negative outside. */
+    public double margin(double value) {
+        return Math.min(value - lower, upper - value);
+    }
+
+    public String describeBounds() {
+        String lo = Double.isInfinite(lower) ? null : Units.format(lower, characteristic.dimension());
+        String hi = Double.isInfinite(upper) ? null : Units.format(upper, characteristic.dimension());
+        if (lo != null && hi != null) {
+            return lo + " .. " + hi;
+        }
+        return lo != null ? ">= " + lo : "<= " + hi;
+    }
+}

@@ -1,0 +1,8 @@
+package org.lrbench.measure;
+
+/** Thrown when a point cannot be measured properly (it could not be ranged, no current flowed). */
+public class MeasurementException extends RuntimeException {
+    public MeasurementException(String message) {
+        super(message);
+    }
+}

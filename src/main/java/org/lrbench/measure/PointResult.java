@@ -1,0 +1,13 @@
+package org.lrbench.measure;
+
+import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.SineFitResult;
+
+/**
+ * One sweep point: the impedance, both channel fits, the ranges used and how many acquisitions
+ * auto-ranging took.
+ */
+public record PointResult(ImpedancePoint impedance, SineFitResult senseFit, SineFitResult partFit,
+                          double senseRangeVolt, double partRangeVolt, double sampleIntervalSecond,
+                          int samples, int acquisitions) {
+}

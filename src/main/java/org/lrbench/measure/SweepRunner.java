@@ -1,0 +1,104 @@
+package org.lrbench.measure;
+
+import java.util.ArrayList;
+import java.util.List;
+import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.PhasorImpedance;
+import org.lrbench.analysis.SineFit;
+import org.lrbench.analysis.SineFitResult;
+import org.lrbench.instrument.Coupling;
+import org.lrbench.instrument.Digitizer;
+import org.lrbench.instrument.Generator;
+import org.lrbench.instrument.Timing;
+import org.lrbench.instrument.TriggerSource;
+import org.lrbench.instrument.Waveform;
+import org.lrbench.plan.Plan;
+import org.lrbench.plan.SineSweep;
+
+/**
+ * Runs a plan's sine sweep on a generator and a digitizer: per frequency it sets the generator,
+ * chooses a time base of the requested cycles at no fewer than the requested samples per cycle,
+ * waits for settling, auto-ranges both channels, fits both traces at the known frequency and
+ * turns the phasors into the part's impedance. The caller owns the generator output's safety:
+ * this class switches it on and off, and the caller switches it off again on every exit path.
+ */
+public final class SweepRunner {
+    private final Generator generator;
+    private final Digitizer digitizer;
+    private final Sleeper sleeper;
+
+    public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper) {
+        this.generator = generator;
+        this.digitizer = digitizer;
+        this.sleeper = sleeper;
+    }
+
+    public List<PointResult> run(Plan plan, SweepListener listener) {
+        SineSweep sweep = plan.sweep();
+        generator.prepare();
+        digitizer.prepare();
+        generator.setWaveform(Waveform.SINE);
+        generator.setFrequency(sweep.frequenciesHz().get(0));
+        generator.setAmplitude(sweep.amplitudeVolt());
+        generator.setOffset(sweep.offsetVolt());
+        for (int ch = 1; ch <= 2; ch++) {
+            digitizer.setCoupling(ch, Coupling.DC);
+            digitizer.setOffset(ch, 0.0);
+        }
+        // the sense-resistor voltage is the current: trigger on its rising zero crossing; with a DC
+        // offset the crossing level is unknown, so let the digitizer run free (the fit needs no trigger)
+        if (sweep.offsetVolt() == 0) {
+            digitizer.setTrigger(TriggerSource.CHANNEL1, 0.0, true);
+        } else {
+            digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
+        }
+        // no node of this passive circuit exceeds the source EMF: start both channels above it
+        double start = 2.2 * (sweep.amplitudeVolt() + Math.abs(sweep.offsetVolt()));
+        AutoRanger ranger = new AutoRanger(digitizer, start, start);
+        List<PointResult> points = new ArrayList<>();
+        generator.outputOn();
+        try {
+            int count = sweep.frequenciesHz().size();
+            for (int i = 0; i < count; i++) {
+                double f = sweep.frequenciesHz().get(i);
+                PointResult point = measurePoint(plan, f, ranger);
+                points.add(point);
+                listener.pointMeasured(i, count, point);
+            }
+        } finally {
+            generator.outputOff();
+        }
+        return points;
+    }
+
+    private PointResult measurePoint(Plan plan, double f, AutoRanger ranger) {
+        SineSweep sweep = plan.sweep();
+        generator.setFrequency(f);
+        double interval = 1.0 / (f * sweep.samplesPerCycle());
+        int points = (int) Math.ceil(sweep.cycles() * sweep.samplesPerCycle());
+        Timing timing = digitizer.setTiming(interval, points);
+        double cyclesCaptured = timing.points() * timing.sampleIntervalSecond() * f;
+        if (1.0 / (f * timing.sampleIntervalSecond()) < sweep.samplesPerCycle() * (1 - 1e-9)
+                || cyclesCaptured < sweep.cycles() * (1 - 1e-9)) {
+            Timing again = digitizer.setTiming(timing.sampleIntervalSecond(),
+                    (int) Math.ceil(sweep.cycles() / (f * timing.sampleIntervalSecond())));
+            if (1.0 / (f * again.sampleIntervalSecond()) < sweep.samplesPerCycle() * 0.999) {
+                throw new MeasurementException(String.format(java.util.Locale.ROOT,
+                        "at %.6g Hz the digitizer's fastest interval %.3g s gives %.1f samples per cycle; the plan asks %d",
+                        f, again.sampleIntervalSecond(), 1.0 / (f * again.sampleIntervalSecond()), sweep.samplesPerCycle()));
+            }
+            timing = again;
+        }
+        sleeper.sleep(sweep.settleSecond());
+        AutoRanger.Capture capture = ranger.acquire();
+        SineFitResult sense = SineFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f);
+        SineFitResult part = SineFit.fit(capture.part().volts(), capture.part().intervalSecond(), f);
+        if (sense.amplitude() <= 3 * sense.residualRms() * Math.sqrt(2.0 / sense.samples())) {
+            throw new MeasurementException(String.format(java.util.Locale.ROOT,
+                    "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
+        }
+        ImpedancePoint z = PhasorImpedance.of(f, sense, part, plan.senseResistanceOhm());
+        return new PointResult(z, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
+                timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions());
+    }
+}

@@ -1,0 +1,9 @@
+package org.lrbench.plan;
+
+import java.util.List;
+import org.lrbench.judge.Limit;
+
+/** A validated measurement plan for one part number. Immutable; made only by {@link PlanLoader}. */
+public record Plan(String source, String partNumber, String description, double senseResistanceOhm,
+                   SineSweep sweep, List<Limit> limits) {
+}

@@ -1,0 +1,254 @@
+package org.lrbench.plan;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Locale;
+import java.util.Set;
+import org.lrbench.judge.Characteristic;
+import org.lrbench.judge.Limit;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Quantity;
+import org.lrbench.units.Units;
+import org.lrbench.yaml.Problems;
+import org.lrbench.yaml.ProblemsException;
+import org.lrbench.yaml.YamlFile;
+import org.lrbench.yaml.YamlMap;
+
+/**
+ * Reads and validates a plan file. All problems of the file are collected and thrown together,
+ * each with its line, column and key. The bench's amplitude ceiling is checked here, before any
+ * instrument is touched.
+ */
+public final class PlanLoader {
+    static final int MIN_SAMPLES_PER_CYCLE = 100;
+    static final int MAX_SWEEP_POINTS = 1000;
+
+    private PlanLoader() {
+    }
+
+    /**
+     * @param maxAmplitudeVolt the bench's ceiling on the generator's peak open-circuit voltage
+     *                         (amplitude plus |offset|); no plan may exceed it
+     */
+    public static Plan load(Path file, double maxAmplitudeVolt) throws ProblemsException {
+        Problems problems = new Problems(file.toString());
+        YamlMap root = YamlFile.read(file, problems, "plan_format", "part_number", "description", "fixture",
+                "sine_sweep", "limits");
+        return read(root, file.toString(), maxAmplitudeVolt);
+    }
+
+    /** Reads plan text (tests and tools); {@code name} is used in problems. */
+    public static Plan parse(String text, String name, double maxAmplitudeVolt) throws ProblemsException {
+        Problems problems = new Problems(name);
+        YamlMap root = YamlFile.parse(text, problems, "plan_format", "part_number", "description", "fixture",
+                "sine_sweep", "limits");
+        return read(root, name, maxAmplitudeVolt);
+    }
+
+    private static Plan read(YamlMap root, String source, double maxAmplitudeVolt) throws ProblemsException {
+        root.integer("plan_format", true, 1, 1);
+        String partNumber = root.text("part_number", true);
+        String description = root.text("description", false);
+        Double sense = null;
+        YamlMap fixture = root.map("fixture", true, "sense_resistor");
+        if (fixture != null) {
+            sense = fixture.quantity("sense_resistor", Dimension.RESISTANCE, true);
+            if (sense != null && !(sense > 0)) {
+                fixture.problem("sense_resistor", "must be greater than 0 ohm");
+            }
+        }
+        SineSweep sweep = readSweep(root, maxAmplitudeVolt);
+        List<Limit> limits = readLimits(root, sweep);
+        root.problems().throwIfAny();
+        return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, List.copyOf(limits));
+    }
+
+    private static SineSweep readSweep(YamlMap root, double maxAmplitudeVolt) {
+        YamlMap s = root.map("sine_sweep", true, "amplitude", "offset", "frequencies", "log_sweep", "cycles",
+                "samples_per_cycle", "settle");
+        if (s == null) {
+            return null;
+        }
+        Double amplitude = s.quantity("amplitude", Dimension.VOLTAGE, true);
+        Double offset = s.quantity("offset", Dimension.VOLTAGE, false);
+        double off = offset == null ? 0.0 : offset;
+        if (amplitude != null) {
+            if (!(amplitude > 0)) {
+                s.problem("amplitude", "must be greater than 0 V");
+            } else if (amplitude + Math.abs(off) > maxAmplitudeVolt) {
+                s.problem("amplitude", Units.format(amplitude, Dimension.VOLTAGE) + " peak"
+                        + (off != 0 ? " plus " + Units.format(Math.abs(off), Dimension.VOLTAGE) + " offset" : "")
+                        + " exceeds the bench's maximum generator amplitude of "
+                        + Units.format(maxAmplitudeVolt, Dimension.VOLTAGE) + " (bench max_amplitude)");
+            }
+        }
+        List<Double> frequencies = readFrequencies(s);
+        Integer cycles = s.integer("cycles", true, 1, 10_000);
+        Integer spc = s.integer("samples_per_cycle", false, MIN_SAMPLES_PER_CYCLE, 100_000);
+        Double settle = s.quantity("settle", Dimension.TIME, true);
+        if (settle != null && settle < 0) {
+            s.problem("settle", "must not be negative");
+        }
+        if (amplitude == null || frequencies == null || cycles == null || settle == null) {
+            return null;
+        }
+        return new SineSweep(amplitude, off, frequencies, cycles, spc == null ? MIN_SAMPLES_PER_CYCLE : spc, settle);
+    }
+
+    private static List<Double> readFrequencies(YamlMap s) {
+        boolean list = s.has("frequencies");
+        boolean log = s.has("log_sweep");
+        if (list == log) {
+            s.problem(list ? "log_sweep" : "frequencies", list
+                    ? "give either frequencies or log_sweep, not both"
+                    : "missing: give frequencies (a list) or log_sweep (start, stop, points)");
+            return null;
+        }
+        List<Double> out = new ArrayList<>();
+        boolean ok = true;
+        if (list) {
+            for (YamlMap.Item item : s.list("frequencies", true)) {
+                Double f = s.asQuantity(item, Dimension.FREQUENCY);
+                if (f == null) {
+                    ok = false;
+                } else if (!(f > 0)) {
+                    s.problems().add(item.node(), item.path(), "frequency must be greater than 0 Hz, got "
+                            + Units.format(f, Dimension.FREQUENCY));
+                    ok = false;
+                } else {
+                    out.add(f);
+                }
+            }
+            if (out.size() > MAX_SWEEP_POINTS) {
+                s.problem("frequencies", "at most " + MAX_SWEEP_POINTS + " frequencies");
+                ok = false;
+            }
+            return ok && !out.isEmpty() ? out : null;
+        }
+        YamlMap l = s.map("log_sweep", true, "start", "stop", "points");
+        if (l == null) {
+            return null;
+        }
+        Double start = l.quantity("start", Dimension.FREQUENCY, true);
+        Double stop = l.quantity("stop", Dimension.FREQUENCY, true);
+        Integer points = l.integer("points", true, 2, MAX_SWEEP_POINTS);
+        if (start != null && !(start > 0)) {
+            l.problem("start", "frequency must be greater than 0 Hz");
+            return null;
+        }
+        if (start != null && stop != null && !(stop > start)) {
+            l.problem("stop", "must be above start (" + Units.format(start, Dimension.FREQUENCY) + ")");
+            return null;
+        }
+        if (start == null || stop == null || points == null) {
+            return null;
+        }
+        double ratio = Math.log(stop / start);
+        for (int i = 0; i < points; i++) {
+            out.add(i == points - 1 ? stop : start * Math.exp(ratio * i / (points - 1)));
+        }
+        return out;
+    }
+
+    private static List<Limit> readLimits(YamlMap root, SineSweep sweep) {
+        List<Limit> limits = new ArrayList<>();
+        Set<String> names = new HashSet<>();
+        for (YamlMap.Item item : root.list("limits", true)) {
+            YamlMap m = root.asMap(item, "name", "characteristic", "at", "nominal", "tolerance", "min", "max");
+            if (m == null) {
+                continue;
+            }
+            Limit limit = readLimit(m, sweep);
+            if (limit != null) {
+                if (!names.add(limit.name())) {
+                    m.problem("name", "another limit is already named '" + limit.name() + "'");
+                } else {
+                    limits.add(limit);
+                }
+            }
+        }
+        return limits;
+    }
+
+    private static Limit readLimit(YamlMap m, SineSweep sweep) {
+        Characteristic c = m.choice("characteristic", true, Characteristic.byKey());
+        String name = m.text("name", false);
+        Double at = m.quantity("at", Dimension.FREQUENCY, false);
+        if (c == null) {
+            return null;
+        }
+        if (c.needsFrequency() && at == null && !m.has("at")) {
+            m.problem("at", c.key() + " depends on frequency: give the frequency it is specified at");
+        }
+        if (at != null) {
+            if (!(at > 0)) {
+                m.problem("at", "frequency must be greater than 0 Hz");
+                at = null;
+            } else if (sweep != null && (at < sweep.lowestHz() * (1 - 1e-9) || at > sweep.highestHz() * (1 + 1e-9))) {
+                m.problem("at", Units.format(at, Dimension.FREQUENCY) + " lies outside the swept range "
+                        + Units.format(sweep.lowestHz(), Dimension.FREQUENCY) + " .. "
+                        + Units.format(sweep.highestHz(), Dimension.FREQUENCY));
+            }
+        }
+        boolean nominalForm = m.has("nominal") || m.has("tolerance");
+        boolean boundForm = m.has("min") || m.has("max");
+        if (nominalForm == boundForm) {
+            m.problem(nominalForm ? "min" : "nominal", nominalForm
+                    ? "give either nominal with tolerance, or min and/or max, not both"
+                    : "missing: give nominal with tolerance, or min and/or max");
+            return null;
+        }
+        double lower;
+        double upper;
+        String spec;
+        Dimension d = c.dimension();
+        if (nominalForm) {
+            Double nominal = m.quantity("nominal", d, true);
+            Quantity tol = m.anyQuantity("tolerance", true);
+            if (nominal == null || tol == null) {
+                return null;
+            }
+            double halfWidth;
+            if (tol.relative()) {
+                halfWidth = Math.abs(nominal) * tol.value();
+                spec = Units.format(nominal, d) + " +/- " + stripZeros(tol.value() * 100) + " %";
+            } else if (tol.dimension() == d) {
+                halfWidth = tol.value();
+                spec = Units.format(nominal, d) + " +/- " + Units.format(tol.value(), d);
+            } else {
+                m.problem("tolerance", "'" + tol + "' is " + tol.dimension().describe() + "; expected a percentage or "
+                        + d.describe());
+                return null;
+            }
+            if (!(halfWidth > 0)) {
+                m.problem("tolerance", "must be greater than 0");
+                return null;
+            }
+            lower = nominal - halfWidth;
+            upper = nominal + halfWidth;
+        } else {
+            Double min = m.quantity("min", d, false);
+            Double max = m.quantity("max", d, false);
+            if ((m.has("min") && min == null) || (m.has("max") && max == null)) {
+                return null;
+            }
+            if (min != null && max != null && !(max > min)) {
+                m.problem("max", "must be above min (" + Units.format(min, d) + ")");
+                return null;
+            }
+            lower = min == null ? Double.NEGATIVE_INFINITY : min;
+            upper = max == null ? Double.POSITIVE_INFINITY : max;
+            spec = (min != null ? "min " + Units.format(min, d) : "") + (min != null && max != null ? ", " : "")
+                    + (max != null ? "max " + Units.format(max, d) : "");
+        }
+        String limitName = name != null ? name.trim() : c.key().replace('_', ' ');
+        return new Limit(limitName, c, at, lower, upper, spec);
+    }
+
+    private static String stripZeros(double v) {
+        String s = String.format(Locale.ROOT, "%.6f", v);
+        return s.replaceAll("0+$", "").replaceAll("\\.$", "");
+    }
+}

@@ -1,0 +1,20 @@
+package org.lrbench.results;
+
+import java.util.List;
+
+/** The parts of one lot measured in one run, counted by verdict. */
+public record LotSummary(String schema, String lot, String partNumber, String planPath, String finishedAt,
+                         int measured, int passed, int failed, int errors, List<String> failedSerials,
+                         List<String> errorSerials) {
+
+    public static final String SCHEMA = "lrbench.lot-summary.v1";
+
+    public static LotSummary of(String lot, String partNumber, String planPath, String finishedAt,
+                                List<PartResult> parts) {
+        List<String> failed = parts.stream().filter(p -> p.verdict().equals("fail")).map(PartResult::serial).toList();
+        List<String> errors = parts.stream().filter(p -> p.verdict().equals("error")).map(PartResult::serial).toList();
+        int passed = parts.size() - failed.size() - errors.size();
+        return new LotSummary(SCHEMA, lot, partNumber, planPath, finishedAt, parts.size(), passed, failed.size(),
+                errors.size(), failed, errors);
+    }
+}

@@ -1,0 +1,2 @@
+/** Result records and writing them safely under runs/. */
+package org.lrbench.results;

@@ -1,0 +1,84 @@
+package org.lrbench.run;
+
+import java.io.IOException;
+import java.util.List;
+import java.util.Map;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.InstrumentLink;
+import org.lrbench.driver.DriverFile;
+import org.lrbench.driver.DriverKind;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.driver.ScpiDigitizer;
+import org.lrbench.driver.ScpiGenerator;
+import org.lrbench.instrument.Digitizer;
+import org.lrbench.instrument.Generator;
+import org.lrbench.scpi.ScpiSession;
+import org.lrbench.sim.SimBench;
+import org.lrbench.transport.Address;
+import org.lrbench.transport.Transport;
+import org.lrbench.transport.Transports;
+import org.lrbench.transport.inproc.InProcessPeer;
+import org.lrbench.yaml.ProblemsException;
+
+/** A bench's generator and digitizer, opened through their drivers and links; closes both links. */
+public final class BenchInstruments implements AutoCloseable {
+    private final Generator generator;
+    private final Digitizer digitizer;
+    private final List<ScpiSession> sessions;
+
+    private BenchInstruments(Generator generator, Digitizer digitizer, List<ScpiSession> sessions) {
+        this.generator = generator;
+        this.digitizer = digitizer;
+        this.sessions = sessions;
+    }
+
+    /**
+     * Opens the bench's instruments. With a simulated bench, both links go to its in-process
+     * instruments whatever the bench file's addresses say.
+     */
+    public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, SimBench simulated)
+            throws ProblemsException {
+        DriverFile sourceDriver = drivers.load(bench.generator().driver(), DriverKind.SOURCE);
+        DriverFile digitizerDriver = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER);
+        Map<String, InProcessPeer> peers = simulated == null ? Map.of()
+                : Map.of("generator", simulated.generator(), "digitizer", simulated.digitizer());
+        ScpiSession g = session("generator", bench.generator(), sourceDriver, peers, simulated != null);
+        ScpiSession d;
+        try {
+            d = session("digitizer", bench.digitizer(), digitizerDriver, peers, simulated != null);
+        } catch (RuntimeException e) {
+            closeQuietly(g);
+            throw e;
+        }
+        return new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
+                List.of(g, d));
+    }
+
+    private static ScpiSession session(String role, InstrumentLink link, DriverFile driver,
+                                       Map<String, InProcessPeer> peers, boolean simulated) {
+        Address address = simulated ? Address.parse("sim://" + role) : link.address();
+        Transport t = Transports.open(address, peers);
+        return new ScpiSession(role + " (" + driver.name() + " at " + address + ")", t, driver.timeout());
+    }
+
+    public Generator generator() {
+        return generator;
+    }
+
+    public Digitizer digitizer() {
+        return digitizer;
+    }
+
+    @Override
+    public void close() {
+        sessions.forEach(BenchInstruments::closeQuietly);
+    }
+
+    private static void closeQuietly(ScpiSession s) {
+        try {
+            s.close();
+        } catch (IOException ignored) {
+            // closing a link that already failed; its fault was reported where it happened
+        }
+    }
+}

@@ -1,0 +1,102 @@
+package org.lrbench.scpi;
+
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.util.Locale;
+
+/**
+ * How a digitizer encodes trace samples in a block: signed integers of 8 or 16 bits (16 in either
+ * byte order), IEEE 754 floats of 32 or 64 bits, or ASCII numbers separated by commas.
+ */
+public enum TraceEncoding {
+    INT8("int8", 1, true),
+    INT16_BIG("int16-big", 2, true),
+    INT16_LITTLE("int16-little", 2, true),
+    REAL32_BIG("real32-big", 4, false),
+    REAL32_LITTLE("real32-little", 4, false),
+    REAL64_BIG("real64-big", 8, false),
+    ASCII("ascii", 0, false);
+
+    private final String key;
+    private final int bytesPerSample;
+    private final boolean integer;
+
+    TraceEncoding(String key, int bytesPerSample, boolean integer) {
+        this.key = key;
+        this.bytesPerSample = bytesPerSample;
+        this.integer = integer;
+    }
+
+    public String key() {
+        return key;
+    }
+
+    public boolean isInteger() {
+        return integer;
+    }
+
+    public boolean isBinary() {
+        return bytesPerSample > 0;
+    }
+
+    /** Smallest and largest integer code; only for integer encodings. */
+    public int minCode() {
+        return bytesPerSample == 1 ? Byte.MIN_VALUE : Short.MIN_VALUE;
+    }
+
+    public int maxCode() {
+        return bytesPerSample == 1 ? Byte.MAX_VALUE : Short.MAX_VALUE;
+    }
+
+    public static TraceEncoding byKey(String key) {
+        for (TraceEncoding e : values()) {
+            if (e.key.equals(key.toLowerCase(Locale.ROOT))) {
+                return e;
+            }
+        }
+        return null;
+    }
+
+    /** Decodes a binary block; its length must be a whole number of samples. */
+    public double[] decode(byte[] block) {
+        if (!isBinary()) {
+            throw new IllegalStateException(key + " traces are text, not blocks");
+        }
+        if (block.length % bytesPerSample != 0) {
+            throw new BlockFormatException("block of " + block.length + " bytes is not a whole number of "
+                    + bytesPerSample + "-byte " + key + " samples");
+        }
+        int n = block.length / bytesPerSample;
+        double[] out = new double[n];
+        ByteBuffer bb = ByteBuffer.wrap(block);
+        bb.order(this == INT16_LITTLE || this == REAL32_LITTLE ? ByteOrder.LITTLE_ENDIAN : ByteOrder.BIG_ENDIAN);
+        for (int i = 0; i < n; i++) {
+            out[i] = switch (this) {
+                case INT8 -> bb.get();
+                case INT16_BIG, INT16_LITTLE -> bb.getShort();
+                case REAL32_BIG, REAL32_LITTLE -> bb.getFloat();
+                case REAL64_BIG -> bb.getDouble();
+                case ASCII -> throw new IllegalStateException();
+            };
+        }
+        return out;
+    }
+
+    /** Decodes an ASCII trace reply: numbers separated by commas. */
+    public static double[] decodeAscii(String reply) {
+        String t = reply.trim();
+        if (t.isEmpty()) {
+            return new double[0];
+        }
+        String[] parts = t.split(",");
+        double[] out = new double[parts.length];
+        for (int i = 0; i < parts.length; i++) {
+            try {
+                out[i] = ScpiNumbers.parse(parts[i]);
+            } catch (NumberFormatException e) {
+                throw new BlockFormatException("ASCII trace value " + (i + 1) + " is '" + parts[i].trim() + "'");
+            }
+        }
+        return out;
+    }
+}

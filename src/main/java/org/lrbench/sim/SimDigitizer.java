@@ -1,0 +1,318 @@
+package org.lrbench.sim;
+
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.charset.StandardCharsets;
+import java.util.List;
+import java.util.Locale;
+import java.util.Random;
+import org.apache.commons.math3.complex.Complex;
+import org.lrbench.sim.scpi.ScpiDevice;
+import org.lrbench.sim.scpi.ScpiFault;
+
+/**
+ * A simulated two-channel digitizer behind SCPI. On {@code INITiate} it samples the exact periodic
+ * steady state of its inputs at the set interval from the trigger point, adds white Gaussian noise,
+ * quantizes into the channel's range with the set resolution and clips at the range limits; the
+ * record is then fetched as an IEEE 488.2 definite-length block in the set {@code FORMat}.
+ */
+public final class SimDigitizer extends ScpiDevice {
+    public static final int CHANNELS = 2;
+    public static final double MIN_RANGE = 10e-3;
+    public static final double MAX_RANGE = 100.0;
+    public static final double CLOCK_INTERVAL = 1e-9;
+    public static final int MAX_POINTS = 16 * 1024 * 1024;
+
+    private enum Format { ASCII, INT8, INT16, REAL32, REAL64 }
+
+    private final AnalogInputs inputs;
+    private final SimSettings settings;
+    private final Random random;
+    private final double[] range = new double[CHANNELS + 1];
+    private final double[] offset = new double[CHANNELS + 1];
+    private final boolean[] acCoupled = new boolean[CHANNELS + 1];
+    private double interval;
+    private int points;
+    private String triggerSource;
+    private double triggerLevel;
+    private boolean triggerRising;
+    private Format format;
+    private boolean littleEndian;
+    private double[][] record;
+
+    public SimDigitizer(AnalogInputs inputs, SimSettings settings) {
+        super("LRBENCH,SIM-DIGITIZER-2,SIM0002,0.1");
+        this.inputs = inputs;
+        this.settings = settings;
+        this.random = new Random(settings.seed());
+        reset();
+        register("SENSe#:VOLTage[:DC]:RANGe[:UPPer]", false, c -> {
+            c.expect(1, 1);
+            range[c.suffixUpTo(CHANNELS)] = c.number(0, MIN_RANGE, MAX_RANGE, 10.0);
+            record = null;
+            return null;
+        });
+        register("SENSe#:VOLTage[:DC]:RANGe[:UPPer]", true, c -> {
+            c.expect(0, 1);
+            int ch = c.suffixUpTo(CHANNELS);
+            return nr3(c.count() == 0 ? range[ch] : c.number(0, MIN_RANGE, MAX_RANGE, 10.0));
+        });
+        register("SENSe#:VOLTage[:DC]:OFFSet", false, c -> {
+            c.expect(1, 1);
+            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
+            record = null;
+            return null;
+        });
+        register("SENSe#:VOLTage[:DC]:OFFSet", true, c -> nr3(offset[c.suffixUpTo(CHANNELS)]));
+        register("INPut#:COUPling", false, c -> {
+            c.expect(1, 1);
+            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
+            record = null;
+            return null;
+        });
+        register("INPut#:COUPling", true, c -> acCoupled[c.suffixUpTo(CHANNELS)] ? "AC" : "DC");
+        register("[SENSe#]:SWEep:TINTerval", false, c -> {
+            c.expect(1, 1);
+            double requested = c.number(0, CLOCK_INTERVAL, 1.0, 1e-6);
+            // the clock divides down by whole numbers: the interval is rounded down to a multiple of it
+            interval = Math.max(1, Math.floor(requested / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
+            record = null;
+            return null;
+        });
+        register("[SENSe#]:SWEep:TINTerval", true, c -> nr3(interval));
+        register("[SENSe#]:SWEep:POINts", false, c -> {
+            c.expect(1, 1);
+            points = (int) Math.round(c.number(0, 16, MAX_POINTS, 1000));
+            record = null;
+            return null;
+        });
+        register("[SENSe#]:SWEep:POINts", true, c -> Integer.toString(points));
+        register("TRIGger[:SEQuence]:SOURce", false, c -> {
+            c.expect(1, 1);
+            triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
+            return null;
+        });
+        register("TRIGger[:SEQuence]:SOURce", true, c -> triggerSource);
+        register("TRIGger[:SEQuence]:LEVel", false, c -> {
+            c.expect(1, 1);
+            triggerLevel = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
+            return null;
+        });
+        register("TRIGger[:SEQuence]:LEVel", true, c -> nr3(triggerLevel));
+        register("TRIGger[:SEQuence]:SLOPe", false, c -> {
+            c.expect(1, 1);
+            triggerRising = c.word(0, "POSitive", "NEGative").equals("POS");
+            return null;
+        });
+        register("TRIGger[:SEQuence]:SLOPe", true, c -> triggerRising ? "POS" : "NEG");
+        register("FORMat[:DATA]", false, c -> {
+            c.expect(1, 2);
+            String type = c.word(0, "ASCii", "INTeger", "REAL");
+            int length = c.count() > 1 ? (int) c.number(1, 8, 64, 8) : (type.equals("REAL") ? 32 : 8);
+            format = switch (type + length) {
+                case "ASC8" -> Format.ASCII;
+                case "INT8" -> Format.INT8;
+                case "INT16" -> Format.INT16;
+                case "REAL32" -> Format.REAL32;
+                case "REAL64" -> Format.REAL64;
+                default -> throw ScpiFault.illegalValue("FORMat " + type + "," + length);
+            };
+            return null;
+        });
+        register("FORMat:BORDer", false, c -> {
+            c.expect(1, 1);
+            littleEndian = c.word(0, "NORMal", "SWAPped").equals("SWAP");
+            return null;
+        });
+        register("INITiate[:IMMediate]", false, c -> {
+            c.expect(0, 0);
+            acquire();
+            return null;
+        });
+        register("TRACe:SCALe", true, c -> {
+            int ch = channelParameter(c);
+            double yIncrement = switch (format) {
+                case INT8 -> range[ch] / 256;
+                case INT16 -> range[ch] / 65536;
+                default -> 1.0;
+            };
+            double yOrigin = format == Format.INT8 || format == Format.INT16 ? offset[ch] : 0.0;
+            return nr3(interval) + "," + nr3(0.0) + "," + nr3(yIncrement) + "," + nr3(yOrigin);
+        });
+        register("TRACe[:DATA]", true, c -> encode(channelParameter(c)));
+    }
+
+    @Override
+    protected void reset() {
+        for (int ch = 1; ch <= CHANNELS; ch++) {
+            range[ch] = 10.0;
+            offset[ch] = 0;
+            acCoupled[ch] = false;
+        }
+        interval = 1e-6;
+        points = 1000;
+        triggerSource = "IMM";
+        triggerLevel = 0;
+        triggerRising = true;
+        format = Format.INT8;
+        littleEndian = false;
+        record = null;
+    }
+
+    private int channelParameter(org.lrbench.sim.scpi.Call c) throws ScpiFault {
+        c.expect(1, 1);
+        int ch = c.word(0, "CH1", "CH2").equals("CH1") ? 1 : 2;
+        if (record == null) {
+            throw ScpiFault.stale("no acquisition since the last setting change");
+        }
+        return ch;
+    }
+
+    private void acquire() {
+        double f = inputs.fundamentalHz();
+        double bandLimit = 0.5 / interval;
+        @SuppressWarnings("unchecked")
+        List<Harmonic>[] lines = new List[CHANNELS + 1];
+        for (int ch = 1; ch <= CHANNELS; ch++) {
+            lines[ch] = inputs.channel(ch, bandLimit);
+            if (acCoupled[ch]) {
+                lines[ch] = lines[ch].stream().filter(h -> h.k() != 0).toList();
+            }
+        }
+        double t0 = triggerTime(lines, f);
+        record = new double[CHANNELS + 1][];
+        for (int ch = 1; ch <= CHANNELS; ch++) {
+            record[ch] = sample(lines[ch], f, t0, ch);
+        }
+    }
+
+    /** The trigger instant: the record starts there (no pre-trigger). */
+    private double triggerTime(List<Harmonic>[] lines, double f) {
+        double period = 1.0 / f;
+        double start = random.nextDouble() * period;
+        if (triggerSource.equals("IMM")) {
+            return start;
+        }
+        if (triggerSource.equals("EXT")) {
+            return Math.ceil(start / period) * period;
+        }
+        List<Harmonic> signal = lines[triggerSource.equals("CH1") ? 1 : 2];
+        int maxK = signal.stream().mapToInt(Harmonic::k).max().orElse(1);
+        int grid = 64 * Math.max(1, maxK);
+        double step = period / grid;
+        double previous = value(signal, f, start) - triggerLevel;
+        for (int i = 1; i <= grid; i++) {
+            double t = start + i * step;
+            double current = value(signal, f, t) - triggerLevel;
+            boolean crossed = triggerRising ? previous < 0 && current >= 0 : previous > 0 && current <= 0;
+            if (crossed) {
+                return bisect(signal, f, t - step, t);
+            }
+            previous = current;
+        }
+        return start; // no edge at that level: the trigger times out and fires on its own (auto)
+    }
+
+    private double bisect(List<Harmonic> signal, double f, double lo, double hi) {
+        double a = lo;
+        double b = hi;
+        double fa = value(signal, f, a) - triggerLevel;
+        for (int i = 0; i < 80; i++) {
+            double m = 0.5 * (a + b);
+            double fm = value(signal, f, m) - triggerLevel;
+            if ((fa < 0) == (fm < 0)) {
+                a = m;
+                fa = fm;
+            } else {
+                b = m;
+            }
+        }
+        return 0.5 * (a + b);
+    }
+
+    private static double value(List<Harmonic> lines, double f, double t) {
+        double v = 0;
+        for (Harmonic h : lines) {
+            double theta = 2 * Math.PI * h.k() * f * t;
+            Complex a = h.amplitude();
+            v += a.getReal() * Math.cos(theta) - a.getImaginary() * Math.sin(theta);
+        }
+        return v;
+    }
+
+    private double[] sample(List<Harmonic> lines, double f, double t0, int ch) {
+        double[] out = new double[points];
+        double lo = offset[ch] - range[ch] / 2;
+        double hi = offset[ch] + range[ch] / 2;
+        int bits = settings.resolutionBits();
+        double lsb = bits > 0 ? range[ch] / Math.pow(2, bits) : 0;
+        double minCode = bits > 0 ? -Math.pow(2, bits - 1) : 0;
+        double maxCode = bits > 0 ? Math.pow(2, bits - 1) - 1 : 0;
+        double noise = settings.noiseVoltRms();
+        for (int n = 0; n < points; n++) {
+            double v = value(lines, f, t0 + n * interval);
+            if (noise > 0) {
+                v += noise * random.nextGaussian();
+            }
+            if (bits > 0) {
+                double code = Math.rint((v - offset[ch]) / lsb);
+                v = offset[ch] + Math.max(minCode, Math.min(maxCode, code)) * lsb;
+            } else {
+                v = Math.max(lo, Math.min(hi, v));
+            }
+            out[n] = v;
+        }
+        return out;
+    }
+
+    private Object encode(int ch) {
+        double[] v = record[ch];
+        if (format == Format.ASCII) {
+            StringBuilder sb = new StringBuilder(v.length * 16);
+            for (int i = 0; i < v.length; i++) {
+                if (i > 0) {
+                    sb.append(',');
+                }
+                sb.append(nr3(v[i]));
+            }
+            return sb.toString();
+        }
+        int size = switch (format) {
+            case INT8 -> 1;
+            case INT16 -> 2;
+            case REAL32 -> 4;
+            default -> 8;
+        };
+        ByteBuffer data = ByteBuffer.allocate(v.length * size)
+                .order(littleEndian ? ByteOrder.LITTLE_ENDIAN : ByteOrder.BIG_ENDIAN);
+        double half = range[ch] / 2;
+        for (double x : v) {
+            double rel = x - offset[ch];
+            switch (format) {
+                case INT8 -> data.put((byte) clampCode(rel / (range[ch] / 256), 127));
+                case INT16 -> data.putShort((short) clampCode(rel / (range[ch] / 65536), 32767));
+                case REAL32 -> data.putFloat((float) x);
+                default -> data.putDouble(Math.max(offset[ch] - half, Math.min(offset[ch] + half, x)));
+            }
+        }
+        return block(data.array());
+    }
+
+    private static long clampCode(double code, int max) {
+        return Math.max(-max - 1, Math.min(max, Math.round(code)));
+    }
+
+    /** An IEEE 488.2 definite-length arbitrary block: #, digit count, length, bytes. */
+    static byte[] block(byte[] data) {
+        String length = Integer.toString(data.length);
+        byte[] header = ("#" + length.length() + length).getBytes(StandardCharsets.US_ASCII);
+        byte[] out = new byte[header.length + data.length];
+        System.arraycopy(header, 0, out, 0, header.length);
+        System.arraycopy(data, 0, out, header.length, data.length);
+        return out;
+    }
+
+    private static String nr3(double v) {
+        return String.format(Locale.ROOT, "%.9E", v);
+    }
+}

@@ -1,0 +1,126 @@
+package org.lrbench.sim;
+
+import java.util.Locale;
+import org.lrbench.instrument.Waveform;
+import org.lrbench.sim.scpi.ScpiDevice;
+import org.lrbench.sim.scpi.ScpiFault;
+
+/**
+ * A simulated one-channel function generator behind SCPI. Like most real ones, its amplitude
+ * (peak-to-peak) and offset settings are referred to the load it is told it drives,
+ * {@code OUTPut:LOAD}, 50 ohm after *RST: the open-circuit EMF is the setting times
+ * (Rload + Rout) / Rload, twice the setting into a 50 ohm load, equal to it for INFinity.
+ */
+public final class SimGenerator extends ScpiDevice {
+    public static final double MAX_FREQUENCY = 20e6;
+    public static final double MAX_EMF_PEAK = 10.0;
+
+    private final double outputOhm;
+    private Waveform waveform;
+    private double frequency;
+    private double amplitudeVpp;
+    private double offset;
+    private double loadOhm;
+    private boolean outputOn;
+
+    public SimGenerator(double outputOhm) {
+        super("LRBENCH,SIM-SOURCE-1,SIM0001,0.1");
+        this.outputOhm = outputOhm;
+        reset();
+        register("[SOURce#]:FUNCtion[:SHAPe]", false, c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            String w = c.word(0, "SINusoid", "TRIangle", "SQUare");
+            waveform = switch (w) {
+                case "SIN" -> Waveform.SINE;
+                case "TRI" -> Waveform.TRIANGLE;
+                default -> Waveform.SQUARE;
+            };
+            return null;
+        });
+        register("[SOURce#]:FUNCtion[:SHAPe]", true, c -> switch (waveform) {
+            case SINE -> "SIN";
+            case TRIANGLE -> "TRI";
+            case SQUARE -> "SQU";
+        });
+        Handler setFrequency = c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            frequency = c.number(0, 1e-3, MAX_FREQUENCY, 1e3);
+            return null;
+        };
+        register("[SOURce#]:FREQuency[:CW]", false, setFrequency);
+        register("[SOURce#]:FREQuency:FIXed", false, setFrequency);
+        register("[SOURce#]:FREQuency[:CW]", true, c -> nr3(frequency));
+        register("[SOURce#]:FREQuency:FIXed", true, c -> nr3(frequency));
+        register("[SOURce#]:VOLTage[:LEVel][:IMMediate][:AMPLitude]", false, c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            double maxVpp = 2 * (MAX_EMF_PEAK - Math.abs(offset) * emfFactor()) / emfFactor();
+            amplitudeVpp = c.number(0, 1e-3, maxVpp, 0.1);
+            return null;
+        });
+        register("[SOURce#]:VOLTage[:LEVel][:IMMediate][:AMPLitude]", true, c -> nr3(amplitudeVpp));
+        register("[SOURce#]:VOLTage[:LEVel][:IMMediate]:OFFSet", false, c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            double max = (MAX_EMF_PEAK - amplitudeVpp / 2 * emfFactor()) / emfFactor();
+            offset = c.number(0, -max, max, 0);
+            return null;
+        });
+        register("[SOURce#]:VOLTage[:LEVel][:IMMediate]:OFFSet", true, c -> nr3(offset));
+        register("OUTPut#[:STATe]", false, c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            outputOn = c.bool(0);
+            return null;
+        });
+        register("OUTPut#[:STATe]", true, c -> outputOn ? "1" : "0");
+        register("OUTPut#:LOAD", false, c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            String p = c.text(0).toUpperCase(Locale.ROOT);
+            loadOhm = p.equals("INF") || p.equals("INFINITY") ? Double.POSITIVE_INFINITY : c.number(0, 1, 10e3, 50);
+            return null;
+        });
+        register("OUTPut#:LOAD", true, c -> Double.isInfinite(loadOhm) ? "9.9E+37" : nr3(loadOhm));
+    }
+
+    @Override
+    protected void reset() {
+        waveform = Waveform.SINE;
+        frequency = 1e3;
+        amplitudeVpp = 0.1;
+        offset = 0;
+        loadOhm = 50;
+        outputOn = false;
+    }
+
+    private double emfFactor() {
+        return Double.isInfinite(loadOhm) ? 1.0 : (loadOhm + outputOhm) / loadOhm;
+    }
+
+    public synchronized boolean isOutputOn() {
+        return outputOn;
+    }
+
+    public synchronized Waveform waveform() {
+        return waveform;
+    }
+
+    public synchronized double frequency() {
+        return frequency;
+    }
+
+    /** Open-circuit peak EMF; zero while the output is off. */
+    public synchronized double emfPeak() {
+        return outputOn ? amplitudeVpp / 2 * emfFactor() : 0.0;
+    }
+
+    /** Open-circuit DC EMF; zero while the output is off. */
+    public synchronized double emfOffset() {
+        return outputOn ? offset * emfFactor() : 0.0;
+    }
+
+    public double outputOhm() {
+        return outputOhm;
+    }
+
+    static String nr3(double v) {
+        return String.format(Locale.ROOT, "%.9E", v);
+    }
+}

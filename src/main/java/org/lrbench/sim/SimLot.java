@@ -1,0 +1,51 @@
+package org.lrbench.sim;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Set;
+import org.lrbench.yaml.Problems;
+import org.lrbench.yaml.ProblemsException;
+import org.lrbench.yaml.YamlFile;
+import org.lrbench.yaml.YamlMap;
+
+/**
+ * A simulated lot: its lot number, the plan it is inspected with (relative to the lot file), and
+ * the parts with their serials and true values.
+ */
+public record SimLot(String lot, Path plan, List<Part> parts) {
+
+    /** One simulated part of the lot. */
+    public record Part(String serial, PartModel model) {
+    }
+
+    public static SimLot load(Path file) throws ProblemsException {
+        Problems problems = new Problems(file.toString());
+        YamlMap root = YamlFile.read(file, problems, "lot_format", "lot", "description", "plan", "parts");
+        root.integer("lot_format", true, 1, 1);
+        root.text("description", false);
+        String lot = root.text("lot", true);
+        String plan = root.text("plan", true);
+        List<Part> parts = new ArrayList<>();
+        Set<String> serials = new HashSet<>();
+        for (YamlMap.Item item : root.list("parts", true)) {
+            YamlMap m = root.asMap(item, "serial", "description", "inductance", "series_resistance",
+                    "parallel_capacitance");
+            if (m == null) {
+                continue;
+            }
+            String serial = m.text("serial", true);
+            PartModel model = PartFile.read(m);
+            if (serial != null && !serials.add(serial)) {
+                m.problem("serial", "serial '" + serial + "' appears twice in the lot");
+            }
+            if (serial != null && model != null) {
+                parts.add(new Part(serial, model));
+            }
+        }
+        problems.throwIfAny();
+        Path dir = file.toAbsolutePath().getParent();
+        return new SimLot(lot, dir.resolve(plan).normalize(), List.copyOf(parts));
+    }
+}

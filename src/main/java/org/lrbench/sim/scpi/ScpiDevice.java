@@ -1,0 +1,252 @@
+package org.lrbench.sim.scpi;
+
+import java.io.ByteArrayOutputStream;
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayDeque;
+import java.util.ArrayList;
+import java.util.Deque;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import org.lrbench.transport.inproc.InProcessPeer;
+
+/**
+ * The SCPI front end of a simulated instrument: it frames program messages at the newline, splits
+ * them at {@code ;} (a following header without a leading colon continues from the previous one's
+ * path, as SCPI-1999 Volume 1, 6.2 specifies), matches headers against registered
+ * {@link HeaderPattern}s, keeps an error queue and implements the IEEE 488.2 common commands
+ * {@code *IDN? *RST *CLS *OPC? *OPC *WAI *TST? *ESR?}. Subclasses register their own commands and
+ * reset their settings in {@link #reset()}.
+ */
+public abstract class ScpiDevice implements InProcessPeer {
+    /** Error queue depth; on overflow the last entry becomes -350 (SCPI-1999 Vol. 2, 21.8). */
+    public static final int QUEUE_DEPTH = 20;
+    private static final int MAX_MESSAGE = 1 << 20;
+
+    /** Executes one command; returns null, a response String, or response bytes (a block). */
+    @FunctionalInterface
+    public interface Handler {
+        Object handle(Call call) throws ScpiFault;
+    }
+
+    private record Entry(HeaderPattern pattern, boolean query, Handler handler) {
+    }
+
+    private final String identity;
+    private final List<Entry> entries = new ArrayList<>();
+    private final Map<String, Handler> common = new LinkedHashMap<>();
+    private final Deque<String> errors = new ArrayDeque<>();
+    private final ByteArrayOutputStream input = new ByteArrayOutputStream();
+    private byte[] output = new byte[0];
+    private int outputPosition;
+    private int eventStatus;
+
+    protected ScpiDevice(String identity) {
+        this.identity = identity;
+        common.put("*IDN?", c -> this.identity);
+        common.put("*RST", c -> {
+            reset();
+            return null;
+        });
+        common.put("*CLS", c -> {
+            errors.clear();
+            eventStatus = 0;
+            return null;
+        });
+        common.put("*OPC?", c -> "1");
+        common.put("*OPC", c -> {
+            eventStatus |= 1;
+            return null;
+        });
+        common.put("*WAI", c -> null);
+        common.put("*TST?", c -> "0");
+        common.put("*ESR?", c -> {
+            int v = eventStatus;
+            eventStatus = 0;
+            return Integer.toString(v);
+        });
+        register("SYSTem:ERRor[:NEXT]", true, c -> nextError());
+        register("SYSTem:ERRor:COUNt", true, c -> Integer.toString(errors.size()));
+    }
+
+    /** Returns every setting to its *RST value. */
+    protected abstract void reset();
+
+    /** Registers a command ({@code query} false) or a query. */
+    protected final void register(String pattern, boolean query, Handler handler) {
+        entries.add(new Entry(HeaderPattern.parse(pattern), query, handler));
+    }
+
+    /** Adds an error to the queue. */
+    protected final synchronized void pushError(int code, String text) {
+        if (errors.size() >= QUEUE_DEPTH) {
+            errors.pollLast();
+            errors.addLast("-350,\"Queue overflow\"");
+            return;
+        }
+        errors.addLast(code + ",\"" + text.replace("\"", "'") + "\"");
+    }
+
+    private String nextError() {
+        String e = errors.pollFirst();
+        return e == null ? "0,\"No error\"" : e;
+    }
+
+    @Override
+    public synchronized void receive(byte[] bytes) {
+        for (byte b : bytes) {
+            if (b == '\n') {
+                String message = input.toString(StandardCharsets.ISO_8859_1);
+                input.reset();
+                execute(message.endsWith("\r") ? message.substring(0, message.length() - 1) : message);
+            } else if (input.size() < MAX_MESSAGE) {
+                input.write(b);
+            } else {
+                input.reset();
+                pushError(-102, "Syntax error;program message too long");
+            }
+        }
+    }
+
+    @Override
+    public synchronized int transmit(byte[] dst, int offset, int length) {
+        int n = Math.min(length, output.length - outputPosition);
+        System.arraycopy(output, outputPosition, dst, offset, n);
+        outputPosition += n;
+        return n;
+    }
+
+    @Override
+    public synchronized void discardOutput() {
+        output = new byte[0];
+        outputPosition = 0;
+    }
+
+    /** Executes one whole program message. */
+    public synchronized void execute(String message) {
+        if (outputPosition < output.length) {
+            // IEEE 488.2 6.3.2.3: a new message before the response was read interrupts the query
+            pushError(-410, "Query INTERRUPTED");
+        }
+        output = new byte[0];
+        outputPosition = 0;
+        ByteArrayOutputStream response = new ByteArrayOutputStream();
+        List<HeaderPattern.Token> path = List.of();
+        for (String unit : splitUnits(message)) {
+            String trimmed = unit.strip();
+            if (trimmed.isEmpty()) {
+                if (!message.isBlank()) {
+                    pushError(-102, "Syntax error;empty message unit");
+                }
+                continue;
+            }
+            try {
+                Parsed parsed = parse(trimmed, path);
+                if (!parsed.common) {
+                    path = parsed.tokens.subList(0, parsed.tokens.size() - 1);
+                }
+                Object reply = parsed.handler.handle(parsed.call);
+                if (reply != null) {
+                    if (response.size() > 0) {
+                        response.write(';');
+                    }
+                    byte[] bytes = reply instanceof byte[] b ? b
+                            : ((String) reply).getBytes(StandardCharsets.ISO_8859_1);
+                    response.write(bytes, 0, bytes.length);
+                }
+            } catch (ScpiFault fault) {
+                pushError(fault.code(), fault.getMessage());
+            }
+        }
+        if (response.size() > 0) {
+            response.write('\n');
+            output = response.toByteArray();
+        }
+    }
+
+    private record Parsed(Handler handler, Call call, List<HeaderPattern.Token> tokens, boolean common) {
+    }
+
+    private Parsed parse(String unit, List<HeaderPattern.Token> path) throws ScpiFault {
+        int space = 0;
+        while (space < unit.length() && !Character.isWhitespace(unit.charAt(space))) {
+            space++;
+        }
+        String header = unit.substring(0, space);
+        List<String> params = splitParameters(unit.substring(space).strip(), header);
+        if (header.startsWith("*")) {
+            Handler h = common.get(header.toUpperCase(Locale.ROOT));
+            if (h == null) {
+                throw ScpiFault.undefinedHeader(header);
+            }
+            if (!params.isEmpty()) {
+                throw ScpiFault.parameterNotAllowed(header);
+            }
+            return new Parsed(h, new Call(header, 1, params), List.of(), true);
+        }
+        boolean absolute = header.startsWith(":");
+        boolean query = header.endsWith("?");
+        String body = header.substring(absolute ? 1 : 0, header.length() - (query ? 1 : 0));
+        List<HeaderPattern.Token> tokens = new ArrayList<>(absolute ? List.of() : path);
+        for (String word : body.split(":", -1)) {
+            tokens.add(token(word, header));
+        }
+        for (Entry e : entries) {
+            if (e.query == query) {
+                int suffix = e.pattern.match(tokens);
+                if (suffix >= 0) {
+                    return new Parsed(e.handler, new Call(header, suffix, params), tokens, false);
+                }
+            }
+        }
+        throw ScpiFault.undefinedHeader(header);
+    }
+
+    private static HeaderPattern.Token token(String word, String header) throws ScpiFault {
+        int i = 0;
+        while (i < word.length() && Character.isLetter(word.charAt(i))) {
+            i++;
+        }
+        String letters = word.substring(0, i);
+        String digits = word.substring(i);
+        if (letters.isEmpty() || !digits.chars().allMatch(Character::isDigit) || digits.length() > 6) {
+            throw ScpiFault.syntax(header);
+        }
+        return new HeaderPattern.Token(letters.toUpperCase(Locale.ROOT),
+                digits.isEmpty() ? 1 : Integer.parseInt(digits), !digits.isEmpty());
+    }
+
+    private static List<String> splitUnits(String message) {
+        List<String> units = new ArrayList<>();
+        StringBuilder current = new StringBuilder();
+        boolean quoted = false;
+        for (char c : message.toCharArray()) {
+            if (c == '"') {
+                quoted = !quoted;
+            }
+            if (c == ';' && !quoted) {
+                units.add(current.toString());
+                current.setLength(0);
+            } else {
+                current.append(c);
+            }
+        }
+        units.add(current.toString());
+        return units;
+    }
+
+    private static List<String> splitParameters(String text, String header) throws ScpiFault {
+        List<String> params = new ArrayList<>();
+        if (text.isEmpty()) {
+            return params;
+        }
+        for (String p : text.split(",", -1)) {
+            if (p.isBlank()) {
+                throw ScpiFault.syntax(header + " empty parameter");
+            }
+            params.add(p.strip());
+        }
+        return params;
+    }
+}

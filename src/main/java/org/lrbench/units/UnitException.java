@@ -1,0 +1,8 @@
+package org.lrbench.units;
+
+/** Thrown when a text is not a number with a unit of the expected dimension. */
+public class UnitException extends IllegalArgumentException {
+    public UnitException(String message) {
+        super(message);
+    }
+}

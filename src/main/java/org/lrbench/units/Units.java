@@ -1,0 +1,97 @@
+package org.lrbench.units;
+
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+/**
+ * The one parser and formatter of quantities: a decimal number, optional spaces, then an SI unit
+ * symbol with an optional SI prefix ({@code 470 uH}, {@code 1.5kHz}, {@code 100 ohm}, {@code 20 ms}),
+ * or a percent sign ({@code 10 %}). A bare number is dimensionless.
+ */
+public final class Units {
+
+    private static final Pattern NUMBER_THEN_UNIT =
+            Pattern.compile("^([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(\\S*)$");
+
+    /** Unit symbols, longest first so that "Hz" is tried before "H". */
+    private static final List<Map.Entry<String, Dimension>> SYMBOLS = List.of(
+            Map.entry("ohm", Dimension.RESISTANCE),
+            Map.entry("Ohm", Dimension.RESISTANCE),
+            Map.entry("Hz", Dimension.FREQUENCY),
+            Map.entry("\u03A9", Dimension.RESISTANCE),
+            Map.entry("V", Dimension.VOLTAGE),
+            Map.entry("A", Dimension.CURRENT),
+            Map.entry("H", Dimension.INDUCTANCE),
+            Map.entry("F", Dimension.CAPACITANCE),
+            Map.entry("s", Dimension.TIME));
+
+    private static final Map<String, Double> PREFIXES = Map.of(
+            "p", 1e-12, "n", 1e-9, "u", 1e-6, "\u00B5", 1e-6, "m", 1e-3,
+            "k", 1e3, "M", 1e6, "G", 1e9);
+
+    private static final String ALLOWED = "a number with a unit such as 470 uH, 2.2 mH, 1 kHz, 100 ohm,"
+            + " 3 V, 20 ms, 12 pF, 10 % (prefixes p n u m k M G)";
+
+    private Units() {
+    }
+
+    /** Parses any quantity; the caller checks the dimension. */
+    public static Quantity parse(String text) {
+        String trimmed = text == null ? "" : text.trim();
+        Matcher m = NUMBER_THEN_UNIT.matcher(trimmed);
+        if (!m.matches()) {
+            throw new UnitException("'" + trimmed + "' is not " + ALLOWED);
+        }
+        double number = Double.parseDouble(m.group(1));
+        String unit = m.group(2);
+        if (unit.isEmpty()) {
+            return Quantity.of(number, Dimension.NONE);
+        }
+        if (unit.equals("%")) {
+            return new Quantity(number / 100.0, Dimension.NONE, true);
+        }
+        for (Map.Entry<String, Dimension> symbol : SYMBOLS) {
+            if (unit.endsWith(symbol.getKey())) {
+                String prefix = unit.substring(0, unit.length() - symbol.getKey().length());
+                Double scale = prefix.isEmpty() ? Double.valueOf(1.0) : PREFIXES.get(prefix);
+                if (scale != null) {
+                    return Quantity.of(number * scale, symbol.getValue());
+                }
+            }
+        }
+        throw new UnitException("unknown unit '" + unit + "' in '" + trimmed + "'; expected " + ALLOWED);
+    }
+
+    /** Parses a quantity and requires the given dimension; percent is refused. */
+    public static double parse(String text, Dimension expected) {
+        Quantity q = parse(text);
+        if (q.relative()) {
+            throw new UnitException("'" + text.trim() + "' is a percentage; expected " + expected.describe());
+        }
+        if (q.dimension() != expected) {
+            throw new UnitException("'" + text.trim() + "' is " + q.dimension().describe()
+                    + "; expected " + expected.describe());
+        }
+        return q.value();
+    }
+
+    /** Formats a value with an engineering prefix and four significant digits: "1.000 mH". */
+    public static String format(double value, Dimension dimension) {
+        String unit = dimension.symbol();
+        if (value == 0 || !Double.isFinite(value)) {
+            return String.format(Locale.ROOT, "%s %s", value, unit).trim();
+        }
+        String[] prefixes = {"p", "n", "u", "m", "", "k", "M", "G"};
+        int exp3 = (int) Math.floor(Math.log10(Math.abs(value)) / 3.0);
+        exp3 = Math.max(-4, Math.min(3, exp3));
+        double scaled = value / Math.pow(10, exp3 * 3);
+        String digits = String.format(Locale.ROOT, "%.4g", scaled);
+        if (digits.contains("e")) {
+            digits = String.format(Locale.ROOT, "%.3f", scaled);
+        }
+        return (digits + " " + prefixes[exp3 + 4] + unit).trim();
+    }
+}
