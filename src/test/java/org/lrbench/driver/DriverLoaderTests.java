@@ -1,0 +1,66 @@
+package org.lrbench.driver;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.catchThrowableOfType;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Map;
+import java.util.Set;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.TestBench;
+import org.lrbench.yaml.Problem;
+import org.lrbench.yaml.ProblemsException;
+
+class DriverLoaderTests {
+
+    @Test
+    void shippedDriversLoad() throws Exception {
+        DriverLoader loader = new DriverLoader(TestBench.home().resolve("drivers"));
+        assertThat(loader.load("generic-source", DriverKind.SOURCE).commands()).containsKey("output_off");
+        assertThat(loader.load("generic-digitizer", DriverKind.DIGITIZER).traceEncoding()).isNotNull();
+    }
+
+    @Test
+    void unknownPlaceholderAndMissingOperationAreReportedWithPositions(@TempDir Path dir) throws Exception {
+        String text = Files.readString(TestBench.home().resolve("drivers/generic-source.yaml"))
+                .replace("{frequency}", "{freq}")
+                .replaceAll("(?m)^  output_off:.*\\n", "");
+        Files.writeString(dir.resolve("bad.yaml"), text);
+        ProblemsException e = catchThrowableOfType(ProblemsException.class,
+                () -> new DriverLoader(dir).load("bad", DriverKind.SOURCE));
+        assertThat(e.problems()).extracting(Problem::key).containsExactly("commands.output_off", "commands.frequency");
+        assertThat(e.problems().get(0).message()).isEqualTo("missing required key");
+        Problem freq = e.problems().get(1);
+        assertThat(freq.message()).startsWith("unknown placeholder {freq}").contains("allowed here: frequency");
+        assertThat(freq.line()).isEqualTo(text.lines().toList().indexOf(
+                text.lines().filter(l -> l.contains("{freq}")).findFirst().orElseThrow()) + 1);
+        assertThat(freq.column()).isEqualTo(14);
+    }
+
+    @Test
+    void wrongKindIsRefused() {
+        ProblemsException e = catchThrowableOfType(ProblemsException.class,
+                () -> new DriverLoader(TestBench.home().resolve("drivers")).load("generic-source", DriverKind.DIGITIZER));
+        assertThat(e.problems().get(0).message()).contains("a digitizer driver is needed");
+    }
+
+    @Test
+    void valuesCannotInjectASecondCommand() {
+        CommandTemplate t = CommandTemplate.parse(":SOUR:FREQ {frequency}", Set.of("frequency"));
+        assertThat(t.render(Map.of("frequency", "1.0E+03"))).isEqualTo(":SOUR:FREQ 1.0E+03");
+        for (String attack : new String[] {"1;*RST", "1\n*RST", "1 OUTP ON", "\"x\"", "1,2"}) {
+            assertThatThrownBy(() -> t.render(Map.of("frequency", attack)))
+                    .as(attack).isInstanceOf(IllegalArgumentException.class);
+        }
+    }
+
+    @Test
+    void badDriverNamesNeverLeaveTheDriversFolder() {
+        ProblemsException e = catchThrowableOfType(ProblemsException.class,
+                () -> new DriverLoader(TestBench.home().resolve("drivers")).load("../pom", DriverKind.SOURCE));
+        assertThat(e.problems().get(0).message()).contains("no driver file");
+    }
+}

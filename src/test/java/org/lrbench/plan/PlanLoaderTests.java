@@ -1,0 +1,130 @@
+package org.lrbench.plan;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.catchThrowableOfType;
+import static org.assertj.core.api.Assertions.within;
+
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.lrbench.TestBench;
+import org.lrbench.judge.Characteristic;
+import org.lrbench.yaml.Problem;
+import org.lrbench.yaml.ProblemsException;
+
+class PlanLoaderTests {
+    static final String GOOD = """
+            plan_format: 1
+            part_number: P-1
+            fixture:
+              sense_resistor: 100 ohm
+            sine_sweep:
+              amplitude: 3 V
+              log_sweep: {start: 100 Hz, stop: 10 kHz, points: 3}
+              cycles: 10
+              settle: 20 ms
+            limits:
+              - characteristic: inductance
+                nominal: 1 mH
+                tolerance: 10 %
+              - characteristic: quality_factor
+                at: 1 kHz
+                min: 5
+            """;
+
+    static List<Problem> problems(String text) {
+        ProblemsException e = catchThrowableOfType(ProblemsException.class,
+                () -> PlanLoader.parse(text, "p.yaml", 5.0));
+        assertThat(e).as("expected problems").isNotNull();
+        return e.problems();
+    }
+
+    @Test
+    void loadsAGoodPlan() throws Exception {
+        Plan p = PlanLoader.parse(GOOD, "p.yaml", 5.0);
+        assertThat(p.sweep().frequenciesHz()).hasSize(3);
+        assertThat(p.sweep().frequenciesHz().get(1)).isCloseTo(1000, within(1e-9));
+        assertThat(p.sweep().samplesPerCycle()).isEqualTo(100);
+        assertThat(p.limits().get(0).lower()).isCloseTo(0.9e-3, within(1e-15));
+        assertThat(p.limits().get(1).characteristic()).isEqualTo(Characteristic.QUALITY_FACTOR);
+    }
+
+    @Test
+    void theShippedPlansLoad() throws Exception {
+        Path plans = TestBench.home().resolve("plans");
+        try (var files = java.nio.file.Files.list(plans)) {
+            for (Path f : files.filter(x -> x.toString().endsWith(".yaml")).toList()) {
+                assertThat(PlanLoader.load(f, 5.0).limits()).isNotEmpty();
+            }
+        }
+    }
+
+    @Test
+    void unknownKeyIsReportedWithItsPosition() {
+        List<Problem> ps = problems(GOOD.replace("  cycles: 10", "  cycels: 10"));
+        assertThat(ps).extracting(Problem::toString).contains(
+                "p.yaml:8:3: sine_sweep.cycels: unknown key; allowed here: amplitude, offset, frequencies,"
+                        + " log_sweep, cycles, samples_per_cycle, settle");
+        // and the key it should have been is then missing, reported at its mapping
+        assertThat(ps).extracting(Problem::toString).contains("p.yaml:6:3: sine_sweep.cycles: missing required key");
+    }
+
+    @Test
+    void missingKeyIsReported() {
+        List<Problem> ps = problems(GOOD.replace("part_number: P-1\n", ""));
+        assertThat(ps).extracting(Problem::key).containsExactly("part_number");
+        assertThat(ps.get(0).message()).isEqualTo("missing required key");
+    }
+
+    @Test
+    void wrongUnitIsReported() {
+        List<Problem> ps = problems(GOOD.replace("sense_resistor: 100 ohm", "sense_resistor: 100 mH"));
+        assertThat(ps).hasSize(1);
+        assertThat(ps.get(0).toString()).isEqualTo(
+                "p.yaml:4:19: fixture.sense_resistor: '100 mH' is inductance (H); expected resistance (ohm)");
+    }
+
+    @Test
+    void negativeFrequencyIsReported() {
+        List<Problem> ps = problems(GOOD.replace("log_sweep: {start: 100 Hz, stop: 10 kHz, points: 3}",
+                "frequencies: [1 kHz, -2 kHz]"));
+        assertThat(ps).extracting(Problem::toString).containsExactly(
+                "p.yaml:7:24: sine_sweep.frequencies[1]: frequency must be greater than 0 Hz, got -2.000 kHz");
+    }
+
+    @Test
+    void amplitudeOverTheBenchLimitIsRefusedBeforeAnythingRuns() {
+        List<Problem> ps = problems(GOOD.replace("amplitude: 3 V", "amplitude: 12 V"));
+        assertThat(ps).hasSize(1);
+        assertThat(ps.get(0).toString()).isEqualTo("p.yaml:6:14: sine_sweep.amplitude: 12.00 V peak exceeds the"
+                + " bench's maximum generator amplitude of 5.000 V (bench max_amplitude)");
+    }
+
+    @Test
+    void malformedYamlIsReportedWithItsPosition() {
+        List<Problem> ps = problems(GOOD.replace("  cycles: 10", "  cycles: [10"));
+        assertThat(ps).hasSize(1);
+        assertThat(ps.get(0).key()).isEqualTo("(yaml)");
+        assertThat(ps.get(0).message()).startsWith("malformed YAML");
+        assertThat(ps.get(0).line()).isGreaterThanOrEqualTo(9);
+    }
+
+    @Test
+    void limitFormsAreCheckedAndEveryProblemIsReportedAtOnce() {
+        List<Problem> ps = problems(GOOD
+                .replace("    tolerance: 10 %", "    tolerance: 10 Hz")
+                .replace("    at: 1 kHz\n", "")
+                .replace("plan_format: 1", "plan_format: 2"));
+        assertThat(ps).extracting(Problem::key).containsExactly("plan_format", "limits[0].tolerance", "limits[1].at");
+        assertThat(ps.get(1).message()).contains("expected a percentage or inductance (H)");
+        assertThat(ps.get(2).message()).contains("depends on frequency");
+    }
+
+    @Test
+    void duplicateKeysAndBothSweepFormsAreRefused() {
+        List<Problem> ps = problems(GOOD.replace("  cycles: 10", "  cycles: 10\n  frequencies: [1 kHz]"));
+        assertThat(ps).extracting(Problem::message).contains("give either frequencies or log_sweep, not both");
+        List<Problem> dup = problems(GOOD.replace("part_number: P-1", "part_number: P-1\npart_number: P-2"));
+        assertThat(dup).extracting(Problem::toString).containsExactly("p.yaml:3:1: part_number: duplicate key");
+    }
+}

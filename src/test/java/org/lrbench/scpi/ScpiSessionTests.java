@@ -1,0 +1,145 @@
+package org.lrbench.scpi;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.time.Duration;
+import java.util.ArrayDeque;
+import java.util.Deque;
+import org.junit.jupiter.api.Test;
+import org.lrbench.instrument.InstrumentException;
+import org.lrbench.transport.Transport;
+import org.lrbench.transport.TransportTimeoutException;
+
+/** The session's framing of replies and IEEE 488.2 definite-length blocks, one edge case each. */
+class ScpiSessionTests {
+
+    /** A transport that replays canned reply bytes, at most {@code chunk} bytes per read. */
+    static final class Scripted implements Transport {
+        final Deque<Byte> pending = new ArrayDeque<>();
+        final StringBuilder written = new StringBuilder();
+        final int chunk;
+
+        Scripted(int chunk, byte[] reply) {
+            this.chunk = chunk;
+            for (byte b : reply) {
+                pending.add(b);
+            }
+        }
+
+        @Override
+        public String address() {
+            return "test://scripted";
+        }
+
+        @Override
+        public void write(byte[] bytes) {
+            written.append(new String(bytes, StandardCharsets.US_ASCII));
+        }
+
+        @Override
+        public int read(byte[] dst, int offset, int length, Duration timeout) throws IOException {
+            if (pending.isEmpty()) {
+                throw new TransportTimeoutException("nothing");
+            }
+            int n = 0;
+            while (n < Math.min(length, chunk) && !pending.isEmpty()) {
+                dst[offset + n++] = pending.poll();
+            }
+            return n;
+        }
+
+        @Override
+        public void discardInput() {
+            pending.clear();
+        }
+
+        @Override
+        public void close() {
+        }
+    }
+
+    static byte[] bytes(String s) {
+        return s.getBytes(StandardCharsets.ISO_8859_1);
+    }
+
+    static ScpiSession session(int chunk, String reply) {
+        return new ScpiSession("scope", new Scripted(chunk, bytes(reply)), Duration.ofMillis(50));
+    }
+
+    @Test
+    void definiteBlockSplitAcrossManyReadsIsReassembled() {
+        // IEEE Std 488.2-1992, 7.7.6.2: #<digit count><length digits><bytes>
+        String payload = "\u0001\n\u00ff\u0000#9";
+        byte[] block = session(1, "#16" + payload + "\n").queryBlock("TRAC? CH1");
+        assertThat(block).containsExactly(bytes(payload));
+    }
+
+    @Test
+    void blockLongerThanDeclaredIsRefused() {
+        assertThatThrownBy(() -> session(4, "#14abcdef\n").queryBlock("TRAC?"))
+                .isInstanceOf(InstrumentException.class)
+                .hasMessageContaining("followed by 'e' instead of the terminator");
+    }
+
+    @Test
+    void shortBlockTimesOutWithTheCommandNamed() {
+        assertThatThrownBy(() -> session(64, "#210abc").queryBlock("TRAC? CH2"))
+                .isInstanceOf(InstrumentException.class)
+                .hasMessageContaining("scope").hasMessageContaining("TRAC? CH2").hasMessageContaining("incomplete");
+    }
+
+    @Test
+    void malformedHeadersAreRefused() {
+        assertThatThrownBy(() -> session(64, "12345\n").queryBlock("X?")).hasMessageContaining("expected '#'");
+        assertThatThrownBy(() -> session(64, "#x\n").queryBlock("X?")).hasMessageContaining("expected a digit");
+        assertThatThrownBy(() -> session(64, "#3a\n").queryBlock("X?")).hasMessageContaining("length digit 1 of 3");
+        assertThatThrownBy(() -> session(64, "#0abc\n").queryBlock("X?")).hasMessageContaining("indefinite");
+    }
+
+    @Test
+    void noReplyNamesInstrumentCommandAndWait() {
+        assertThatThrownBy(() -> session(64, "").query("*IDN?"))
+                .isInstanceOf(InstrumentException.class)
+                .hasMessageMatching("scope \\(test://scripted\\): no reply to '\\*IDN\\?' after \\d+ ms \\(timeout 50 ms\\)");
+    }
+
+    @Test
+    void lateRepliesAreFlushedAfterATimeout() {
+        Scripted link = new Scripted(64, bytes("#15ab"));
+        ScpiSession s = new ScpiSession("scope", link, Duration.ofMillis(5));
+        assertThatThrownBy(() -> s.queryBlock("TRAC?")).isInstanceOf(InstrumentException.class);
+        assertThat(link.pending).isEmpty();
+    }
+
+    @Test
+    void commandsCannotCarryASecondMessage() {
+        ScpiSession s = session(64, "");
+        assertThatThrownBy(() -> s.write("FREQ 1\n*RST")).isInstanceOf(IllegalArgumentException.class);
+    }
+
+    @Test
+    void errorQueueIsDrainedAndReportedWithTheCause() {
+        ScpiSession s = session(64, "-222,\"Data out of range\"\n+0,\"No error\"\n");
+        assertThatThrownBy(() -> s.checkErrors("SYST:ERR?", "FREQ 9E9"))
+                .hasMessage("scope: 'FREQ 9E9' caused [-222,\"Data out of range\"]");
+    }
+
+    @Test
+    void traceEncodingsDecodeBothByteOrders() {
+        assertThat(TraceEncoding.INT16_BIG.decode(new byte[] {0x01, 0x02, (byte) 0xff, (byte) 0xfe}))
+                .containsExactly(258, -2);
+        assertThat(TraceEncoding.INT16_LITTLE.decode(new byte[] {0x02, 0x01, (byte) 0xfe, (byte) 0xff}))
+                .containsExactly(258, -2);
+        assertThat(TraceEncoding.INT8.decode(new byte[] {(byte) 0x80, 0x7f})).containsExactly(-128, 127);
+        assertThatThrownBy(() -> TraceEncoding.INT16_BIG.decode(new byte[3])).hasMessageContaining("whole number");
+    }
+
+    @Test
+    void numbersAreSentAsNr3AndNothingElse() {
+        assertThat(ScpiNumbers.nr3(1234.5)).isEqualTo("1.234500000E+03");
+        assertThatThrownBy(() -> ScpiNumbers.nr3(Double.NaN)).isInstanceOf(IllegalArgumentException.class);
+    }
+}
