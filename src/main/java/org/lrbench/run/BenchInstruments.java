@@ -26,7 +26,7 @@ public final class BenchInstruments implements AutoCloseable {
     private final Digitizer digitizer;
     private final List<ScpiSession> sessions;
 
-    private BenchInstruments(Generator generator, Digitizer digitizer, List<ScpiSession> sessions) {
+    BenchInstruments(Generator generator, Digitizer digitizer, List<ScpiSession> sessions) {
         this.generator = generator;
         this.digitizer = digitizer;
         this.sessions = sessions;

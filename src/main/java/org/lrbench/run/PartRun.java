@@ -51,21 +51,19 @@ public final class PartRun {
         SeriesModel model = null;
         List<LimitResult> judged = List.of();
         String error = null;
-        String outputFailure;
-        try (OutputGuard guard = new OutputGuard(instruments.generator())) {
-            try {
-                identities.put("generator", instruments.generator().identity().toString());
-                identities.put("digitizer", instruments.digitizer().identity().toString());
-                points = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper).run(plan, listener);
-                model = SeriesModelFit.fit(points.stream().map(PointResult::impedance).toList());
-                judged = Judge.judge(plan.limits(), model);
-            } catch (InstrumentException | MeasurementException | IllegalArgumentException e) {
-                error = e.getMessage();
-            } finally {
-                guard.switchOff();
-                outputFailure = guard.failure();
-            }
+        OutputGuard guard = new OutputGuard(instruments.generator());
+        try {
+            identities.put("generator", instruments.generator().identity().toString());
+            identities.put("digitizer", instruments.digitizer().identity().toString());
+            points = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper).run(plan, listener);
+            model = SeriesModelFit.fit(points.stream().map(PointResult::impedance).toList());
+            judged = Judge.judge(plan.limits(), model);
+        } catch (InstrumentException | MeasurementException | IllegalArgumentException e) {
+            error = e.getMessage();
+        } finally {
+            guard.close();
         }
+        String outputFailure = guard.failure();
         if (outputFailure != null) {
             error = error == null ? outputFailure : error + "; " + outputFailure;
         }

@@ -1,0 +1,140 @@
+package org.lrbench.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.Map;
+import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.TestBench;
+
+/** The commands end to end, as a user runs them, with their exit codes and files. */
+class CommandLineTests {
+    static final Path HOME = TestBench.home();
+    static final String PLAN = HOME.resolve("plans/qfd-ind-1m0.yaml").toString();
+
+    record Outcome(int code, String out, String err) {
+    }
+
+    static Outcome run(String... args) {
+        PrintStream oldOut = System.out;
+        PrintStream oldErr = System.err;
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        System.setOut(new PrintStream(out, true, StandardCharsets.UTF_8));
+        System.setErr(new PrintStream(err, true, StandardCharsets.UTF_8));
+        try {
+            int code = Main.execute(args);
+            return new Outcome(code, out.toString(StandardCharsets.UTF_8), err.toString(StandardCharsets.UTF_8));
+        } finally {
+            System.setOut(oldOut);
+            System.setErr(oldErr);
+        }
+    }
+
+    @Test
+    void runOnANominalPartPassesAndWritesTheDocumentedJson(@TempDir Path dir) throws Exception {
+        Path json = dir.resolve("out.json");
+        Outcome o = run("run", PLAN, "--lot", "L-1", "--serial", "S-1", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--json", json.toString(),
+                "--runs", dir.resolve("runs").toString());
+        assertThat(o.code()).as(o.out() + o.err()).isZero();
+        assertThat(o.out()).contains("verdict: PASS");
+        JsonNode r = new ObjectMapper().readTree(json.toFile());
+        // the schema the README documents
+        assertThat(r.get("schema").asText()).isEqualTo("lrbench.part-result.v1");
+        assertThat(r.get("verdict").asText()).isEqualTo("pass");
+        assertThat(r.get("inductance_h").isNumber()).isTrue();
+        assertThat(r.get("inductance_h").asDouble()).isBetween(0.99e-3, 1.01e-3);
+        assertThat(r.get("series_resistance_ohm").asDouble()).isBetween(2.2, 2.4);
+        assertThat(r.get("limits")).hasSize(3);
+        for (JsonNode l : r.get("limits")) {
+            assertThat(l.has("name") && l.has("value") && l.has("lower") && l.has("upper") && l.has("pass")).isTrue();
+            assertThat(l.get("pass").isBoolean()).isTrue();
+        }
+        assertThat(r.get("points")).hasSize(7);
+        for (JsonNode p : r.get("points")) {
+            for (String field : new String[] {"frequency_hz", "resistance_ohm", "reactance_ohm", "inductance_h"}) {
+                assertThat(p.get(field).isNumber()).as(field).isTrue();
+            }
+        }
+        assertThat(r.get("plan_sha256").asText()).hasSize(64);
+        // the kept record is the same result, and no half-written file is left behind
+        assertThat(Files.readString(dir.resolve("runs/L-1/S-1.json"))).isEqualTo(Files.readString(json));
+        try (Stream<Path> files = Files.walk(dir)) {
+            assertThat(files.filter(f -> f.toString().endsWith(".partial"))).isEmpty();
+        }
+    }
+
+    @Test
+    void runOnAPartOverTheResistanceLimitFailsWithTheReason(@TempDir Path dir) {
+        Outcome o = run("run", PLAN, "--lot", "L-1", "--serial", "S-2", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-high-r.yaml").toString(), "--runs", dir.toString());
+        assertThat(o.code()).isEqualTo(1);
+        assertThat(o.out()).contains("FAIL winding resistance").contains("verdict: FAIL");
+    }
+
+    @Test
+    void badPlanExitsTwoWithPositionedProblems(@TempDir Path dir) throws Exception {
+        Path plan = dir.resolve("bad.yaml");
+        Files.writeString(plan, Files.readString(Path.of(PLAN)).replace("sense_resistor: 100 ohm", "sense_resistor: 100 V"));
+        Outcome check = run("check", plan.toString());
+        assertThat(check.code()).isEqualTo(2);
+        assertThat(check.err()).contains(plan + ":7:19: fixture.sense_resistor: '100 V' is voltage (V); expected resistance (ohm)");
+        Outcome runIt = run("run", plan.toString(), "--lot", "L", "--serial", "S", "--runs", dir.toString());
+        assertThat(runIt.code()).isEqualTo(2);
+        assertThat(run("check", PLAN).code()).isZero();
+    }
+
+    @Test
+    void badOptionsExitTwo(@TempDir Path dir) {
+        assertThat(run("run", PLAN, "--serial", "S").code()).isEqualTo(2);
+        Outcome traversal = run("run", PLAN, "--lot", "../../etc", "--serial", "S", "--runs", dir.toString());
+        assertThat(traversal.code()).isEqualTo(2);
+        assertThat(traversal.err()).contains("--lot '../../etc'");
+        assertThat(run("run", PLAN, "--lot", "L", "--serial", "S", "--sim", "nope.yaml").code()).isEqualTo(2);
+    }
+
+    @Test
+    void withoutTheSimulatorTheSimulatedAddressesGiveAnInstrumentError(@TempDir Path dir) {
+        Outcome o = run("run", PLAN, "--lot", "L", "--serial", "S", "--runs", dir.toString());
+        assertThat(o.code()).isEqualTo(3);
+        assertThat(o.err()).contains("sim://generator").contains("--sim");
+    }
+
+    @Test
+    void demoLotGivesTheVerdictsItsTrueValuesCall(@TempDir Path dir) throws Exception {
+        Outcome o = run("demo", "--runs", dir.toString());
+        assertThat(o.code()).as(o.err()).isZero();
+        // Expected by hand from simulator/demo-lot.yaml against plans/qfd-ind-1m0.yaml
+        // (L 1 mH +/- 10 %, R <= 2.6 ohm, Q = 2 pi 10 kHz L / R >= 20); each part is far from a
+        // limit compared with the measurement's uncertainty.
+        Map<String, String> expected = new LinkedHashMap<>();
+        expected.put("HC0417-0001", "pass");
+        expected.put("HC0417-0002", "pass");
+        expected.put("HC0417-0003", "pass");
+        expected.put("HC0417-0004", "fail"); // 0.883 mH < 0.900 mH
+        expected.put("HC0417-0005", "fail"); // 2.74 ohm > 2.6 ohm
+        expected.put("HC0417-0006", "pass");
+        expected.put("HC0417-0007", "fail"); // 3.35 ohm > 2.6 ohm, Q = 18.9 < 20
+        expected.put("HC0417-0008", "pass"); // 1.095 mH, inside +10 %
+        ObjectMapper json = new ObjectMapper();
+        for (Map.Entry<String, String> e : expected.entrySet()) {
+            JsonNode r = json.readTree(dir.resolve("HCC-2611-0417").resolve(e.getKey() + ".json").toFile());
+            assertThat(r.get("verdict").asText()).as(e.getKey()).isEqualTo(e.getValue());
+        }
+        JsonNode summary = json.readTree(dir.resolve("HCC-2611-0417/lot-summary.json").toFile());
+        assertThat(summary.get("passed").asInt()).isEqualTo(5);
+        assertThat(summary.get("failed").asInt()).isEqualTo(3);
+        assertThat(o.out()).contains("8 measured, 5 pass, 3 fail, 0 error");
+        assertThat(o.out()).contains("HC0417-0007").contains("winding resistance").contains("Q at 10 kHz");
+    }
+}
