@@ -8,6 +8,7 @@ final class ExitCodes {
     static final int FAIL = 1;
     static final int BAD_INPUT = 2;
     static final int INSTRUMENT = 3;
+    static final int INTERNAL = 4;
 
     private ExitCodes() {
     }

@@ -32,7 +32,14 @@ public final class Main implements Runnable {
                 commandLine.getErr().println("lrbench: instrument error: " + e.getMessage());
                 return ExitCodes.INSTRUMENT;
             }
-            throw e;
+            if (e instanceof java.io.IOException) {
+                commandLine.getErr().println("lrbench: file error: " + e.getMessage());
+                return ExitCodes.BAD_INPUT;
+            }
+            // a bug, not a verdict: never let it look like a pass (0) or a fail (1)
+            commandLine.getErr().println("lrbench: internal error, please report it:");
+            e.printStackTrace(commandLine.getErr());
+            return ExitCodes.INTERNAL;
         });
         return cli.execute(args);
     }
