@@ -30,22 +30,27 @@ abstract class DrivenInstrument {
         return identity;
     }
 
-    /** Sends a configuration command, then drains the error queue and fails on any error. */
+    /**
+     * Sends a configuration command with the error query in the same message (one round trip) and
+     * fails, naming the command, on any error it caused.
+     */
     protected void configure(String operation, Map<String, String> values) {
-        String command = driver.command(operation).render(values);
-        session.write(command);
-        session.checkErrors(driver.errorQuery(), command);
+        session.configure(driver.command(operation).render(values), driver.errorQuery());
     }
 
-    /** Sends a numeric query and parses its reply. */
-    protected double queryNumber(String operation, Map<String, String> values) {
-        String command = driver.command(operation).render(values);
-        String reply = session.query(command);
+    /** Parses one reply unit of a combined message as a number. */
+    protected double number(String command, String reply) {
         try {
             return ScpiNumbers.parse(reply);
         } catch (NumberFormatException e) {
             throw new InstrumentException(session.instrument() + ": reply to '" + command + "' is '" + reply
                     + "', expected a number");
         }
+    }
+
+    /** Sends a numeric query and parses its reply. */
+    protected double queryNumber(String operation, Map<String, String> values) {
+        String command = driver.command(operation).render(values);
+        return number(command, session.query(command));
     }
 }

@@ -69,6 +69,10 @@ public final class DriverLoader {
                     if (text != null) {
                         try {
                             commands.put(op.getKey(), CommandTemplate.parse(text, op.getValue()));
+                            if (!text.startsWith(":") && !text.startsWith("*")) {
+                                cmds.problem(op.getKey(), "must start with ':' or '*' (an absolute header), because"
+                                        + " lrbench joins commands into one message with ';'");
+                            }
                         } catch (IllegalArgumentException e) {
                             cmds.problem(op.getKey(), e.getMessage());
                         }
@@ -99,6 +103,9 @@ public final class DriverLoader {
         if (errorQuery != null) {
             try {
                 CommandTemplate.parse(errorQuery, Set.of());
+                if (!errorQuery.startsWith(":") || !errorQuery.endsWith("?")) {
+                    root.problem("error_query", "must be an absolute query such as :SYSTem:ERRor?");
+                }
             } catch (IllegalArgumentException e) {
                 root.problem("error_query", e.getMessage());
             }

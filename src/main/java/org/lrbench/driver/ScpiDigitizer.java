@@ -1,6 +1,7 @@
 package org.lrbench.driver;
 
 import java.util.HashMap;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import org.lrbench.instrument.Coupling;
@@ -18,7 +19,9 @@ import org.lrbench.scpi.TraceEncoding;
 /** A digitizer that speaks SCPI through a digitizer driver file. */
 public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     private final Map<Integer, Double> ranges = new HashMap<>();
+    private final Map<Integer, Double> requestedRanges = new HashMap<>();
     private final Map<Integer, Double> offsets = new HashMap<>();
+    private final Map<Integer, double[]> scales = new HashMap<>();
     private int points;
 
     public ScpiDigitizer(ScpiSession session, DriverFile driver) {
@@ -30,7 +33,9 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         identity();
         configure("prepare", Map.of());
         ranges.clear();
+        requestedRanges.clear();
         offsets.clear();
+        scales.clear();
     }
 
     @Override
@@ -41,11 +46,19 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public double setRange(int channel, double peakToPeakVolt) {
+        Double requested = requestedRanges.get(channel);
+        if (requested != null && requested == peakToPeakVolt && ranges.containsKey(channel)) {
+            return ranges.get(channel); // unchanged: no round trip
+        }
         Map<String, String> values = new HashMap<>(channel(channel));
         values.put("range", ScpiNumbers.nr3(peakToPeakVolt));
-        configure("range", values);
-        double actual = queryNumber("range_query", channel(channel));
+        String query = driver.command("range_query").render(channel(channel));
+        List<String> replies = session.configure(driver.command("range").render(values) + ";" + query,
+                driver.errorQuery());
+        double actual = number(query, single(query, replies));
         ranges.put(channel, actual);
+        requestedRanges.put(channel, peakToPeakVolt);
+        scales.remove(channel);
         return actual;
     }
 
@@ -55,6 +68,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         values.put("offset", ScpiNumbers.nr3(volt));
         configure("offset", values);
         offsets.put(channel, volt);
+        scales.remove(channel);
     }
 
     @Override
@@ -66,14 +80,23 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public Timing setTiming(double sampleIntervalSecond, int requestedPoints) {
-        configure("interval", Map.of("interval", ScpiNumbers.nr3(sampleIntervalSecond)));
-        configure("points", Map.of("points", ScpiNumbers.nr1(requestedPoints)));
-        double interval = queryNumber("interval_query", Map.of());
-        double n = queryNumber("points_query", Map.of());
+        String intervalQuery = driver.command("interval_query").render(Map.of());
+        String pointsQuery = driver.command("points_query").render(Map.of());
+        String command = driver.command("interval").render(Map.of("interval", ScpiNumbers.nr3(sampleIntervalSecond)))
+                + ";" + driver.command("points").render(Map.of("points", ScpiNumbers.nr1(requestedPoints)))
+                + ";" + intervalQuery + ";" + pointsQuery;
+        List<String> replies = session.configure(command, driver.errorQuery());
+        if (replies.size() != 2) {
+            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies
+                    + "; expected the interval and the record length");
+        }
+        double interval = number(intervalQuery, replies.get(0));
+        double n = number(pointsQuery, replies.get(1));
         if (n != Math.rint(n) || n < 1) {
             throw new InstrumentException(session.instrument() + ": record length reply " + n + " is not a count");
         }
         points = (int) n;
+        scales.clear();
         return new Timing(interval, points);
     }
 
@@ -87,10 +110,13 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public void acquire() {
-        String command = driver.command("acquire").render(Map.of());
-        session.write(command);
-        session.waitComplete();
-        session.checkErrors(driver.errorQuery(), command);
+        // arm and wait in one message: *OPC? answers once the record is complete
+        List<String> replies = session.configure(driver.command("acquire").render(Map.of()) + ";*OPC?",
+                driver.errorQuery());
+        String opc = single("*OPC?", replies);
+        if (!opc.equals("1") && !opc.equals("+1")) {
+            throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
+        }
     }
 
     @Override
@@ -100,8 +126,12 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new IllegalStateException("channel " + channel + " range was never set");
         }
         double offset = offsets.getOrDefault(channel, 0.0);
-        String scaleCommand = driver.command("scale_query").render(channel(channel));
-        double[] scale = parseScale(scaleCommand, session.query(scaleCommand));
+        double[] scale = scales.get(channel);
+        if (scale == null) {
+            String scaleCommand = driver.command("scale_query").render(channel(channel));
+            scale = parseScale(scaleCommand, session.query(scaleCommand));
+            scales.put(channel, scale);
+        }
         String fetchCommand = driver.command("fetch").render(channel(channel));
         TraceEncoding encoding = driver.traceEncoding();
         double[] raw;
@@ -150,6 +180,14 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                     + "' is not positive");
         }
         return out;
+    }
+
+    private String single(String command, List<String> replies) {
+        if (replies.size() != 1) {
+            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies
+                    + "; expected one value");
+        }
+        return replies.get(0);
     }
 
     private static Map<String, String> channel(int channel) {

@@ -14,77 +14,128 @@ import org.lrbench.transport.TransportTimeoutException;
 
 /**
  * A SCPI conversation with one instrument over any {@link Transport}: program messages out,
- * response messages and IEEE 488.2 definite-length blocks in, each bounded in size and time.
- * Every failure names the instrument, the command, what came back and how long it waited.
+ * response messages and IEEE 488.2 arbitrary blocks in, each bounded in size and time. Every
+ * failure names the instrument, the command, what came back and how long it waited. After a
+ * timeout the session discards whatever arrives before its next message, so a late reply can never
+ * be taken for the answer to a later query.
  */
 public final class ScpiSession implements AutoCloseable {
     /** Longest text reply accepted. */
-    public static final int MAX_LINE = 1 << 20;
+    public static final int MAX_LINE = 64 << 20;
     /** Largest binary block accepted. */
     public static final long MAX_BLOCK = 256L << 20;
+    /** Quiet time that ends an indefinite-length block on a link without message boundaries. */
+    static final Duration INDEFINITE_BLOCK_QUIET = Duration.ofMillis(50);
     private static final int MAX_ERRORS_DRAINED = 64;
 
     private final String instrument;
     private final Transport transport;
     private final Duration timeout;
-    private final byte[] buffer = new byte[64 * 1024];
+    private final byte[] terminator;
+    private final byte[] buffer = new byte[256 * 1024];
     private int position;
     private int limit;
+    private boolean stale;
+    private long queries;
+    private long ioNanos;
 
     public ScpiSession(String instrument, Transport transport, Duration timeout) {
+        this(instrument, transport, timeout, "\n");
+    }
+
+    /**
+     * @param terminator what ends a program message and a response message: "\n", "\r\n" or "\r"
+     */
+    public ScpiSession(String instrument, Transport transport, Duration timeout, String terminator) {
         this.instrument = Objects.requireNonNull(instrument, "instrument");
         this.transport = Objects.requireNonNull(transport, "transport");
         this.timeout = Objects.requireNonNull(timeout, "timeout");
+        if (!terminator.equals("\n") && !terminator.equals("\r\n") && !terminator.equals("\r")) {
+            throw new IllegalArgumentException("terminator must be LF, CR LF or CR");
+        }
+        this.terminator = terminator.getBytes(StandardCharsets.US_ASCII);
     }
 
     public String instrument() {
         return instrument;
     }
 
+    /** How many queries this session has sent (each one a round trip to the instrument). */
+    public synchronized long queries() {
+        return queries;
+    }
+
+    /** Nanoseconds spent inside the transport, writing or waiting for replies. */
+    public synchronized long ioNanos() {
+        return ioNanos;
+    }
+
     /** Sends one program message; the text must not carry its own terminator. */
     public synchronized void write(String command) {
         requireSingleMessage(command);
+        if (stale) {
+            flushLateReplies();
+            stale = false;
+        }
+        byte[] text = command.getBytes(StandardCharsets.US_ASCII);
+        byte[] message = new byte[text.length + terminator.length];
+        System.arraycopy(text, 0, message, 0, text.length);
+        System.arraycopy(terminator, 0, message, text.length, terminator.length);
+        long start = System.nanoTime();
         try {
-            transport.write((command + "\n").getBytes(StandardCharsets.US_ASCII));
+            transport.write(message);
         } catch (IOException e) {
             throw new InstrumentException(instrument + " (" + transport.address() + "): sending '" + command
                     + "' failed: " + e.getMessage(), e);
+        } finally {
+            ioNanos += System.nanoTime() - start;
         }
     }
 
     /** Sends a query and returns its response message without the terminator. */
     public synchronized String query(String command) {
         write(command);
+        queries++;
         long start = System.nanoTime();
         try {
             return readLine(command);
         } catch (TransportTimeoutException e) {
+            stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): no reply to '" + command
                     + "' after " + elapsedMillis(start) + " ms (timeout " + timeout.toMillis() + " ms)", e);
         } catch (IOException e) {
+            stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the reply to '"
                     + command + "' failed after " + elapsedMillis(start) + " ms: " + e.getMessage(), e);
+        } finally {
+            ioNanos += System.nanoTime() - start;
         }
     }
 
-    /** Sends a query whose response is one definite-length arbitrary block; returns its bytes. */
+    /** Sends a query whose response is one arbitrary block (definite or indefinite length). */
     public synchronized byte[] queryBlock(String command) {
         write(command);
+        queries++;
         long start = System.nanoTime();
         try {
             return readBlock();
         } catch (BlockFormatException e) {
+            stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): reply to '" + command
                     + "' is not a valid block: " + e.getMessage(), e);
         } catch (TransportTimeoutException e) {
+            stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): block reply to '" + command
                     + "' incomplete after " + elapsedMillis(start) + " ms (timeout " + timeout.toMillis() + " ms)", e);
         } catch (IOException e) {
+            stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the block reply to '"
-                    + command + "' failed: " + e.getMessage(), e);
+                    + command + "' failed after " + elapsedMillis(start) + " ms: " + e.getMessage(), e);
+        } finally {
+            ioNanos += System.nanoTime() - start;
         }
     }
 
@@ -110,13 +161,7 @@ public final class ScpiSession implements AutoCloseable {
     public List<ScpiError> drainErrors(String errorQuery) {
         List<ScpiError> errors = new ArrayList<>();
         for (int i = 0; i < MAX_ERRORS_DRAINED; i++) {
-            String reply = query(errorQuery);
-            ScpiError error;
-            try {
-                error = ScpiError.parse(reply);
-            } catch (IllegalArgumentException e) {
-                throw new InstrumentException(instrument + ": " + e.getMessage());
-            }
+            ScpiError error = parseError(query(errorQuery));
             if (error.isNoError()) {
                 return errors;
             }
@@ -134,9 +179,50 @@ public final class ScpiSession implements AutoCloseable {
         }
     }
 
+    /**
+     * Sends a configuration message and the error query in one program message (one round trip)
+     * and returns the replies before the error's. When the error reply is not "no error", the rest
+     * of the queue is drained and the command is named in the exception. When the combined message
+     * gets no complete reply (an instrument that drops the rest of a message after an error does
+     * that), the queue is read with separate queries before reporting.
+     *
+     * @param command the configuration, possibly with its own queries
+     * @param errorQuery an absolute header such as {@code :SYSTem:ERRor?}
+     */
+    public synchronized List<String> configure(String command, String errorQuery) {
+        String message = command + ";" + errorQuery;
+        List<String> replies;
+        try {
+            replies = ScpiReplies.split(query(message));
+        } catch (InstrumentException timeout) {
+            List<ScpiError> errors = drainErrors(errorQuery);
+            throw new InstrumentException(errors.isEmpty() ? timeout.getMessage()
+                    : instrument + ": '" + command + "' caused " + errors, timeout);
+        }
+        if (replies.isEmpty()) {
+            throw new InstrumentException(instrument + ": reply to '" + message + "' is empty");
+        }
+        ScpiError first = parseError(replies.get(replies.size() - 1));
+        if (!first.isNoError()) {
+            List<ScpiError> errors = new ArrayList<>();
+            errors.add(first);
+            errors.addAll(drainErrors(errorQuery));
+            throw new InstrumentException(instrument + ": '" + command + "' caused " + errors);
+        }
+        return replies.subList(0, replies.size() - 1);
+    }
+
     @Override
     public void close() throws IOException {
         transport.close();
+    }
+
+    private ScpiError parseError(String reply) {
+        try {
+            return ScpiError.parse(reply);
+        } catch (IllegalArgumentException e) {
+            throw new InstrumentException(instrument + ": " + e.getMessage());
+        }
     }
 
     private void flushLateReplies() {
@@ -151,12 +237,14 @@ public final class ScpiSession implements AutoCloseable {
 
     private String readLine(String command) throws IOException {
         ByteArrayOutputStream line = new ByteArrayOutputStream();
+        int last = terminator[terminator.length - 1];
         while (true) {
             int b = nextByte();
-            if (b == '\n') {
+            if (b == last) {
                 break;
             }
             if (line.size() >= MAX_LINE) {
+                stale = true;
                 flushLateReplies();
                 throw new InstrumentException(instrument + ": reply to '" + command + "' is longer than "
                         + MAX_LINE + " bytes without a terminator");
@@ -164,7 +252,7 @@ public final class ScpiSession implements AutoCloseable {
             line.write(b);
         }
         String text = line.toString(StandardCharsets.ISO_8859_1);
-        return text.endsWith("\r") ? text.substring(0, text.length() - 1) : text;
+        return last == '\n' && text.endsWith("\r") ? text.substring(0, text.length() - 1) : text;
     }
 
     private byte[] readBlock() throws IOException {
@@ -178,7 +266,7 @@ public final class ScpiSession implements AutoCloseable {
         }
         int digits = digitsChar - '0';
         if (digits == 0) {
-            throw new BlockFormatException("indefinite-length block (#0) is not accepted on this link");
+            return readIndefiniteBlock();
         }
         long length = 0;
         for (int i = 0; i < digits; i++) {
@@ -195,6 +283,12 @@ public final class ScpiSession implements AutoCloseable {
         int filled = 0;
         while (filled < length) {
             if (position == limit) {
+                int n = data.length - filled;
+                if (n >= buffer.length) {
+                    // large remainder: read straight into the result, no intermediate copy
+                    filled += transport.read(data, filled, n, timeout);
+                    continue;
+                }
                 fill();
             }
             int n = Math.min(limit - position, data.length - filled);
@@ -202,15 +296,47 @@ public final class ScpiSession implements AutoCloseable {
             position += n;
             filled += n;
         }
-        int end = nextByte();
-        if (end == '\r') {
-            end = nextByte();
-        }
-        if (end != '\n') {
-            throw new BlockFormatException("block of " + length + " bytes is followed by " + describe(end)
-                    + " instead of the terminator (declared length wrong?)");
-        }
+        expectTerminator("block of " + length + " bytes");
         return data;
+    }
+
+    /**
+     * IEEE 488.2 indefinite-length block ({@code #0}): data up to a newline sent with END. A byte
+     * stream carries no END, so the newline counts as the end only when nothing follows it within
+     * {@link #INDEFINITE_BLOCK_QUIET}.
+     */
+    private byte[] readIndefiniteBlock() throws IOException {
+        ByteArrayOutputStream data = new ByteArrayOutputStream();
+        while (true) {
+            int b = nextByte();
+            if (b == '\n' && position == limit) {
+                try {
+                    position = 0;
+                    limit = transport.read(buffer, 0, buffer.length, INDEFINITE_BLOCK_QUIET);
+                } catch (TransportTimeoutException quiet) {
+                    position = 0;
+                    limit = 0;
+                    return data.toByteArray();
+                }
+            }
+            if (data.size() >= MAX_BLOCK) {
+                throw new BlockFormatException("indefinite block exceeds the allowed maximum (" + MAX_BLOCK + ")");
+            }
+            data.write(b);
+        }
+    }
+
+    private void expectTerminator(String after) throws IOException {
+        for (int i = 0; i < terminator.length; i++) {
+            int end = nextByte();
+            if (end == '\r' && terminator[i] == '\n') {
+                end = nextByte();
+            }
+            if (end != terminator[i]) {
+                throw new BlockFormatException(after + " is followed by " + describe(end)
+                        + " instead of the terminator (declared length wrong?)");
+            }
+        }
     }
 
     private int nextByte() throws IOException {
@@ -222,6 +348,7 @@ public final class ScpiSession implements AutoCloseable {
 
     private void fill() throws IOException {
         position = 0;
+        limit = 0;
         limit = transport.read(buffer, 0, buffer.length, timeout);
     }
 

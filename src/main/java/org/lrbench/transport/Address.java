@@ -1,16 +1,25 @@
 package org.lrbench.transport;
 
+import java.util.LinkedHashMap;
 import java.util.Locale;
+import java.util.Map;
 import java.util.Set;
 
 /**
- * An instrument address: {@code scheme://rest}. Schemes: {@code sim} (an instrument of the
- * in-process simulated bench, {@code sim://generator} or {@code sim://digitizer}), and, reserved
- * for the instrument links, {@code tcp}, {@code serial}, {@code usbtmc}.
+ * An instrument address, one syntax for every link:
+ * <pre>
+ *   tcp://HOST[:PORT][?options]              raw SCPI socket, PORT defaults to 5025
+ *   serial://DEVICE[?options]                e.g. serial:///dev/ttyUSB0?baud=115200&amp;parity=none
+ *   usbtmc://DEVICE[?options]                e.g. usbtmc:///dev/usbtmc0 (Linux kernel driver)
+ *   sim://generator | sim://digitizer        the in-process simulated bench
+ * </pre>
+ * Options are {@code key=value} pairs joined by {@code &}; which keys a scheme takes is checked
+ * when its transport opens. Every link accepts {@code term=lf|crlf|cr}, the message terminator.
  */
-public record Address(String scheme, String rest, String text) {
+public record Address(String scheme, String target, Map<String, String> options, String text) {
 
     public static final Set<String> SCHEMES = Set.of("sim", "tcp", "serial", "usbtmc");
+    public static final int DEFAULT_TCP_PORT = 5025;
 
     public static Address parse(String text) {
         if (text == null || text.isBlank()) {
@@ -28,10 +37,112 @@ public record Address(String scheme, String rest, String text) {
                     + schemeList());
         }
         String rest = t.substring(sep + 3);
-        if (rest.isEmpty()) {
+        int q = rest.indexOf('?');
+        String target = q < 0 ? rest : rest.substring(0, q);
+        Map<String, String> options = new LinkedHashMap<>();
+        if (q >= 0) {
+            for (String pair : rest.substring(q + 1).split("&", -1)) {
+                int eq = pair.indexOf('=');
+                if (eq <= 0 || eq == pair.length() - 1) {
+                    throw new AddressException("instrument address '" + t + "': option '" + pair
+                            + "' is not key=value");
+                }
+                String key = pair.substring(0, eq).toLowerCase(Locale.ROOT);
+                if (options.put(key, pair.substring(eq + 1)) != null) {
+                    throw new AddressException("instrument address '" + t + "': option '" + key + "' given twice");
+                }
+            }
+        }
+        if (target.isEmpty()) {
             throw new AddressException("instrument address '" + t + "': nothing after '" + scheme + "://'");
         }
-        return new Address(scheme, rest, t);
+        if ((scheme.equals("serial") || scheme.equals("usbtmc")) && !target.startsWith("/")) {
+            throw new AddressException("instrument address '" + t + "': the device must be an absolute path, as in "
+                    + scheme + ":///dev/" + (scheme.equals("serial") ? "ttyUSB0" : "usbtmc0"));
+        }
+        return new Address(scheme, target, Map.copyOf(options), t);
+    }
+
+    /** The host of a tcp address. */
+    public String host() {
+        int colon = target.lastIndexOf(':');
+        String host = colon < 0 ? target : target.substring(0, colon);
+        if (host.startsWith("[") && host.endsWith("]")) {
+            host = host.substring(1, host.length() - 1);
+        }
+        if (host.isEmpty()) {
+            throw new AddressException("instrument address '" + text + "': the host is empty");
+        }
+        return host;
+    }
+
+    /** The port of a tcp address, 5025 when absent. */
+    public int port() {
+        int colon = target.lastIndexOf(':');
+        if (colon < 0 || target.endsWith("]")) {
+            return DEFAULT_TCP_PORT;
+        }
+        String p = target.substring(colon + 1);
+        try {
+            int port = Integer.parseInt(p);
+            if (port < 1 || port > 65535) {
+                throw new NumberFormatException();
+            }
+            return port;
+        } catch (NumberFormatException e) {
+            throw new AddressException("instrument address '" + text + "': port '" + p + "' is not 1 to 65535");
+        }
+    }
+
+    /** Refuses options the scheme does not know, naming the bad key and the allowed ones. */
+    public void requireOptions(Set<String> allowed) {
+        for (String key : options.keySet()) {
+            if (!allowed.contains(key)) {
+                throw new AddressException("instrument address '" + text + "': unknown option '" + key + "' for "
+                        + scheme + "; allowed: " + String.join(", ", allowed.stream().sorted().toList()));
+            }
+        }
+    }
+
+    /** An option as a whole number within [min, max], or the default. */
+    public int intOption(String key, int def, int min, int max) {
+        String v = options.get(key);
+        if (v == null) {
+            return def;
+        }
+        try {
+            int n = Integer.parseInt(v);
+            if (n < min || n > max) {
+                throw new NumberFormatException();
+            }
+            return n;
+        } catch (NumberFormatException e) {
+            throw new AddressException("instrument address '" + text + "': " + key + "=" + v + " is not a whole number "
+                    + min + " to " + max);
+        }
+    }
+
+    /** An option out of a fixed set of words, or the default. */
+    public String wordOption(String key, String def, Set<String> allowed) {
+        String v = options.get(key);
+        if (v == null) {
+            return def;
+        }
+        String lower = v.toLowerCase(Locale.ROOT);
+        if (!allowed.contains(lower)) {
+            throw new AddressException("instrument address '" + text + "': " + key + "=" + v + " is not allowed; allowed: "
+                    + String.join(", ", allowed.stream().sorted().toList()));
+        }
+        return lower;
+    }
+
+    /** The message terminator option: {@code term=lf} (default), {@code crlf} or {@code cr}. */
+    public String terminator() {
+        return switch (wordOption("term", "lf", Set.of("lf", "crlf", "cr"))) {
+            case "crlf" -> "\r\n";
+            case "cr" -> "\r";
+            default -> "\n";
+        };
     }
 
     private static String schemeList() {

@@ -18,14 +18,14 @@ public final class Transports {
     public static Transport open(Address address, Map<String, InProcessPeer> simulated) {
         switch (address.scheme()) {
             case "sim" -> {
-                InProcessPeer peer = simulated.get(address.rest());
+                InProcessPeer peer = simulated.get(address.target());
                 if (peer == null) {
                     if (simulated.isEmpty()) {
                         throw new InstrumentException("address " + address + " is an instrument of the simulated bench;"
                                 + " give the part to simulate with --sim PART.yaml, or a bench file with real addresses");
                     }
                     throw new AddressException("address " + address + ": the simulated bench has no instrument '"
-                            + address.rest() + "'; it has " + String.join(", ", simulated.keySet()));
+                            + address.target() + "'; it has " + String.join(", ", simulated.keySet()));
                 }
                 return new InProcessTransport(address.text(), peer);
             }

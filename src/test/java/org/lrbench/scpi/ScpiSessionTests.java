@@ -96,7 +96,35 @@ class ScpiSessionTests {
         assertThatThrownBy(() -> session(64, "12345\n").queryBlock("X?")).hasMessageContaining("expected '#'");
         assertThatThrownBy(() -> session(64, "#x\n").queryBlock("X?")).hasMessageContaining("expected a digit");
         assertThatThrownBy(() -> session(64, "#3a\n").queryBlock("X?")).hasMessageContaining("length digit 1 of 3");
-        assertThatThrownBy(() -> session(64, "#0abc\n").queryBlock("X?")).hasMessageContaining("indefinite");
+    }
+
+    @Test
+    void indefiniteBlockEndsAtANewlineThatNothingFollows() {
+        // IEEE Std 488.2-1992, 7.7.6.2: #0<bytes>NL^END; on a byte stream the END is the quiet after NL
+        assertThat(session(64, "#0abc\n").queryBlock("X?")).containsExactly(bytes("abc"));
+        // a newline that more data follows at once is data
+        assertThat(session(2, "#0a\nb\n").queryBlock("X?")).containsExactly(bytes("a\nb"));
+    }
+
+    @Test
+    void carriageReturnLineFeedTerminatorIsHonoured() {
+        Scripted link = new Scripted(3, bytes("LRBENCH,M,1,2\r\n#13xyz\r\n"));
+        ScpiSession s = new ScpiSession("meter", link, Duration.ofMillis(50), "\r\n");
+        assertThat(s.identify().model()).isEqualTo("M");
+        assertThat(s.queryBlock("DATA?")).containsExactly(bytes("xyz"));
+        assertThat(link.written.toString()).isEqualTo("*IDN?\r\nDATA?\r\n");
+    }
+
+    @Test
+    void configurationAndErrorQueryTravelInOneMessage() {
+        Scripted link = new Scripted(64, bytes("1.0E+00;0,\"No error\"\n"));
+        ScpiSession s = new ScpiSession("scope", link, Duration.ofMillis(50));
+        assertThat(s.configure(":RANG 1;:RANG?", ":SYST:ERR?")).containsExactly("1.0E+00");
+        assertThat(link.written.toString()).isEqualTo(":RANG 1;:RANG?;:SYST:ERR?\n");
+        assertThat(s.queries()).isEqualTo(1);
+        Scripted bad = new Scripted(64, bytes("-222,\"Data out of range;x\"\n0,\"No error\"\n"));
+        assertThatThrownBy(() -> new ScpiSession("scope", bad, Duration.ofMillis(50)).configure(":RANG 1E9", ":SYST:ERR?"))
+                .hasMessage("scope: ':RANG 1E9' caused [-222,\"Data out of range;x\"]");
     }
 
     @Test
