@@ -9,6 +9,15 @@ import org.lrbench.sim.SimSettings;
 public record BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
                           InstrumentLink digitizer, SimSettings simulation) {
 
+    /** The same bench with other instrument addresses (null keeps an address). */
+    public BenchConfig withAddresses(org.lrbench.transport.Address generatorAddress,
+                                     org.lrbench.transport.Address digitizerAddress) {
+        return new BenchConfig(source, name, maxAmplitudeVolt,
+                generatorAddress == null ? generator : new InstrumentLink(generator.driver(), generatorAddress),
+                digitizerAddress == null ? digitizer : new InstrumentLink(digitizer.driver(), digitizerAddress),
+                simulation);
+    }
+
     public BenchConfig withSimulation(SimSettings settings) {
         return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, settings);
     }

@@ -44,6 +44,18 @@ final class Inputs {
         return value;
     }
 
+    /** Parses an address option; null stays null. */
+    static org.lrbench.transport.Address address(String option, String text) {
+        if (text == null) {
+            return null;
+        }
+        try {
+            return org.lrbench.transport.Address.parse(text);
+        } catch (org.lrbench.transport.AddressException e) {
+            throw new BadInputException(option + ": " + e.getMessage());
+        }
+    }
+
     static String sha256(Path file) {
         try {
             return HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(file)));

@@ -43,6 +43,12 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
     Path bench;
 
+    @Option(names = "--generator", paramLabel = "ADDR", description = "generator address, instead of the bench file's")
+    String generatorAddress;
+
+    @Option(names = "--digitizer", paramLabel = "ADDR", description = "digitizer address, instead of the bench file's")
+    String digitizerAddress;
+
     @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
             description = "folder that keeps every result, as DIR/LOT/SERIAL.json (default: ${DEFAULT-VALUE})")
     Path runs;
@@ -52,6 +58,11 @@ final class RunCommand implements Callable<Integer> {
         Inputs.name("--lot", lot);
         Inputs.name("--serial", serial);
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        if (sim != null && (generatorAddress != null || digitizerAddress != null)) {
+            throw new BadInputException("--sim measures on the in-process simulated bench; it cannot be combined"
+                    + " with --generator or --digitizer");
+        }
+        b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
         Plan p = Inputs.plan(plan, b);
         SimBench simBench = null;
         if (sim != null) {

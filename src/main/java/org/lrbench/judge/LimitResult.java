@@ -13,6 +13,7 @@ public record LimitResult(Limit limit, double value, double uncertainty, boolean
         if (value > limit.upper()) {
             return limit.name() + " " + v + " > " + org.lrbench.units.Units.format(limit.upper(), d);
         }
-        return limit.name() + " " + v + " within " + limit.describeBounds();
+        boolean twoSided = Double.isFinite(limit.lower()) && Double.isFinite(limit.upper());
+        return limit.name() + " " + v + (twoSided ? " within " : " ") + limit.describeBounds();
     }
 }

@@ -58,7 +58,8 @@ public final class BenchInstruments implements AutoCloseable {
                                        Map<String, InProcessPeer> peers, boolean simulated) {
         Address address = simulated ? Address.parse("sim://" + role) : link.address();
         Transport t = Transports.open(address, peers);
-        return new ScpiSession(role + " (" + driver.name() + " at " + address + ")", t, driver.timeout());
+        return new ScpiSession(role + " (" + driver.name() + " at " + address + ")", t, driver.timeout(),
+                address.terminator());
     }
 
     public Generator generator() {

@@ -117,6 +117,15 @@ public abstract class ScpiDevice implements InProcessPeer {
         return n;
     }
 
+    /** Takes every reply byte not yet transmitted (servers push replies as soon as they exist). */
+    public synchronized byte[] takeOutput() {
+        byte[] out = outputPosition == 0 ? output
+                : java.util.Arrays.copyOfRange(output, outputPosition, output.length);
+        output = new byte[0];
+        outputPosition = 0;
+        return out;
+    }
+
     @Override
     public synchronized void discardOutput() {
         output = new byte[0];

@@ -1,0 +1,2 @@
+/** SCPI over serial lines, with jSerialComm. */
+package org.lrbench.transport.serial;

@@ -1,0 +1,2 @@
+/** SCPI over a raw TCP socket, with Netty. */
+package org.lrbench.transport.tcp;

@@ -1,0 +1,2 @@
+/** SCPI over the Linux USBTMC character device. */
+package org.lrbench.transport.usbtmc;
