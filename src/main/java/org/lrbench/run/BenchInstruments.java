@@ -62,6 +62,11 @@ public final class BenchInstruments implements AutoCloseable {
                 address.terminator());
     }
 
+    /** The SCPI sessions of the links (for counting round trips), generator first. */
+    public List<ScpiSession> sessions() {
+        return sessions;
+    }
+
     public Generator generator() {
         return generator;
     }
