@@ -1,11 +1,10 @@
 package org.lrbench.transport.usbtmc;
 
 import java.io.IOException;
+import java.io.RandomAccessFile;
 import java.nio.ByteBuffer;
-import java.nio.channels.FileChannel;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
 import java.time.Duration;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
@@ -22,11 +21,13 @@ import org.lrbench.transport.TransportTimeoutException;
  * driver's own timeout), so reads run on a helper thread and are waited for with this link's
  * timeout; a read that completes after its wait is kept as late input and thrown away by
  * {@link #discardInput()}. A read is only issued when a reply is expected, because asking a USBTMC
- * instrument for data it has not got makes it log a query error.
+ * instrument for data it has not got makes it log a query error. The device is opened once as a
+ * {@link RandomAccessFile}, whose reads and writes share no lock, so a write is never held up by a
+ * read still waiting in the kernel.
  */
 public final class UsbtmcTransport implements Transport {
     private final String address;
-    private final FileChannel device;
+    private final RandomAccessFile device;
     private final ExecutorService reader;
     private Future<ByteBuffer> pending;
     private ByteBuffer late;
@@ -37,7 +38,7 @@ public final class UsbtmcTransport implements Transport {
             throw new IOException("USBTMC device " + path + " does not exist (is the instrument connected and the"
                     + " usbtmc kernel module loaded?)");
         }
-        this.device = FileChannel.open(path, StandardOpenOption.READ, StandardOpenOption.WRITE);
+        this.device = new RandomAccessFile(path.toFile(), "rw");
         this.reader = Executors.newSingleThreadExecutor(r -> {
             Thread t = new Thread(r, "lrbench-usbtmc-read");
             t.setDaemon(true);
@@ -52,10 +53,7 @@ public final class UsbtmcTransport implements Transport {
 
     @Override
     public synchronized void write(byte[] bytes) throws IOException {
-        ByteBuffer b = ByteBuffer.wrap(bytes);
-        while (b.hasRemaining()) {
-            device.write(b);
-        }
+        device.write(bytes);
     }
 
     @Override
@@ -66,13 +64,12 @@ public final class UsbtmcTransport implements Transport {
         if (pending == null) {
             int size = Math.max(length, 4096);
             pending = reader.submit(() -> {
-                ByteBuffer b = ByteBuffer.allocate(size);
+                byte[] b = new byte[size];
                 int n = device.read(b);
                 if (n < 0) {
                     throw new IOException("end of file on " + address);
                 }
-                b.flip();
-                return b;
+                return ByteBuffer.wrap(b, 0, n);
             });
         }
         try {
