@@ -126,12 +126,10 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new IllegalStateException("channel " + channel + " range was never set");
         }
         double offset = offsets.getOrDefault(channel, 0.0);
-        double[] scale = scales.get(channel);
-        if (scale == null) {
-            String scaleCommand = driver.command("scale_query").render(channel(channel));
-            scale = parseScale(scaleCommand, session.query(scaleCommand));
-            scales.put(channel, scale);
+        if (!scales.containsKey(channel)) {
+            queryScales(channel);
         }
+        double[] scale = scales.get(channel);
         String fetchCommand = driver.command("fetch").render(channel(channel));
         TraceEncoding encoding = driver.traceEncoding();
         double[] raw;
@@ -160,8 +158,27 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         return new Trace(channel, scale[0], scale[1], volts, range, offset, clipped);
     }
 
+    /** Asks the scaling of this channel and of every other ranged channel lacking it, in one message. */
+    private void queryScales(int channel) {
+        List<Integer> channels = new java.util.ArrayList<>();
+        channels.add(channel);
+        ranges.keySet().stream().filter(c -> c != channel && !scales.containsKey(c)).sorted().forEach(channels::add);
+        StringBuilder command = new StringBuilder();
+        for (int ch : channels) {
+            command.append(command.length() == 0 ? "" : ";").append(driver.command("scale_query").render(channel(ch)));
+        }
+        List<String> replies = org.lrbench.scpi.ScpiReplies.split(session.query(command.toString()));
+        if (replies.size() != channels.size()) {
+            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies.size()
+                    + " replies for " + channels.size() + " channels");
+        }
+        for (int i = 0; i < channels.size(); i++) {
+            scales.put(channels.get(i), parseScale(command.toString(), replies.get(i)));
+        }
+    }
+
     private double[] parseScale(String command, String reply) {
-        String[] parts = reply.split("[,;]");
+        String[] parts = reply.split(",");
         if (parts.length != 4) {
             throw new InstrumentException(session.instrument() + ": reply to '" + command + "' is '" + reply
                     + "'; expected four numbers: x increment, x origin, y increment, y origin");

@@ -75,6 +75,12 @@ public final class AutoRanger {
         return false;
     }
 
+    /** Starts the next capture at ranges that put these peak voltages at the target fill. */
+    public void expect(double peak1, double peak2) {
+        range[1] = clamp(1, 2 * peak1 / TARGET_FILL);
+        range[2] = clamp(2, 2 * peak2 / TARGET_FILL);
+    }
+
     /** The ranges the last capture used, for starting the next point near them. */
     public double range(int ch) {
         return range[ch];

@@ -61,6 +61,13 @@ public final class SweepRunner {
             int count = sweep.frequenciesHz().size();
             for (int i = 0; i < count; i++) {
                 double f = sweep.frequenciesHz().get(i);
+                if (!points.isEmpty() && sweep.offsetVolt() == 0) {
+                    double[] peaks = RangePrediction.next(points.get(points.size() - 1).impedance(),
+                            sweep.amplitudeVolt(), plan.senseResistanceOhm(), f);
+                    if (peaks != null) {
+                        ranger.expect(peaks[0], peaks[1]);
+                    }
+                }
                 PointResult point = measurePoint(plan, f, ranger);
                 points.add(point);
                 listener.pointMeasured(i, count, point);
@@ -75,7 +82,9 @@ public final class SweepRunner {
         SineSweep sweep = plan.sweep();
         generator.setFrequency(f);
         double interval = 1.0 / (f * sweep.samplesPerCycle());
-        int points = (int) Math.ceil(sweep.cycles() * sweep.samplesPerCycle());
+        // a little more than the cycles asked for, so an interval the digitizer rounds down by up to
+        // 0.1 % still captures them without a second round trip
+        int points = (int) Math.ceil(sweep.cycles() * sweep.samplesPerCycle() * 1.001) + 1;
         Timing timing = digitizer.setTiming(interval, points);
         double cyclesCaptured = timing.points() * timing.sampleIntervalSecond() * f;
         if (1.0 / (f * timing.sampleIntervalSecond()) < sweep.samplesPerCycle() * (1 - 1e-9)

@@ -39,6 +39,8 @@ public final class SimDigitizer extends ScpiDevice {
     private Format format;
     private boolean littleEndian;
     private double[][] record;
+    /** Encoded replies of the current record, per channel: the instrument's transfer buffer. */
+    private final Object[] encoded = new Object[CHANNELS + 1];
 
     public SimDigitizer(AnalogInputs inputs, SimSettings settings) {
         super("LRBENCH,SIM-DIGITIZER-2,SIM0002,0.1");
@@ -109,6 +111,7 @@ public final class SimDigitizer extends ScpiDevice {
             c.expect(1, 2);
             String type = c.word(0, "ASCii", "INTeger", "REAL");
             int length = c.count() > 1 ? (int) c.number(1, 8, 64, 8) : (type.equals("REAL") ? 32 : 8);
+            java.util.Arrays.fill(encoded, null);
             format = switch (type + length) {
                 case "ASC8" -> Format.ASCII;
                 case "INT8" -> Format.INT8;
@@ -122,6 +125,7 @@ public final class SimDigitizer extends ScpiDevice {
         register("FORMat:BORDer", false, c -> {
             c.expect(1, 1);
             littleEndian = c.word(0, "NORMal", "SWAPped").equals("SWAP");
+            java.util.Arrays.fill(encoded, null);
             return null;
         });
         register("INITiate[:IMMediate]", false, c -> {
@@ -139,7 +143,13 @@ public final class SimDigitizer extends ScpiDevice {
             double yOrigin = format == Format.INT8 || format == Format.INT16 ? offset[ch] : 0.0;
             return nr3(interval) + "," + nr3(0.0) + "," + nr3(yIncrement) + "," + nr3(yOrigin);
         });
-        register("TRACe[:DATA]", true, c -> encode(channelParameter(c)));
+        register("TRACe[:DATA]", true, c -> {
+            int ch = channelParameter(c);
+            if (encoded[ch] == null) {
+                encoded[ch] = encode(ch);
+            }
+            return encoded[ch];
+        });
     }
 
     @Override
@@ -179,6 +189,7 @@ public final class SimDigitizer extends ScpiDevice {
                 lines[ch] = lines[ch].stream().filter(h -> h.k() != 0).toList();
             }
         }
+        java.util.Arrays.fill(encoded, null);
         double t0 = triggerTime(lines, f);
         record = new double[CHANNELS + 1][];
         for (int ch = 1; ch <= CHANNELS; ch++) {

@@ -16,7 +16,10 @@ import java.util.ArrayList;
 import java.util.List;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.scpi.ScpiDevice;
-import org.lrbench.transport.tcp.NettyLoops;
+import io.netty.channel.EventLoopGroup;
+import io.netty.channel.MultiThreadIoEventLoopGroup;
+import io.netty.channel.nio.NioIoHandler;
+import io.netty.util.concurrent.DefaultThreadFactory;
 
 /**
  * Serves the simulated bench's generator and digitizer as two raw SCPI sockets on 127.0.0.1, each
@@ -25,6 +28,9 @@ import org.lrbench.transport.tcp.NettyLoops;
  */
 public final class SimServer implements AutoCloseable {
     private final List<Channel> listeners = new ArrayList<>();
+    /** Its own event loop, apart from the process's client links, as a separate instrument would be. */
+    private final EventLoopGroup loop = new MultiThreadIoEventLoopGroup(1, new DefaultThreadFactory("lrbench-sim", true),
+            NioIoHandler.newFactory());
     private final int generatorPort;
     private final int digitizerPort;
 
@@ -51,7 +57,7 @@ public final class SimServer implements AutoCloseable {
 
     private int listen(ScpiDevice device, int port) throws IOException {
         ServerBootstrap b = new ServerBootstrap()
-                .group(NettyLoops.shared())
+                .group(loop)
                 .channel(NioServerSocketChannel.class)
                 .childOption(ChannelOption.TCP_NODELAY, true)
                 .childHandler(new ChannelInitializer<SocketChannel>() {
@@ -74,6 +80,7 @@ public final class SimServer implements AutoCloseable {
             c.close().awaitUninterruptibly();
         }
         listeners.clear();
+        loop.shutdownGracefully(0, 1, java.util.concurrent.TimeUnit.SECONDS).awaitUninterruptibly();
     }
 
     /** Feeds one connection's bytes to an instrument and sends its replies back. */

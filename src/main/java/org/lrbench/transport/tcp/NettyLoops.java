@@ -14,7 +14,7 @@ public final class NettyLoops {
 
     public static synchronized EventLoopGroup shared() {
         if (group == null) {
-            group = new MultiThreadIoEventLoopGroup(2, new DefaultThreadFactory("lrbench-net", true),
+            group = new MultiThreadIoEventLoopGroup(1, new DefaultThreadFactory("lrbench-net", true),
                     NioIoHandler.newFactory());
         }
         return group;

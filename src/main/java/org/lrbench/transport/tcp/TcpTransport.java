@@ -20,7 +20,8 @@ import org.lrbench.transport.Transport;
 import org.lrbench.transport.TransportTimeoutException;
 
 /**
- * A raw SCPI socket (conventionally port 5025) over Netty. Received bytes queue up until read;
+ * A raw SCPI socket (conventionally port 5025) over Netty. Received buffers queue up until read
+ * and are copied once, straight into the reader's array;
  * a dropped connection fails the read in progress, and the next write connects again, so a
  * measurement that lost its link can still switch the generator off.
  */
@@ -33,9 +34,8 @@ public final class TcpTransport implements Transport {
     private final int port;
     private final Duration connectTimeout;
     private final Object lock = new Object();
-    private final Deque<byte[]> chunks = new ArrayDeque<>();
-    private byte[] current;
-    private int currentPosition;
+    private final Deque<ByteBuf> chunks = new ArrayDeque<>();
+    private ByteBuf current;
     private long queued;
     private boolean dropped;
     private Channel channel;
@@ -75,9 +75,7 @@ public final class TcpTransport implements Transport {
                     + " ms" + (cause == null ? "" : ": " + cause.getMessage()), cause);
         }
         synchronized (lock) {
-            chunks.clear();
-            current = null;
-            queued = 0;
+            releaseQueued();
             dropped = false;
             channel = f.channel();
         }
@@ -113,7 +111,6 @@ public final class TcpTransport implements Transport {
         synchronized (lock) {
             while (current == null) {
                 current = chunks.poll();
-                currentPosition = 0;
                 if (current != null) {
                     break;
                 }
@@ -134,11 +131,11 @@ public final class TcpTransport implements Transport {
                     throw new IOException("interrupted while reading from " + address, e);
                 }
             }
-            int n = Math.min(length, current.length - currentPosition);
-            System.arraycopy(current, currentPosition, dst, offset, n);
-            currentPosition += n;
+            int n = Math.min(length, current.readableBytes());
+            current.readBytes(dst, offset, n);
             queued -= n;
-            if (currentPosition == current.length) {
+            if (!current.isReadable()) {
+                current.release();
                 current = null;
             }
             return n;
@@ -148,10 +145,20 @@ public final class TcpTransport implements Transport {
     @Override
     public void discardInput() {
         synchronized (lock) {
-            chunks.clear();
-            current = null;
-            queued = 0;
+            releaseQueued();
         }
+    }
+
+    private void releaseQueued() {
+        if (current != null) {
+            current.release();
+            current = null;
+        }
+        for (ByteBuf b : chunks) {
+            b.release();
+        }
+        chunks.clear();
+        queued = 0;
     }
 
     @Override
@@ -160,6 +167,7 @@ public final class TcpTransport implements Transport {
         synchronized (lock) {
             closed = true;
             ch = channel;
+            releaseQueued();
             lock.notifyAll();
         }
         if (ch != null) {
@@ -171,18 +179,16 @@ public final class TcpTransport implements Transport {
     private final class Receiver extends SimpleChannelInboundHandler<ByteBuf> {
         @Override
         protected void channelRead0(ChannelHandlerContext ctx, ByteBuf msg) {
-            byte[] data = new byte[msg.readableBytes()];
-            msg.readBytes(data);
             synchronized (lock) {
-                if (ctx.channel() != channel) {
+                if (ctx.channel() != channel || closed) {
                     return; // a late packet from a connection already replaced
                 }
-                queued += data.length;
+                queued += msg.readableBytes();
                 if (queued > MAX_QUEUED) {
                     ctx.close();
                     dropped = true;
                 } else {
-                    chunks.add(data);
+                    chunks.add(msg.retain()); // kept until read: one copy, into the reader's array
                 }
                 lock.notifyAll();
             }

@@ -1,0 +1,43 @@
+package org.lrbench.cli;
+
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+import org.lrbench.benchmark.LinkBenchmark;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.plan.Plan;
+import org.lrbench.sim.PartFile;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/** {@code lrbench benchmark links}: measured ratios, printed side by side. */
+@Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
+        subcommands = {BenchmarkCommand.Links.class})
+final class BenchmarkCommand implements Runnable {
+
+    @Override
+    public void run() {
+        System.out.println("use: lrbench benchmark links");
+    }
+
+    @Command(name = "links", description = {"Trace transfer over loopback TCP against a plain socket;",
+            "round trips per sweep point and the time share outside the instruments."})
+    static final class Links implements Callable<Integer> {
+        @Option(names = "--points", defaultValue = "10000000", description = "trace samples (default: ${DEFAULT-VALUE})")
+        int points;
+
+        @Option(names = "--repeats", defaultValue = "11", description = "fetches per path (default: ${DEFAULT-VALUE})")
+        int repeats;
+
+        @Override
+        public Integer call() throws Exception {
+            if (points < 16 || points > 16 * 1024 * 1024 || repeats < 1 || repeats > 100) {
+                throw new BadInputException("--points 16..16777216 and --repeats 1..100");
+            }
+            BenchConfig bench = Inputs.bench(Home.defaultBench());
+            Plan plan = Inputs.plan(Home.root().resolve("plans/qfd-ind-1m0.yaml"), bench);
+            LinkBenchmark.run(System.out, bench, plan, Home.drivers(),
+                    PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")), points, repeats);
+            return ExitCodes.PASS;
+        }
+    }
+}
