@@ -3,6 +3,7 @@ package org.lrbench.transport.tcp;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import org.junit.jupiter.api.Test;
@@ -110,6 +111,22 @@ class TcpLinkTests {
             assertThat(r.error()).contains("generator");
             // the output was on when the link dropped; the guard reconnected and switched it off
             assertThat(sim.generator().isOutputOn()).isFalse();
+        }
+    }
+
+    @Test
+    void theRunCommandExitsThreeWhenTheDigitizerLinkDrops(@org.junit.jupiter.api.io.TempDir Path dir) throws Exception {
+        BenchConfig b = bench();
+        Plan p = plan(b);
+        SimBench sim = simBench(b, p);
+        try (SimServer server = new SimServer(sim, 0);
+             DroppingProxy proxy = new DroppingProxy(server.digitizerPort(), "TRACe:DATA?", 100)) {
+            int code = org.lrbench.cli.Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
+                    "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
+                    "--digitizer", "tcp://127.0.0.1:" + proxy.port(), "--runs", dir.toString());
+            assertThat(code).isEqualTo(3);
+            assertThat(sim.generator().isOutputOn()).isFalse();
+            assertThat(Files.readString(dir.resolve("L/S.json"))).contains("\"verdict\" : \"error\"");
         }
     }
 
