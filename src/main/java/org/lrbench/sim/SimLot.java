@@ -31,7 +31,7 @@ public record SimLot(String lot, Path plan, List<Part> parts) {
         Set<String> serials = new HashSet<>();
         for (YamlMap.Item item : root.list("parts", true)) {
             YamlMap m = root.asMap(item, "serial", "description", "inductance", "series_resistance",
-                    "parallel_capacitance");
+                    "parallel_capacitance", "wire_diameter", "parallel_resistance");
             if (m == null) {
                 continue;
             }

@@ -9,7 +9,8 @@ public enum Dimension {
     INDUCTANCE("H"),
     CAPACITANCE("F"),
     FREQUENCY("Hz"),
-    TIME("s");
+    TIME("s"),
+    LENGTH("m");
 
     private final String symbol;
 
