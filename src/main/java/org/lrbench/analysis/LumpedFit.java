@@ -115,6 +115,19 @@ public final class LumpedFit {
         }
     }
 
+    /**
+     * Fits with exactly these free parameters, dropping none: for re-fitting perturbed data in an
+     * uncertainty budget, where the model must stay the same.
+     */
+    public static double[] refit(List<ImpedancePoint> points, Set<LumpedParameter> free) {
+        SeriesModel series = SeriesModelFit.fit(points);
+        double fMax = points.stream().mapToDouble(ImpedancePoint::frequencyHz).max().orElseThrow();
+        double[] scale = {Math.max(series.resistanceOhm(), 1e-6), series.inductanceHenry(),
+            1 / (Math.pow(2 * Math.PI * fMax, 2) * series.inductanceHenry()), 1 / fMax,
+            1 / points.stream().mapToDouble(p -> p.impedanceOhm().abs()).max().orElseThrow()};
+        return expand(fitOnce(points, free, series, scale).parameters(), free, scale);
+    }
+
     private static LumpedParameter lastOptional(Set<LumpedParameter> free) {
         LumpedParameter last = null;
         for (LumpedParameter p : free) {

@@ -1,13 +1,15 @@
 package org.lrbench.bench;
 
 import org.lrbench.sim.SimSettings;
+import org.lrbench.uncertainty.BenchAccuracy;
 
 /**
  * A bench: its name, the ceiling on the generator's peak open-circuit voltage that no plan may
- * exceed, its generator and digitizer, and how the simulated bench departs from ideal.
+ * exceed, its generator and digitizer, how the simulated bench departs from ideal, and the accuracy
+ * specifications that enter every uncertainty budget.
  */
 public record BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
-                          InstrumentLink digitizer, SimSettings simulation) {
+                          InstrumentLink digitizer, SimSettings simulation, BenchAccuracy accuracy) {
 
     /** The same bench with other instrument addresses (null keeps an address). */
     public BenchConfig withAddresses(org.lrbench.transport.Address generatorAddress,
@@ -15,10 +17,10 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
         return new BenchConfig(source, name, maxAmplitudeVolt,
                 generatorAddress == null ? generator : new InstrumentLink(generator.driver(), generatorAddress),
                 digitizerAddress == null ? digitizer : new InstrumentLink(digitizer.driver(), digitizerAddress),
-                simulation);
+                simulation, accuracy);
     }
 
     public BenchConfig withSimulation(SimSettings settings) {
-        return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, settings);
+        return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, settings, accuracy);
     }
 }

@@ -2,6 +2,7 @@ package org.lrbench.bench;
 
 import java.nio.file.Path;
 import org.lrbench.sim.SimSettings;
+import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.AddressException;
 import org.lrbench.units.Dimension;
@@ -12,7 +13,8 @@ import org.lrbench.yaml.YamlMap;
 
 /** Reads and validates a bench file. */
 public final class BenchLoader {
-    private static final String[] KEYS = {"bench_format", "name", "max_amplitude", "generator", "digitizer", "simulation"};
+    private static final String[] KEYS = {"bench_format", "name", "max_amplitude", "generator", "digitizer", "simulation",
+        "accuracy"};
 
     private BenchLoader() {
     }
@@ -40,8 +42,38 @@ public final class BenchLoader {
         InstrumentLink generator = link(root, "generator");
         InstrumentLink digitizer = link(root, "digitizer");
         SimSettings sim = simulation(root);
+        BenchAccuracy accuracy = accuracy(root);
         root.problems().throwIfAny();
-        return new BenchConfig(source, name, max, generator, digitizer, sim);
+        return new BenchConfig(source, name, max, generator, digitizer, sim, accuracy);
+    }
+
+    private static BenchAccuracy accuracy(YamlMap root) {
+        BenchAccuracy d = BenchAccuracy.defaults();
+        YamlMap m = root.map("accuracy", false, "sense_resistor_tolerance", "gain_accuracy", "skew", "frequency_accuracy");
+        if (m == null) {
+            return d;
+        }
+        Double sense = relative(m, "sense_resistor_tolerance");
+        Double gain = relative(m, "gain_accuracy");
+        Double skew = m.quantity("skew", Dimension.TIME, false);
+        if (skew != null && skew < 0) {
+            m.problem("skew", "must not be negative");
+        }
+        Double freq = relative(m, "frequency_accuracy");
+        return new BenchAccuracy(sense == null ? d.senseTolerance() : sense, gain == null ? d.gainAccuracy() : gain,
+                skew == null ? d.skewSecond() : skew, freq == null ? d.frequencyAccuracy() : freq);
+    }
+
+    private static Double relative(YamlMap m, String key) {
+        var q = m.anyQuantity(key, false);
+        if (q == null) {
+            return null;
+        }
+        if (!q.relative() || q.value() < 0) {
+            m.problem(key, "'" + q + "' must be a non-negative relative value such as 0.1 % or 50 ppm");
+            return null;
+        }
+        return q.value();
     }
 
     private static InstrumentLink link(YamlMap root, String key) {

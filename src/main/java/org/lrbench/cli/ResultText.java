@@ -31,12 +31,20 @@ final class ResultText {
             }
         }
         if (r.inductanceH() != null) {
-            out.printf("  series R-L model: L = %s +/- %s, R = %s +/- %s (standard uncertainties)%n",
+            out.printf("  %s: L = %s +/- %s, R_dc = %s +/- %s (expanded, k = 2)%n", r.model().name(),
                     Units.format(r.inductanceH(), Dimension.INDUCTANCE),
-                    Units.format(r.inductanceUncertaintyH(), Dimension.INDUCTANCE),
+                    Units.format(r.inductanceExpandedUncertaintyH(), Dimension.INDUCTANCE),
                     Units.format(r.seriesResistanceOhm(), Dimension.RESISTANCE),
-                    Units.format(r.seriesResistanceUncertaintyOhm(), Dimension.RESISTANCE));
+                    Units.format(r.seriesResistanceExpandedUncertaintyOhm(), Dimension.RESISTANCE));
+            if (r.selfResonanceHz() != null) {
+                out.printf("  self-resonance %s%n", Units.format(r.selfResonanceHz(), Dimension.FREQUENCY));
+            } else if (r.selfResonanceAboveHz() != null) {
+                out.printf("  self-resonance above %s (not reached by the sweep)%n",
+                        Units.format(r.selfResonanceAboveHz(), Dimension.FREQUENCY));
+            }
+            r.model().dropped().forEach(d -> out.println("  model term dropped: " + d));
         }
+        r.warnings().forEach(w -> out.println("  warning: " + w));
         for (PartResult.LimitRecord l : r.limits()) {
             out.printf("  %-4s %s (spec %s)%n", l.pass() ? "ok" : "FAIL", l.reason(), l.spec());
         }
@@ -46,7 +54,7 @@ final class ResultText {
         out.println("verdict: " + r.verdict().toUpperCase(Locale.ROOT));
     }
 
-    /** The frequency the table's Q column is shown at: the first Q limit's, else the top of the sweep. */
+    /** The frequency the table's Q column is headed with: the first Q limit's, else the top of the sweep. */
     static double qFrequency(Plan plan) {
         return plan.limits().stream().filter(l -> l.characteristic() == Characteristic.QUALITY_FACTOR)
                 .map(Limit::atFrequencyHz).findFirst().orElse(plan.sweep().highestHz());
@@ -60,8 +68,8 @@ final class ResultText {
     static void tableRow(PrintStream out, PartResult r, double qAtHz) {
         String l = r.inductanceH() == null ? "-" : Units.format(r.inductanceH(), Dimension.INDUCTANCE);
         String res = r.seriesResistanceOhm() == null ? "-" : Units.format(r.seriesResistanceOhm(), Dimension.RESISTANCE);
-        String q = r.inductanceH() == null ? "-" : String.format(Locale.ROOT, "%.1f",
-                2 * Math.PI * qAtHz * r.inductanceH() / r.seriesResistanceOhm());
+        String q = r.limits().stream().filter(x -> x.characteristic().equals("quality_factor") && x.value() != null)
+                .findFirst().map(x -> String.format(Locale.ROOT, "%.1f", x.value())).orElse("-");
         String reason = r.error() != null ? r.error() : String.join("; ", r.failedLimits());
         out.printf(ROW, r.serial(), l, res, q, r.verdict(), reason);
     }

@@ -8,7 +8,8 @@ import org.lrbench.units.Dimension;
 public enum Characteristic {
     INDUCTANCE("inductance", Dimension.INDUCTANCE, false),
     SERIES_RESISTANCE("series_resistance", Dimension.RESISTANCE, false),
-    QUALITY_FACTOR("quality_factor", Dimension.NONE, true);
+    QUALITY_FACTOR("quality_factor", Dimension.NONE, true),
+    SELF_RESONANCE("self_resonance", Dimension.FREQUENCY, false);
 
     private final String key;
     private final Dimension dimension;

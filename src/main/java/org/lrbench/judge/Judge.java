@@ -2,42 +2,48 @@ package org.lrbench.judge;
 
 import java.util.ArrayList;
 import java.util.List;
-import org.lrbench.analysis.SeriesModel;
 
 /**
- * Judges the plan's limits on the fitted sweep model (simple acceptance: a value on or inside a
- * bound passes). L and R come straight from the series model; Q is the model's 2 pi f L / R at the
- * limit's frequency.
+ * Judges readings against limits under each limit's decision rule. Simple acceptance passes a
+ * reading on or inside a tolerance limit; guarded acceptance (ILAC-G8:09/2019, w = U by default)
+ * passes it only inside the acceptance limits, the tolerance limits moved inward by w.
  */
 public final class Judge {
 
     private Judge() {
     }
 
-    public static List<LimitResult> judge(List<Limit> limits, SeriesModel model) {
+    /** A reading of one limit's characteristic with its standard and expanded uncertainty. */
+    public record Reading(double value, double uncertainty, double expandedUncertainty, String note) {
+
+        public Reading(double value, double uncertainty, double expandedUncertainty) {
+            this(value, uncertainty, expandedUncertainty, null);
+        }
+    }
+
+    public static LimitResult judge(Limit limit, Reading reading) {
+        double w = limit.rule() == DecisionRule.GUARDED
+                ? (limit.guardBand() != null ? limit.guardBand() : reading.expandedUncertainty())
+                : 0.0;
+        double lo = limit.lower() + w;
+        double hi = limit.upper() - w;
+        double v = reading.value();
+        boolean pass = Double.isFinite(v) && v >= lo && v <= hi;
+        Zone zone;
+        if (!pass) {
+            zone = Zone.OUTSIDE;
+        } else {
+            double u = reading.expandedUncertainty();
+            zone = (v - u < limit.lower() || v + u > limit.upper()) ? Zone.MARGINAL : Zone.CLEAR;
+        }
+        return new LimitResult(limit, v, reading.uncertainty(), reading.expandedUncertainty(), lo, hi, zone, pass,
+                Math.min(v - lo, hi - v), reading.note());
+    }
+
+    public static List<LimitResult> judge(List<Limit> limits, List<Reading> readings) {
         List<LimitResult> out = new ArrayList<>();
-        for (Limit limit : limits) {
-            double value;
-            double u;
-            switch (limit.characteristic()) {
-                case INDUCTANCE -> {
-                    value = model.inductanceHenry();
-                    u = model.inductanceUncertaintyHenry();
-                }
-                case SERIES_RESISTANCE -> {
-                    value = model.resistanceOhm();
-                    u = model.resistanceUncertaintyOhm();
-                }
-                case QUALITY_FACTOR -> {
-                    value = model.qualityFactor(limit.atFrequencyHz());
-                    double relL = model.inductanceUncertaintyHenry() / model.inductanceHenry();
-                    double relR = model.resistanceUncertaintyOhm() / model.resistanceOhm();
-                    u = Math.abs(value) * Math.hypot(relL, relR);
-                }
-                default -> throw new IllegalStateException(limit.characteristic().toString());
-            }
-            boolean pass = Double.isFinite(value) && limit.contains(value);
-            out.add(new LimitResult(limit, value, u, pass, limit.margin(value)));
+        for (int i = 0; i < limits.size(); i++) {
+            out.add(judge(limits.get(i), readings.get(i)));
         }
         return out;
     }

@@ -5,10 +5,17 @@ import org.lrbench.units.Units;
 /**
  * A limit of the purchase specification: a characteristic, the frequency it applies at (when it
  * depends on frequency), and the closed interval [lower, upper] that passes; a one-sided limit has
- * an infinite bound. {@code spec} keeps how the plan wrote it ("1 mH +/- 10 %").
+ * an infinite bound. {@code spec} keeps how the plan wrote it ("1 mH +/- 10 %"); {@code rule} is the
+ * decision rule, {@code guardBand} its guard band w (null: w = U of the reading).
  */
 public record Limit(String name, Characteristic characteristic, Double atFrequencyHz,
-                    double lower, double upper, String spec) {
+                    double lower, double upper, String spec, DecisionRule rule, Double guardBand) {
+
+    /** A limit under simple acceptance. */
+    public Limit(String name, Characteristic characteristic, Double atFrequencyHz, double lower, double upper,
+                 String spec) {
+        this(name, characteristic, atFrequencyHz, lower, upper, spec, DecisionRule.SIMPLE, null);
+    }
 
     public boolean contains(double value) {
         return value >= lower && value <= upper;

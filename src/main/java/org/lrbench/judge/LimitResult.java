@@ -1,19 +1,35 @@
 package org.lrbench.judge;
 
-/** One limit judged: the measured value, its standard uncertainty, pass or fail, and the margin. */
-public record LimitResult(Limit limit, double value, double uncertainty, boolean pass, double margin) {
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
 
-    /** "winding resistance 2.71 ohm > 2.60 ohm" style reason for a failed limit. */
+/**
+ * One limit judged: the reading, its standard and expanded uncertainty, the acceptance limits the
+ * decision rule drew, the zone the reading falls in, pass or fail, and the margin to the nearest
+ * acceptance limit (negative outside).
+ */
+public record LimitResult(Limit limit, double value, double uncertainty, double expandedUncertainty,
+                          double acceptanceLower, double acceptanceUpper, Zone zone, boolean pass, double margin,
+                          String note) {
+
+    /** "winding resistance 2.71 ohm > 2.60 ohm" style reason. */
     public String reason() {
-        var d = limit.characteristic().dimension();
-        String v = org.lrbench.units.Units.format(value, d);
-        if (value < limit.lower()) {
-            return limit.name() + " " + v + " < " + org.lrbench.units.Units.format(limit.lower(), d);
+        Dimension d = limit.characteristic().dimension();
+        String v = Units.format(value, d);
+        String guard = limit.rule() == DecisionRule.GUARDED ? " (guarded acceptance limit)" : "";
+        if (note != null) {
+            return limit.name() + " " + note + (pass ? " (" + limit.describeBounds() + ")" : ", required "
+                    + limit.describeBounds());
         }
-        if (value > limit.upper()) {
-            return limit.name() + " " + v + " > " + org.lrbench.units.Units.format(limit.upper(), d);
+        if (value < acceptanceLower) {
+            return limit.name() + " " + v + " < " + Units.format(acceptanceLower, d) + guard;
+        }
+        if (value > acceptanceUpper) {
+            return limit.name() + " " + v + " > " + Units.format(acceptanceUpper, d) + guard;
         }
         boolean twoSided = Double.isFinite(limit.lower()) && Double.isFinite(limit.upper());
-        return limit.name() + " " + v + (twoSided ? " within " : " ") + limit.describeBounds();
+        return limit.name() + " " + v + (twoSided ? " within " : " ") + limit.describeBounds()
+                + (zone == Zone.MARGINAL ? ", marginal: within U = " + Units.format(expandedUncertainty, d)
+                + " of the limit" : "");
     }
 }

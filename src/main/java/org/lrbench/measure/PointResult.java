@@ -5,9 +5,10 @@ import org.lrbench.analysis.SineFitResult;
 
 /**
  * One sweep point: the impedance, both channel fits, the ranges used and how many acquisitions
- * auto-ranging took.
+ * auto-ranging took, and the total harmonic distortion of the current (a distorted current reveals
+ * core saturation).
  */
 public record PointResult(ImpedancePoint impedance, SineFitResult senseFit, SineFitResult partFit,
                           double senseRangeVolt, double partRangeVolt, double sampleIntervalSecond,
-                          int samples, int acquisitions) {
+                          int samples, int acquisitions, double currentThd) {
 }

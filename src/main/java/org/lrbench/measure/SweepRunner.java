@@ -2,6 +2,7 @@ package org.lrbench.measure;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.lrbench.analysis.HarmonicFit;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.PhasorImpedance;
 import org.lrbench.analysis.SineFit;
@@ -23,6 +24,8 @@ import org.lrbench.plan.SineSweep;
  * this class switches it on and off, and the caller switches it off again on every exit path.
  */
 public final class SweepRunner {
+    /** Harmonics 2..9 enter the current's distortion figure. */
+    static final int THD_HARMONICS = 9;
     private final Generator generator;
     private final Digitizer digitizer;
     private final Sleeper sleeper;
@@ -107,7 +110,8 @@ public final class SweepRunner {
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
         }
         ImpedancePoint z = PhasorImpedance.of(f, sense, part, plan.senseResistanceOhm());
+        double thd = HarmonicFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f, THD_HARMONICS).thd();
         return new PointResult(z, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
-                timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions());
+                timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), thd);
     }
 }

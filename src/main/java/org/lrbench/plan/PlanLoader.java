@@ -2,11 +2,15 @@ package org.lrbench.plan;
 
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.EnumSet;
 import java.util.HashSet;
+import java.util.Map;
 import java.util.List;
 import java.util.Locale;
 import java.util.Set;
+import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.judge.Characteristic;
+import org.lrbench.judge.DecisionRule;
 import org.lrbench.judge.Limit;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Quantity;
@@ -67,7 +71,7 @@ public final class PlanLoader {
 
     private static SineSweep readSweep(YamlMap root, double maxAmplitudeVolt) {
         YamlMap s = root.map("sine_sweep", true, "amplitude", "offset", "frequencies", "log_sweep", "cycles",
-                "samples_per_cycle", "settle");
+                "samples_per_cycle", "settle", "model_terms", "distortion_limit");
         if (s == null) {
             return null;
         }
@@ -91,10 +95,50 @@ public final class PlanLoader {
         if (settle != null && settle < 0) {
             s.problem("settle", "must not be negative");
         }
-        if (amplitude == null || frequencies == null || cycles == null || settle == null) {
+        Set<LumpedParameter> terms = readTerms(s);
+        Double distortion = 0.03;
+        if (s.has("distortion_limit")) {
+            var q = s.anyQuantity("distortion_limit", true);
+            if (q != null && (!q.relative() || !(q.value() > 0))) {
+                s.problem("distortion_limit", "must be a percentage greater than 0, such as 3 %");
+            }
+            distortion = q == null || !q.relative() ? null : q.value();
+        }
+        if (amplitude == null || frequencies == null || cycles == null || settle == null || terms == null
+                || distortion == null) {
             return null;
         }
-        return new SineSweep(amplitude, off, frequencies, cycles, spc == null ? MIN_SAMPLES_PER_CYCLE : spc, settle);
+        return new SineSweep(amplitude, off, frequencies, cycles, spc == null ? MIN_SAMPLES_PER_CYCLE : spc, settle,
+                terms, distortion);
+    }
+
+    private static final Map<String, LumpedParameter> TERMS = Map.of(
+            "parallel_capacitance", LumpedParameter.C_P,
+            "skin_effect", LumpedParameter.SKIN,
+            "parallel_loss", LumpedParameter.G_P);
+
+    private static Set<LumpedParameter> readTerms(YamlMap s) {
+        Set<LumpedParameter> terms = EnumSet.noneOf(LumpedParameter.class);
+        if (!s.has("model_terms")) {
+            return EnumSet.of(LumpedParameter.C_P, LumpedParameter.SKIN);
+        }
+        var node = s.value("model_terms", true).orElseThrow();
+        if (node instanceof org.yaml.snakeyaml.nodes.SequenceNode seq && seq.getValue().isEmpty()) {
+            return terms; // the series R + L model
+        }
+        boolean ok = true;
+        for (YamlMap.Item item : s.list("model_terms", true)) {
+            String word = item.node() instanceof org.yaml.snakeyaml.nodes.ScalarNode sc ? sc.getValue() : null;
+            LumpedParameter p = word == null ? null : TERMS.get(word);
+            if (p == null) {
+                s.problems().add(item.node(), item.path(), "'" + word + "' is not a model term; allowed: "
+                        + String.join(", ", new java.util.TreeSet<>(TERMS.keySet())) + " (an empty list: series R + L)");
+                ok = false;
+            } else {
+                terms.add(p);
+            }
+        }
+        return ok ? terms : null;
     }
 
     private static List<Double> readFrequencies(YamlMap s) {
@@ -156,7 +200,8 @@ public final class PlanLoader {
         List<Limit> limits = new ArrayList<>();
         Set<String> names = new HashSet<>();
         for (YamlMap.Item item : root.list("limits", true)) {
-            YamlMap m = root.asMap(item, "name", "characteristic", "at", "nominal", "tolerance", "min", "max");
+            YamlMap m = root.asMap(item, "name", "characteristic", "at", "nominal", "tolerance", "min", "max",
+                    "decision", "guard_band");
             if (m == null) {
                 continue;
             }
@@ -244,7 +289,20 @@ public final class PlanLoader {
                     + (max != null ? "max " + Units.format(max, d) : "");
         }
         String limitName = name != null ? name.trim() : c.key().replace('_', ' ');
-        return new Limit(limitName, c, at, lower, upper, spec);
+        DecisionRule rule = m.has("decision")
+                ? m.choice("decision", true, Map.of("simple", DecisionRule.SIMPLE, "guarded", DecisionRule.GUARDED))
+                : DecisionRule.SIMPLE;
+        Double guard = m.quantity("guard_band", d, false);
+        if (guard != null && rule != DecisionRule.GUARDED) {
+            m.problem("guard_band", "a guard band needs decision: guarded");
+        }
+        if (guard != null && !(guard >= 0)) {
+            m.problem("guard_band", "must not be negative");
+        }
+        if (rule == null) {
+            return null;
+        }
+        return new Limit(limitName, c, at, lower, upper, spec, rule, guard);
     }
 
     private static String stripZeros(double v) {

@@ -1,14 +1,19 @@
 package org.lrbench.plan;
 
 import java.util.List;
+import java.util.Set;
+import org.lrbench.analysis.LumpedParameter;
 
 /**
  * A sine sweep: the generator's open-circuit peak amplitude and offset, the frequencies in the
- * order measured, how many cycles each capture holds, the fewest samples per cycle, and how long to
- * wait after a frequency change before capturing.
+ * order measured, how many cycles each capture holds, the fewest samples per cycle, how long to
+ * wait after a frequency change before capturing, the optional terms of the lumped model to try
+ * (none: the series R + L model), and the current's total harmonic distortion above which a point
+ * is flagged (core saturation).
  */
 public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
-                        int samplesPerCycle, double settleSecond) {
+                        int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms,
+                        double distortionLimit) {
 
     public double lowestHz() {
         return frequenciesHz.stream().mapToDouble(Double::doubleValue).min().orElse(Double.NaN);

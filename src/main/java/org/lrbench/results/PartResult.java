@@ -11,23 +11,47 @@ import java.util.Map;
 public record PartResult(String schema, String programVersion, String lot, String serial, String partNumber,
                          String planPath, String planSha256, String bench, boolean simulated,
                          String startedAt, String finishedAt, String verdict, String error,
-                         List<String> failedLimits, Double inductanceH, Double inductanceUncertaintyH,
-                         Double seriesResistanceOhm, Double seriesResistanceUncertaintyOhm, String model,
-                         Double reducedChiSquare, List<LimitRecord> limits, List<PointRecord> points,
-                         Map<String, String> instruments) {
+                         List<String> failedLimits, List<String> warnings,
+                         Double inductanceH, Double inductanceUncertaintyH, Double inductanceExpandedUncertaintyH,
+                         Double seriesResistanceOhm, Double seriesResistanceUncertaintyOhm,
+                         Double seriesResistanceExpandedUncertaintyOhm,
+                         Double selfResonanceHz, Double selfResonanceAboveHz,
+                         Map<String, String> methods, ModelRecord model, List<LimitRecord> limits,
+                         List<PointRecord> points, Map<String, BudgetRecord> budgets, Map<String, String> instruments) {
 
-    public static final String SCHEMA = "lrbench.part-result.v1";
+    public static final String SCHEMA = "lrbench.part-result.v2";
+
+    /** The sweep model: its name, each free parameter with its standard uncertainty, what was dropped. */
+    public record ModelRecord(String name, Map<String, ParameterRecord> parameters, List<String> dropped,
+                              Double reducedChiSquare, int degreesOfFreedom) {
+    }
+
+    /** A fitted parameter. */
+    public record ParameterRecord(double value, double standardUncertainty) {
+    }
 
     /** One judged limit; a one-sided limit has a null bound. */
-    public record LimitRecord(String name, String characteristic, Double atHz, String spec, Double value,
-                              Double uncertainty, Double lower, Double upper, boolean pass, Double margin,
+    public record LimitRecord(String name, String characteristic, Double atHz, String spec, String decisionRule,
+                              Double value, Double uncertainty, Double expandedUncertainty, Double lower, Double upper,
+                              Double acceptanceLower, Double acceptanceUpper, String zone, boolean pass, Double margin,
                               String reason) {
     }
 
     /** One sweep point and how it was captured. */
     public record PointRecord(double frequencyHz, double resistanceOhm, double reactanceOhm, double inductanceH,
                               double qualityFactor, double impedanceUncertaintyOhm, double currentPeakA,
-                              double senseRangeV, double partRangeV, double sampleIntervalS, int samples,
-                              int acquisitions) {
+                              double currentThd, double senseRangeV, double partRangeV, double sampleIntervalS,
+                              int samples, int acquisitions) {
+    }
+
+    /** An uncertainty budget (JCGM 100:2008). */
+    public record BudgetRecord(double value, double standardUncertainty, double expandedUncertainty,
+                               double coverageFactor, Double effectiveDegreesOfFreedom,
+                               List<ContributionRecord> contributions) {
+    }
+
+    /** One line of a budget. */
+    public record ContributionRecord(String source, String type, String distribution, Double inputStandardUncertainty,
+                                     String inputUnit, double sensitivity, double contribution, double share) {
     }
 }

@@ -5,13 +5,18 @@ import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import org.lrbench.analysis.ImpedancePoint;
-import org.lrbench.analysis.SeriesModel;
-import org.lrbench.analysis.SeriesModelFit;
+import org.lrbench.analysis.LumpedModel;
+import org.lrbench.analysis.LumpedParameter;
+import org.lrbench.analysis.SweepAnalysis;
+import org.lrbench.analysis.fit.FitException;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.instrument.InstrumentException;
+import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Judge;
+import org.lrbench.judge.Limit;
 import org.lrbench.judge.LimitResult;
 import org.lrbench.judge.Verdict;
 import org.lrbench.measure.MeasurementException;
@@ -21,13 +26,18 @@ import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
+import org.lrbench.uncertainty.Budget;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
 
 /**
  * Measures one part: checks the plan against the bench's amplitude ceiling, runs the sweep with the
- * output guarded, fits the series model, judges the limits and builds the result. Any fault on the
- * way makes the verdict {@code error}, with the reason; it never yields a pass.
+ * output guarded, fits the sweep model, works out each reported quantity's uncertainty budget,
+ * judges the limits under their decision rules and builds the result. Any fault on the way makes
+ * the verdict {@code error}, with the reason; it never yields a pass.
  */
 public final class PartRun {
+    static final String METHOD = "lumped-model sweep fit of sine-fit phasors";
 
     /** What identifies the measurement in its record. */
     public record Request(Plan plan, String planSha256, BenchConfig bench, String lot, String serial,
@@ -48,63 +58,108 @@ public final class PartRun {
         Instant started = Instant.now();
         Map<String, String> identities = new LinkedHashMap<>();
         List<PointResult> points = List.of();
-        SeriesModel model = null;
-        List<LimitResult> judged = List.of();
         String error = null;
         OutputGuard guard = new OutputGuard(instruments.generator());
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
             points = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper).run(plan, listener);
-            model = SeriesModelFit.fit(points.stream().map(PointResult::impedance).toList());
-            judged = Judge.judge(plan.limits(), model);
         } catch (InstrumentException | MeasurementException | IllegalArgumentException e) {
             error = e.getMessage();
         } finally {
             guard.close();
         }
-        String outputFailure = guard.failure();
-        if (outputFailure != null) {
-            error = error == null ? outputFailure : error + "; " + outputFailure;
+        if (guard.failure() != null) {
+            error = error == null ? guard.failure() : error + "; " + guard.failure();
         }
-        Verdict verdict = error != null ? Verdict.ERROR : Judge.verdict(judged);
-        return record(request, started, verdict, error, model, judged, points, identities);
-    }
-
-    private static PartResult record(Request request, Instant started, Verdict verdict, String error,
-                                     SeriesModel model, List<LimitResult> judged, List<PointResult> points,
-                                     Map<String, String> identities) {
-        List<PartResult.LimitRecord> limits = new ArrayList<>();
-        List<String> failed = new ArrayList<>();
+        Analysis analysis = null;
         if (error == null) {
-            for (LimitResult r : judged) {
-                limits.add(new PartResult.LimitRecord(r.limit().name(), r.limit().characteristic().key(),
-                        r.limit().atFrequencyHz(), r.limit().spec(), r.value(), r.uncertainty(),
-                        finite(r.limit().lower()), finite(r.limit().upper()), r.pass(), r.margin(), r.reason()));
-                if (!r.pass()) {
-                    failed.add(r.reason());
-                }
+            try {
+                analysis = analyse(plan, request.bench(), points);
+            } catch (FitException e) {
+                error = "the sweep could not be fitted: " + e.getMessage();
             }
         }
-        List<PartResult.PointRecord> pointRecords = new ArrayList<>();
-        for (PointResult p : points) {
-            ImpedancePoint z = p.impedance();
-            pointRecords.add(new PartResult.PointRecord(z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm(),
-                    z.inductanceHenry(), z.qualityFactor(), z.componentUncertaintyOhm(), z.currentAmpere().abs(),
-                    p.senseRangeVolt(), p.partRangeVolt(), p.sampleIntervalSecond(), p.samples(), p.acquisitions()));
-        }
-        boolean haveModel = model != null && error == null;
-        return new PartResult(PartResult.SCHEMA, request.programVersion(), request.lot(), request.serial(),
-                request.plan().partNumber(), request.plan().source(), request.planSha256(), request.bench().name(),
-                request.simulated(), started.truncatedTo(ChronoUnit.MILLIS).toString(),
-                Instant.now().truncatedTo(ChronoUnit.MILLIS).toString(), verdict.word(), error, failed,
-                haveModel ? model.inductanceHenry() : null, haveModel ? model.inductanceUncertaintyHenry() : null,
-                haveModel ? model.resistanceOhm() : null, haveModel ? model.resistanceUncertaintyOhm() : null,
-                "series R-L", haveModel && Double.isFinite(model.reducedChiSquare()) ? model.reducedChiSquare() : null,
-                limits, pointRecords, identities);
+        Verdict verdict = error != null ? Verdict.ERROR : Judge.verdict(analysis.judged);
+        return ResultRecord.of(request, started, Instant.now(), verdict, error, analysis, points, identities);
     }
 
-    private static Double finite(double v) {
-        return Double.isFinite(v) ? v : null;
+    /** The model fit, budgets, judged limits and warnings of a completed sweep. */
+    record Analysis(SweepAnalysis.Result sweep, List<LimitResult> judged, Double srfHz, Double srfAboveHz,
+                    List<String> warnings) {
+    }
+
+    static Analysis analyse(Plan plan, BenchConfig bench, List<PointResult> points) {
+        List<ImpedancePoint> z = points.stream().map(PointResult::impedance).toList();
+        SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
+                Readings.evaluations(plan.limits()), bench.accuracy());
+        double fMax = plan.sweep().highestHz();
+        double l = sweep.fit().value(LumpedParameter.L);
+        Double srf = null;
+        Double srfAbove = null;
+        if (sweep.fit().free().contains(LumpedParameter.C_P)) {
+            double f = LumpedModel.selfResonanceHz(l, sweep.fit().value(LumpedParameter.C_P));
+            if (f <= fMax) {
+                srf = f;
+            } else {
+                srfAbove = Math.max(fMax, LumpedModel.selfResonanceHz(l, sweep.fit().capacitanceUpperBound()));
+            }
+        } else if (Double.isFinite(sweep.fit().capacitanceUpperBound()) && sweep.fit().capacitanceUpperBound() > 0) {
+            srfAbove = Math.max(fMax, LumpedModel.selfResonanceHz(l, sweep.fit().capacitanceUpperBound()));
+        } else {
+            srfAbove = fMax;
+        }
+        List<LimitResult> judged = new ArrayList<>();
+        for (Limit limit : plan.limits()) {
+            Budget b = sweep.budgets().get(limit.name());
+            Judge.Reading reading;
+            if (limit.characteristic() == Characteristic.SELF_RESONANCE && srf == null) {
+                // not inside the sweep: only a lower bound is known, which can prove a minimum only
+                String note = "above " + Units.format(srfAbove, Dimension.FREQUENCY) + " (not reached by the sweep)";
+                reading = new Judge.Reading(Double.isFinite(limit.upper()) ? Double.POSITIVE_INFINITY : srfAbove, 0, 0,
+                        note);
+            } else {
+                reading = new Judge.Reading(b.value(), b.standardUncertainty(), b.expandedUncertainty());
+            }
+            judged.add(Judge.judge(limit, reading));
+        }
+        List<String> warnings = new ArrayList<>();
+        for (PointResult p : points) {
+            if (p.currentThd() > plan.sweep().distortionLimit()) {
+                warnings.add(String.format(Locale.ROOT, "current distorted at %s: THD %.2f %% over %.2f %%"
+                        + " (core saturation? lower the amplitude)", Units.format(p.impedance().frequencyHz(),
+                        Dimension.FREQUENCY), 100 * p.currentThd(), 100 * plan.sweep().distortionLimit()));
+            }
+        }
+        warnings.addAll(crossChecks(points, sweep));
+        if (sweep.fit().reducedChiSquare() > 4) {
+            warnings.add(String.format(Locale.ROOT, "the model leaves residuals %.1f times their expected variance:"
+                    + " uncertainties were scaled up; consider more model terms", sweep.fit().reducedChiSquare()));
+        }
+        return new Analysis(sweep, judged, srf, srfAbove, warnings);
+    }
+
+    /**
+     * Each point's own phasor inductance against the model's apparent inductance at that frequency:
+     * where they differ by more than their combined expanded uncertainty, the result says so.
+     */
+    private static List<String> crossChecks(List<PointResult> points, SweepAnalysis.Result sweep) {
+        List<String> out = new ArrayList<>();
+        double[] p = sweep.fit().parameters();
+        double uModel = sweep.budgets().get(Readings.INDUCTANCE).standardUncertainty();
+        for (PointResult pr : points) {
+            ImpedancePoint z = pr.impedance();
+            double omega = 2 * Math.PI * z.frequencyHz();
+            double model = LumpedModel.apparentInductance(p, z.frequencyHz());
+            double uPoint = z.componentUncertaintyOhm() / omega;
+            double combined = Budget.K * Math.hypot(uPoint, uModel * model / p[1]);
+            if (Math.abs(z.inductanceHenry() - model) > combined && Math.abs(z.inductanceHenry() - model) > 1e-4 * model) {
+                out.add(String.format(Locale.ROOT, "at %s the point's phasor inductance %s and the sweep model's %s"
+                        + " differ by more than their combined expanded uncertainty %s",
+                        Units.format(z.frequencyHz(), Dimension.FREQUENCY), Units.format(z.inductanceHenry(), Dimension.INDUCTANCE),
+                        Units.format(model, Dimension.INDUCTANCE), Units.format(combined, Dimension.INDUCTANCE)));
+            }
+        }
+        return out;
     }
 }

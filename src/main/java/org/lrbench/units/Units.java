@@ -34,7 +34,7 @@ public final class Units {
             "k", 1e3, "M", 1e6, "G", 1e9);
 
     private static final String ALLOWED = "a number with a unit such as 470 uH, 2.2 mH, 1 kHz, 100 ohm,"
-            + " 3 V, 20 ms, 12 pF, 10 % (prefixes p n u m k M G)";
+            + " 3 V, 20 ms, 12 pF, 0.5 mm, 10 %, 50 ppm (prefixes p n u m k M G)";
 
     private Units() {
     }
@@ -53,6 +53,9 @@ public final class Units {
         }
         if (unit.equals("%")) {
             return new Quantity(number / 100.0, Dimension.NONE, true);
+        }
+        if (unit.equals("ppm")) {
+            return new Quantity(number * 1e-6, Dimension.NONE, true);
         }
         for (Map.Entry<String, Dimension> symbol : SYMBOLS) {
             if (unit.endsWith(symbol.getKey())) {

@@ -50,7 +50,7 @@ class CommandLineTests {
         assertThat(o.out()).contains("verdict: PASS");
         JsonNode r = new ObjectMapper().readTree(json.toFile());
         // the schema the README documents
-        assertThat(r.get("schema").asText()).isEqualTo("lrbench.part-result.v1");
+        assertThat(r.get("schema").asText()).isEqualTo("lrbench.part-result.v2");
         assertThat(r.get("verdict").asText()).isEqualTo("pass");
         assertThat(r.get("inductance_h").isNumber()).isTrue();
         assertThat(r.get("inductance_h").asDouble()).isBetween(0.99e-3, 1.01e-3);
@@ -67,6 +67,19 @@ class CommandLineTests {
             }
         }
         assertThat(r.get("plan_sha256").asText()).hasSize(64);
+        // every reported quantity has a budget whose contributions add up (GUM 5.1.2) to its u
+        JsonNode budget = r.get("budgets").get("inductance");
+        double sum = 0;
+        for (JsonNode c : budget.get("contributions")) {
+            sum += Math.pow(c.get("contribution").asDouble(), 2);
+        }
+        assertThat(Math.sqrt(sum)).isCloseTo(budget.get("standard_uncertainty").asDouble(),
+                org.assertj.core.api.Assertions.within(1e-12));
+        assertThat(budget.get("expanded_uncertainty").asDouble())
+                .isCloseTo(2 * budget.get("standard_uncertainty").asDouble(), org.assertj.core.api.Assertions.within(1e-15));
+        assertThat(r.get("inductance_expanded_uncertainty_h").asDouble()).isPositive();
+        assertThat(r.get("methods").get("inductance_h").asText()).contains("sweep fit");
+        assertThat(r.get("model").get("parameters").has("inductance")).isTrue();
         // the kept record is the same result, and no half-written file is left behind
         assertThat(Files.readString(dir.resolve("runs/L-1/S-1.json"))).isEqualTo(Files.readString(json));
         try (Stream<Path> files = Files.walk(dir)) {

@@ -37,7 +37,7 @@ class OutputSafetyTests {
             """;
 
     static BenchConfig bench() {
-        return new BenchConfig("b.yaml", "test-bench", 5.0, null, null, SimSettings.defaults());
+        return new BenchConfig("b.yaml", "test-bench", 5.0, null, null, SimSettings.defaults(), org.lrbench.uncertainty.BenchAccuracy.defaults());
     }
 
     static PartRun.Request request(Plan plan) {
@@ -116,7 +116,7 @@ class OutputSafetyTests {
     void planOverTheBenchCeilingIsRefusedBeforeAnythingIsSwitched() throws Exception {
         Generator gen = mock(Generator.class);
         Plan plan = PlanLoader.parse(PLAN.replace("3 V", "4.5 V"), "t.yaml", 5.0);
-        BenchConfig low = new BenchConfig("b.yaml", "low", 4.0, null, null, SimSettings.defaults());
+        BenchConfig low = new BenchConfig("b.yaml", "low", 4.0, null, null, SimSettings.defaults(), org.lrbench.uncertainty.BenchAccuracy.defaults());
         org.assertj.core.api.Assertions.assertThatThrownBy(() -> PartRun.measure(
                 new PartRun.Request(plan, "0", low, "L", "S", true, "t"),
                 new BenchInstruments(gen, mock(Digitizer.class), List.of()), Sleeper.NONE, SweepListener.NONE))

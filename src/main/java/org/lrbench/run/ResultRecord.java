@@ -1,0 +1,109 @@
+package org.lrbench.run;
+
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.LumpedFit;
+import org.lrbench.analysis.LumpedParameter;
+import org.lrbench.judge.LimitResult;
+import org.lrbench.judge.Verdict;
+import org.lrbench.measure.PointResult;
+import org.lrbench.results.PartResult;
+import org.lrbench.uncertainty.Budget;
+import org.lrbench.uncertainty.Contribution;
+
+/** Turns a part's measurement and analysis into its {@link PartResult} record. */
+final class ResultRecord {
+
+    private ResultRecord() {
+    }
+
+    static PartResult of(PartRun.Request request, Instant started, Instant finished, Verdict verdict, String error,
+                         PartRun.Analysis analysis, List<PointResult> points, Map<String, String> identities) {
+        boolean have = analysis != null && error == null;
+        List<PartResult.LimitRecord> limits = new ArrayList<>();
+        List<String> failed = new ArrayList<>();
+        Map<String, PartResult.BudgetRecord> budgets = new LinkedHashMap<>();
+        Map<String, String> methods = new LinkedHashMap<>();
+        PartResult.ModelRecord model = null;
+        Budget l = null;
+        Budget r = null;
+        if (have) {
+            for (LimitResult lr : analysis.judged()) {
+                limits.add(limit(lr));
+                if (!lr.pass()) {
+                    failed.add(lr.reason());
+                }
+            }
+            analysis.sweep().budgets().forEach((name, b) -> {
+                if (Double.isFinite(b.value()) && Double.isFinite(b.standardUncertainty())) {
+                    budgets.put(name, budget(b));
+                }
+            });
+            l = analysis.sweep().budgets().get(Readings.INDUCTANCE);
+            r = analysis.sweep().budgets().get(Readings.RESISTANCE);
+            model = model(analysis.sweep().fit());
+            for (String key : List.of("inductance_h", "series_resistance_ohm", "self_resonance_hz")) {
+                methods.put(key, PartRun.METHOD);
+            }
+            for (LimitResult lr : analysis.judged()) {
+                methods.put("limit: " + lr.limit().name(), PartRun.METHOD);
+            }
+        }
+        List<PartResult.PointRecord> pointRecords = new ArrayList<>();
+        for (PointResult p : points) {
+            ImpedancePoint z = p.impedance();
+            pointRecords.add(new PartResult.PointRecord(z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm(),
+                    z.inductanceHenry(), z.qualityFactor(), z.componentUncertaintyOhm(), z.currentAmpere().abs(),
+                    p.currentThd(), p.senseRangeVolt(), p.partRangeVolt(), p.sampleIntervalSecond(), p.samples(),
+                    p.acquisitions()));
+        }
+        return new PartResult(PartResult.SCHEMA, request.programVersion(), request.lot(), request.serial(),
+                request.plan().partNumber(), request.plan().source(), request.planSha256(), request.bench().name(),
+                request.simulated(), started.truncatedTo(ChronoUnit.MILLIS).toString(),
+                finished.truncatedTo(ChronoUnit.MILLIS).toString(), verdict.word(), error, failed,
+                have ? analysis.warnings() : List.of(),
+                have ? l.value() : null, have ? l.standardUncertainty() : null, have ? l.expandedUncertainty() : null,
+                have ? r.value() : null, have ? r.standardUncertainty() : null, have ? r.expandedUncertainty() : null,
+                have ? analysis.srfHz() : null, have ? analysis.srfAboveHz() : null,
+                methods, model, limits, pointRecords, budgets, identities);
+    }
+
+    private static PartResult.LimitRecord limit(LimitResult r) {
+        return new PartResult.LimitRecord(r.limit().name(), r.limit().characteristic().key(), r.limit().atFrequencyHz(),
+                r.limit().spec(), r.limit().rule().key(), finite(r.value()), finite(r.uncertainty()),
+                finite(r.expandedUncertainty()), finite(r.limit().lower()), finite(r.limit().upper()),
+                finite(r.acceptanceLower()), finite(r.acceptanceUpper()), r.zone().name().toLowerCase(java.util.Locale.ROOT),
+                r.pass(), finite(r.margin()), r.reason());
+    }
+
+    private static PartResult.ModelRecord model(LumpedFit.Result fit) {
+        Map<String, PartResult.ParameterRecord> params = new LinkedHashMap<>();
+        for (LumpedParameter p : fit.free()) {
+            params.put(p.key(), new PartResult.ParameterRecord(fit.value(p), fit.uncertainty(p)));
+        }
+        boolean series = fit.free().stream().noneMatch(LumpedParameter::optional);
+        String terms = String.join(", ", fit.free().stream().map(LumpedParameter::key).toList());
+        return new PartResult.ModelRecord(series ? "series R-L" : "lumped model (" + terms + ")", params,
+                fit.dropped(), finite(fit.reducedChiSquare()), fit.degreesOfFreedom());
+    }
+
+    private static PartResult.BudgetRecord budget(Budget b) {
+        List<PartResult.ContributionRecord> lines = new ArrayList<>();
+        for (Contribution c : b.contributions()) {
+            lines.add(new PartResult.ContributionRecord(c.source(), c.type(), c.distribution().name().toLowerCase(
+                    java.util.Locale.ROOT), finite(c.inputUncertainty()), c.inputUnit(), c.sensitivity(), c.contribution(),
+                    c.share()));
+        }
+        return new PartResult.BudgetRecord(b.value(), b.standardUncertainty(), b.expandedUncertainty(), b.coverageFactor(),
+                finite(b.effectiveDegreesOfFreedom()), lines);
+    }
+
+    static Double finite(double v) {
+        return Double.isFinite(v) ? v : null;
+    }
+}

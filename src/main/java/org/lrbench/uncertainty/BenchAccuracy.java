@@ -1,0 +1,15 @@
+package org.lrbench.uncertainty;
+
+/**
+ * What a bench's specifications say about its inputs, as half-widths of rectangular distributions
+ * (the usual reading of a maker's "within +/- a" specification): the sense resistor's relative
+ * tolerance, the digitizer's relative gain accuracy per channel, the residual inter-channel time
+ * skew, and the relative frequency accuracy of the generator against the digitizer's time base.
+ */
+public record BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy) {
+
+    /** 0.1 % resistor, 1 % gain per channel, 200 ps skew, 50 ppm: common practice, no source. */
+    public static BenchAccuracy defaults() {
+        return new BenchAccuracy(0.001, 0.01, 200e-12, 50e-6);
+    }
+}
