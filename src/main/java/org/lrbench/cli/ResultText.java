@@ -43,6 +43,13 @@ final class ResultText {
                         Units.format(r.selfResonanceAboveHz(), Dimension.FREQUENCY));
             }
             r.model().dropped().forEach(d -> out.println("  model term dropped: " + d));
+            if (r.triangle() != null) {
+                out.printf("  triangle-wave check at %s: L = %s, R = %s (residual %s)%n",
+                        Units.format(r.triangle().frequencyHz(), Dimension.FREQUENCY),
+                        Units.format(r.triangle().inductanceH(), Dimension.INDUCTANCE),
+                        Units.format(r.triangle().resistanceOhm(), Dimension.RESISTANCE),
+                        Units.format(r.triangle().residualRmsV(), Dimension.VOLTAGE));
+            }
         }
         r.warnings().forEach(w -> out.println("  warning: " + w));
         for (PartResult.LimitRecord l : r.limits()) {

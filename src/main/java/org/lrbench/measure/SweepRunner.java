@@ -7,6 +7,7 @@ import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.PhasorImpedance;
 import org.lrbench.analysis.SineFit;
 import org.lrbench.analysis.SineFitResult;
+import org.lrbench.analysis.TriangleExtraction;
 import org.lrbench.instrument.Coupling;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
@@ -15,6 +16,7 @@ import org.lrbench.instrument.TriggerSource;
 import org.lrbench.instrument.Waveform;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.SineSweep;
+import org.lrbench.plan.TriangleCheck;
 
 /**
  * Runs a plan's sine sweep on a generator and a digitizer: per frequency it sets the generator,
@@ -36,7 +38,11 @@ public final class SweepRunner {
         this.sleeper = sleeper;
     }
 
-    public List<PointResult> run(Plan plan, SweepListener listener) {
+    /** The sweep points and, when the plan asks for it, the triangle-wave check. */
+    public record Measurement(List<PointResult> points, TriangleExtraction.Result triangle) {
+    }
+
+    public Measurement run(Plan plan, SweepListener listener) {
         SineSweep sweep = plan.sweep();
         generator.prepare();
         digitizer.prepare();
@@ -75,32 +81,31 @@ public final class SweepRunner {
                 points.add(point);
                 listener.pointMeasured(i, count, point);
             }
+            TriangleExtraction.Result triangle = plan.triangle() == null ? null : triangle(plan);
+            return new Measurement(points, triangle);
         } finally {
             generator.outputOff();
         }
-        return points;
+    }
+
+    /** Drives the triangle, captures both channels and extracts R and L in the time domain. */
+    private TriangleExtraction.Result triangle(Plan plan) {
+        TriangleCheck t = plan.triangle();
+        generator.setWaveform(Waveform.TRIANGLE);
+        generator.setAmplitude(t.amplitudeVolt());
+        generator.setFrequency(t.frequencyHz());
+        Timing timing = TimeBase.set(digitizer, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
+        sleeper.sleep(plan.sweep().settleSecond());
+        double start = 2.2 * t.amplitudeVolt();
+        AutoRanger.Capture capture = new AutoRanger(digitizer, start, start).acquire();
+        return TriangleExtraction.extract(capture.sense().volts(), capture.part().volts(), timing.sampleIntervalSecond(),
+                t.frequencyHz(), plan.senseResistanceOhm(), t.harmonics());
     }
 
     private PointResult measurePoint(Plan plan, double f, AutoRanger ranger) {
         SineSweep sweep = plan.sweep();
         generator.setFrequency(f);
-        double interval = 1.0 / (f * sweep.samplesPerCycle());
-        // a little more than the cycles asked for, so an interval the digitizer rounds down by up to
-        // 0.1 % still captures them without a second round trip
-        int points = (int) Math.ceil(sweep.cycles() * sweep.samplesPerCycle() * 1.001) + 1;
-        Timing timing = digitizer.setTiming(interval, points);
-        double cyclesCaptured = timing.points() * timing.sampleIntervalSecond() * f;
-        if (1.0 / (f * timing.sampleIntervalSecond()) < sweep.samplesPerCycle() * (1 - 1e-9)
-                || cyclesCaptured < sweep.cycles() * (1 - 1e-9)) {
-            Timing again = digitizer.setTiming(timing.sampleIntervalSecond(),
-                    (int) Math.ceil(sweep.cycles() / (f * timing.sampleIntervalSecond())));
-            if (1.0 / (f * again.sampleIntervalSecond()) < sweep.samplesPerCycle() * 0.999) {
-                throw new MeasurementException(String.format(java.util.Locale.ROOT,
-                        "at %.6g Hz the digitizer's fastest interval %.3g s gives %.1f samples per cycle; the plan asks %d",
-                        f, again.sampleIntervalSecond(), 1.0 / (f * again.sampleIntervalSecond()), sweep.samplesPerCycle()));
-            }
-            timing = again;
-        }
+        Timing timing = TimeBase.set(digitizer, f, sweep.cycles(), sweep.samplesPerCycle());
         sleeper.sleep(sweep.settleSecond());
         AutoRanger.Capture capture = ranger.acquire();
         SineFitResult sense = SineFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f);

@@ -3,7 +3,10 @@ package org.lrbench.plan;
 import java.util.List;
 import org.lrbench.judge.Limit;
 
-/** A validated measurement plan for one part number. Immutable; made only by {@link PlanLoader}. */
+/**
+ * A validated measurement plan for one part number; {@code triangle} is null when the plan has no
+ * time-domain check. Immutable; made only by {@link PlanLoader}.
+ */
 public record Plan(String source, String partNumber, String description, double senseResistanceOhm,
-                   SineSweep sweep, List<Limit> limits) {
+                   SineSweep sweep, TriangleCheck triangle, List<Limit> limits) {
 }

@@ -39,7 +39,7 @@ public final class PlanLoader {
     public static Plan load(Path file, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(file.toString());
         YamlMap root = YamlFile.read(file, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "limits");
+                "sine_sweep", "triangle_check", "limits");
         return read(root, file.toString(), maxAmplitudeVolt);
     }
 
@@ -47,7 +47,7 @@ public final class PlanLoader {
     public static Plan parse(String text, String name, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(name);
         YamlMap root = YamlFile.parse(text, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "limits");
+                "sine_sweep", "triangle_check", "limits");
         return read(root, name, maxAmplitudeVolt);
     }
 
@@ -64,9 +64,41 @@ public final class PlanLoader {
             }
         }
         SineSweep sweep = readSweep(root, maxAmplitudeVolt);
+        TriangleCheck triangle = readTriangle(root, maxAmplitudeVolt);
         List<Limit> limits = readLimits(root, sweep);
         root.problems().throwIfAny();
-        return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, List.copyOf(limits));
+        return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, triangle,
+                List.copyOf(limits));
+    }
+
+    private static TriangleCheck readTriangle(YamlMap root, double maxAmplitudeVolt) {
+        YamlMap t = root.map("triangle_check", false, "amplitude", "frequency", "cycles", "samples_per_cycle",
+                "harmonics");
+        if (t == null) {
+            return null;
+        }
+        Double amplitude = t.quantity("amplitude", Dimension.VOLTAGE, true);
+        if (amplitude != null && !(amplitude > 0)) {
+            t.problem("amplitude", "must be greater than 0 V");
+        } else if (amplitude != null && amplitude > maxAmplitudeVolt) {
+            t.problem("amplitude", Units.format(amplitude, Dimension.VOLTAGE) + " peak exceeds the bench's maximum"
+                    + " generator amplitude of " + Units.format(maxAmplitudeVolt, Dimension.VOLTAGE)
+                    + " (bench max_amplitude)");
+        }
+        Double f = t.quantity("frequency", Dimension.FREQUENCY, true);
+        if (f != null && !(f > 0)) {
+            t.problem("frequency", "frequency must be greater than 0 Hz");
+        }
+        Integer cycles = t.has("cycles") ? t.integer("cycles", true, 1, 10_000) : Integer.valueOf(10);
+        Integer spc = t.has("samples_per_cycle") ? t.integer("samples_per_cycle", true, 100, 100_000) : Integer.valueOf(400);
+        Integer harmonics = t.has("harmonics") ? t.integer("harmonics", true, 3, 199) : Integer.valueOf(31);
+        if (spc != null && harmonics != null && harmonics >= spc / 2) {
+            t.problem("harmonics", harmonics + " harmonics need more than " + 2 * harmonics + " samples per cycle");
+        }
+        if (amplitude == null || f == null || cycles == null || spc == null || harmonics == null) {
+            return null;
+        }
+        return new TriangleCheck(amplitude, f, cycles, spc, harmonics);
     }
 
     private static SineSweep readSweep(YamlMap root, double maxAmplitudeVolt) {

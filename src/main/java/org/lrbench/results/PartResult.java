@@ -16,7 +16,7 @@ public record PartResult(String schema, String programVersion, String lot, Strin
                          Double seriesResistanceOhm, Double seriesResistanceUncertaintyOhm,
                          Double seriesResistanceExpandedUncertaintyOhm,
                          Double selfResonanceHz, Double selfResonanceAboveHz,
-                         Map<String, String> methods, ModelRecord model, List<LimitRecord> limits,
+                         Map<String, String> methods, ModelRecord model, TriangleRecord triangle, List<LimitRecord> limits,
                          List<PointRecord> points, Map<String, BudgetRecord> budgets, Map<String, String> instruments) {
 
     public static final String SCHEMA = "lrbench.part-result.v2";
@@ -24,6 +24,11 @@ public record PartResult(String schema, String programVersion, String lot, Strin
     /** The sweep model: its name, each free parameter with its standard uncertainty, what was dropped. */
     public record ModelRecord(String name, Map<String, ParameterRecord> parameters, List<String> dropped,
                               Double reducedChiSquare, int degreesOfFreedom) {
+    }
+
+    /** The triangle-wave time-domain check: R and L with their type A standard uncertainties. */
+    public record TriangleRecord(double frequencyHz, double resistanceOhm, double resistanceUncertaintyOhm,
+                                 double inductanceH, double inductanceUncertaintyH, double residualRmsV, int harmonics) {
     }
 
     /** A fitted parameter. */

@@ -1,7 +1,6 @@
 package org.lrbench.run;
 
 import java.time.Instant;
-import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -11,6 +10,7 @@ import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.LumpedModel;
 import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.analysis.SweepAnalysis;
+import org.lrbench.analysis.TriangleExtraction;
 import org.lrbench.analysis.fit.FitException;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.instrument.InstrumentException;
@@ -58,12 +58,16 @@ public final class PartRun {
         Instant started = Instant.now();
         Map<String, String> identities = new LinkedHashMap<>();
         List<PointResult> points = List.of();
+        TriangleExtraction.Result triangle = null;
         String error = null;
         OutputGuard guard = new OutputGuard(instruments.generator());
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
-            points = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper).run(plan, listener);
+            SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper)
+                    .run(plan, listener);
+            points = m.points();
+            triangle = m.triangle();
         } catch (InstrumentException | MeasurementException | IllegalArgumentException e) {
             error = e.getMessage();
         } finally {
@@ -75,7 +79,7 @@ public final class PartRun {
         Analysis analysis = null;
         if (error == null) {
             try {
-                analysis = analyse(plan, request.bench(), points);
+                analysis = analyse(plan, request.bench(), points, triangle);
             } catch (FitException e) {
                 error = "the sweep could not be fitted: " + e.getMessage();
             }
@@ -86,10 +90,10 @@ public final class PartRun {
 
     /** The model fit, budgets, judged limits and warnings of a completed sweep. */
     record Analysis(SweepAnalysis.Result sweep, List<LimitResult> judged, Double srfHz, Double srfAboveHz,
-                    List<String> warnings) {
+                    TriangleExtraction.Result triangle, List<String> warnings) {
     }
 
-    static Analysis analyse(Plan plan, BenchConfig bench, List<PointResult> points) {
+    static Analysis analyse(Plan plan, BenchConfig bench, List<PointResult> points, TriangleExtraction.Result triangle) {
         List<ImpedancePoint> z = points.stream().map(PointResult::impedance).toList();
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), bench.accuracy());
@@ -132,11 +136,39 @@ public final class PartRun {
             }
         }
         warnings.addAll(crossChecks(points, sweep));
+        if (triangle != null) {
+            warnings.addAll(triangleCheck(triangle, sweep));
+        }
         if (sweep.fit().reducedChiSquare() > 4) {
             warnings.add(String.format(Locale.ROOT, "the model leaves residuals %.1f times their expected variance:"
                     + " uncertainties were scaled up; consider more model terms", sweep.fit().reducedChiSquare()));
         }
-        return new Analysis(sweep, judged, srf, srfAbove, warnings);
+        return new Analysis(sweep, judged, srf, srfAbove, triangle, warnings);
+    }
+
+    /**
+     * The triangle method against the sweep model. Both share the sense resistor, the digitizer
+     * gains and the frequency, so only their own (type A) uncertainties enter the comparison.
+     */
+    private static List<String> triangleCheck(TriangleExtraction.Result t, SweepAnalysis.Result sweep) {
+        List<String> out = new ArrayList<>();
+        double[] p = sweep.fit().parameters();
+        String[][] pairs = {{Readings.INDUCTANCE, "inductance"}, {Readings.RESISTANCE, "resistance"}};
+        for (String[] pair : pairs) {
+            boolean inductance = pair[1].equals("inductance");
+            double model = inductance ? p[1] : p[0];
+            double tri = inductance ? t.inductanceHenry() : t.resistanceOhm();
+            double uTri = inductance ? t.inductanceUncertainty() : t.resistanceUncertainty();
+            double uModel = sweep.budgets().get(pair[0]).contributions().get(0).contribution();
+            double limit = Budget.K * Math.hypot(uTri, uModel);
+            Dimension d = inductance ? Dimension.INDUCTANCE : Dimension.RESISTANCE;
+            if (Math.abs(tri - model) > limit) {
+                out.add("triangle-wave " + pair[1] + " " + Units.format(tri, d) + " and the sweep model's "
+                        + Units.format(model, d) + " differ by more than their combined expanded (type A) uncertainty "
+                        + Units.format(limit, d));
+            }
+        }
+        return out;
     }
 
     /**

@@ -53,6 +53,9 @@ final class ResultRecord {
             for (LimitResult lr : analysis.judged()) {
                 methods.put("limit: " + lr.limit().name(), PartRun.METHOD);
             }
+            if (analysis.triangle() != null) {
+                methods.put("triangle", "triangle-wave time-domain regression v = R i + L di/dt (cross-check only)");
+            }
         }
         List<PartResult.PointRecord> pointRecords = new ArrayList<>();
         for (PointResult p : points) {
@@ -70,7 +73,13 @@ final class ResultRecord {
                 have ? l.value() : null, have ? l.standardUncertainty() : null, have ? l.expandedUncertainty() : null,
                 have ? r.value() : null, have ? r.standardUncertainty() : null, have ? r.expandedUncertainty() : null,
                 have ? analysis.srfHz() : null, have ? analysis.srfAboveHz() : null,
-                methods, model, limits, pointRecords, budgets, identities);
+                methods, model, have && analysis.triangle() != null ? triangle(analysis.triangle()) : null,
+                limits, pointRecords, budgets, identities);
+    }
+
+    private static PartResult.TriangleRecord triangle(org.lrbench.analysis.TriangleExtraction.Result t) {
+        return new PartResult.TriangleRecord(t.frequencyHz(), t.resistanceOhm(), t.resistanceUncertainty(),
+                t.inductanceHenry(), t.inductanceUncertainty(), t.residualRmsVolt(), t.harmonics());
     }
 
     private static PartResult.LimitRecord limit(LimitResult r) {

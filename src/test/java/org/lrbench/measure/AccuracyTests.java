@@ -32,7 +32,7 @@ class AccuracyTests {
                     limits: [{characteristic: inductance, nominal: 1 mH, tolerance: 10 %}]
                     """, "t.yaml", 5.0);
             List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE)
-                    .run(plan, SweepListener.NONE);
+                    .run(plan, SweepListener.NONE).points();
             SeriesModel m = SeriesModelFit.fit(points.stream().map(PointResult::impedance).toList());
             assertThat(m.inductanceHenry()).as("seed %d", seed).isCloseTo(1e-3, within(0.005e-3));
             assertThat(m.resistanceOhm()).as("seed %d", seed).isCloseTo(2.3, within(0.05 * 2.3));

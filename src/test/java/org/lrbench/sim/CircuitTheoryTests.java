@@ -58,7 +58,7 @@ class CircuitTheoryTests {
                   - {characteristic: series_resistance, max: 10 ohm}
                 """, "t.yaml", 5.0);
         List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE)
-                .run(plan, SweepListener.NONE);
+                .run(plan, SweepListener.NONE).points();
         for (PointResult p : points) {
             double w = 2 * Math.PI * p.impedance().frequencyHz();
             double rt = RG + RS + R;
