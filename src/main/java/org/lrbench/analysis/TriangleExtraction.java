@@ -108,7 +108,11 @@ public final class TriangleExtraction {
         return keep;
     }
 
-    /** The converter's step as seen in the data: the smallest gap between distinct sample values. */
+    /**
+     * The converter's step as seen in the data: the smallest gap between distinct sample values,
+     * provided every sample lies on that grid (0 when the data are not on a grid, as with an ideal
+     * or floating-point converter).
+     */
     static double quantizationStep(double[] y) {
         double[] sorted = y.clone();
         java.util.Arrays.sort(sorted);
@@ -120,6 +124,15 @@ public final class TriangleExtraction {
                 step = gap;
             }
         }
-        return Double.isFinite(step) ? step : 0;
+        if (!Double.isFinite(step)) {
+            return 0;
+        }
+        for (double v : y) {
+            double units = (v - sorted[0]) / step;
+            if (Math.abs(units - Math.rint(units)) > 0.01) {
+                return 0;
+            }
+        }
+        return step;
     }
 }
