@@ -37,42 +37,50 @@ public final class FourParameterSineFit {
         double half = Math.max(1.0, mid) * intervalSecond;
         int iteration = 0;
         double c = 0;
+        double previousStep = Double.POSITIVE_INFINITY;
         while (iteration < MAX_ITERATIONS) {
             iteration++;
             // in centred time tc = (i - mid) dt the model is ac cos(w tc) + bc sin(w tc) + c
             double phi = omega * mid * intervalSecond;
             double ac = a * Math.cos(phi) + b * Math.sin(phi);
             double bc = -a * Math.sin(phi) + b * Math.cos(phi);
-            double[][] m = new double[4][4];
-            double[] v = new double[4];
+            // the ten distinct sums of the 4 x 4 normal matrix and the four right-hand sides
+            double s00 = 0, s01 = 0, s02 = 0, s03 = 0, s11 = 0, s12 = 0, s13 = 0, s23 = 0, s33 = 0;
+            double v0 = 0, v1 = 0, v2 = 0, v3 = 0;
             double step = omega * intervalSecond;
             double cs = Math.cos(step);
             double sn = Math.sin(step);
-            double co = 0;
-            double si = 0;
-            for (int i = 0; i < n; i++) {
-                double tc = (i - mid) * intervalSecond;
-                if (i % SineFit.ANCHOR == 0) {
-                    co = Math.cos(omega * tc);
-                    si = Math.sin(omega * tc);
+            for (int block = 0; block < n; block += SineFit.ANCHOR) {
+                double co = Math.cos(omega * (block - mid) * intervalSecond);
+                double si = Math.sin(omega * (block - mid) * intervalSecond);
+                int end = Math.min(n, block + SineFit.ANCHOR);
+                for (int i = block; i < end; i++) {
+                    double x3 = ((i - mid) * intervalSecond / half) * (-ac * si + bc * co);
+                    double yi = y[i];
+                    s00 += co * co;
+                    s01 += co * si;
+                    s02 += co;
+                    s03 += co * x3;
+                    s11 += si * si;
+                    s12 += si;
+                    s13 += si * x3;
+                    s23 += x3;
+                    s33 += x3 * x3;
+                    v0 += co * yi;
+                    v1 += si * yi;
+                    v2 += yi;
+                    v3 += x3 * yi;
+                    double nc = co * cs - si * sn;
+                    si = si * cs + co * sn;
+                    co = nc;
                 }
-                double x3 = (tc / half) * (-ac * si + bc * co);
-                double[] row = {co, si, 1.0, x3};
-                for (int r = 0; r < 4; r++) {
-                    v[r] += row[r] * y[i];
-                    for (int k = r; k < 4; k++) {
-                        m[r][k] += row[r] * row[k];
-                    }
-                }
-                double nc = co * cs - si * sn;
-                si = si * cs + co * sn;
-                co = nc;
             }
-            for (int r = 0; r < 4; r++) {
-                for (int k = 0; k < r; k++) {
-                    m[r][k] = m[k][r];
-                }
-            }
+            double[][] m = {
+                {s00, s01, s02, s03},
+                {s01, s11, s12, s13},
+                {s02, s12, n, s23},
+                {s03, s13, s23, s33}};
+            double[] v = {v0, v1, v2, v3};
             DecompositionSolver solver = new QRDecomposition(new Array2DRowRealMatrix(m, false), 1e-15).getSolver();
             if (!solver.isNonSingular()) {
                 throw new IllegalArgumentException("four-parameter fit is singular at " + omega / (2 * Math.PI) + " Hz");
@@ -87,9 +95,11 @@ public final class FourParameterSineFit {
             double phiNew = omega * mid * intervalSecond;
             a = acNew * Math.cos(phiNew) - bcNew * Math.sin(phiNew);
             b = acNew * Math.sin(phiNew) + bcNew * Math.cos(phiNew);
-            if (Math.abs(dOmega) <= 1e-13 * omega) {
+            // converged once the step is at rounding level, or has stopped shrinking (noise floor)
+            if (Math.abs(dOmega) <= 1e-13 * omega || Math.abs(dOmega) >= 0.5 * previousStep && iteration > 3) {
                 break;
             }
+            previousStep = Math.abs(dOmega);
         }
         double f = omega / (2 * Math.PI);
         SineFitResult at = SineFit.fit(y, intervalSecond, f);

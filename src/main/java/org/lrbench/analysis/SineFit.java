@@ -33,29 +33,31 @@ public final class SineFit {
             throw new IllegalArgumentException("a sine fit needs at least 4 samples, got " + n);
         }
         double omegaDt = 2 * Math.PI * frequencyHz * intervalSecond;
-        double scc = 0, sss = 0, scs = 0, sc = 0, ss = 0, syc = 0, sys = 0, sy = 0, syy = 0;
+        double scc = 0, scs = 0, sc = 0, ss = 0, syc = 0, sys = 0, sy = 0, syy = 0;
         double cosStep = Math.cos(omegaDt);
         double sinStep = Math.sin(omegaDt);
-        double c = 1, s = 0;
-        for (int i = 0; i < n; i++) {
-            if (i % ANCHOR == 0) {
-                c = Math.cos(omegaDt * i);
-                s = Math.sin(omegaDt * i);
+        for (int block = 0; block < n; block += ANCHOR) {
+            // re-anchor the recurrence exactly at the start of each block
+            double c = Math.cos(omegaDt * block);
+            double s = Math.sin(omegaDt * block);
+            int end = Math.min(n, block + ANCHOR);
+            for (int i = block; i < end; i++) {
+                double v = y[i];
+                scc += c * c;
+                scs += c * s;
+                sc += c;
+                ss += s;
+                syc += v * c;
+                sys += v * s;
+                sy += v;
+                syy += v * v;
+                double nc = c * cosStep - s * sinStep;
+                s = s * cosStep + c * sinStep;
+                c = nc;
             }
-            double v = y[i];
-            scc += c * c;
-            sss += s * s;
-            scs += c * s;
-            sc += c;
-            ss += s;
-            syc += v * c;
-            sys += v * s;
-            sy += v;
-            syy += v * v;
-            double nc = c * cosStep - s * sinStep;
-            s = s * cosStep + c * sinStep;
-            c = nc;
         }
+        // cos^2 + sin^2 = 1 per sample, so the sum of sin^2 needs no accumulator of its own
+        double sss = n - scc;
         RealMatrix normal = new Array2DRowRealMatrix(new double[][] {
             {scc, scs, sc},
             {scs, sss, ss},

@@ -2,6 +2,7 @@ package org.lrbench.cli;
 
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
+import org.lrbench.benchmark.FitBenchmark;
 import org.lrbench.benchmark.LinkBenchmark;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.plan.Plan;
@@ -11,12 +12,27 @@ import picocli.CommandLine.Option;
 
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
 @Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
-        subcommands = {BenchmarkCommand.Links.class})
+        subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class})
 final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links");
+        System.out.println("use: lrbench benchmark links | fits");
+    }
+
+    @Command(name = "fits", description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
+    static final class Fits implements Callable<Integer> {
+        @Option(names = "--repeats", defaultValue = "7", description = "runs per size (default: ${DEFAULT-VALUE})")
+        int repeats;
+
+        @Override
+        public Integer call() {
+            if (repeats < 1 || repeats > 100) {
+                throw new BadInputException("--repeats 1..100");
+            }
+            FitBenchmark.run(System.out, repeats);
+            return ExitCodes.PASS;
+        }
     }
 
     @Command(name = "links", description = {"Trace transfer over loopback TCP against a plain socket;",
