@@ -96,7 +96,8 @@ public final class BenchLoader {
 
     private static SimSettings simulation(YamlMap root) {
         SimSettings d = SimSettings.defaults();
-        YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed");
+        YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed",
+                "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance");
         if (m == null) {
             return d;
         }
@@ -114,7 +115,23 @@ public final class BenchLoader {
             bits = "ideal".equals(text) ? Integer.valueOf(0) : m.integer("resolution", true, 4, 16);
         }
         Long seed = m.longValue("seed", false);
+        var gain = m.anyQuantity("channel2_gain_error", false);
+        if (gain != null && !gain.relative()) {
+            m.problem("channel2_gain_error", "must be a relative value such as 0.4 % or -2000 ppm");
+        }
+        Double skew = m.quantity("channel2_skew", Dimension.TIME, false);
+        Double leadR = m.quantity("lead_resistance", Dimension.RESISTANCE, false);
+        Double leadL = m.quantity("lead_inductance", Dimension.INDUCTANCE, false);
+        Double stray = m.quantity("stray_capacitance", Dimension.CAPACITANCE, false);
+        for (String k : new String[] {"lead_resistance", "lead_inductance", "stray_capacitance"}) {
+            Double v = k.startsWith("lead_r") ? leadR : k.startsWith("lead_i") ? leadL : stray;
+            if (v != null && v < 0) {
+                m.problem(k, "must not be negative");
+            }
+        }
         return new SimSettings(source == null ? d.sourceImpedanceOhm() : source, noise == null ? d.noiseVoltRms() : noise,
-                bits == null ? d.resolutionBits() : bits, seed == null ? d.seed() : seed);
+                bits == null ? d.resolutionBits() : bits, seed == null ? d.seed() : seed,
+                gain == null || !gain.relative() ? 0 : gain.value(), skew == null ? 0 : skew,
+                leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray);
     }
 }

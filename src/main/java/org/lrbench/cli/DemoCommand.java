@@ -7,6 +7,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.Calibration;
+import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
@@ -31,6 +33,10 @@ final class DemoCommand implements Callable<Integer> {
     @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
     Path bench;
 
+    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
+            description = "bench corrections from `calibrate`, applied when present (default: ${DEFAULT-VALUE})")
+    Path calibration;
+
     @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
             description = "folder for the results (default: ${DEFAULT-VALUE})")
     Path runs;
@@ -48,6 +54,12 @@ final class DemoCommand implements Callable<Integer> {
         double qAt = ResultText.qFrequency(plan);
         System.out.printf("lot %s: %d parts of %s (%s), plan %s, simulated bench %s%n%n", lot.lot(), lot.parts().size(),
                 plan.partNumber(), plan.description(), Home.root().relativize(lot.plan().toAbsolutePath()), b.name());
+        // a bench is calibrated before a lot: channel match and fixture, here on the simulated bench
+        System.out.println("calibrating the simulated bench at the plan's frequencies:");
+        CalibrateCommand.calibrate(plan, b, new SimBench(b.simulation(), plan.senseResistanceOhm(),
+                lot.parts().get(0).model()), calibration);
+        Calibration corrections = new CalibrationStore(calibration, b.name()).load();
+        System.out.println();
         ResultText.tableHeader(System.out, qAt);
         List<PartResult> results = new ArrayList<>();
         for (int i = 0; i < lot.parts().size(); i++) {
@@ -57,7 +69,7 @@ final class DemoCommand implements Callable<Integer> {
             BenchConfig partBench = b.withSimulation(b.simulation().withSeed(b.simulation().seed() + i));
             SimBench sim = new SimBench(partBench.simulation(), plan.senseResistanceOhm(), part.model());
             PartRun.Request request = new PartRun.Request(plan, sha, partBench, lot.lot(), part.serial(), true,
-                    Home.version());
+                    Home.version(), corrections);
             PartResult r;
             try (BenchInstruments instruments = BenchInstruments.open(partBench, drivers, sim)) {
                 r = PartRun.measure(request, instruments, Sleeper.NONE, SweepListener.NONE);

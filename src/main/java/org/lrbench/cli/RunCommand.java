@@ -3,6 +3,7 @@ package org.lrbench.cli;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Verdict;
 import org.lrbench.measure.Sleeper;
@@ -49,6 +50,10 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--digitizer", paramLabel = "ADDR", description = "digitizer address, instead of the bench file's")
     String digitizerAddress;
 
+    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
+            description = "bench corrections from `calibrate`, applied when present (default: ${DEFAULT-VALUE})")
+    Path calibration;
+
     @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
             description = "folder that keeps every result, as DIR/LOT/SERIAL.json (default: ${DEFAULT-VALUE})")
     Path runs;
@@ -70,7 +75,8 @@ final class RunCommand implements Callable<Integer> {
             PartModel part = PartFile.load(sim);
             simBench = new SimBench(b.simulation(), p.senseResistanceOhm(), part);
         }
-        PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version());
+        PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version(),
+                new CalibrationStore(calibration, b.name()).load());
         PartResult result;
         try (BenchInstruments instruments = BenchInstruments.open(b, new DriverLoader(Home.drivers()), simBench)) {
             result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, SweepListener.NONE);

@@ -32,10 +32,21 @@ public final class SweepRunner {
     private final Digitizer digitizer;
     private final Sleeper sleeper;
 
+    private final boolean openCircuit;
+
     public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper) {
+        this(generator, digitizer, sleeper, false);
+    }
+
+    /**
+     * @param openCircuit true when the fixture is open: a point whose current is lost in noise is then
+     *                    a reading (its impedance NaN: beyond what the bench can see), not an error
+     */
+    public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, boolean openCircuit) {
         this.generator = generator;
         this.digitizer = digitizer;
         this.sleeper = sleeper;
+        this.openCircuit = openCircuit;
     }
 
     /** The sweep points and, when the plan asks for it, the triangle-wave check. */
@@ -70,7 +81,7 @@ public final class SweepRunner {
             int count = sweep.frequenciesHz().size();
             for (int i = 0; i < count; i++) {
                 double f = sweep.frequenciesHz().get(i);
-                if (!points.isEmpty() && sweep.offsetVolt() == 0) {
+                if (!points.isEmpty() && sweep.offsetVolt() == 0 && !openCircuit) {
                     double[] peaks = RangePrediction.next(points.get(points.size() - 1).impedance(),
                             sweep.amplitudeVolt(), plan.senseResistanceOhm(), f);
                     if (peaks != null) {
@@ -81,7 +92,7 @@ public final class SweepRunner {
                 points.add(point);
                 listener.pointMeasured(i, count, point);
             }
-            TriangleExtraction.Result triangle = plan.triangle() == null ? null : triangle(plan);
+            TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null : triangle(plan);
             return new Measurement(points, triangle);
         } finally {
             generator.outputOff();
@@ -111,6 +122,12 @@ public final class SweepRunner {
         SineFitResult sense = SineFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f);
         SineFitResult part = SineFit.fit(capture.part().volts(), capture.part().intervalSecond(), f);
         if (sense.amplitude() <= 3 * sense.residualRms() * Math.sqrt(2.0 / sense.samples())) {
+            if (openCircuit) {
+                ImpedancePoint none = new ImpedancePoint(f, new org.apache.commons.math3.complex.Complex(Double.NaN, Double.NaN),
+                        Double.NaN, org.apache.commons.math3.complex.Complex.ZERO);
+                return new PointResult(none, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
+                        timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), Double.NaN);
+            }
             throw new MeasurementException(String.format(java.util.Locale.ROOT,
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
         }

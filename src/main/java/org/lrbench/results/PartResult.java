@@ -16,7 +16,8 @@ public record PartResult(String schema, String programVersion, String lot, Strin
                          Double seriesResistanceOhm, Double seriesResistanceUncertaintyOhm,
                          Double seriesResistanceExpandedUncertaintyOhm,
                          Double selfResonanceHz, Double selfResonanceAboveHz,
-                         Map<String, String> methods, ModelRecord model, TriangleRecord triangle, List<LimitRecord> limits,
+                         Map<String, String> methods, CorrectionsRecord corrections, ModelRecord model,
+                         TriangleRecord triangle, List<LimitRecord> limits,
                          List<PointRecord> points, Map<String, BudgetRecord> budgets, Map<String, String> instruments) {
 
     public static final String SCHEMA = "lrbench.part-result.v2";
@@ -29,6 +30,11 @@ public record PartResult(String schema, String programVersion, String lot, Strin
     /** The triangle-wave time-domain check: R and L with their type A standard uncertainties. */
     public record TriangleRecord(double frequencyHz, double resistanceOhm, double resistanceUncertaintyOhm,
                                  double inductanceH, double inductanceUncertaintyH, double residualRmsV, int harmonics) {
+    }
+
+    /** The bench corrections applied before the fit (null members: not in force). */
+    public record CorrectionsRecord(String channelMatchMeasuredAt, Double channel2GainRatio, Double channel2SkewS,
+                                    String fixtureMeasuredAt, Integer fixtureFrequencies) {
     }
 
     /** A fitted parameter. */

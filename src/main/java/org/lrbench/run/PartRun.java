@@ -13,6 +13,7 @@ import org.lrbench.analysis.SweepAnalysis;
 import org.lrbench.analysis.TriangleExtraction;
 import org.lrbench.analysis.fit.FitException;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.Calibration;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Judge;
@@ -41,7 +42,12 @@ public final class PartRun {
 
     /** What identifies the measurement in its record. */
     public record Request(Plan plan, String planSha256, BenchConfig bench, String lot, String serial,
-                          boolean simulated, String programVersion) {
+                          boolean simulated, String programVersion, Calibration calibration) {
+
+        public Request(Plan plan, String planSha256, BenchConfig bench, String lot, String serial, boolean simulated,
+                       String programVersion) {
+            this(plan, planSha256, bench, lot, serial, simulated, programVersion, Calibration.NONE);
+        }
     }
 
     private PartRun() {
@@ -79,7 +85,7 @@ public final class PartRun {
         Analysis analysis = null;
         if (error == null) {
             try {
-                analysis = analyse(plan, request.bench(), points, triangle);
+                analysis = analyse(plan, request.bench(), request.calibration(), points, triangle);
             } catch (FitException e) {
                 error = "the sweep could not be fitted: " + e.getMessage();
             }
@@ -93,10 +99,23 @@ public final class PartRun {
                     TriangleExtraction.Result triangle, List<String> warnings) {
     }
 
-    static Analysis analyse(Plan plan, BenchConfig bench, List<PointResult> points, TriangleExtraction.Result triangle) {
-        List<ImpedancePoint> z = points.stream().map(PointResult::impedance).toList();
+    static Analysis analyse(Plan plan, BenchConfig bench, Calibration calibration, List<PointResult> points,
+                            TriangleExtraction.Result triangle) {
+        if (calibration.fixture() != null) {
+            for (PointResult p : points) {
+                if (!calibration.fixture().covers(p.impedance().frequencyHz())) {
+                    throw new FitException("the fixture compensation of " + calibration.fixture().measuredAt()
+                            + " has no reading at " + Units.format(p.impedance().frequencyHz(), Dimension.FREQUENCY)
+                            + ": run ./lrbench calibrate with this plan", null);
+                }
+            }
+        }
+        List<ImpedancePoint> z = calibration.apply(points.stream().map(PointResult::impedance).toList());
+        var accuracy = calibration.channels() == null ? bench.accuracy()
+                : bench.accuracy().afterChannelMatch(calibration.channels().gainUncertainty(),
+                        calibration.channels().skewUncertaintySecond());
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
-                Readings.evaluations(plan.limits()), bench.accuracy());
+                Readings.evaluations(plan.limits()), accuracy);
         double fMax = plan.sweep().highestHz();
         double l = sweep.fit().value(LumpedParameter.L);
         Double srf = null;
@@ -135,7 +154,7 @@ public final class PartRun {
                         Dimension.FREQUENCY), 100 * p.currentThd(), 100 * plan.sweep().distortionLimit()));
             }
         }
-        warnings.addAll(crossChecks(points, sweep));
+        warnings.addAll(crossChecks(z, sweep));
         if (triangle != null) {
             warnings.addAll(triangleCheck(triangle, sweep));
         }
@@ -175,12 +194,11 @@ public final class PartRun {
      * Each point's own phasor inductance against the model's apparent inductance at that frequency:
      * where they differ by more than their combined expanded uncertainty, the result says so.
      */
-    private static List<String> crossChecks(List<PointResult> points, SweepAnalysis.Result sweep) {
+    private static List<String> crossChecks(List<ImpedancePoint> points, SweepAnalysis.Result sweep) {
         List<String> out = new ArrayList<>();
         double[] p = sweep.fit().parameters();
         double uModel = sweep.budgets().get(Readings.INDUCTANCE).standardUncertainty();
-        for (PointResult pr : points) {
-            ImpedancePoint z = pr.impedance();
+        for (ImpedancePoint z : points) {
             double omega = 2 * Math.PI * z.frequencyHz();
             double model = LumpedModel.apparentInductance(p, z.frequencyHz());
             double uPoint = z.componentUncertaintyOhm() / omega;

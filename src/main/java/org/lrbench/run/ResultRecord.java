@@ -73,13 +73,21 @@ final class ResultRecord {
                 have ? l.value() : null, have ? l.standardUncertainty() : null, have ? l.expandedUncertainty() : null,
                 have ? r.value() : null, have ? r.standardUncertainty() : null, have ? r.expandedUncertainty() : null,
                 have ? analysis.srfHz() : null, have ? analysis.srfAboveHz() : null,
-                methods, model, have && analysis.triangle() != null ? triangle(analysis.triangle()) : null,
+                methods, corrections(request.calibration()), model, have && analysis.triangle() != null ? triangle(analysis.triangle()) : null,
                 limits, pointRecords, budgets, identities);
     }
 
     private static PartResult.TriangleRecord triangle(org.lrbench.analysis.TriangleExtraction.Result t) {
         return new PartResult.TriangleRecord(t.frequencyHz(), t.resistanceOhm(), t.resistanceUncertainty(),
                 t.inductanceHenry(), t.inductanceUncertainty(), t.residualRmsVolt(), t.harmonics());
+    }
+
+    private static PartResult.CorrectionsRecord corrections(org.lrbench.calibration.Calibration c) {
+        var ch = c.channels();
+        var fx = c.fixture();
+        return new PartResult.CorrectionsRecord(ch == null ? null : ch.measuredAt(), ch == null ? null : ch.gainRatio(),
+                ch == null ? null : ch.skewSecond(), fx == null ? null : fx.measuredAt(),
+                fx == null ? null : fx.points().size());
     }
 
     private static PartResult.LimitRecord limit(LimitResult r) {

@@ -2,22 +2,53 @@ package org.lrbench.sim;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.apache.commons.math3.complex.Complex;
 import org.lrbench.instrument.Waveform;
 
 /**
  * The simulated bench: a generator with its output impedance, the fixture's sense resistor, the
- * part under test and a two-channel digitizer, channel 1 across the sense resistor and channel 2
- * across the part (differential inputs). The instruments are reached over SCPI like real ones.
+ * fixture's leads and stray capacitance, the part under test and a two-channel digitizer, channel 1
+ * across the sense resistor and channel 2 across the fixture's part terminals (differential inputs),
+ * channel 2 with its own gain error and delay. The instruments are reached over SCPI like real ones.
  */
 public final class SimBench implements AnalogInputs {
     private final SimGenerator generator;
     private final SimDigitizer digitizer;
     private final Circuit circuit;
+    private final SimSettings settings;
+    private volatile FixturePosition position = FixturePosition.PART;
 
     public SimBench(SimSettings settings, double senseOhm, PartModel part) {
         this.circuit = new Circuit(settings.sourceImpedanceOhm(), senseOhm, part);
+        this.settings = settings;
         this.generator = new SimGenerator(settings.sourceImpedanceOhm());
         this.digitizer = new SimDigitizer(this, settings);
+    }
+
+    /** Puts the part, the channel-match link, nothing, or a short in the fixture. */
+    public void setPosition(FixturePosition p) {
+        this.position = p;
+    }
+
+    public FixturePosition position() {
+        return position;
+    }
+
+    /**
+     * What the sense resistor's far side sees at the fixture terminals: the leads in series with
+     * the part (or the open, or the short) shunted by the stray capacitance.
+     */
+    Complex fixtureImpedance(double omega) {
+        Complex leads = new Complex(settings.leadResistanceOhm(), omega * settings.leadInductanceHenry());
+        Complex stray = new Complex(0, omega * settings.strayCapacitanceFarad());
+        return switch (position) {
+            case SHORT -> leads;
+            case OPEN -> stray.abs() == 0 ? new Complex(1e15, 0) : leads.add(stray.reciprocal());
+            default -> {
+                Complex part = circuit.part().impedance(omega);
+                yield leads.add(stray.abs() == 0 ? part : part.reciprocal().add(stray).reciprocal());
+            }
+        };
     }
 
     public SimGenerator generator() {
@@ -47,8 +78,21 @@ public final class SimBench implements AnalogInputs {
         Waveform w = generator.waveform();
         for (Harmonic h : WaveformSpectrum.of(w, generator.emfPeak(), generator.emfOffset(), f, bandLimit)) {
             double omega = 2 * Math.PI * h.k() * f;
-            out.add(new Harmonic(h.k(), channel == 1 ? circuit.senseVoltage(h.amplitude(), omega)
-                    : circuit.partVoltage(h.amplitude(), omega)));
+            Complex load = omega == 0 && position != FixturePosition.OPEN
+                    ? new Complex(settings.leadResistanceOhm() + (position == FixturePosition.SHORT ? 0
+                            : circuit.part().seriesResistanceOhm()), 0)
+                    : fixtureImpedance(omega);
+            Complex current = h.amplitude().divide(load.add(circuit.sourceOhm() + circuit.senseOhm()));
+            Complex sense = current.multiply(circuit.senseOhm());
+            if (channel == 1) {
+                out.add(new Harmonic(h.k(), sense));
+            } else {
+                Complex v = position == FixturePosition.CHANNEL_MATCH ? sense : current.multiply(load);
+                // channel 2's front end: its gain error and its delay against channel 1
+                double phase = -omega * settings.channel2SkewSecond();
+                out.add(new Harmonic(h.k(), v.multiply(1 + settings.channel2GainError())
+                        .multiply(new Complex(Math.cos(phase), Math.sin(phase)))));
+            }
         }
         return out;
     }

@@ -3,16 +3,26 @@ package org.lrbench.sim;
 /**
  * How the simulated bench departs from ideal: the generator's output impedance, the digitizer's
  * input noise (RMS volts, white and Gaussian, per channel), its converter resolution in bits
- * (0 for an ideal converter with no quantization) and the random seed that makes runs repeatable.
+ * (0 for an ideal converter with no quantization), the random seed that makes runs repeatable,
+ * channel 2's gain error (relative) and time skew against channel 1, and the fixture's parasitics:
+ * lead resistance and inductance in series with the part, stray capacitance across it.
  */
-public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed) {
+public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
+                          double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
+                          double leadInductanceHenry, double strayCapacitanceFarad) {
 
-    /** 50 ohm generator output (common practice, no source), 0.5 mV noise, 8 bits, seed 1. */
+    /** An ideal fixture and matched channels. */
+    public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed) {
+        this(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, 0, 0, 0, 0, 0);
+    }
+
+    /** 50 ohm generator output (common practice, no source), 0.5 mV noise, 8 bits, seed 1, no imperfections. */
     public static SimSettings defaults() {
         return new SimSettings(50.0, 0.5e-3, 8, 1L);
     }
 
     public SimSettings withSeed(long newSeed) {
-        return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, newSeed);
+        return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, newSeed, channel2GainError,
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad);
     }
 }

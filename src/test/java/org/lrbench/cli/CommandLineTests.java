@@ -45,7 +45,7 @@ class CommandLineTests {
         Path json = dir.resolve("out.json");
         Outcome o = run("run", PLAN, "--lot", "L-1", "--serial", "S-1", "--sim",
                 HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--json", json.toString(),
-                "--runs", dir.resolve("runs").toString());
+                "--runs", dir.resolve("runs").toString(), "--calibration", dir.resolve("none").toString());
         assertThat(o.code()).as(o.out() + o.err()).isZero();
         assertThat(o.out()).contains("verdict: PASS");
         JsonNode r = new ObjectMapper().readTree(json.toFile());
@@ -125,7 +125,7 @@ class CommandLineTests {
 
     @Test
     void demoLotGivesTheVerdictsItsTrueValuesCall(@TempDir Path dir) throws Exception {
-        Outcome o = run("demo", "--runs", dir.toString());
+        Outcome o = run("demo", "--runs", dir.toString(), "--calibration", dir.resolve("cal").toString());
         assertThat(o.code()).as(o.err()).isZero();
         // Expected by hand from simulator/demo-lot.yaml against plans/qfd-ind-1m0.yaml
         // (L 1 mH +/- 10 %, R <= 2.6 ohm, Q = 2 pi 10 kHz L / R >= 20); each part is far from a
@@ -149,5 +149,10 @@ class CommandLineTests {
         assertThat(summary.get("failed").asInt()).isEqualTo(3);
         assertThat(o.out()).contains("8 measured, 5 pass, 3 fail, 0 error");
         assertThat(o.out()).contains("HC0417-0007").contains("winding resistance").contains("Q at 10 kHz");
+        // the demo calibrates the bench first and every result records the corrections it used
+        assertThat(o.out()).contains("channel match:").contains("fixture: short");
+        JsonNode first = json.readTree(dir.resolve("HCC-2611-0417/HC0417-0001.json").toFile());
+        assertThat(first.get("corrections").get("channel_match_measured_at").asText()).isNotBlank();
+        assertThat(Files.exists(dir.resolve("cal/sim-bench-1/fixture.json"))).isTrue();
     }
 }

@@ -1,0 +1,78 @@
+package org.lrbench.cli;
+
+import java.io.BufferedReader;
+import java.io.InputStreamReader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.CalibrationStore;
+import org.lrbench.calibration.ChannelMatch;
+import org.lrbench.calibration.FixtureCompensation;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.measure.Sleeper;
+import org.lrbench.plan.Plan;
+import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.CalibrationRun;
+import org.lrbench.run.FixtureChange;
+import org.lrbench.sim.PartFile;
+import org.lrbench.sim.SimBench;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/** {@code lrbench calibrate PLAN}: measures the channel match and the fixture's open and short. */
+@Command(name = "calibrate", description = {"Measure the bench's corrections at a plan's frequencies: the digitizer",
+        "channel match, then the fixture's short and open; kept under DIR/BENCH/ and applied to later runs."})
+final class CalibrateCommand implements Callable<Integer> {
+
+    @Parameters(index = "0", paramLabel = "PLAN", description = "the plan whose frequencies and fixture to calibrate")
+    Path plan;
+
+    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
+    Path bench;
+
+    @Option(names = "--sim", paramLabel = "PART.yaml", description = "calibrate the in-process simulated bench")
+    Path sim;
+
+    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
+            description = "where corrections are kept (default: ${DEFAULT-VALUE})")
+    Path calibration;
+
+    @Override
+    public Integer call() throws Exception {
+        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        Plan p = Inputs.plan(plan, b);
+        SimBench simBench = null;
+        if (sim != null) {
+            Inputs.requireFile(sim, "simulated part");
+            simBench = new SimBench(b.simulation(), p.senseResistanceOhm(), PartFile.load(sim));
+        }
+        Path written = calibrate(p, b, simBench, calibration);
+        System.out.println("corrections kept in " + written);
+        return ExitCodes.PASS;
+    }
+
+    /** Runs both calibrations and stores them; prints what was found. */
+    static Path calibrate(Plan p, BenchConfig b, SimBench simBench, Path dir) throws Exception {
+        FixtureChange change = simBench != null ? simBench::setPosition
+                : FixtureChange.console(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
+                System.out);
+        Sleeper sleeper = simBench != null ? Sleeper.NONE : Sleeper.REAL;
+        CalibrationStore store = new CalibrationStore(dir, b.name());
+        try (BenchInstruments inst = BenchInstruments.open(b, new DriverLoader(Home.drivers()), simBench)) {
+            ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper);
+            store.save(m);
+            System.out.printf(Locale.ROOT, "channel match: channel 2 gain %.5f +/- %.5f, skew %.1f +/- %.1f ps (%d frequencies)%n",
+                    m.gainRatio(), m.gainUncertainty(), m.skewSecond() * 1e12, m.skewUncertaintySecond() * 1e12, m.points());
+            FixtureCompensation f = CalibrationRun.fixture(p, inst, change, sleeper, m);
+            store.save(f);
+            FixtureCompensation.Point first = f.points().get(0);
+            long opens = f.points().stream().filter(x -> !Double.isNaN(x.openReal())).count();
+            System.out.printf(Locale.ROOT, "fixture: short %.2f mohm at %.6g Hz; open readable at %d of %d frequencies%n",
+                    first.shortReal() * 1e3, first.frequencyHz(), opens, f.points().size());
+        }
+        return dir.resolve(b.name());
+    }
+}

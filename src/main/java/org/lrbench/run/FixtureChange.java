@@ -1,0 +1,35 @@
+package org.lrbench.run;
+
+import org.lrbench.sim.FixturePosition;
+
+/**
+ * Gets the fixture into a position before a calibration sweep: on the simulated bench directly, on
+ * a real bench by asking the operator (with the generator output off) and waiting for Enter.
+ */
+@FunctionalInterface
+public interface FixtureChange {
+
+    void moveTo(FixturePosition position);
+
+    /** Console prompts for a real bench; returns after the operator presses Enter. */
+    static FixtureChange console(java.io.BufferedReader in, java.io.PrintStream out) {
+        return position -> {
+            out.println(switch (position) {
+                case CHANNEL_MATCH -> "Connect BOTH digitizer inputs across the sense resistor (same node, same"
+                        + " polarity), then press Enter.";
+                case SHORT -> "Put the shorting bar in the part's place in the fixture, then press Enter.";
+                case OPEN -> "Leave the part's place in the fixture empty (open), then press Enter.";
+                case PART -> "Restore the normal wiring: channel 1 across the sense resistor, channel 2 across the"
+                        + " part, then press Enter.";
+            });
+            out.println("(The generator output is off while you change the wiring.)");
+            try {
+                if (in.readLine() == null) {
+                    throw new IllegalStateException("no operator input: calibration stopped");
+                }
+            } catch (java.io.IOException e) {
+                throw new IllegalStateException("reading the operator's answer failed", e);
+            }
+        };
+    }
+}
