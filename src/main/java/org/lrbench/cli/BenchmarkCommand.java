@@ -12,12 +12,12 @@ import picocli.CommandLine.Option;
 
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
 @Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
-        subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class})
+        subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class})
 final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links | fits");
+        System.out.println("use: lrbench benchmark links | fits | accuracy");
     }
 
     @Command(name = "fits", description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
@@ -31,6 +31,22 @@ final class BenchmarkCommand implements Runnable {
                 throw new BadInputException("--repeats 1..100");
             }
             FitBenchmark.run(System.out, repeats);
+            return ExitCodes.PASS;
+        }
+    }
+
+    @Command(name = "accuracy", description = "Bias and spread of R and L over many seeds against the Cramer-Rao bound.")
+    static final class Accuracy implements Callable<Integer> {
+        @Option(names = "--repeats", defaultValue = "300", description = "seeds (default: ${DEFAULT-VALUE})")
+        int repeats;
+
+        @Override
+        public Integer call() throws Exception {
+            if (repeats < 10 || repeats > 100_000) {
+                throw new BadInputException("--repeats 10..100000");
+            }
+            org.lrbench.benchmark.AccuracyBenchmark.run(System.out, Inputs.bench(Home.defaultBench()), Home.drivers(),
+                    repeats);
             return ExitCodes.PASS;
         }
     }

@@ -4,17 +4,24 @@ import java.util.Locale;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Timing;
 
-/** Chooses a digitizer time base for a number of cycles at no fewer than so many samples per cycle. */
+/**
+ * Chooses a digitizer time base for a number of cycles at no fewer than so many samples per cycle,
+ * with a sample rate that is not a whole multiple of the signal frequency.
+ */
 final class TimeBase {
 
     private TimeBase() {
     }
 
     static Timing set(Digitizer digitizer, double f, int cycles, int samplesPerCycle) {
-        double interval = 1.0 / (f * samplesPerCycle);
-        // a little more than the cycles asked for, so an interval the digitizer rounds down by up to
-        // 0.1 % still captures them without a second round trip
-        int points = (int) Math.ceil(cycles * samplesPerCycle * 1.001) + 1;
+        // cycles * samplesPerCycle + 1 samples over exactly `cycles` periods: the sample count and the
+        // cycle count are co-prime, so no two samples fall on the same phase and the converter's
+        // quantization error does not repeat cycle after cycle (IEEE Std 1241 coherent sampling)
+        int exact = cycles * samplesPerCycle + 1;
+        double interval = cycles / (f * exact);
+        // 1 % more samples, so an interval the digitizer rounds down by up to 1 % still captures the
+        // cycles without a second round trip
+        int points = exact + (int) Math.ceil(0.01 * exact) + 1;
         Timing timing = digitizer.setTiming(interval, points);
         double captured = timing.points() * timing.sampleIntervalSecond() * f;
         if (1.0 / (f * timing.sampleIntervalSecond()) < samplesPerCycle * (1 - 1e-9) || captured < cycles * (1 - 1e-9)) {

@@ -39,6 +39,7 @@ public final class SimDigitizer extends ScpiDevice {
     private Format format;
     private boolean littleEndian;
     private double[][] record;
+    private double firstSampleAfterTrigger;
     /** Encoded replies of the current record, per channel: the instrument's transfer buffer. */
     private final Object[] encoded = new Object[CHANNELS + 1];
 
@@ -141,7 +142,7 @@ public final class SimDigitizer extends ScpiDevice {
                 default -> 1.0;
             };
             double yOrigin = format == Format.INT8 || format == Format.INT16 ? offset[ch] : 0.0;
-            return nr3(interval) + "," + nr3(0.0) + "," + nr3(yIncrement) + "," + nr3(yOrigin);
+            return nr3(interval) + "," + nr3(firstSampleAfterTrigger) + "," + nr3(yIncrement) + "," + nr3(yOrigin);
         });
         register("TRACe[:DATA]", true, c -> {
             int ch = channelParameter(c);
@@ -190,7 +191,11 @@ public final class SimDigitizer extends ScpiDevice {
             }
         }
         java.util.Arrays.fill(encoded, null);
-        double t0 = triggerTime(lines, f);
+        double trigger = triggerTime(lines, f);
+        // the sample clock runs free: the first sample after the trigger falls at a random fraction of
+        // an interval, reported as the record's x origin, as a real digitizer's trigger interpolator does
+        firstSampleAfterTrigger = random.nextDouble() * interval;
+        double t0 = trigger + firstSampleAfterTrigger;
         record = new double[CHANNELS + 1][];
         for (int ch = 1; ch <= CHANNELS; ch++) {
             record[ch] = sample(lines[ch], f, t0, ch);
