@@ -1,0 +1,30 @@
+package org.lrbench.calibration;
+
+import java.util.List;
+import org.lrbench.analysis.ImpedancePoint;
+
+/**
+ * The corrections in force on a bench: the channel match (or null) and the fixture compensation
+ * (or null). Applied to every measured point before the model fit: Z / H(f) first, then the
+ * open/short correction. Channel 2's phasor uncertainty is carried over unchanged in relative terms.
+ */
+public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
+
+    public static final Calibration NONE = new Calibration(null, null);
+
+    public List<ImpedancePoint> apply(List<ImpedancePoint> points) {
+        return points.stream().map(this::apply).toList();
+    }
+
+    public ImpedancePoint apply(ImpedancePoint p) {
+        var z = p.impedanceOhm();
+        if (channels != null) {
+            z = z.divide(channels.ratio(p.frequencyHz()));
+        }
+        if (fixture != null) {
+            z = fixture.correct(p.frequencyHz(), z);
+        }
+        double scale = z.abs() / p.impedanceOhm().abs();
+        return new ImpedancePoint(p.frequencyHz(), z, p.componentUncertaintyOhm() * scale, p.currentAmpere());
+    }
+}

@@ -1,0 +1,51 @@
+package org.lrbench.calibration;
+
+import java.util.List;
+import org.apache.commons.math3.complex.Complex;
+
+/**
+ * The digitizer's channel match: with both channels across the same node, the measured ratio
+ * H(f) = V2 / V1 should be 1. Its magnitude gives channel 2's gain against channel 1 (a weighted
+ * mean over the frequencies), its phase the time skew tau from the least-squares line through the
+ * origin of phase against -2 pi f. Corrected readings divide V2 by g exp(-j 2 pi f tau). The
+ * standard uncertainties come from the scatter of the points about these two numbers.
+ */
+public record ChannelMatch(String measuredAt, double gainRatio, double gainUncertainty, double skewSecond,
+                           double skewUncertaintySecond, int points) {
+
+    /** Fits gain and skew to measured ratios at their frequencies. */
+    public static ChannelMatch fit(String measuredAt, double[] frequencyHz, List<Complex> ratio) {
+        int n = frequencyHz.length;
+        if (n < 2) {
+            throw new IllegalArgumentException("a channel match needs at least 2 frequencies");
+        }
+        double sumG = 0;
+        double sumW2 = 0;
+        double sumWPhi = 0;
+        for (int i = 0; i < n; i++) {
+            sumG += ratio.get(i).abs();
+            double w = -2 * Math.PI * frequencyHz[i];
+            sumW2 += w * w;
+            sumWPhi += w * ratio.get(i).getArgument();
+        }
+        double g = sumG / n;
+        double tau = sumWPhi / sumW2;
+        double rg = 0;
+        double rp = 0;
+        for (int i = 0; i < n; i++) {
+            double dg = ratio.get(i).abs() - g;
+            double dp = ratio.get(i).getArgument() - (-2 * Math.PI * frequencyHz[i] * tau);
+            rg += dg * dg;
+            rp += dp * dp;
+        }
+        double ug = Math.sqrt(rg / (n - 1) / n);
+        double utau = Math.sqrt(rp / (n - 1) / sumW2);
+        return new ChannelMatch(measuredAt, g, ug, tau, utau, n);
+    }
+
+    /** The correction factor H(f) that a measured Z is divided by. */
+    public Complex ratio(double frequencyHz) {
+        double phase = -2 * Math.PI * frequencyHz * skewSecond;
+        return new Complex(gainRatio * Math.cos(phase), gainRatio * Math.sin(phase));
+    }
+}

@@ -1,0 +1,46 @@
+package org.lrbench.calibration;
+
+import java.util.List;
+import org.apache.commons.math3.complex.Complex;
+
+/**
+ * Open/short compensation of the fixture, per frequency: with the fixture modelled as a series
+ * residual Z_s (leads) followed by a shunt admittance Y_o (stray capacitance) at the part's
+ * terminals, the measured Z_m = Z_s + 1 / (Y_o + 1 / Z_dut), hence the usual correction
+ * Z_dut = (Z_m - Z_s) / (1 - (Z_m - Z_s) Y_o) with Z_s the short reading and
+ * Y_o = 1 / (Z_open - Z_s). An open reading lost in noise counts as Y_o = 0 (no stray to remove).
+ */
+public record FixtureCompensation(String measuredAt, List<Point> points) {
+
+    /** The short and open readings at one frequency; {@code openReal}/{@code openImag} NaN when lost in noise. */
+    public record Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag) {
+
+        Complex shortZ() {
+            return new Complex(shortReal, shortImag);
+        }
+
+        Complex openAdmittance() {
+            if (Double.isNaN(openReal)) {
+                return Complex.ZERO;
+            }
+            return new Complex(openReal, openImag).subtract(shortZ()).reciprocal();
+        }
+    }
+
+    /** The compensated impedance; the frequency must be one the compensation was measured at. */
+    public Complex correct(double frequencyHz, Complex measured) {
+        Point p = at(frequencyHz);
+        Complex d = measured.subtract(p.shortZ());
+        return d.divide(Complex.ONE.subtract(d.multiply(p.openAdmittance())));
+    }
+
+    public boolean covers(double frequencyHz) {
+        return points.stream().anyMatch(p -> Math.abs(p.frequencyHz() - frequencyHz) <= 1e-9 * frequencyHz);
+    }
+
+    private Point at(double frequencyHz) {
+        return points.stream().filter(p -> Math.abs(p.frequencyHz() - frequencyHz) <= 1e-9 * frequencyHz).findFirst()
+                .orElseThrow(() -> new IllegalArgumentException("the fixture compensation has no reading at "
+                        + frequencyHz + " Hz: measure it again with this plan's frequencies"));
+    }
+}

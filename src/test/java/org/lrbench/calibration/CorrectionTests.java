@@ -1,0 +1,104 @@
+package org.lrbench.calibration;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import org.apache.commons.math3.complex.Complex;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.TestBench;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.BenchLoader;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.SweepListener;
+import org.lrbench.plan.Plan;
+import org.lrbench.plan.PlanLoader;
+import org.lrbench.results.PartResult;
+import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.CalibrationRun;
+import org.lrbench.run.PartRun;
+import org.lrbench.sim.PartModel;
+import org.lrbench.sim.SimBench;
+import org.lrbench.sim.SimSettings;
+
+class CorrectionTests {
+
+    @Test
+    void channelMatchRecoversGainAndSkewFromExactRatios() {
+        double[] f = {1e3, 1e4, 1e5, 1e6};
+        List<Complex> h = new ArrayList<>();
+        for (double x : f) {
+            double phase = -2 * Math.PI * x * 2e-9;
+            h.add(new Complex(1.004 * Math.cos(phase), 1.004 * Math.sin(phase)));
+        }
+        ChannelMatch m = ChannelMatch.fit("t", f, h);
+        assertThat(m.gainRatio()).isCloseTo(1.004, within(1e-12));
+        assertThat(m.skewSecond()).isCloseTo(2e-9, within(1e-18));
+    }
+
+    @Test
+    void openShortCompensationInvertsTheFixtureModel() {
+        // Open/short compensation (the usual series-residual, shunt-admittance fixture model, derived):
+        // Z_m = Z_s + 1 / (Y_o + 1 / Z_dut) is undone by (Z_m - Z_s) / (1 - (Z_m - Z_s) Y_o)
+        double f = 1e5;
+        double w = 2 * Math.PI * f;
+        Complex zs = new Complex(0.025, w * 40e-9);
+        Complex yo = new Complex(1e-7, w * 3e-12);
+        Complex dut = new Complex(2.3, w * 1e-3);
+        Complex zm = zs.add(yo.add(dut.reciprocal()).reciprocal());
+        Complex open = zs.add(yo.reciprocal());
+        FixtureCompensation c = new FixtureCompensation("t", List.of(new FixtureCompensation.Point(f, zs.getReal(),
+                zs.getImaginary(), open.getReal(), open.getImaginary())));
+        Complex back = c.correct(f, zm);
+        assertThat(back.getReal()).isCloseTo(2.3, within(1e-9));
+        assertThat(back.getImaginary()).isCloseTo(w * 1e-3, within(1e-9));
+    }
+
+    @Test
+    void calibrationOnTheSimulatedBenchRemovesLeadsGainAndSkew(@TempDir Path dir) throws Exception {
+        // known truth: a 100 uH, 0.5 ohm part behind 25 mohm + 40 nH leads, channel 2 reading 1 % high
+        // and 2 ns late; measured up to 200 kHz where skew matters (Q about 250 at the top)
+        BenchConfig bench = BenchLoader.load(TestBench.home().resolve("simulator/bench.yaml"));
+        SimSettings s = new SimSettings(50, 0.5e-3, 8, 11, 0.01, 2e-9, 0.025, 40e-9, 3e-12);
+        BenchConfig b = bench.withSimulation(s);
+        Plan plan = PlanLoader.parse("""
+                plan_format: 1
+                part_number: T-2
+                fixture: {sense_resistor: 10 ohm}
+                sine_sweep:
+                  amplitude: 3 V
+                  log_sweep: {start: 1 kHz, stop: 200 kHz, points: 8}
+                  cycles: 20
+                  settle: 0 s
+                  model_terms: []
+                limits: [{characteristic: series_resistance, max: 10 ohm}]
+                """, "t.yaml", 5.0);
+        PartModel part = new PartModel(100e-6, 0.5, 0);
+        SimBench sim = new SimBench(s, 10, part);
+        DriverLoader drivers = new DriverLoader(TestBench.home().resolve("drivers"));
+        PartResult raw;
+        PartResult corrected;
+        try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
+            raw = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "raw", true, "t"), inst, Sleeper.NONE,
+                    SweepListener.NONE);
+            ChannelMatch m = CalibrationRun.channels(plan, inst, sim::setPosition, Sleeper.NONE);
+            FixtureCompensation fx = CalibrationRun.fixture(plan, inst, sim::setPosition, Sleeper.NONE, m);
+            assertThat(m.gainRatio()).isCloseTo(1.01, within(0.0005));
+            assertThat(m.skewSecond()).isCloseTo(2e-9, within(0.3e-9));
+            corrected = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "cor", true, "t", new Calibration(m, fx)),
+                    inst, Sleeper.NONE, SweepListener.NONE);
+        }
+        double rawErr = Math.abs(raw.seriesResistanceOhm() - 0.5);
+        double corErr = Math.abs(corrected.seriesResistanceOhm() - 0.5);
+        assertThat(rawErr).isGreaterThan(0.02);
+        assertThat(corErr).isLessThan(0.005);
+        assertThat(Math.abs(corrected.inductanceH() - 100e-6)).isLessThan(0.1e-6);
+        assertThat(Math.abs(raw.inductanceH() - 100e-6)).isGreaterThan(0.5e-6);
+        // and the corrections are named in the record
+        assertThat(corrected.corrections().channel2GainRatio()).isCloseTo(1.01, within(0.0005));
+    }
+}
