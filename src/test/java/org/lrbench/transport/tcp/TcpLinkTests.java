@@ -123,7 +123,8 @@ class TcpLinkTests {
              DroppingProxy proxy = new DroppingProxy(server.digitizerPort(), "TRACe:DATA?", 100)) {
             int code = org.lrbench.cli.Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
                     "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
-                    "--digitizer", "tcp://127.0.0.1:" + proxy.port(), "--runs", dir.toString());
+                    "--digitizer", "tcp://127.0.0.1:" + proxy.port(), "--runs", dir.toString(),
+                    "--calibration", dir.resolve("none").toString());
             assertThat(code).isEqualTo(3);
             assertThat(sim.generator().isOutputOn()).isFalse();
             assertThat(Files.readString(dir.resolve("L/S.json"))).contains("\"verdict\" : \"error\"");
