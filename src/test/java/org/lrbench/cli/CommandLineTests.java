@@ -90,7 +90,8 @@ class CommandLineTests {
     @Test
     void runOnAPartOverTheResistanceLimitFailsWithTheReason(@TempDir Path dir) {
         Outcome o = run("run", PLAN, "--lot", "L-1", "--serial", "S-2", "--sim",
-                HOME.resolve("simulator/parts/qfd-ind-1m0-high-r.yaml").toString(), "--runs", dir.toString());
+                HOME.resolve("simulator/parts/qfd-ind-1m0-high-r.yaml").toString(), "--runs", dir.toString(),
+                "--calibration", dir.resolve("none").toString());
         assertThat(o.code()).isEqualTo(1);
         assertThat(o.out()).contains("FAIL winding resistance").contains("verdict: FAIL");
     }
