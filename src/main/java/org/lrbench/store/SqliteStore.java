@@ -1,0 +1,226 @@
+package org.lrbench.store;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.PreparedStatement;
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.sql.Statement;
+import java.util.ArrayList;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Set;
+import org.lrbench.results.PartResult;
+import org.lrbench.results.ResultFiles;
+
+/**
+ * The results store in an embedded SQLite file (xerial sqlite-jdbc). Each part result is committed
+ * on its own as soon as it is complete, so a crash loses at most the part being measured; the
+ * primary key (lot, serial) keeps a part from being stored twice, and a lot cannot be continued
+ * with a plan other than the one it was started with.
+ */
+public final class SqliteStore implements AutoCloseable {
+    private final Connection db;
+
+    private SqliteStore(Connection db) {
+        this.db = db;
+    }
+
+    /** Opens (creating if needed) the store file and brings its schema up to date. */
+    public static SqliteStore open(Path file) {
+        try {
+            Files.createDirectories(file.toAbsolutePath().getParent());
+            Connection c = DriverManager.getConnection("jdbc:sqlite:" + file);
+            try (Statement s = c.createStatement()) {
+                s.execute("PRAGMA foreign_keys = ON");
+                s.execute("PRAGMA journal_mode = WAL");
+                s.execute("PRAGMA busy_timeout = 5000");
+            }
+            SqliteStore store = new SqliteStore(c);
+            store.migrate();
+            return store;
+        } catch (Exception e) {
+            throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** The schema version the store is at. */
+    public int version() {
+        try (Statement s = db.createStatement(); ResultSet r = s.executeQuery("SELECT version FROM schema_version")) {
+            return r.next() ? r.getInt(1) : 0;
+        } catch (SQLException e) {
+            throw new StoreException("reading the schema version failed: " + e.getMessage(), e);
+        }
+    }
+
+    private void migrate() throws SQLException {
+        try (Statement s = db.createStatement()) {
+            s.execute("CREATE TABLE IF NOT EXISTS schema_version (version INTEGER NOT NULL)");
+        }
+        int at = version();
+        for (int step = at; step < Migrations.STEPS.size(); step++) {
+            db.setAutoCommit(false);
+            try (Statement s = db.createStatement()) {
+                for (String sql : Migrations.STEPS.get(step)) {
+                    s.execute(sql);
+                }
+                s.execute("DELETE FROM schema_version");
+                s.execute("INSERT INTO schema_version (version) VALUES (" + (step + 1) + ")");
+                db.commit();
+            } catch (SQLException e) {
+                db.rollback();
+                throw e;
+            } finally {
+                db.setAutoCommit(true);
+            }
+        }
+    }
+
+    /** Records a lot, or checks that an existing one was started with the same plan. */
+    public void beginLot(String lot, String partNumber, String planPath, String planSha256, String bench,
+                         Integer lotSize, Integer sampleSize, String now) {
+        try {
+            try (PreparedStatement q = db.prepareStatement("SELECT plan_sha256, disposition FROM lot WHERE lot = ?")) {
+                q.setString(1, lot);
+                try (ResultSet r = q.executeQuery()) {
+                    if (r.next()) {
+                        if (!r.getString(1).equals(planSha256)) {
+                            throw new StoreException("lot " + lot + " was started with another plan (content "
+                                    + r.getString(1).substring(0, 12) + "..., this one " + planSha256.substring(0, 12)
+                                    + "...); use another lot number or the original plan", null);
+                        }
+                        return;
+                    }
+                }
+            }
+            try (PreparedStatement p = db.prepareStatement("INSERT INTO lot (lot, part_number, plan_path, plan_sha256,"
+                    + " bench, lot_size, sample_size, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)")) {
+                p.setString(1, lot);
+                p.setString(2, partNumber);
+                p.setString(3, planPath);
+                p.setString(4, planSha256);
+                p.setString(5, bench);
+                p.setObject(6, lotSize);
+                p.setObject(7, sampleSize);
+                p.setString(8, now);
+                p.executeUpdate();
+            }
+        } catch (SQLException e) {
+            throw new StoreException("recording lot " + lot + " failed: " + e.getMessage(), e);
+        }
+    }
+
+    /** Commits one part's result; an earlier error result of the same serial is replaced. */
+    public void savePart(int position, PartResult result) {
+        try {
+            String json = ResultFiles.JSON.writeValueAsString(result);
+            db.setAutoCommit(false);
+            try {
+                try (PreparedStatement q = db.prepareStatement(
+                        "SELECT verdict FROM part_result WHERE lot = ? AND serial = ?")) {
+                    q.setString(1, result.lot());
+                    q.setString(2, result.serial());
+                    try (ResultSet r = q.executeQuery()) {
+                        if (r.next() && !r.getString(1).equals("error")) {
+                            throw new StoreException("serial " + result.serial() + " of lot " + result.lot()
+                                    + " is already stored with verdict " + r.getString(1), null);
+                        }
+                    }
+                }
+                try (PreparedStatement p = db.prepareStatement("INSERT OR REPLACE INTO part_result (lot, serial, position,"
+                        + " verdict, inductance_h, series_resistance_ohm, measured_at, program_version, result_json)"
+                        + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                    p.setString(1, result.lot());
+                    p.setString(2, result.serial());
+                    p.setInt(3, position);
+                    p.setString(4, result.verdict());
+                    p.setObject(5, result.inductanceH());
+                    p.setObject(6, result.seriesResistanceOhm());
+                    p.setString(7, result.finishedAt());
+                    p.setString(8, result.programVersion());
+                    p.setString(9, json);
+                    p.executeUpdate();
+                }
+                db.commit();
+            } catch (SQLException | RuntimeException e) {
+                db.rollback();
+                throw e;
+            } finally {
+                db.setAutoCommit(true);
+            }
+        } catch (SQLException | com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new StoreException("storing " + result.serial() + " of lot " + result.lot() + " failed: "
+                    + e.getMessage(), e);
+        }
+    }
+
+    /** Serials of a lot that need no measuring again (everything but errors). */
+    public Set<String> completed(String lot) {
+        Set<String> out = new LinkedHashSet<>();
+        for (PartRow r : parts(lot)) {
+            if (!r.verdict().equals("error")) {
+                out.add(r.serial());
+            }
+        }
+        return out;
+    }
+
+    public void finishLot(String lot, String disposition, String reason, String now) {
+        try (PreparedStatement p = db.prepareStatement(
+                "UPDATE lot SET disposition = ?, disposition_reason = ?, finished_at = ? WHERE lot = ?")) {
+            p.setString(1, disposition);
+            p.setString(2, reason);
+            p.setString(3, now);
+            p.setString(4, lot);
+            p.executeUpdate();
+        } catch (SQLException e) {
+            throw new StoreException("recording the disposition of lot " + lot + " failed: " + e.getMessage(), e);
+        }
+    }
+
+    public List<PartRow> parts(String lot) {
+        List<PartRow> out = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement("SELECT lot, serial, position, verdict, inductance_h,"
+                + " series_resistance_ohm, measured_at, result_json FROM part_result WHERE lot = ? ORDER BY position")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    out.add(new PartRow(r.getString(1), r.getString(2), r.getInt(3), r.getString(4),
+                            (Double) r.getObject(5), (Double) r.getObject(6), r.getString(7), r.getString(8)));
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + e.getMessage(), e);
+        }
+        return out;
+    }
+
+    public List<LotRecord> lots() {
+        List<LotRecord> out = new ArrayList<>();
+        String sql = "SELECT l.lot, l.part_number, l.plan_path, l.plan_sha256, l.bench, l.lot_size, l.sample_size,"
+                + " l.created_at, l.disposition, l.disposition_reason, l.finished_at,"
+                + " COUNT(p.serial), SUM(p.verdict = 'pass'), SUM(p.verdict = 'fail')"
+                + " FROM lot l LEFT JOIN part_result p ON p.lot = l.lot GROUP BY l.lot ORDER BY l.created_at";
+        try (Statement s = db.createStatement(); ResultSet r = s.executeQuery(sql)) {
+            while (r.next()) {
+                out.add(new LotRecord(r.getString(1), r.getString(2), r.getString(3), r.getString(4), r.getString(5),
+                        (Integer) r.getObject(6), (Integer) r.getObject(7), r.getString(8), r.getString(9),
+                        r.getString(10), r.getString(11), r.getInt(12), r.getInt(13), r.getInt(14)));
+            }
+        } catch (SQLException e) {
+            throw new StoreException("listing lots failed: " + e.getMessage(), e);
+        }
+        return out;
+    }
+
+    @Override
+    public void close() {
+        try {
+            db.close();
+        } catch (SQLException ignored) {
+            // closing after use; nothing is pending
+        }
+    }
+}
