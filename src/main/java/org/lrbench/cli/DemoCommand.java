@@ -6,7 +6,14 @@ import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
+import java.util.Map;
+import java.util.Set;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.judge.CharacteristicClass;
+import org.lrbench.judge.Limit;
+import org.lrbench.sampling.LotDisposition;
+import org.lrbench.sampling.SamplingScheme;
+import org.lrbench.store.SqliteStore;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
@@ -41,6 +48,10 @@ final class DemoCommand implements Callable<Integer> {
             description = "folder for the results (default: ${DEFAULT-VALUE})")
     Path runs;
 
+    @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
+            description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
+    Path data;
+
     @Override
     public Integer call() throws Exception {
         Path lotPath = lotFile != null ? lotFile : Home.demoLot();
@@ -60,9 +71,31 @@ final class DemoCommand implements Callable<Integer> {
                 lot.parts().get(0).model()), calibration);
         Calibration corrections = new CalibrationStore(calibration, b.name()).load();
         System.out.println();
+        int count = lot.parts().size();
+        SamplingScheme scheme = plan.sampling();
+        Integer lotSize = lot.lotSize();
+        Integer sampleSize = null;
+        if (scheme != null && lotSize != null) {
+            sampleSize = LotDisposition.judge(lotSize, scheme, List.of()).sampleSize();
+            System.out.printf("lot size %d, inspection level %s: ", lotSize, scheme.level());
+            LotDisposition.plans(lotSize, scheme).forEach((c, p) -> System.out.printf("%s AQL %s -> code letter %c,"
+                    + " plan %c, n = %d, Ac %d, Re %d; ", c.name().toLowerCase(java.util.Locale.ROOT), p.aql(),
+                    p.codeLetter(), p.planLetter(), p.sampleSize(), p.acceptance(), p.rejection()));
+            System.out.println();
+            if (sampleSize > count) {
+                throw new BadInputException(lotPath + ": the sample needs " + sampleSize + " parts; the tray holds " + count);
+            }
+            count = sampleSize;
+        }
+        System.out.println();
         ResultText.tableHeader(System.out, qAt);
         List<PartResult> results = new ArrayList<>();
-        for (int i = 0; i < lot.parts().size(); i++) {
+        SqliteStore store = SqliteStore.open(data.resolve("lrbench.db"));
+        // the demo measures its lot afresh each time; a real lot resumes where it stopped
+        store.deleteLot(lot.lot());
+        store.beginLot(lot.lot(), plan.partNumber(), plan.source(), sha, b.name(), lotSize, sampleSize,
+                Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
+        for (int i = 0; i < count; i++) {
             SimLot.Part part = lot.parts().get(i);
             Inputs.name("serial", part.serial());
             // each part gets its own noise: the bench seed advanced by the part's position
@@ -75,15 +108,36 @@ final class DemoCommand implements Callable<Integer> {
                 r = PartRun.measure(request, instruments, Sleeper.NONE, SweepListener.NONE);
             }
             ResultFiles.writeJson(runs.resolve(lot.lot()).resolve(part.serial() + ".json"), r);
+            store.savePart(i + 1, r);
             results.add(r);
             ResultText.tableRow(System.out, r, qAt);
         }
         LotSummary summary = LotSummary.of(lot.lot(), plan.partNumber(), plan.source(),
                 Instant.now().truncatedTo(ChronoUnit.MILLIS).toString(), results);
+        if (sampleSize != null) {
+            Map<String, Limit> byName = new java.util.HashMap<>();
+            plan.limits().forEach(l -> byName.put(l.name(), l));
+            List<Set<CharacteristicClass>> failed = new ArrayList<>();
+            for (PartResult r : results) {
+                if (!r.verdict().equals("error")) {
+                    Set<CharacteristicClass> classes = java.util.EnumSet.noneOf(CharacteristicClass.class);
+                    r.limits().stream().filter(l -> !l.pass()).forEach(l -> classes.add(byName.get(l.name()).characteristicClass()));
+                    failed.add(classes);
+                }
+            }
+            LotDisposition.Result d = LotDisposition.judge(lotSize, scheme, failed);
+            String state = d.state().name().toLowerCase(java.util.Locale.ROOT);
+            summary = summary.withDisposition(lotSize, sampleSize, state, d.reason());
+            if (d.state() != LotDisposition.State.OPEN) {
+                store.finishLot(lot.lot(), state, d.reason(), summary.finishedAt());
+            }
+        }
+        store.close();
         Path summaryFile = runs.resolve(lot.lot()).resolve("lot-summary.json");
         ResultFiles.writeJson(summaryFile, summary);
         System.out.println();
         ResultText.summary(System.out, summary);
+        System.out.println("store: " + data.resolve("lrbench.db"));
         System.out.println("results: " + runs.resolve(lot.lot()) + "/");
         return ExitCodes.PASS;
     }

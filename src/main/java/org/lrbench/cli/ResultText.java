@@ -91,6 +91,9 @@ final class ResultText {
         if (!s.errorSerials().isEmpty()) {
             out.println("  not measured (error): " + String.join(", ", s.errorSerials()));
         }
+        if (s.disposition() != null) {
+            out.printf("disposition: %s (%s)%n", s.disposition().toUpperCase(Locale.ROOT), s.dispositionReason());
+        }
     }
 
     static void problems(java.io.PrintWriter err, List<?> problems) {

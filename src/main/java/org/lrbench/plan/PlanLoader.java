@@ -10,6 +10,10 @@ import java.util.Locale;
 import java.util.Set;
 import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.judge.Characteristic;
+import org.lrbench.judge.CharacteristicClass;
+import org.lrbench.sampling.InspectionLevel;
+import org.lrbench.sampling.SamplingScheme;
+import org.lrbench.sampling.SingleSampling;
 import org.lrbench.judge.DecisionRule;
 import org.lrbench.judge.Limit;
 import org.lrbench.units.Dimension;
@@ -39,7 +43,7 @@ public final class PlanLoader {
     public static Plan load(Path file, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(file.toString());
         YamlMap root = YamlFile.read(file, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "triangle_check", "limits");
+                "sine_sweep", "triangle_check", "sampling", "limits");
         return read(root, file.toString(), maxAmplitudeVolt);
     }
 
@@ -47,7 +51,7 @@ public final class PlanLoader {
     public static Plan parse(String text, String name, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(name);
         YamlMap root = YamlFile.parse(text, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "triangle_check", "limits");
+                "sine_sweep", "triangle_check", "sampling", "limits");
         return read(root, name, maxAmplitudeVolt);
     }
 
@@ -66,9 +70,50 @@ public final class PlanLoader {
         SineSweep sweep = readSweep(root, maxAmplitudeVolt);
         TriangleCheck triangle = readTriangle(root, maxAmplitudeVolt);
         List<Limit> limits = readLimits(root, sweep);
+        SamplingScheme sampling = readSampling(root, limits);
         root.problems().throwIfAny();
         return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, triangle,
-                List.copyOf(limits));
+                List.copyOf(limits), sampling);
+    }
+
+    private static final Map<String, CharacteristicClass> CLASSES = Map.of(
+            "critical", CharacteristicClass.CRITICAL, "major", CharacteristicClass.MAJOR, "minor", CharacteristicClass.MINOR);
+
+    private static SamplingScheme readSampling(YamlMap root, List<Limit> limits) {
+        YamlMap m = root.map("sampling", false, "level", "aql");
+        if (m == null) {
+            return null;
+        }
+        Map<String, InspectionLevel> levels = new java.util.LinkedHashMap<>();
+        for (InspectionLevel l : InspectionLevel.values()) {
+            levels.put(l.name(), l);
+        }
+        InspectionLevel level = m.has("level") ? m.choice("level", true, levels) : InspectionLevel.II;
+        YamlMap aqls = m.map("aql", true, "critical", "major", "minor");
+        Map<CharacteristicClass, Double> aql = new java.util.EnumMap<>(CharacteristicClass.class);
+        if (aqls != null) {
+            for (var e : CLASSES.entrySet()) {
+                if (aqls.has(e.getKey())) {
+                    Double v = aqls.quantity(e.getKey(), Dimension.NONE, true);
+                    if (v != null) {
+                        try {
+                            SingleSampling.plan(2, InspectionLevel.II, v);
+                            aql.put(e.getValue(), v);
+                        } catch (IllegalArgumentException bad) {
+                            aqls.problem(e.getKey(), bad.getMessage());
+                        }
+                    }
+                }
+            }
+        }
+        for (Limit l : limits) {
+            if (aqls != null && !aql.containsKey(l.characteristicClass())
+                    && !aqls.has(l.characteristicClass().name().toLowerCase(Locale.ROOT))) {
+                m.problem("aql", "limit '" + l.name() + "' is of class " + l.characteristicClass().name().toLowerCase(Locale.ROOT)
+                        + ", which has no AQL here");
+            }
+        }
+        return level == null ? null : new SamplingScheme(level, Map.copyOf(aql));
     }
 
     private static TriangleCheck readTriangle(YamlMap root, double maxAmplitudeVolt) {
@@ -233,7 +278,7 @@ public final class PlanLoader {
         Set<String> names = new HashSet<>();
         for (YamlMap.Item item : root.list("limits", true)) {
             YamlMap m = root.asMap(item, "name", "characteristic", "at", "nominal", "tolerance", "min", "max",
-                    "decision", "guard_band");
+                    "decision", "guard_band", "class");
             if (m == null) {
                 continue;
             }
@@ -331,10 +376,11 @@ public final class PlanLoader {
         if (guard != null && !(guard >= 0)) {
             m.problem("guard_band", "must not be negative");
         }
-        if (rule == null) {
+        CharacteristicClass cls = m.has("class") ? m.choice("class", true, CLASSES) : CharacteristicClass.MAJOR;
+        if (rule == null || cls == null) {
             return null;
         }
-        return new Limit(limitName, c, at, lower, upper, spec, rule, guard);
+        return new Limit(limitName, c, at, lower, upper, spec, rule, guard, cls);
     }
 
     private static String stripZeros(double v) {

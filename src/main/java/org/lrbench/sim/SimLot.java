@@ -11,10 +11,11 @@ import org.lrbench.yaml.YamlFile;
 import org.lrbench.yaml.YamlMap;
 
 /**
- * A simulated lot: its lot number, the plan it is inspected with (relative to the lot file), and
- * the parts with their serials and true values.
+ * A simulated lot: its lot number, the plan it is inspected with (relative to the lot file), the
+ * size of the delivered lot (optional), and the tray of parts it offers for sampling, with their
+ * serials and true values.
  */
-public record SimLot(String lot, Path plan, List<Part> parts) {
+public record SimLot(String lot, Path plan, Integer lotSize, List<Part> parts) {
 
     /** One simulated part of the lot. */
     public record Part(String serial, PartModel model) {
@@ -22,7 +23,8 @@ public record SimLot(String lot, Path plan, List<Part> parts) {
 
     public static SimLot load(Path file) throws ProblemsException {
         Problems problems = new Problems(file.toString());
-        YamlMap root = YamlFile.read(file, problems, "lot_format", "lot", "description", "plan", "parts");
+        YamlMap root = YamlFile.read(file, problems, "lot_format", "lot", "description", "plan", "lot_size", "parts");
+        Integer lotSize = root.has("lot_size") ? root.integer("lot_size", true, 2, 100_000_000) : null;
         root.integer("lot_format", true, 1, 1);
         root.text("description", false);
         String lot = root.text("lot", true);
@@ -46,6 +48,10 @@ public record SimLot(String lot, Path plan, List<Part> parts) {
         }
         problems.throwIfAny();
         Path dir = file.toAbsolutePath().getParent();
-        return new SimLot(lot, dir.resolve(plan).normalize(), List.copyOf(parts));
+        if (lotSize != null && lotSize < parts.size()) {
+            root.problem("lot_size", "the lot cannot be smaller than the " + parts.size() + " parts listed");
+            problems.throwIfAny();
+        }
+        return new SimLot(lot, dir.resolve(plan).normalize(), lotSize, List.copyOf(parts));
     }
 }

@@ -167,6 +167,28 @@ public final class SqliteStore implements AutoCloseable {
         return out;
     }
 
+    /** Removes a lot and its parts (the demo starts its lot afresh; nothing else deletes). */
+    public void deleteLot(String lot) {
+        try {
+            db.setAutoCommit(false);
+            try (PreparedStatement a = db.prepareStatement("DELETE FROM part_result WHERE lot = ?");
+                 PreparedStatement b = db.prepareStatement("DELETE FROM lot WHERE lot = ?")) {
+                a.setString(1, lot);
+                a.executeUpdate();
+                b.setString(1, lot);
+                b.executeUpdate();
+                db.commit();
+            } catch (SQLException e) {
+                db.rollback();
+                throw e;
+            } finally {
+                db.setAutoCommit(true);
+            }
+        } catch (SQLException e) {
+            throw new StoreException("removing lot " + lot + " failed: " + e.getMessage(), e);
+        }
+    }
+
     public void finishLot(String lot, String disposition, String reason, String now) {
         try (PreparedStatement p = db.prepareStatement(
                 "UPDATE lot SET disposition = ?, disposition_reason = ?, finished_at = ? WHERE lot = ?")) {

@@ -126,7 +126,8 @@ class CommandLineTests {
 
     @Test
     void demoLotGivesTheVerdictsItsTrueValuesCall(@TempDir Path dir) throws Exception {
-        Outcome o = run("demo", "--runs", dir.toString(), "--calibration", dir.resolve("cal").toString());
+        Outcome o = run("demo", "--runs", dir.toString(), "--calibration", dir.resolve("cal").toString(),
+                "--data", dir.resolve("data").toString());
         assertThat(o.code()).as(o.err()).isZero();
         // Expected by hand from simulator/demo-lot.yaml against plans/qfd-ind-1m0.yaml
         // (L 1 mH +/- 10 %, R <= 2.6 ohm, Q = 2 pi 10 kHz L / R >= 20); each part is far from a
@@ -149,6 +150,12 @@ class CommandLineTests {
         assertThat(summary.get("passed").asInt()).isEqualTo(5);
         assertThat(summary.get("failed").asInt()).isEqualTo(3);
         assertThat(o.out()).contains("8 measured, 5 pass, 3 fail, 0 error");
+        // ISO 2859-1, lot of 40 at level II is code letter D (n = 8); AQL 6.5 at D is Ac 1, Re 2:
+        // three major nonconforming parts reject the lot
+        assertThat(summary.get("sample_size").asInt()).isEqualTo(8);
+        assertThat(summary.get("disposition").asText()).isEqualTo("reject");
+        assertThat(o.out()).contains("disposition: REJECT");
+        assertThat(Files.exists(dir.resolve("data/lrbench.db"))).isTrue();
         assertThat(o.out()).contains("HC0417-0007").contains("winding resistance").contains("Q at 10 kHz");
         // the demo calibrates the bench first and every result records the corrections it used
         assertThat(o.out()).contains("channel match:").contains("fixture: short");
