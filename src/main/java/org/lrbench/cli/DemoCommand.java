@@ -24,7 +24,9 @@ import org.lrbench.results.LotSummary;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.LotRunner;
 import org.lrbench.run.PartRun;
+import org.lrbench.run.TrayFeeder;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.SimLot;
 import picocli.CommandLine.Command;
@@ -71,68 +73,22 @@ final class DemoCommand implements Callable<Integer> {
                 lot.parts().get(0).model()), calibration);
         Calibration corrections = new CalibrationStore(calibration, b.name()).load();
         System.out.println();
-        int count = lot.parts().size();
-        SamplingScheme scheme = plan.sampling();
         Integer lotSize = lot.lotSize();
-        Integer sampleSize = null;
-        if (scheme != null && lotSize != null) {
-            sampleSize = LotDisposition.judge(lotSize, scheme, List.of()).sampleSize();
-            System.out.printf("lot size %d, inspection level %s: ", lotSize, scheme.level());
-            LotDisposition.plans(lotSize, scheme).forEach((c, p) -> System.out.printf("%s AQL %s -> code letter %c,"
-                    + " plan %c, n = %d, Ac %d, Re %d; ", c.name().toLowerCase(java.util.Locale.ROOT), p.aql(),
-                    p.codeLetter(), p.planLetter(), p.sampleSize(), p.acceptance(), p.rejection()));
-            System.out.println();
-            if (sampleSize > count) {
-                throw new BadInputException(lotPath + ": the sample needs " + sampleSize + " parts; the tray holds " + count);
-            }
-            count = sampleSize;
+        if (plan.sampling() == null || lotSize == null) {
+            throw new BadInputException(lotPath + ": the demo needs a lot_size and a plan with a sampling section");
         }
+        ResultText.samplingPlans(System.out, lotSize, plan.sampling());
         System.out.println();
         ResultText.tableHeader(System.out, qAt);
-        List<PartResult> results = new ArrayList<>();
-        SqliteStore store = SqliteStore.open(data.resolve("lrbench.db"));
-        // the demo measures its lot afresh each time; a real lot resumes where it stopped
-        store.deleteLot(lot.lot());
-        store.beginLot(lot.lot(), plan.partNumber(), plan.source(), sha, b.name(), lotSize, sampleSize,
-                Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
-        for (int i = 0; i < count; i++) {
-            SimLot.Part part = lot.parts().get(i);
-            Inputs.name("serial", part.serial());
-            // each part gets its own noise: the bench seed advanced by the part's position
-            BenchConfig partBench = b.withSimulation(b.simulation().withSeed(b.simulation().seed() + i));
-            SimBench sim = new SimBench(partBench.simulation(), plan.senseResistanceOhm(), part.model());
-            PartRun.Request request = new PartRun.Request(plan, sha, partBench, lot.lot(), part.serial(), true,
-                    Home.version(), corrections);
-            PartResult r;
-            try (BenchInstruments instruments = BenchInstruments.open(partBench, drivers, sim)) {
-                r = PartRun.measure(request, instruments, Sleeper.NONE, SweepListener.NONE);
-            }
-            ResultFiles.writeJson(runs.resolve(lot.lot()).resolve(part.serial() + ".json"), r);
-            store.savePart(i + 1, r);
-            results.add(r);
-            ResultText.tableRow(System.out, r, qAt);
+        LotSummary summary;
+        try (SqliteStore store = SqliteStore.open(data.resolve("lrbench.db"))) {
+            // the demo measures its lot afresh each time; a real lot resumes where it stopped
+            store.deleteLot(lot.lot());
+            PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
+            LotRunner.Outcome outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs,
+                    Sleeper.NONE), new TrayFeeder(lot.parts(), Set.of()), r -> ResultText.tableRow(System.out, r, qAt));
+            summary = LotSummaries.of(lot.lot(), plan, lotSize, outcome);
         }
-        LotSummary summary = LotSummary.of(lot.lot(), plan.partNumber(), plan.source(),
-                Instant.now().truncatedTo(ChronoUnit.MILLIS).toString(), results);
-        if (sampleSize != null) {
-            Map<String, Limit> byName = new java.util.HashMap<>();
-            plan.limits().forEach(l -> byName.put(l.name(), l));
-            List<Set<CharacteristicClass>> failed = new ArrayList<>();
-            for (PartResult r : results) {
-                if (!r.verdict().equals("error")) {
-                    Set<CharacteristicClass> classes = java.util.EnumSet.noneOf(CharacteristicClass.class);
-                    r.limits().stream().filter(l -> !l.pass()).forEach(l -> classes.add(byName.get(l.name()).characteristicClass()));
-                    failed.add(classes);
-                }
-            }
-            LotDisposition.Result d = LotDisposition.judge(lotSize, scheme, failed);
-            String state = d.state().name().toLowerCase(java.util.Locale.ROOT);
-            summary = summary.withDisposition(lotSize, sampleSize, state, d.reason());
-            if (d.state() != LotDisposition.State.OPEN) {
-                store.finishLot(lot.lot(), state, d.reason(), summary.finishedAt());
-            }
-        }
-        store.close();
         Path summaryFile = runs.resolve(lot.lot()).resolve("lot-summary.json");
         ResultFiles.writeJson(summaryFile, summary);
         System.out.println();

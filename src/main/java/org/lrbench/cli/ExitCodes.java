@@ -9,6 +9,7 @@ final class ExitCodes {
     static final int BAD_INPUT = 2;
     static final int INSTRUMENT = 3;
     static final int INTERNAL = 4;
+    static final int LOT_OPEN = 5;
 
     private ExitCodes() {
     }

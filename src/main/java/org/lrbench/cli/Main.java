@@ -29,6 +29,10 @@ public final class Main implements Runnable {
                 commandLine.getErr().println("lrbench: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }
+            if (e instanceof org.lrbench.store.StoreException) {
+                commandLine.getErr().println("lrbench: results store: " + e.getMessage());
+                return ExitCodes.BAD_INPUT;
+            }
             if (e instanceof InstrumentException) {
                 commandLine.getErr().println("lrbench: instrument error: " + e.getMessage());
                 return ExitCodes.INSTRUMENT;

@@ -12,7 +12,13 @@ import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.ConsoleFeeder;
+import org.lrbench.run.LotRunner;
+import org.lrbench.run.PartFeeder;
 import org.lrbench.run.PartRun;
+import org.lrbench.run.TrayFeeder;
+import org.lrbench.sim.SimLot;
+import org.lrbench.store.SqliteStore;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
@@ -22,7 +28,8 @@ import picocli.CommandLine.Parameters;
 
 /** {@code lrbench run PLAN --lot L --serial S}: measures one part. */
 @Command(name = "run", description = {"Measure one part with a plan and judge it.",
-        "Exit codes: 0 pass, 1 fail, 2 bad input, 3 instrument or communication error."})
+        "Exit codes: 0 pass, 1 fail, 2 bad input, 3 instrument or communication error;",
+        "with --lot-size: 0 lot accepted, 1 rejected, 5 still open (stopped early: run again to resume)."})
 final class RunCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
@@ -31,8 +38,20 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--lot", required = true, paramLabel = "LOT", description = "lot number")
     String lot;
 
-    @Option(names = "--serial", required = true, paramLabel = "SN", description = "the part's serial number")
+    @Option(names = "--serial", paramLabel = "SN", description = "the part's serial number (one part)")
     String serial;
+
+    @Option(names = "--lot-size", paramLabel = "N",
+            description = "run the lot's sample: size of the delivered lot; the plan's sampling gives the sample")
+    Integer lotSize;
+
+    @Option(names = "--sim-lot", paramLabel = "TRAY.yaml",
+            description = "with --lot-size: measure a tray of simulated parts unattended instead of asking the operator")
+    Path simLot;
+
+    @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
+            description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
+    Path data;
 
     @Option(names = "--sim", paramLabel = "PART.yaml",
             description = "measure on the in-process simulated bench, with this simulated part under test")
@@ -61,6 +80,12 @@ final class RunCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         Inputs.name("--lot", lot);
+        if (lotSize != null) {
+            return runLot();
+        }
+        if (serial == null) {
+            throw new BadInputException("give --serial SN for one part, or --lot-size N for the lot's sample");
+        }
         Inputs.name("--serial", serial);
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
         if (sim != null && (generatorAddress != null || digitizerAddress != null)) {
@@ -90,5 +115,53 @@ final class RunCommand implements Callable<Integer> {
             System.err.println("lrbench: measurement error: " + result.error());
         }
         return ExitCodes.of(Verdict.valueOf(result.verdict().toUpperCase(java.util.Locale.ROOT)));
+    }
+
+    /** Lot mode: the sample one part after another, committed as it goes, resumable. */
+    private int runLot() throws Exception {
+        if (serial != null || sim != null) {
+            throw new BadInputException("--lot-size runs the lot's sample: use --sim-lot for simulated parts, not"
+                    + " --serial or --sim");
+        }
+        if (lotSize < 2) {
+            throw new BadInputException("--lot-size " + lotSize + ": ISO 2859-1 lots have at least 2 parts");
+        }
+        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
+        Plan p = Inputs.plan(plan, b);
+        if (p.sampling() == null) {
+            throw new BadInputException(plan + ": a lot run needs the plan's sampling section (level, AQL per class)");
+        }
+        SimLot tray = null;
+        if (simLot != null) {
+            Inputs.requireFile(simLot, "simulated tray");
+            tray = SimLot.load(simLot);
+        }
+        ResultText.samplingPlans(System.out, lotSize, p.sampling());
+        double qAt = ResultText.qFrequency(p);
+        PartRun.Request template = new PartRun.Request(p, Inputs.sha256(plan), b, lot, "-", tray != null, Home.version(),
+                new CalibrationStore(calibration, b.name()).load());
+        LotRunner.Outcome outcome;
+        try (SqliteStore store = SqliteStore.open(data.resolve("lrbench.db"))) {
+            java.util.Set<String> done = store.completed(lot);
+            if (!done.isEmpty()) {
+                System.out.println("resuming lot " + lot + ": " + done.size() + " part(s) already stored are not measured again");
+            }
+            PartFeeder feeder = tray != null ? new TrayFeeder(tray.parts(), done)
+                    : new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
+                            java.nio.charset.StandardCharsets.UTF_8)), System.out);
+            ResultText.tableHeader(System.out, qAt);
+            outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, new DriverLoader(Home.drivers()), store, runs,
+                    tray != null ? Sleeper.NONE : Sleeper.REAL), feeder, r -> ResultText.tableRow(System.out, r, qAt));
+        }
+        var summary = LotSummaries.of(lot, p, lotSize, outcome);
+        ResultFiles.writeJson(runs.resolve(lot).resolve("lot-summary.json"), summary);
+        System.out.println();
+        ResultText.summary(System.out, summary);
+        return switch (outcome.disposition().state()) {
+            case ACCEPT -> ExitCodes.PASS;
+            case REJECT -> ExitCodes.FAIL;
+            case OPEN -> ExitCodes.LOT_OPEN;
+        };
     }
 }

@@ -14,7 +14,7 @@ public record LotSummary(String schema, String lot, String partNumber, String pl
                                 List<PartResult> parts) {
         List<String> failed = parts.stream().filter(p -> p.verdict().equals("fail")).map(PartResult::serial).toList();
         List<String> errors = parts.stream().filter(p -> p.verdict().equals("error")).map(PartResult::serial).toList();
-        int passed = parts.size() - failed.size() - errors.size();
+        int passed = (int) parts.stream().filter(p -> p.verdict().equals("pass")).count();
         return new LotSummary(SCHEMA, lot, partNumber, planPath, finishedAt, parts.size(), passed, failed.size(),
                 errors.size(), failed, errors, null, null, null, null);
     }
