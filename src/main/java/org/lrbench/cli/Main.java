@@ -8,7 +8,8 @@ import picocli.CommandLine.Command;
 /** The {@code lrbench} command line. */
 @Command(name = "lrbench", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Inductor incoming inspection on a signal generator and digitizer bench.",
-        subcommands = {DemoCommand.class, CheckCommand.class, RunCommand.class, CalibrateCommand.class, SimCommand.class,
+        subcommands = {DemoCommand.class, CheckCommand.class, RunCommand.class, CalibrateCommand.class, StoreCommands.Lots.class,
+                StoreCommands.Lot.class, StoreCommands.History.class, SimCommand.class,
                 BenchmarkCommand.class})
 public final class Main implements Runnable {
 

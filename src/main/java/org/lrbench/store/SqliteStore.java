@@ -237,6 +237,75 @@ public final class SqliteStore implements AutoCloseable {
         return out;
     }
 
+    /**
+     * A part number's lots in the order they were started, with yield (passed over passed and
+     * failed) and the mean and sample standard deviation of the measured L and R.
+     */
+    public List<LotStatistics> history(String partNumber) {
+        List<LotStatistics> out = new ArrayList<>();
+        String sql = "SELECT l.lot, l.created_at, l.disposition, p.verdict, p.inductance_h, p.series_resistance_ohm"
+                + " FROM lot l LEFT JOIN part_result p ON p.lot = l.lot AND p.verdict IN ('pass', 'fail')"
+                + " WHERE l.part_number = ? ORDER BY l.created_at, l.lot, p.position";
+        try (PreparedStatement q = db.prepareStatement(sql)) {
+            q.setString(1, partNumber);
+            try (ResultSet r = q.executeQuery()) {
+                String lot = null;
+                String created = null;
+                String disposition = null;
+                List<double[]> values = new ArrayList<>();
+                int passed = 0;
+                while (r.next()) {
+                    if (!r.getString(1).equals(lot)) {
+                        if (lot != null) {
+                            out.add(stats(lot, created, disposition, values, passed));
+                        }
+                        lot = r.getString(1);
+                        created = r.getString(2);
+                        disposition = r.getString(3);
+                        values = new ArrayList<>();
+                        passed = 0;
+                    }
+                    if (r.getString(4) != null) {
+                        passed += r.getString(4).equals("pass") ? 1 : 0;
+                        Double l = (Double) r.getObject(5);
+                        Double res = (Double) r.getObject(6);
+                        values.add(new double[] {l == null ? Double.NaN : l, res == null ? Double.NaN : res});
+                    }
+                }
+                if (lot != null) {
+                    out.add(stats(lot, created, disposition, values, passed));
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the history of " + partNumber + " failed: " + e.getMessage(), e);
+        }
+        return out;
+    }
+
+    private static LotStatistics stats(String lot, String created, String disposition, List<double[]> v, int passed) {
+        double[] mean = new double[2];
+        double[] sd = new double[2];
+        for (int k = 0; k < 2; k++) {
+            final int c = k;
+            double[] xs = v.stream().mapToDouble(a -> a[c]).filter(Double::isFinite).toArray();
+            if (xs.length > 0) {
+                mean[k] = java.util.Arrays.stream(xs).average().orElse(Double.NaN);
+                sd[k] = xs.length > 1 ? Math.sqrt(java.util.Arrays.stream(xs).map(x -> (x - mean[c]) * (x - mean[c])).sum()
+                        / (xs.length - 1)) : Double.NaN;
+            } else {
+                mean[k] = Double.NaN;
+                sd[k] = Double.NaN;
+            }
+        }
+        int n = v.size();
+        return new LotStatistics(lot, created, disposition, n, passed, n == 0 ? Double.NaN : (double) passed / n,
+                finite(mean[0]), finite(sd[0]), finite(mean[1]), finite(sd[1]));
+    }
+
+    private static Double finite(double x) {
+        return Double.isFinite(x) ? x : null;
+    }
+
     @Override
     public void close() {
         try {

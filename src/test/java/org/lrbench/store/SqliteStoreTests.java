@@ -45,6 +45,36 @@ class SqliteStoreTests {
         }
     }
 
+    static PartResult part(String lot, String serial, String verdict, double l, double r) {
+        PartResult p = part(lot, serial, verdict);
+        return new PartResult(p.schema(), p.programVersion(), lot, serial, p.partNumber(), p.planPath(), p.planSha256(),
+                p.bench(), true, p.startedAt(), p.finishedAt(), verdict, null, List.of(), List.of(), l, 0.0, 0.0, r,
+                0.0, 0.0, null, null, Map.of(), null, null, null, List.of(), List.of(), Map.of(), Map.of());
+    }
+
+    @Test
+    void historyGivesYieldMeanAndSpreadPerLot(@TempDir Path dir) {
+        double[] ls = {1.01e-3, 0.99e-3, 1.03e-3, 0.95e-3};
+        double[] rs = {2.31, 2.28, 2.42, 2.90};
+        try (SqliteStore s = SqliteStore.open(dir.resolve("s.db"))) {
+            s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "2026-12-01T00:00:00Z");
+            for (int i = 0; i < ls.length; i++) {
+                s.savePart(i + 1, part("L1", "S" + i, i == 3 ? "fail" : "pass", ls[i], rs[i]));
+            }
+            s.savePart(5, part("L1", "S9", "error"));
+            LotStatistics st = s.history("P-1").get(0);
+            // reference: Apache Commons Math DescriptiveStatistics (sample standard deviation)
+            var dl = new org.apache.commons.math3.stat.descriptive.DescriptiveStatistics(ls);
+            var dr = new org.apache.commons.math3.stat.descriptive.DescriptiveStatistics(rs);
+            assertThat(st.measured()).isEqualTo(4);
+            assertThat(st.yield()).isEqualTo(0.75);
+            assertThat(st.meanInductanceH()).isCloseTo(dl.getMean(), org.assertj.core.api.Assertions.within(1e-15));
+            assertThat(st.sdInductanceH()).isCloseTo(dl.getStandardDeviation(), org.assertj.core.api.Assertions.within(1e-15));
+            assertThat(st.meanResistanceOhm()).isCloseTo(dr.getMean(), org.assertj.core.api.Assertions.within(1e-12));
+            assertThat(st.sdResistanceOhm()).isCloseTo(dr.getStandardDeviation(), org.assertj.core.api.Assertions.within(1e-12));
+        }
+    }
+
     @Test
     void aLotCannotBeContinuedWithAnotherPlan(@TempDir Path dir) {
         try (SqliteStore s = SqliteStore.open(dir.resolve("store.db"))) {

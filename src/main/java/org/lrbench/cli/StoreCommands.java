@@ -1,0 +1,142 @@
+package org.lrbench.cli;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.lrbench.results.ResultFiles;
+import org.lrbench.store.LotRecord;
+import org.lrbench.store.LotStatistics;
+import org.lrbench.store.PartRow;
+import org.lrbench.store.SqliteStore;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/** Reading the results store: {@code lots}, {@code lot LOT}, {@code history PART}, each optionally as CSV. */
+final class StoreCommands {
+
+    private StoreCommands() {
+    }
+
+    /** Options every store query takes. */
+    static class StoreOptions {
+        @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
+                description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
+        Path data;
+
+        @Option(names = "--csv", paramLabel = "FILE", description = "also write the rows to this CSV file")
+        Path csv;
+
+        SqliteStore open() {
+            Path db = data.resolve("lrbench.db");
+            if (!java.nio.file.Files.isRegularFile(db)) {
+                throw new BadInputException("no results store at " + db + " (measure a lot first, or give --data)");
+            }
+            return SqliteStore.open(db);
+        }
+
+        void print(List<String> header, List<List<String>> rows) throws IOException {
+            int[] w = new int[header.size()];
+            for (int i = 0; i < w.length; i++) {
+                w[i] = header.get(i).length();
+                for (List<String> r : rows) {
+                    w[i] = Math.max(w[i], r.get(i).length());
+                }
+            }
+            StringBuilder fmt = new StringBuilder();
+            for (int x : w) {
+                fmt.append("%-").append(x).append("s  ");
+            }
+            String f = fmt.toString().stripTrailing() + "%n";
+            System.out.printf(f, header.toArray());
+            for (List<String> r : rows) {
+                System.out.printf(f, r.toArray());
+            }
+            if (csv != null) {
+                StringBuilder sb = new StringBuilder(String.join(",", header.stream().map(StoreCommands::csv).toList())).append('\n');
+                for (List<String> r : rows) {
+                    sb.append(String.join(",", r.stream().map(StoreCommands::csv).toList())).append('\n');
+                }
+                ResultFiles.writeAtomically(csv, sb.toString().getBytes(StandardCharsets.UTF_8));
+                System.out.println("written: " + csv);
+            }
+        }
+    }
+
+    static String csv(String v) {
+        return v.contains(",") || v.contains("\"") || v.contains("\n") ? "\"" + v.replace("\"", "\"\"") + "\"" : v;
+    }
+
+    static String num(Double v, String fmt) {
+        return v == null ? "" : String.format(Locale.ROOT, fmt, v);
+    }
+
+    @Command(name = "lots", description = "List the lots in the results store.")
+    static final class Lots extends StoreOptions implements Callable<Integer> {
+        @Override
+        public Integer call() throws Exception {
+            try (SqliteStore s = open()) {
+                List<List<String>> rows = new ArrayList<>();
+                for (LotRecord l : s.lots()) {
+                    rows.add(List.of(l.lot(), l.partNumber(), l.createdAt(), String.valueOf(l.lotSize()),
+                            String.valueOf(l.sampleSize()), String.valueOf(l.measured()), String.valueOf(l.passed()),
+                            String.valueOf(l.failed()), l.disposition() == null ? "open" : l.disposition()));
+                }
+                print(List.of("lot", "part_number", "started", "lot_size", "sample", "stored", "pass", "fail",
+                        "disposition"), rows);
+            }
+            return ExitCodes.PASS;
+        }
+    }
+
+    @Command(name = "lot", description = "A lot's parts and verdicts from the results store.")
+    static final class Lot extends StoreOptions implements Callable<Integer> {
+        @Parameters(index = "0", paramLabel = "LOT")
+        String lot;
+
+        @Override
+        public Integer call() throws Exception {
+            try (SqliteStore s = open()) {
+                List<List<String>> rows = new ArrayList<>();
+                for (PartRow p : s.parts(lot)) {
+                    rows.add(List.of(String.valueOf(p.position()), p.serial(), p.verdict(), num(p.inductanceH(), "%.6e"),
+                            num(p.seriesResistanceOhm(), "%.6f"), p.measuredAt()));
+                }
+                if (rows.isEmpty()) {
+                    throw new BadInputException("lot " + lot + " has no stored parts");
+                }
+                print(List.of("position", "serial", "verdict", "inductance_h", "series_resistance_ohm", "measured_at"), rows);
+            }
+            return ExitCodes.PASS;
+        }
+    }
+
+    @Command(name = "history", description = "A part number's lots over time: yield, mean and spread of L and R.")
+    static final class History extends StoreOptions implements Callable<Integer> {
+        @Parameters(index = "0", paramLabel = "PART_NUMBER")
+        String partNumber;
+
+        @Override
+        public Integer call() throws Exception {
+            try (SqliteStore s = open()) {
+                List<List<String>> rows = new ArrayList<>();
+                for (LotStatistics l : s.history(partNumber)) {
+                    rows.add(List.of(l.lot(), l.createdAt(), l.disposition() == null ? "open" : l.disposition(),
+                            String.valueOf(l.measured()), num(Double.isNaN(l.yield()) ? null : 100 * l.yield(), "%.1f"),
+                            num(l.meanInductanceH(), "%.6e"), num(l.sdInductanceH(), "%.3e"),
+                            num(l.meanResistanceOhm(), "%.5f"), num(l.sdResistanceOhm(), "%.3e")));
+                }
+                if (rows.isEmpty()) {
+                    throw new BadInputException("no lots of part number " + partNumber + " in the store");
+                }
+                print(List.of("lot", "started", "disposition", "measured", "yield_percent", "mean_inductance_h",
+                        "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows);
+            }
+            return ExitCodes.PASS;
+        }
+    }
+}
