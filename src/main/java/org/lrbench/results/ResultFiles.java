@@ -30,6 +30,12 @@ public final class ResultFiles {
         Files.createDirectories(dir);
         Path tmp = Files.createTempFile(dir, "." + target.getFileName(), ".partial");
         try {
+            try {
+                // results are records to be read, not secrets: owner writes, everyone reads
+                Files.setPosixFilePermissions(tmp, java.nio.file.attribute.PosixFilePermissions.fromString("rw-r--r--"));
+            } catch (UnsupportedOperationException notPosix) {
+                // keep the platform's default
+            }
             try (var channel = java.nio.channels.FileChannel.open(tmp, java.nio.file.StandardOpenOption.WRITE)) {
                 channel.write(java.nio.ByteBuffer.wrap(content));
                 channel.force(true);

@@ -23,10 +23,10 @@ import org.lrbench.sim.SimLot;
 import org.lrbench.store.PartRow;
 import org.lrbench.store.SqliteStore;
 
-class LotRunTests {
+public class LotRunTests {
     static final Path HOME = TestBench.home();
 
-    static LotRunner.Setup setup(SqliteStore store, Path runs) throws Exception {
+    public static LotRunner.Setup setup(SqliteStore store, Path runs) throws Exception {
         BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
         Plan p = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
         byte[] content = Files.readAllBytes(HOME.resolve("plans/qfd-ind-1m0.yaml"));
