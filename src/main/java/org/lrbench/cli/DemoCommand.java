@@ -88,13 +88,16 @@ final class DemoCommand implements Callable<Integer> {
             LotRunner.Outcome outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs,
                     Sleeper.NONE), new TrayFeeder(lot.parts(), Set.of()), r -> ResultText.tableRow(System.out, r, qAt));
             summary = LotSummaries.of(lot.lot(), plan, lotSize, outcome);
+            Path report = runs.resolve(lot.lot()).resolve("report.html");
+            ResultFiles.writeAtomically(report, org.lrbench.report.LotReport.html(store, lot.lot())
+                    .getBytes(java.nio.charset.StandardCharsets.UTF_8));
         }
         Path summaryFile = runs.resolve(lot.lot()).resolve("lot-summary.json");
         ResultFiles.writeJson(summaryFile, summary);
         System.out.println();
         ResultText.summary(System.out, summary);
         System.out.println("store: " + data.resolve("lrbench.db"));
-        System.out.println("results: " + runs.resolve(lot.lot()) + "/");
+        System.out.println("results: " + runs.resolve(lot.lot()) + "/ (report.html opens in any browser, offline)");
         return ExitCodes.PASS;
     }
 }
