@@ -151,8 +151,12 @@ final class RunCommand implements Callable<Integer> {
                     : new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
                             java.nio.charset.StandardCharsets.UTF_8)), System.out);
             ResultText.tableHeader(System.out, qAt);
-            outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, new DriverLoader(Home.drivers()), store, runs,
-                    tray != null ? Sleeper.NONE : Sleeper.REAL), feeder, r -> ResultText.tableRow(System.out, r, qAt));
+            int sample = org.lrbench.sampling.LotDisposition.judge(lotSize, p.sampling(), java.util.List.of()).sampleSize();
+            try (LotProgress progress = LotProgress.start(Math.max(0, sample - done.size()), p.sweep().frequenciesHz().size())) {
+                outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, new DriverLoader(Home.drivers()), store,
+                        runs, tray != null ? Sleeper.NONE : Sleeper.REAL, progress), feeder,
+                        r -> ResultText.tableRow(System.out, r, qAt));
+            }
         }
         var summary = LotSummaries.of(lot, p, lotSize, outcome);
         ResultFiles.writeJson(runs.resolve(lot).resolve("lot-summary.json"), summary);

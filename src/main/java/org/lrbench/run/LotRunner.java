@@ -42,7 +42,12 @@ public final class LotRunner {
 
     /** Everything a lot run needs besides the feeder. */
     public record Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
-                        Sleeper sleeper) {
+                        Sleeper sleeper, SweepListener listener) {
+
+        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
+                     Sleeper sleeper) {
+            this(template, lotSize, drivers, store, runs, sleeper, SweepListener.NONE);
+        }
     }
 
     /** The lot's state after this run. */
@@ -110,7 +115,7 @@ public final class LotRunner {
         PartRun.Request request = new PartRun.Request(t.plan(), t.planSha256(), bench, t.lot(), next.serial(),
                 t.simulated(), t.programVersion(), t.calibration());
         try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
-            return PartRun.measure(request, instruments, s.sleeper(), SweepListener.NONE);
+            return PartRun.measure(request, instruments, s.sleeper(), s.listener());
         }
     }
 
