@@ -14,7 +14,7 @@ import org.lrbench.yaml.YamlMap;
 /** Reads and validates a bench file. */
 public final class BenchLoader {
     private static final String[] KEYS = {"bench_format", "name", "max_amplitude", "generator", "digitizer", "simulation",
-        "accuracy"};
+        "accuracy", "switch"};
 
     private BenchLoader() {
     }
@@ -41,10 +41,11 @@ public final class BenchLoader {
         }
         InstrumentLink generator = link(root, "generator");
         InstrumentLink digitizer = link(root, "digitizer");
+        InstrumentLink switchUnit = root.has("switch") ? link(root, "switch") : null;
         SimSettings sim = simulation(root);
         BenchAccuracy accuracy = accuracy(root);
         root.problems().throwIfAny();
-        return new BenchConfig(source, name, max, generator, digitizer, sim, accuracy);
+        return new BenchConfig(source, name, max, generator, digitizer, switchUnit, sim, accuracy);
     }
 
     private static BenchAccuracy accuracy(YamlMap root) {

@@ -85,8 +85,8 @@ final class DemoCommand implements Callable<Integer> {
             // the demo measures its lot afresh each time; a real lot resumes where it stopped
             store.deleteLot(lot.lot());
             PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
-            LotRunner.Outcome outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs,
-                    Sleeper.NONE), new TrayFeeder(lot.parts(), Set.of()), r -> ResultText.tableRow(System.out, r, qAt));
+            LotRunner.Outcome outcome = RunCommand.runTray(template, lotSize, b, lot, drivers, store, runs, Set.of(),
+                    org.lrbench.measure.SweepListener.NONE, r -> ResultText.tableRow(System.out, r, qAt));
             summary = LotSummaries.of(lot.lot(), plan, lotSize, outcome);
             Path report = runs.resolve(lot.lot()).resolve("report.html");
             ResultFiles.writeAtomically(report, org.lrbench.report.LotReport.html(store, lot.lot())

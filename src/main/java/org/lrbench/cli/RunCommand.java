@@ -16,6 +16,7 @@ import org.lrbench.run.ConsoleFeeder;
 import org.lrbench.run.LotRunner;
 import org.lrbench.run.PartFeeder;
 import org.lrbench.run.PartRun;
+import org.lrbench.run.SwitchFeeder;
 import org.lrbench.run.TrayFeeder;
 import org.lrbench.sim.SimLot;
 import org.lrbench.store.SqliteStore;
@@ -117,6 +118,28 @@ final class RunCommand implements Callable<Integer> {
         return ExitCodes.of(Verdict.valueOf(result.verdict().toUpperCase(java.util.Locale.ROOT)));
     }
 
+    /**
+     * A simulated tray measured unattended: on a bench with a switch unit, one simulated bench
+     * holds the whole tray and the switch changes parts; without one, each part is its own bench.
+     */
+    static LotRunner.Outcome runTray(PartRun.Request template, int lotSize, BenchConfig b, SimLot tray,
+                                     DriverLoader drivers, SqliteStore store, Path runs, java.util.Set<String> done,
+                                     org.lrbench.measure.SweepListener progress,
+                                     java.util.function.Consumer<org.lrbench.results.PartResult> onPart) throws Exception {
+        if (b.switchUnit() == null) {
+            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress),
+                    new TrayFeeder(tray.parts(), done), onPart);
+        }
+        SimBench bench = new SimBench(b.simulation(), template.plan().senseResistanceOhm(),
+                tray.parts().stream().map(SimLot.Part::model).toList());
+        try (BenchInstruments inst = BenchInstruments.open(b, drivers, bench, true)) {
+            inst.switchUnit().prepare();
+            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress, inst),
+                    new SwitchFeeder(inst.switchUnit(), tray.parts().stream().map(SimLot.Part::serial).toList(), done),
+                    onPart);
+        }
+    }
+
     /** Lot mode: the sample one part after another, committed as it goes, resumable. */
     private int runLot() throws Exception {
         if (serial != null || sim != null) {
@@ -147,15 +170,20 @@ final class RunCommand implements Callable<Integer> {
             if (!done.isEmpty()) {
                 System.out.println("resuming lot " + lot + ": " + done.size() + " part(s) already stored are not measured again");
             }
-            PartFeeder feeder = tray != null ? new TrayFeeder(tray.parts(), done)
-                    : new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
-                            java.nio.charset.StandardCharsets.UTF_8)), System.out);
             ResultText.tableHeader(System.out, qAt);
             int sample = org.lrbench.sampling.LotDisposition.judge(lotSize, p.sampling(), java.util.List.of()).sampleSize();
+            DriverLoader drivers = new DriverLoader(Home.drivers());
+            Sleeper sleeper = tray != null ? Sleeper.NONE : Sleeper.REAL;
             try (LotProgress progress = LotProgress.start(Math.max(0, sample - done.size()), p.sweep().frequenciesHz().size())) {
-                outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, new DriverLoader(Home.drivers()), store,
-                        runs, tray != null ? Sleeper.NONE : Sleeper.REAL, progress), feeder,
-                        r -> ResultText.tableRow(System.out, r, qAt));
+                if (tray != null) {
+                    outcome = runTray(template, lotSize, b, tray, drivers, store, runs, done, progress,
+                            r -> ResultText.tableRow(System.out, r, qAt));
+                } else {
+                    PartFeeder feeder = new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
+                                    java.nio.charset.StandardCharsets.UTF_8)), System.out);
+                    outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper, progress),
+                            feeder, r -> ResultText.tableRow(System.out, r, qAt));
+                }
             }
         }
         var summary = LotSummaries.of(lot, p, lotSize, outcome);

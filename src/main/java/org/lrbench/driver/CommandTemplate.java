@@ -85,7 +85,8 @@ public final class CommandTemplate {
 
     /** A value may hold only what SCPI numbers and mnemonics are made of. */
     static void requireToken(String name, String value) {
-        if (!value.matches("[A-Za-z0-9+\\-.]+")) {
+        // a SCPI channel list of whole channel numbers, "(@101)" or "(@101,102)", is the one other form
+        if (!value.matches("[A-Za-z0-9+\\-.]+") && !value.matches("\\(@[0-9]{1,6}(,[0-9]{1,6})*\\)")) {
             throw new IllegalArgumentException("value '" + value + "' for {" + name
                     + "} is not a SCPI number or mnemonic (letters, digits, + - . only)");
         }

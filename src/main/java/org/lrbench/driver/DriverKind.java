@@ -37,7 +37,13 @@ public enum DriverKind {
                 "fetch", Set.of("channel")),
             Map.of("couplings", List.of("dc", "ac"),
                    "trigger_sources", List.of("channel1", "channel2", "external", "immediate"),
-                   "slopes", List.of("rising", "falling")));
+                   "slopes", List.of("rising", "falling"))),
+    SWITCH("switch",
+            ops("prepare", Set.of(),
+                "close", Set.of("channels"),
+                "open_all", Set.of(),
+                "closed_query", Set.of("channels")),
+            Map.of());
 
     private final String key;
     private final Map<String, Set<String>> operations;

@@ -50,7 +50,8 @@ public final class DriverLoader {
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes");
         root.integer("driver_format", true, 1, 1);
-        DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER));
+        DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
+                "switch", DriverKind.SWITCH));
         if (kind != null && expected != null && kind != expected) {
             root.problem("kind", "this driver is for a " + kind.key() + "; a " + expected.key() + " driver is needed here");
         }

@@ -25,11 +25,23 @@ public final class BenchInstruments implements AutoCloseable {
     private final Generator generator;
     private final Digitizer digitizer;
     private final List<ScpiSession> sessions;
+    private final org.lrbench.instrument.Switch switchUnit;
 
     BenchInstruments(Generator generator, Digitizer digitizer, List<ScpiSession> sessions) {
+        this(generator, digitizer, null, sessions);
+    }
+
+    BenchInstruments(Generator generator, Digitizer digitizer, org.lrbench.instrument.Switch switchUnit,
+                     List<ScpiSession> sessions) {
         this.generator = generator;
         this.digitizer = digitizer;
+        this.switchUnit = switchUnit;
         this.sessions = sessions;
+    }
+
+    /** The bench's switch unit, or null when it has none. */
+    public org.lrbench.instrument.Switch switchUnit() {
+        return switchUnit;
     }
 
     /**
@@ -38,10 +50,20 @@ public final class BenchInstruments implements AutoCloseable {
      */
     public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, SimBench simulated)
             throws ProblemsException {
+        return open(bench, drivers, simulated, false);
+    }
+
+    /**
+     * Opens the generator, the digitizer and, when {@code withSwitch} and the bench has one, the
+     * switch unit of a multi-position fixture (a one-part measurement leaves the switch alone).
+     */
+    public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, SimBench simulated, boolean withSwitch)
+            throws ProblemsException {
         DriverFile sourceDriver = drivers.load(bench.generator().driver(), DriverKind.SOURCE);
         DriverFile digitizerDriver = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER);
         Map<String, InProcessPeer> peers = simulated == null ? Map.of()
-                : Map.of("generator", simulated.generator(), "digitizer", simulated.digitizer());
+                : Map.of("generator", simulated.generator(), "digitizer", simulated.digitizer(),
+                        "switch", simulated.switchUnit());
         ScpiSession g = session("generator", bench.generator(), sourceDriver, peers, simulated != null);
         ScpiSession d;
         try {
@@ -50,8 +72,21 @@ public final class BenchInstruments implements AutoCloseable {
             closeQuietly(g);
             throw e;
         }
+        if (bench.switchUnit() == null || !withSwitch) {
+            return new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
+                    List.of(g, d));
+        }
+        DriverFile switchDriver = drivers.load(bench.switchUnit().driver(), DriverKind.SWITCH);
+        ScpiSession w;
+        try {
+            w = session("switch", bench.switchUnit(), switchDriver, peers, simulated != null);
+        } catch (RuntimeException e) {
+            closeQuietly(g);
+            closeQuietly(d);
+            throw e;
+        }
         return new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
-                List.of(g, d));
+                new org.lrbench.driver.ScpiSwitch(w, switchDriver), List.of(g, d, w));
     }
 
     private static ScpiSession session(String role, InstrumentLink link, DriverFile driver,

@@ -42,11 +42,16 @@ public final class LotRunner {
 
     /** Everything a lot run needs besides the feeder. */
     public record Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
-                        Sleeper sleeper, SweepListener listener) {
+                        Sleeper sleeper, SweepListener listener, BenchInstruments shared) {
 
         public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
                      Sleeper sleeper) {
-            this(template, lotSize, drivers, store, runs, sleeper, SweepListener.NONE);
+            this(template, lotSize, drivers, store, runs, sleeper, SweepListener.NONE, null);
+        }
+
+        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
+                     Sleeper sleeper, SweepListener listener) {
+            this(template, lotSize, drivers, store, runs, sleeper, listener, null);
         }
     }
 
@@ -114,6 +119,10 @@ public final class LotRunner {
         }
         PartRun.Request request = new PartRun.Request(t.plan(), t.planSha256(), bench, t.lot(), next.serial(),
                 t.simulated(), t.programVersion(), t.calibration());
+        if (sim == null && s.shared() != null) {
+            // the bench's instruments stay open for the whole lot (a switch unit changes parts)
+            return PartRun.measure(request, s.shared(), s.sleeper(), s.listener());
+        }
         try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
             return PartRun.measure(request, instruments, s.sleeper(), s.listener());
         }

@@ -18,11 +18,42 @@ public final class SimBench implements AnalogInputs {
     private final SimSettings settings;
     private volatile FixturePosition position = FixturePosition.PART;
 
+    private final java.util.List<PartModel> tray;
+    private final SimSwitch switchUnit;
+
+    /** One part in the fixture, always connected. */
     public SimBench(SimSettings settings, double senseOhm, PartModel part) {
-        this.circuit = new Circuit(settings.sourceImpedanceOhm(), senseOhm, part);
+        this(settings, senseOhm, part, java.util.List.of());
+    }
+
+    /**
+     * A tray of parts in a multi-position fixture behind a switch unit: the part at the one closed
+     * channel (101 for the first position) is connected; with none closed the fixture is open.
+     */
+    public SimBench(SimSettings settings, double senseOhm, java.util.List<PartModel> tray) {
+        this(settings, senseOhm, tray.get(0), tray);
+    }
+
+    private SimBench(SimSettings settings, double senseOhm, PartModel first, java.util.List<PartModel> tray) {
+        this.circuit = new Circuit(settings.sourceImpedanceOhm(), senseOhm, first);
         this.settings = settings;
+        this.tray = java.util.List.copyOf(tray);
         this.generator = new SimGenerator(settings.sourceImpedanceOhm());
         this.digitizer = new SimDigitizer(this, settings);
+        this.switchUnit = new SimSwitch(Math.max(1, tray.size()));
+    }
+
+    public SimSwitch switchUnit() {
+        return switchUnit;
+    }
+
+    /** The part the fixture connects now, or null when the switch connects none. */
+    PartModel connectedPart() {
+        if (tray.isEmpty()) {
+            return circuit.part();
+        }
+        int p = switchUnit.connectedPosition();
+        return p >= 0 && p < tray.size() ? tray.get(p) : null;
     }
 
     /** Puts the part, the channel-match link, nothing, or a short in the fixture. */
@@ -41,11 +72,13 @@ public final class SimBench implements AnalogInputs {
     Complex fixtureImpedance(double omega) {
         Complex leads = new Complex(settings.leadResistanceOhm(), omega * settings.leadInductanceHenry());
         Complex stray = new Complex(0, omega * settings.strayCapacitanceFarad());
-        return switch (position) {
+        PartModel connected = connectedPart();
+        FixturePosition where = connected == null && position == FixturePosition.PART ? FixturePosition.OPEN : position;
+        return switch (where) {
             case SHORT -> leads;
             case OPEN -> stray.abs() == 0 ? new Complex(1e15, 0) : leads.add(stray.reciprocal());
             default -> {
-                Complex part = circuit.part().impedance(omega);
+                Complex part = connected.impedance(omega);
                 yield leads.add(stray.abs() == 0 ? part : part.reciprocal().add(stray).reciprocal());
             }
         };
@@ -78,10 +111,12 @@ public final class SimBench implements AnalogInputs {
         Waveform w = generator.waveform();
         for (Harmonic h : WaveformSpectrum.of(w, generator.emfPeak(), generator.emfOffset(), f, bandLimit)) {
             double omega = 2 * Math.PI * h.k() * f;
-            Complex load = omega == 0 && position != FixturePosition.OPEN
+            PartModel connected = connectedPart();
+            boolean open = position == FixturePosition.OPEN || position == FixturePosition.PART && connected == null;
+            Complex load = omega == 0 && !open
                     ? new Complex(settings.leadResistanceOhm() + (position == FixturePosition.SHORT ? 0
-                            : circuit.part().seriesResistanceOhm()), 0)
-                    : fixtureImpedance(omega);
+                            : connected.seriesResistanceOhm()), 0)
+                    : omega == 0 ? new Complex(1e15, 0) : fixtureImpedance(omega);
             Complex current = h.amplitude().divide(load.add(circuit.sourceOhm() + circuit.senseOhm()));
             Complex sense = current.multiply(circuit.senseOhm());
             if (channel == 1) {

@@ -250,12 +250,30 @@ public abstract class ScpiDevice implements InProcessPeer {
         if (text.isEmpty()) {
             return params;
         }
-        for (String p : text.split(",", -1)) {
-            if (p.isBlank()) {
-                throw ScpiFault.syntax(header + " empty parameter");
+        // commas inside a channel list "(@101,102)" (SCPI-1999 Vol. 1, 8.3.2) do not separate parameters
+        StringBuilder current = new StringBuilder();
+        int depth = 0;
+        for (char c : text.toCharArray()) {
+            if (c == '(') {
+                depth++;
+            } else if (c == ')') {
+                depth--;
             }
-            params.add(p.strip());
+            if (c == ',' && depth == 0) {
+                add(params, current, header);
+            } else {
+                current.append(c);
+            }
         }
+        add(params, current, header);
         return params;
+    }
+
+    private static void add(List<String> params, StringBuilder current, String header) throws ScpiFault {
+        if (current.toString().isBlank()) {
+            throw ScpiFault.syntax(header + " empty parameter");
+        }
+        params.add(current.toString().strip());
+        current.setLength(0);
     }
 }
