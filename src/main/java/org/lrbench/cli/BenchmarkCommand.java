@@ -1,6 +1,5 @@
 package org.lrbench.cli;
 
-import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.lrbench.benchmark.FitBenchmark;
 import org.lrbench.benchmark.LinkBenchmark;

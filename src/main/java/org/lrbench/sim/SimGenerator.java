@@ -3,7 +3,6 @@ package org.lrbench.sim;
 import java.util.Locale;
 import org.lrbench.instrument.Waveform;
 import org.lrbench.sim.scpi.ScpiDevice;
-import org.lrbench.sim.scpi.ScpiFault;
 
 /**
  * A simulated one-channel function generator behind SCPI. Like most real ones, its amplitude
