@@ -4,7 +4,7 @@ import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import java.util.Set;
 import org.lrbench.bench.BenchConfig;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
@@ -68,7 +68,7 @@ final class DemoCommand implements Callable<Integer> {
         System.out.println();
         ResultText.tableHeader(System.out, qAt);
         LotSummary summary;
-        try (SqliteStore store = SqliteStore.open(data.resolve("lrbench.db"))) {
+        try (ResultStore store = ResultStore.open(data.resolve("lrbench.db"))) {
             // the demo measures its lot afresh each time; a real lot resumes where it stopped
             store.deleteLot(lot.lot());
             PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);

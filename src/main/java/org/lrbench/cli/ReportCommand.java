@@ -5,7 +5,7 @@ import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.lrbench.report.LotReport;
 import org.lrbench.results.ResultFiles;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
@@ -23,7 +23,7 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
     public Integer call() throws Exception {
         Inputs.name("--lot", lot);
         String html;
-        try (SqliteStore s = open()) {
+        try (ResultStore s = open()) {
             if (s.lots().stream().noneMatch(l -> l.lot().equals(lot))) {
                 throw new BadInputException("no lot " + lot + " in " + data.resolve("lrbench.db"));
             }

@@ -19,7 +19,7 @@ import org.lrbench.run.PartRun;
 import org.lrbench.run.SwitchFeeder;
 import org.lrbench.run.TrayFeeder;
 import org.lrbench.sim.SimLot;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
@@ -53,6 +53,10 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
             description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
     Path data;
+
+    @Option(names = "--store", paramLabel = "URL",
+            description = "with --lot-size: a shared store instead of DIR/lrbench.db, jdbc:postgresql://HOST:PORT/DB?user=U")
+    String storeUrl;
 
     @Option(names = "--sim", paramLabel = "PART.yaml",
             description = "measure on the in-process simulated bench, with this simulated part under test")
@@ -123,7 +127,7 @@ final class RunCommand implements Callable<Integer> {
      * holds the whole tray and the switch changes parts; without one, each part is its own bench.
      */
     static LotRunner.Outcome runTray(PartRun.Request template, int lotSize, BenchConfig b, SimLot tray,
-                                     DriverLoader drivers, SqliteStore store, Path runs, java.util.Set<String> done,
+                                     DriverLoader drivers, ResultStore store, Path runs, java.util.Set<String> done,
                                      org.lrbench.measure.SweepListener progress,
                                      java.util.function.Consumer<org.lrbench.results.PartResult> onPart) throws Exception {
         if (b.switchUnit() == null) {
@@ -165,7 +169,7 @@ final class RunCommand implements Callable<Integer> {
         PartRun.Request template = new PartRun.Request(p, Inputs.sha256(plan), b, lot, "-", tray != null, Home.version(),
                 new CalibrationStore(calibration, b.name()).load());
         LotRunner.Outcome outcome;
-        try (SqliteStore store = SqliteStore.open(data.resolve("lrbench.db"))) {
+        try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.open(data.resolve("lrbench.db"))) {
             java.util.Set<String> done = store.completed(lot);
             if (!done.isEmpty()) {
                 System.out.println("resuming lot " + lot + ": " + done.size() + " part(s) already stored are not measured again");

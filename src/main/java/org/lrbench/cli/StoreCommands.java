@@ -11,7 +11,7 @@ import org.lrbench.results.ResultFiles;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
 import org.lrbench.store.PartRow;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -28,15 +28,22 @@ final class StoreCommands {
                 description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
         Path data;
 
+        @Option(names = "--store", paramLabel = "URL",
+                description = "a shared store instead of DIR/lrbench.db: jdbc:postgresql://HOST:PORT/DB?user=U&password=P")
+        String store;
+
         @Option(names = "--csv", paramLabel = "FILE", description = "also write the rows to this CSV file")
         Path csv;
 
-        SqliteStore open() {
+        ResultStore open() {
+            if (store != null) {
+                return ResultStore.openUrl(store);
+            }
             Path db = data.resolve("lrbench.db");
             if (!java.nio.file.Files.isRegularFile(db)) {
                 throw new BadInputException("no results store at " + db + " (measure a lot first, or give --data)");
             }
-            return SqliteStore.open(db);
+            return ResultStore.open(db);
         }
 
         void print(List<String> header, List<List<String>> rows) throws IOException {
@@ -79,7 +86,7 @@ final class StoreCommands {
     static final class Lots extends StoreOptions implements Callable<Integer> {
         @Override
         public Integer call() throws Exception {
-            try (SqliteStore s = open()) {
+            try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
                 for (LotRecord l : s.lots()) {
                     rows.add(List.of(l.lot(), l.partNumber(), l.createdAt(), String.valueOf(l.lotSize()),
@@ -100,7 +107,7 @@ final class StoreCommands {
 
         @Override
         public Integer call() throws Exception {
-            try (SqliteStore s = open()) {
+            try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
                 for (PartRow p : s.parts(lot)) {
                     rows.add(List.of(String.valueOf(p.position()), p.serial(), p.verdict(), num(p.inductanceH(), "%.6e"),
@@ -122,7 +129,7 @@ final class StoreCommands {
 
         @Override
         public Integer call() throws Exception {
-            try (SqliteStore s = open()) {
+            try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
                 for (LotStatistics l : s.history(partNumber)) {
                     rows.add(List.of(l.lot(), l.createdAt(), l.disposition() == null ? "open" : l.disposition(),

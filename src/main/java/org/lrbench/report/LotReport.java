@@ -16,7 +16,7 @@ import org.lrbench.results.PartResult;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
 import org.lrbench.store.PartRow;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 
 /**
  * One self-contained HTML file per lot, built from the results store alone: the lot and its
@@ -32,7 +32,7 @@ public final class LotReport {
     private LotReport() {
     }
 
-    public static String html(SqliteStore store, String lot) throws IOException {
+    public static String html(ResultStore store, String lot) throws IOException {
         System.setProperty("java.awt.headless", "true");
         LotRecord l = store.lots().stream().filter(x -> x.lot().equals(lot)).findFirst()
                 .orElseThrow(() -> new IllegalArgumentException("no lot " + lot + " in the store"));

@@ -26,7 +26,7 @@ import org.lrbench.results.ResultFiles;
 import org.lrbench.sampling.LotDisposition;
 import org.lrbench.sim.SimBench;
 import org.lrbench.store.PartRow;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 import org.lrbench.yaml.ProblemsException;
 
 /**
@@ -41,15 +41,15 @@ public final class LotRunner {
             .configure(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES, false);
 
     /** Everything a lot run needs besides the feeder. */
-    public record Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
+    public record Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
                         Sleeper sleeper, SweepListener listener, BenchInstruments shared) {
 
-        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
+        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
                      Sleeper sleeper) {
             this(template, lotSize, drivers, store, runs, sleeper, SweepListener.NONE, null);
         }
 
-        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, SqliteStore store, Path runs,
+        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
                      Sleeper sleeper, SweepListener listener) {
             this(template, lotSize, drivers, store, runs, sleeper, listener, null);
         }

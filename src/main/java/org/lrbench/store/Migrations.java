@@ -20,8 +20,8 @@ final class Migrations {
                             + " CHECK (disposition IN ('accept', 'reject')), disposition_reason TEXT, finished_at TEXT)",
                     "CREATE TABLE part_result (lot TEXT NOT NULL REFERENCES lot (lot), serial TEXT NOT NULL,"
                             + " position INTEGER NOT NULL, verdict TEXT NOT NULL"
-                            + " CHECK (verdict IN ('pass', 'fail', 'error', 'skipped')), inductance_h REAL,"
-                            + " series_resistance_ohm REAL, measured_at TEXT NOT NULL, program_version TEXT NOT NULL,"
+                            + " CHECK (verdict IN ('pass', 'fail', 'error', 'skipped')), inductance_h DOUBLE PRECISION,"
+                            + " series_resistance_ohm DOUBLE PRECISION, measured_at TEXT NOT NULL, program_version TEXT NOT NULL,"
                             + " result_json TEXT NOT NULL, PRIMARY KEY (lot, serial))",
                     "CREATE INDEX part_result_by_lot ON part_result (lot, position)"));
 }

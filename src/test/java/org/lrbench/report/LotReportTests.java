@@ -17,7 +17,7 @@ import org.lrbench.run.LotRunner;
 import org.lrbench.run.TrayFeeder;
 import org.lrbench.sim.SimLot;
 import org.lrbench.store.PartRow;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 
 class LotReportTests {
 
@@ -36,7 +36,7 @@ class LotReportTests {
     @Test
     void theReportParsesCarriesEveryPlotAndMatchesTheStore(@TempDir Path dir) throws Exception {
         SimLot tray = SimLot.load(TestBench.home().resolve("simulator/demo-lot.yaml"));
-        try (SqliteStore store = SqliteStore.open(dir.resolve("s.db"))) {
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
             LotRunner.run(LotRunTests.setup(store, dir), new TrayFeeder(tray.parts(), Set.of()), r -> { });
             Document d = Jsoup.parse(LotReport.html(store, "LOT-1"));
             assertThat(d.title()).isEqualTo("Lot LOT-1");

@@ -21,12 +21,12 @@ import org.lrbench.plan.PlanLoader;
 import org.lrbench.sampling.LotDisposition;
 import org.lrbench.sim.SimLot;
 import org.lrbench.store.PartRow;
-import org.lrbench.store.SqliteStore;
+import org.lrbench.store.ResultStore;
 
 public class LotRunTests {
     static final Path HOME = TestBench.home();
 
-    public static LotRunner.Setup setup(SqliteStore store, Path runs) throws Exception {
+    public static LotRunner.Setup setup(ResultStore store, Path runs) throws Exception {
         BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
         Plan p = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
         byte[] content = Files.readAllBytes(HOME.resolve("plans/qfd-ind-1m0.yaml"));
@@ -50,7 +50,7 @@ public class LotRunTests {
     @Test
     void aStoppedLotResumesAfterItsLastCompletedPart(@TempDir Path dir) throws Exception {
         SimLot tray = SimLot.load(HOME.resolve("simulator/demo-lot.yaml"));
-        try (SqliteStore store = SqliteStore.open(dir.resolve("s.db"))) {
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
             LotRunner.Outcome first = LotRunner.run(setup(store, dir), stoppingAfter(new TrayFeeder(tray.parts(), Set.of()), 3),
                     r -> { });
             assertThat(first.measuredNow()).hasSize(3);
@@ -90,7 +90,7 @@ public class LotRunTests {
         }
         p.destroyForcibly();
         p.waitFor(10, TimeUnit.SECONDS);
-        try (SqliteStore store = SqliteStore.open(db)) {
+        try (ResultStore store = ResultStore.open(db)) {
             Set<String> before = new HashSet<>(store.completed("LOT-1"));
             assertThat(before).isNotEmpty();
             SimLot tray = SimLot.load(HOME.resolve("simulator/demo-lot.yaml"));

@@ -10,9 +10,9 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.results.PartResult;
 
-class SqliteStoreTests {
+public class ResultStoreTests {
 
-    static PartResult part(String lot, String serial, String verdict) {
+    public static PartResult part(String lot, String serial, String verdict) {
         return new PartResult(PartResult.SCHEMA, "t", lot, serial, "P-1", "p.yaml", "ab".repeat(32), "b", true,
                 "2026-12-01T00:00:00Z", "2026-12-01T00:00:01Z", verdict, verdict.equals("error") ? "lost" : null,
                 List.of(), List.of(), 1e-3, 1e-6, 2e-6, 2.3, 0.01, 0.02, null, 1e6, Map.of(), null, null, null,
@@ -22,13 +22,13 @@ class SqliteStoreTests {
     @Test
     void schemaIsMigratedOnceAndPartsAreKeptPerLot(@TempDir Path dir) {
         Path db = dir.resolve("store.db");
-        try (SqliteStore s = SqliteStore.open(db)) {
+        try (ResultStore s = ResultStore.open(db)) {
             assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
             s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "now");
             s.savePart(1, part("L1", "S1", "pass"));
             s.savePart(2, part("L1", "S2", "error"));
         }
-        try (SqliteStore s = SqliteStore.open(db)) {
+        try (ResultStore s = ResultStore.open(db)) {
             assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
             assertThat(s.completed("L1")).containsExactly("S1");
             // an error is measured again and replaces its row; a completed part is never stored twice
@@ -56,7 +56,7 @@ class SqliteStoreTests {
     void historyGivesYieldMeanAndSpreadPerLot(@TempDir Path dir) {
         double[] ls = {1.01e-3, 0.99e-3, 1.03e-3, 0.95e-3};
         double[] rs = {2.31, 2.28, 2.42, 2.90};
-        try (SqliteStore s = SqliteStore.open(dir.resolve("s.db"))) {
+        try (ResultStore s = ResultStore.open(dir.resolve("s.db"))) {
             s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "2026-12-01T00:00:00Z");
             for (int i = 0; i < ls.length; i++) {
                 s.savePart(i + 1, part("L1", "S" + i, i == 3 ? "fail" : "pass", ls[i], rs[i]));
@@ -77,7 +77,7 @@ class SqliteStoreTests {
 
     @Test
     void aLotCannotBeContinuedWithAnotherPlan(@TempDir Path dir) {
-        try (SqliteStore s = SqliteStore.open(dir.resolve("store.db"))) {
+        try (ResultStore s = ResultStore.open(dir.resolve("store.db"))) {
             s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "now");
             assertThatThrownBy(() -> s.beginLot("L1", "P-1", "p.yaml", "cd".repeat(32), "b", 40, 8, "now"))
                     .hasMessageContaining("started with another plan");

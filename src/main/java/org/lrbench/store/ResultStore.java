@@ -16,33 +16,59 @@ import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 
 /**
- * The results store in an embedded SQLite file (xerial sqlite-jdbc). Each part result is committed
- * on its own as soon as it is complete, so a crash loses at most the part being measured; the
- * primary key (lot, serial) keeps a part from being stored twice, and a lot cannot be continued
- * with a plan other than the one it was started with.
+ * The results store: an embedded SQLite file (xerial sqlite-jdbc) by default, or a PostgreSQL
+ * database through a JDBC URL when several benches share one store. The SQL is the portable subset
+ * both speak. Each part result is committed on its own as soon as it is complete, so a crash loses
+ * at most the part being measured; the primary key (lot, serial) keeps a part from being stored
+ * twice, even by two benches writing at once, and a lot cannot be continued with a plan other than
+ * the one it was started with.
  */
-public final class SqliteStore implements AutoCloseable {
+public final class ResultStore implements AutoCloseable {
     private final Connection db;
 
-    private SqliteStore(Connection db) {
+    private ResultStore(Connection db) {
         this.db = db;
     }
 
-    /** Opens (creating if needed) the store file and brings its schema up to date. */
-    public static SqliteStore open(Path file) {
+    /** Opens (creating if needed) an SQLite store file and brings its schema up to date. */
+    public static ResultStore open(Path file) {
         try {
             Files.createDirectories(file.toAbsolutePath().getParent());
-            Connection c = DriverManager.getConnection("jdbc:sqlite:" + file);
-            try (Statement s = c.createStatement()) {
-                s.execute("PRAGMA foreign_keys = ON");
-                s.execute("PRAGMA journal_mode = WAL");
-                s.execute("PRAGMA busy_timeout = 5000");
-            }
-            SqliteStore store = new SqliteStore(c);
+            org.sqlite.SQLiteConfig cfg = new org.sqlite.SQLiteConfig();
+            cfg.enforceForeignKeys(true);
+            cfg.setJournalMode(org.sqlite.SQLiteConfig.JournalMode.WAL);
+            cfg.setBusyTimeout(10_000);
+            // a transaction takes the write lock when it begins: two writers then wait for each
+            // other instead of failing when a read would have to turn into a write
+            cfg.setTransactionMode(org.sqlite.SQLiteConfig.TransactionMode.IMMEDIATE);
+            Connection c = DriverManager.getConnection("jdbc:sqlite:" + file, cfg.toProperties());
+            ResultStore store = new ResultStore(c);
             store.migrate();
             return store;
         } catch (Exception e) {
             throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Opens a store by JDBC URL: {@code jdbc:postgresql://HOST:PORT/DB?user=...} for a shared
+     * PostgreSQL store, or {@code jdbc:sqlite:FILE}.
+     */
+    public static ResultStore openUrl(String url) {
+        if (url.startsWith("jdbc:sqlite:")) {
+            return open(Path.of(url.substring("jdbc:sqlite:".length())));
+        }
+        if (!url.startsWith("jdbc:postgresql:")) {
+            throw new StoreException("store URL '" + url + "': use jdbc:postgresql://... or jdbc:sqlite:FILE", null);
+        }
+        try {
+            Connection c = DriverManager.getConnection(url);
+            ResultStore store = new ResultStore(c);
+            store.migrate();
+            return store;
+        } catch (SQLException e) {
+            throw new StoreException("cannot open the results store at " + url.replaceAll("password=[^&]*", "password=***")
+                    + ": " + e.getMessage(), e);
         }
     }
 
@@ -129,7 +155,13 @@ public final class SqliteStore implements AutoCloseable {
                         }
                     }
                 }
-                try (PreparedStatement p = db.prepareStatement("INSERT OR REPLACE INTO part_result (lot, serial, position,"
+                try (PreparedStatement d = db.prepareStatement(
+                        "DELETE FROM part_result WHERE lot = ? AND serial = ? AND verdict = 'error'")) {
+                    d.setString(1, result.lot());
+                    d.setString(2, result.serial());
+                    d.executeUpdate();
+                }
+                try (PreparedStatement p = db.prepareStatement("INSERT INTO part_result (lot, serial, position,"
                         + " verdict, inductance_h, series_resistance_ohm, measured_at, program_version, result_json)"
                         + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
                     p.setString(1, result.lot());
@@ -210,7 +242,7 @@ public final class SqliteStore implements AutoCloseable {
             try (ResultSet r = q.executeQuery()) {
                 while (r.next()) {
                     out.add(new PartRow(r.getString(1), r.getString(2), r.getInt(3), r.getString(4),
-                            (Double) r.getObject(5), (Double) r.getObject(6), r.getString(7), r.getString(8)));
+                            real(r, 5), real(r, 6), r.getString(7), r.getString(8)));
                 }
             }
         } catch (SQLException e) {
@@ -223,12 +255,15 @@ public final class SqliteStore implements AutoCloseable {
         List<LotRecord> out = new ArrayList<>();
         String sql = "SELECT l.lot, l.part_number, l.plan_path, l.plan_sha256, l.bench, l.lot_size, l.sample_size,"
                 + " l.created_at, l.disposition, l.disposition_reason, l.finished_at,"
-                + " COUNT(p.serial), SUM(p.verdict = 'pass'), SUM(p.verdict = 'fail')"
-                + " FROM lot l LEFT JOIN part_result p ON p.lot = l.lot GROUP BY l.lot ORDER BY l.created_at";
+                + " COUNT(p.serial), SUM(CASE WHEN p.verdict = 'pass' THEN 1 ELSE 0 END),"
+                + " SUM(CASE WHEN p.verdict = 'fail' THEN 1 ELSE 0 END)"
+                + " FROM lot l LEFT JOIN part_result p ON p.lot = l.lot GROUP BY l.lot, l.part_number, l.plan_path,"
+                + " l.plan_sha256, l.bench, l.lot_size, l.sample_size, l.created_at, l.disposition,"
+                + " l.disposition_reason, l.finished_at ORDER BY l.created_at";
         try (Statement s = db.createStatement(); ResultSet r = s.executeQuery(sql)) {
             while (r.next()) {
                 out.add(new LotRecord(r.getString(1), r.getString(2), r.getString(3), r.getString(4), r.getString(5),
-                        (Integer) r.getObject(6), (Integer) r.getObject(7), r.getString(8), r.getString(9),
+                        whole(r, 6), whole(r, 7), r.getString(8), r.getString(9),
                         r.getString(10), r.getString(11), r.getInt(12), r.getInt(13), r.getInt(14)));
             }
         } catch (SQLException e) {
@@ -267,8 +302,8 @@ public final class SqliteStore implements AutoCloseable {
                     }
                     if (r.getString(4) != null) {
                         passed += r.getString(4).equals("pass") ? 1 : 0;
-                        Double l = (Double) r.getObject(5);
-                        Double res = (Double) r.getObject(6);
+                        Double l = real(r, 5);
+                        Double res = real(r, 6);
                         values.add(new double[] {l == null ? Double.NaN : l, res == null ? Double.NaN : res});
                     }
                 }
@@ -300,6 +335,16 @@ public final class SqliteStore implements AutoCloseable {
         int n = v.size();
         return new LotStatistics(lot, created, disposition, n, passed, n == 0 ? Double.NaN : (double) passed / n,
                 finite(mean[0]), finite(sd[0]), finite(mean[1]), finite(sd[1]));
+    }
+
+    private static Double real(ResultSet r, int column) throws SQLException {
+        double v = r.getDouble(column);
+        return r.wasNull() ? null : v;
+    }
+
+    private static Integer whole(ResultSet r, int column) throws SQLException {
+        int v = r.getInt(column);
+        return r.wasNull() ? null : v;
     }
 
     private static Double finite(double x) {

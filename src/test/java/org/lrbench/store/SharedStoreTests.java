@@ -1,0 +1,97 @@
+package org.lrbench.store;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
+
+import java.nio.file.Path;
+import java.sql.DriverManager;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.function.Supplier;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/**
+ * Two benches writing one store at once, on SQLite and on a real PostgreSQL server. The PostgreSQL
+ * server is the one .ci/run starts, named by LRBENCH_TEST_POSTGRES_URL; without it the PostgreSQL
+ * half is skipped with that reason.
+ */
+class SharedStoreTests {
+
+    static String postgres() {
+        String url = System.getenv("LRBENCH_TEST_POSTGRES_URL");
+        assumeTrue(url != null && !url.isBlank(),
+                "no PostgreSQL server: set LRBENCH_TEST_POSTGRES_URL (.ci/run starts one) to test the shared store");
+        return url;
+    }
+
+    static void reset(String url) throws Exception {
+        try (var c = DriverManager.getConnection(url); var s = c.createStatement()) {
+            s.execute("DROP TABLE IF EXISTS part_result");
+            s.execute("DROP TABLE IF EXISTS lot");
+            s.execute("DROP TABLE IF EXISTS schema_version");
+        }
+    }
+
+    @Test
+    void sqliteKeepsALotConsistentUnderTwoWriters(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("shared.db");
+        twoBenches(() -> ResultStore.open(db));
+    }
+
+    @Test
+    void postgresKeepsALotConsistentUnderTwoWriters() throws Exception {
+        String url = postgres();
+        reset(url);
+        twoBenches(() -> ResultStore.openUrl(url));
+        try (ResultStore s = ResultStore.openUrl(url)) {
+            assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
+            assertThat(s.history("P-1")).hasSize(1);
+        }
+    }
+
+    /** Two stores (two connections), each saving its own serials and both racing for one shared serial. */
+    static void twoBenches(Supplier<ResultStore> open) throws Exception {
+        try (ResultStore first = open.get()) {
+            first.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "2026-12-01T00:00:00Z");
+        }
+        AtomicInteger sharedWins = new AtomicInteger();
+        List<Throwable> unexpected = new ArrayList<>();
+        CountDownLatch go = new CountDownLatch(1);
+        List<Thread> benches = new ArrayList<>();
+        for (int b = 0; b < 2; b++) {
+            int bench = b;
+            Thread t = new Thread(() -> {
+                try (ResultStore s = open.get()) {
+                    go.await();
+                    for (int i = 0; i < 10; i++) {
+                        s.savePart(bench * 100 + i, ResultStoreTests.part("L1", "B" + bench + "-" + i, "pass"));
+                    }
+                    try {
+                        s.savePart(999, ResultStoreTests.part("L1", "SHARED", "pass"));
+                        sharedWins.incrementAndGet();
+                    } catch (StoreException expected) {
+                        // the other bench stored it first
+                    }
+                } catch (Throwable e) {
+                    synchronized (unexpected) {
+                        unexpected.add(e);
+                    }
+                }
+            });
+            benches.add(t);
+            t.start();
+        }
+        go.countDown();
+        for (Thread t : benches) {
+            t.join(60_000);
+        }
+        assertThat(unexpected).isEmpty();
+        assertThat(sharedWins.get()).isEqualTo(1);
+        try (ResultStore s = open.get()) {
+            assertThat(s.parts("L1")).hasSize(21).extracting(PartRow::serial).doesNotHaveDuplicates();
+        }
+    }
+}
