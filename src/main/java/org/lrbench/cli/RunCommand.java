@@ -1,6 +1,7 @@
 package org.lrbench.cli;
 
 import java.nio.file.Path;
+import java.util.List;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.CalibrationStore;
@@ -49,6 +50,11 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--sim-lot", paramLabel = "TRAY.yaml",
             description = "with --lot-size: measure a tray of simulated parts unattended instead of asking the operator")
     Path simLot;
+
+    @Option(names = "--tray", paramLabel = "SERIALS.txt",
+            description = "with --lot-size on a bench with a switch unit: the serials in the fixture's positions,"
+                    + " one per line in position order; the tray is then measured unattended")
+    Path traySerials;
 
     @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
             description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
@@ -144,6 +150,29 @@ final class RunCommand implements Callable<Integer> {
         }
     }
 
+    /** Serials of a tray file: one per line, blank lines and # comments ignored, each checked. */
+    static List<String> readSerials(Path file) throws java.io.IOException {
+        Inputs.requireFile(file, "tray");
+        List<String> out = new java.util.ArrayList<>();
+        java.util.Set<String> seen = new java.util.HashSet<>();
+        List<String> lines = java.nio.file.Files.readAllLines(file);
+        for (int i = 0; i < lines.size(); i++) {
+            String t = lines.get(i).replaceAll("#.*", "").trim();
+            if (t.isEmpty()) {
+                continue;
+            }
+            if (!t.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}") || !seen.add(t)) {
+                throw new BadInputException(file + ":" + (i + 1) + ":1: serial '" + t + "': "
+                        + (seen.contains(t) ? "appears twice" : "use 1 to 64 letters, digits, '.', '_' or '-'"));
+            }
+            out.add(t);
+        }
+        if (out.isEmpty()) {
+            throw new BadInputException(file + ": no serials");
+        }
+        return out;
+    }
+
     /** Lot mode: the sample one part after another, committed as it goes, resumable. */
     private int runLot() throws Exception {
         if (serial != null || sim != null) {
@@ -182,6 +211,17 @@ final class RunCommand implements Callable<Integer> {
                 if (tray != null) {
                     outcome = runTray(template, lotSize, b, tray, drivers, store, runs, done, progress,
                             r -> ResultText.tableRow(System.out, r, qAt));
+                } else if (traySerials != null) {
+                    if (b.switchUnit() == null) {
+                        throw new BadInputException("--tray needs a bench with a switch unit (bench file key switch)");
+                    }
+                    List<String> serials = readSerials(traySerials);
+                    try (BenchInstruments inst = BenchInstruments.open(b, drivers, null, true)) {
+                        inst.switchUnit().prepare();
+                        outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper,
+                                progress, inst), new SwitchFeeder(inst.switchUnit(), serials, done),
+                                r -> ResultText.tableRow(System.out, r, qAt));
+                    }
                 } else {
                     PartFeeder feeder = new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
                                     java.nio.charset.StandardCharsets.UTF_8)), System.out);
