@@ -72,6 +72,26 @@ public final class ResultStore implements AutoCloseable {
         }
     }
 
+    /** Work done inside one transaction. */
+    @FunctionalInterface
+    private interface Work {
+        void run() throws SQLException;
+    }
+
+    /** Runs work as one transaction: committed whole, or rolled back whole on any failure. */
+    private void inTransaction(Work work) throws SQLException {
+        db.setAutoCommit(false);
+        try {
+            work.run();
+            db.commit();
+        } catch (SQLException | RuntimeException e) {
+            db.rollback();
+            throw e;
+        } finally {
+            db.setAutoCommit(true);
+        }
+    }
+
     /** The schema version the store is at. */
     public int version() {
         try (Statement s = db.createStatement(); ResultSet r = s.executeQuery("SELECT version FROM schema_version")) {
@@ -87,20 +107,17 @@ public final class ResultStore implements AutoCloseable {
         }
         int at = version();
         for (int step = at; step < Migrations.STEPS.size(); step++) {
-            db.setAutoCommit(false);
-            try (Statement s = db.createStatement()) {
-                for (String sql : Migrations.STEPS.get(step)) {
-                    s.execute(sql);
+            int version = step + 1;
+            List<String> statements = Migrations.STEPS.get(step);
+            inTransaction(() -> {
+                try (Statement s = db.createStatement()) {
+                    for (String sql : statements) {
+                        s.execute(sql);
+                    }
+                    s.execute("DELETE FROM schema_version");
+                    s.execute("INSERT INTO schema_version (version) VALUES (" + version + ")");
                 }
-                s.execute("DELETE FROM schema_version");
-                s.execute("INSERT INTO schema_version (version) VALUES (" + (step + 1) + ")");
-                db.commit();
-            } catch (SQLException e) {
-                db.rollback();
-                throw e;
-            } finally {
-                db.setAutoCommit(true);
-            }
+            });
         }
     }
 
@@ -142,8 +159,7 @@ public final class ResultStore implements AutoCloseable {
     public void savePart(int position, PartResult result) {
         try {
             String json = ResultFiles.JSON.writeValueAsString(result);
-            db.setAutoCommit(false);
-            try {
+            inTransaction(() -> {
                 try (PreparedStatement q = db.prepareStatement(
                         "SELECT verdict FROM part_result WHERE lot = ? AND serial = ?")) {
                     q.setString(1, result.lot());
@@ -175,13 +191,7 @@ public final class ResultStore implements AutoCloseable {
                     p.setString(9, json);
                     p.executeUpdate();
                 }
-                db.commit();
-            } catch (SQLException | RuntimeException e) {
-                db.rollback();
-                throw e;
-            } finally {
-                db.setAutoCommit(true);
-            }
+            });
         } catch (SQLException | com.fasterxml.jackson.core.JsonProcessingException e) {
             throw new StoreException("storing " + result.serial() + " of lot " + result.lot() + " failed: "
                     + e.getMessage(), e);
@@ -202,20 +212,15 @@ public final class ResultStore implements AutoCloseable {
     /** Removes a lot and its parts (the demo starts its lot afresh; nothing else deletes). */
     public void deleteLot(String lot) {
         try {
-            db.setAutoCommit(false);
-            try (PreparedStatement a = db.prepareStatement("DELETE FROM part_result WHERE lot = ?");
-                 PreparedStatement b = db.prepareStatement("DELETE FROM lot WHERE lot = ?")) {
-                a.setString(1, lot);
-                a.executeUpdate();
-                b.setString(1, lot);
-                b.executeUpdate();
-                db.commit();
-            } catch (SQLException e) {
-                db.rollback();
-                throw e;
-            } finally {
-                db.setAutoCommit(true);
-            }
+            inTransaction(() -> {
+                try (PreparedStatement a = db.prepareStatement("DELETE FROM part_result WHERE lot = ?");
+                     PreparedStatement b = db.prepareStatement("DELETE FROM lot WHERE lot = ?")) {
+                    a.setString(1, lot);
+                    a.executeUpdate();
+                    b.setString(1, lot);
+                    b.executeUpdate();
+                }
+            });
         } catch (SQLException e) {
             throw new StoreException("removing lot " + lot + " failed: " + e.getMessage(), e);
         }
