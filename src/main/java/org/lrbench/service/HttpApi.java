@@ -1,0 +1,286 @@
+package org.lrbench.service;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import io.netty.bootstrap.ServerBootstrap;
+import io.netty.buffer.Unpooled;
+import io.netty.channel.Channel;
+import io.netty.channel.ChannelFutureListener;
+import io.netty.channel.ChannelHandlerContext;
+import io.netty.channel.ChannelInitializer;
+import io.netty.channel.EventLoopGroup;
+import io.netty.channel.MultiThreadIoEventLoopGroup;
+import io.netty.channel.SimpleChannelInboundHandler;
+import io.netty.channel.nio.NioIoHandler;
+import io.netty.channel.socket.SocketChannel;
+import io.netty.channel.socket.nio.NioServerSocketChannel;
+import io.netty.handler.codec.http.DefaultFullHttpResponse;
+import io.netty.handler.codec.http.DefaultHttpResponse;
+import io.netty.handler.codec.http.FullHttpRequest;
+import io.netty.handler.codec.http.FullHttpResponse;
+import io.netty.handler.codec.http.HttpHeaderNames;
+import io.netty.handler.codec.http.HttpMethod;
+import io.netty.handler.codec.http.HttpObjectAggregator;
+import io.netty.handler.codec.http.HttpResponseStatus;
+import io.netty.handler.codec.http.HttpServerCodec;
+import io.netty.handler.codec.http.HttpVersion;
+import io.netty.handler.codec.http.QueryStringDecoder;
+import io.netty.util.concurrent.DefaultThreadFactory;
+import java.io.IOException;
+import java.io.InputStream;
+import java.net.InetAddress;
+import java.net.InetSocketAddress;
+import java.nio.charset.StandardCharsets;
+import java.util.List;
+import java.util.Map;
+import java.util.function.Consumer;
+import org.lrbench.report.LotReport;
+import org.lrbench.results.ResultFiles;
+import org.lrbench.store.ResultStore;
+
+/**
+ * The service's HTTP API and operator page, with Netty. JSON in and out (Jackson); request bodies
+ * are limited to {@value #MAX_BODY} bytes; errors are {@code {"error": "..."}} with a 4xx or 5xx
+ * status and never a stack trace. On any address but loopback every call must carry the access
+ * token in the {@value #TOKEN_HEADER} header (a header, not a cookie, so a foreign page cannot
+ * ride on it).
+ */
+public final class HttpApi implements AutoCloseable {
+    public static final int MAX_BODY = 64 * 1024;
+    public static final String TOKEN_HEADER = "X-Lrbench-Token";
+
+    private final BenchService service;
+    private final String token;
+    private final EventLoopGroup loop = new MultiThreadIoEventLoopGroup(2, new DefaultThreadFactory("lrbench-http", true),
+            NioIoHandler.newFactory());
+    private final Channel listener;
+
+    /** @param token required on every call, or null when listening on loopback only */
+    public HttpApi(BenchService service, InetAddress address, int port, String token) throws IOException {
+        this.service = service;
+        this.token = token;
+        var f = new ServerBootstrap().group(loop).channel(NioServerSocketChannel.class)
+                .childHandler(new ChannelInitializer<SocketChannel>() {
+                    @Override
+                    protected void initChannel(SocketChannel ch) {
+                        ch.pipeline().addLast(new HttpServerCodec(), new HttpObjectAggregator(MAX_BODY), new Handler());
+                    }
+                }).bind(address, port).awaitUninterruptibly();
+        if (!f.isSuccess()) {
+            loop.shutdownGracefully();
+            throw new IOException("cannot listen on " + address.getHostAddress() + ":" + port + ": " + f.cause().getMessage());
+        }
+        listener = f.channel();
+    }
+
+    public int port() {
+        return ((InetSocketAddress) listener.localAddress()).getPort();
+    }
+
+    @Override
+    public void close() {
+        listener.close().awaitUninterruptibly();
+        loop.shutdownGracefully(0, 1, java.util.concurrent.TimeUnit.SECONDS).awaitUninterruptibly();
+    }
+
+    private final class Handler extends SimpleChannelInboundHandler<FullHttpRequest> {
+        @Override
+        protected void channelRead0(ChannelHandlerContext ctx, FullHttpRequest req) {
+            try {
+                if (token != null && !token.equals(req.headers().get(TOKEN_HEADER))) {
+                    throw new ServiceException(401, "missing or wrong access token (header " + TOKEN_HEADER + ")");
+                }
+                route(ctx, req);
+            } catch (ServiceException e) {
+                json(ctx, HttpResponseStatus.valueOf(e.status()), Map.of("error", e.getMessage()));
+            } catch (Exception e) {
+                json(ctx, HttpResponseStatus.INTERNAL_SERVER_ERROR, Map.of("error", "internal error: "
+                        + e.getClass().getSimpleName() + (e.getMessage() == null ? "" : ": " + e.getMessage())));
+            }
+        }
+
+        private void route(ChannelHandlerContext ctx, FullHttpRequest req) throws Exception {
+            String path = new QueryStringDecoder(req.uri()).path();
+            HttpMethod m = req.method();
+            List<String> parts = List.of(path.replaceAll("^/+|/+$", "").split("/"));
+            if (m == HttpMethod.GET && (path.equals("/") || path.equals("/index.html"))) {
+                send(ctx, HttpResponseStatus.OK, "text/html; charset=utf-8", page());
+            } else if (m == HttpMethod.GET && path.equals("/api/plans")) {
+                json(ctx, HttpResponseStatus.OK, Map.of("plans", service.plans()));
+            } else if (m == HttpMethod.POST && path.equals("/api/runs")) {
+                JsonNode b = body(req);
+                String plan = text(b, "plan", true);
+                String lot = text(b, "lot", true);
+                if (!lot.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
+                    throw new ServiceException(400, "lot: '" + lot + "' must be 1 to 64 letters, digits, '.', '_' or '-'");
+                }
+                JsonNode size = b.get("lot_size");
+                if (size == null || !size.canConvertToInt() || size.asInt() < 2) {
+                    throw new ServiceException(400, "lot_size: a whole number of at least 2 is required");
+                }
+                var run = service.start(plan, lot, size.asInt(), text(b, "tray", false));
+                json(ctx, HttpResponseStatus.CREATED, run.status());
+            } else if (m == HttpMethod.GET && path.equals("/api/runs/current")) {
+                json(ctx, HttpResponseStatus.OK, service.currentOr404().status());
+            } else if (m == HttpMethod.GET && path.equals("/api/runs/current/events")) {
+                events(ctx, service.currentOr404().events);
+            } else if (m == HttpMethod.POST && path.equals("/api/runs/current/answer")) {
+                JsonNode b = body(req);
+                String action = text(b, "action", false);
+                String serial = text(b, "serial", false);
+                if (action != null && !action.equals("skip") && !action.equals("stop")) {
+                    throw new ServiceException(400, "action: '" + action + "' is not skip or stop");
+                }
+                if (action == null && (serial == null || !serial.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}"))) {
+                    throw new ServiceException(400, "serial: give the part's serial (letters, digits, '.', '_', '-'),"
+                            + " or action skip or stop");
+                }
+                service.currentOr404().feeder.answer(new PromptFeeder.Answer(serial, action));
+                json(ctx, HttpResponseStatus.ACCEPTED, Map.of("accepted", true));
+            } else if (m == HttpMethod.POST && path.equals("/api/runs/current/stop")) {
+                service.stop();
+                json(ctx, HttpResponseStatus.ACCEPTED, service.currentOr404().status());
+            } else if (m == HttpMethod.GET && path.equals("/api/runs/interrupted")) {
+                // lots begun and not decided, other than the one running now: resume by starting them again
+                BenchService.Run cur = service.current();
+                List<Object> open = new java.util.ArrayList<>();
+                if (java.nio.file.Files.isRegularFile(service.dataFile())) {
+                    try (ResultStore s = store()) {
+                        for (var l : s.lots()) {
+                            boolean running = cur != null && cur.state.equals("running") && cur.lot.equals(l.lot());
+                            if (l.disposition() == null && !running) {
+                                open.add(l);
+                            }
+                        }
+                    }
+                }
+                json(ctx, HttpResponseStatus.OK, Map.of("interrupted", open));
+            } else if (m == HttpMethod.GET && path.equals("/api/lots")) {
+                try (ResultStore s = store()) {
+                    json(ctx, HttpResponseStatus.OK, Map.of("lots", s.lots()));
+                }
+            } else if (m == HttpMethod.GET && parts.size() == 3 && parts.get(0).equals("api") && parts.get(1).equals("lots")) {
+                try (ResultStore s = store()) {
+                    var rows = s.parts(lotName(parts.get(2)));
+                    if (rows.isEmpty()) {
+                        throw new ServiceException(404, "lot: no parts stored for " + parts.get(2));
+                    }
+                    json(ctx, HttpResponseStatus.OK, Map.of("lot", parts.get(2), "parts", rows.stream().map(r -> Map.of(
+                            "serial", r.serial(), "position", r.position(), "verdict", r.verdict(),
+                            "result", ResultFilesJson.tree(r.resultJson()))).toList()));
+                }
+            } else if (m == HttpMethod.GET && parts.size() == 4 && parts.get(0).equals("api") && parts.get(1).equals("lots")
+                    && parts.get(3).equals("report")) {
+                String lot = lotName(parts.get(2));
+                try (ResultStore s = store()) {
+                    if (s.lots().stream().noneMatch(l -> l.lot().equals(lot))) {
+                        throw new ServiceException(404, "lot: no lot " + lot);
+                    }
+                    send(ctx, HttpResponseStatus.OK, "text/html; charset=utf-8",
+                            LotReport.html(s, lot).getBytes(StandardCharsets.UTF_8));
+                }
+            } else {
+                throw new ServiceException(404, "no such resource: " + m + " " + path);
+            }
+        }
+
+        private ResultStore store() {
+            if (!java.nio.file.Files.isRegularFile(service.dataFile())) {
+                throw new ServiceException(404, "the results store is empty: no lot has been run yet");
+            }
+            return ResultStore.open(service.dataFile());
+        }
+
+        private String lotName(String lot) {
+            if (!lot.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
+                throw new ServiceException(400, "lot: '" + lot + "' is not a lot number");
+            }
+            return lot;
+        }
+
+        private void events(ChannelHandlerContext ctx, RunEvents events) {
+            DefaultHttpResponse head = new DefaultHttpResponse(HttpVersion.HTTP_1_1, HttpResponseStatus.OK);
+            head.headers().set(HttpHeaderNames.CONTENT_TYPE, "text/event-stream");
+            head.headers().set(HttpHeaderNames.CACHE_CONTROL, "no-cache");
+            ctx.writeAndFlush(head);
+            Channel ch = ctx.channel();
+            Consumer<Map<String, Object>> subscriber = new Consumer<>() {
+                @Override
+                public void accept(Map<String, Object> e) {
+                    if (!ch.isActive()) {
+                        throw new IllegalStateException("gone");
+                    }
+                    try {
+                        String line = "id: " + e.get("seq") + "\nevent: " + e.get("type") + "\ndata: "
+                                + ResultFiles.JSON.writer().without(com.fasterxml.jackson.databind.SerializationFeature.INDENT_OUTPUT)
+                                .writeValueAsString(e) + "\n\n";
+                        ch.writeAndFlush(Unpooled.copiedBuffer(line, StandardCharsets.UTF_8));
+                    } catch (IOException x) {
+                        throw new IllegalStateException(x);
+                    }
+                }
+            };
+            ch.closeFuture().addListener(f -> events.unsubscribe(subscriber));
+            events.subscribe(subscriber);
+        }
+
+        private JsonNode body(FullHttpRequest req) {
+            String text = req.content().toString(StandardCharsets.UTF_8);
+            try {
+                JsonNode n = ResultFiles.JSON.readTree(text);
+                if (n == null || !n.isObject()) {
+                    throw new ServiceException(400, "body: a JSON object is required");
+                }
+                return n;
+            } catch (IOException e) {
+                throw new ServiceException(400, "body: not valid JSON");
+            }
+        }
+
+        private String text(JsonNode b, String field, boolean required) {
+            JsonNode v = b.get(field);
+            if (v == null || v.isNull()) {
+                if (required) {
+                    throw new ServiceException(400, field + ": required");
+                }
+                return null;
+            }
+            if (!v.isTextual() || v.asText().length() > 200) {
+                throw new ServiceException(400, field + ": must be a string of at most 200 characters");
+            }
+            return v.asText();
+        }
+
+        @Override
+        public void exceptionCaught(ChannelHandlerContext ctx, Throwable cause) {
+            ctx.close();
+        }
+    }
+
+    private static byte[] page() throws IOException {
+        try (InputStream in = HttpApi.class.getResourceAsStream("operator.html")) {
+            if (in == null) {
+                throw new IOException("operator page missing from the jar");
+            }
+            return in.readAllBytes();
+        }
+    }
+
+    private static void json(ChannelHandlerContext ctx, HttpResponseStatus status, Object value) {
+        byte[] body;
+        try {
+            body = ResultFiles.JSON.writeValueAsBytes(value);
+        } catch (IOException e) {
+            body = "{\"error\":\"response could not be written\"}".getBytes(StandardCharsets.UTF_8);
+            status = HttpResponseStatus.INTERNAL_SERVER_ERROR;
+        }
+        send(ctx, status, "application/json", body);
+    }
+
+    private static void send(ChannelHandlerContext ctx, HttpResponseStatus status, String type, byte[] body) {
+        FullHttpResponse r = new DefaultFullHttpResponse(HttpVersion.HTTP_1_1, status, Unpooled.wrappedBuffer(body));
+        r.headers().set(HttpHeaderNames.CONTENT_TYPE, type);
+        r.headers().setInt(HttpHeaderNames.CONTENT_LENGTH, body.length);
+        r.headers().set("X-Content-Type-Options", "nosniff");
+        ctx.writeAndFlush(r).addListener(ChannelFutureListener.CLOSE);
+    }
+}

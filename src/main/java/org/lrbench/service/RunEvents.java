@@ -1,0 +1,49 @@
+package org.lrbench.service;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.function.Consumer;
+
+/**
+ * A run's events in order, each numbered: kept for late subscribers (a page opened mid-run sees the
+ * whole run) and pushed to live ones. A subscriber that throws is dropped; the run goes on.
+ */
+public final class RunEvents {
+    private final List<Map<String, Object>> events = new ArrayList<>();
+    private final List<Consumer<Map<String, Object>>> subscribers = new ArrayList<>();
+
+    /** Adds an event: {@code type} plus fields; returns it with its sequence number. */
+    public synchronized Map<String, Object> add(String type, Map<String, Object> fields) {
+        Map<String, Object> e = new LinkedHashMap<>();
+        e.put("seq", events.size() + 1);
+        e.put("type", type);
+        e.putAll(fields);
+        events.add(e);
+        for (Consumer<Map<String, Object>> s : List.copyOf(subscribers)) {
+            try {
+                s.accept(e);
+            } catch (RuntimeException gone) {
+                subscribers.remove(s);
+            }
+        }
+        return e;
+    }
+
+    /** Replays every event so far to the subscriber, then keeps it informed. */
+    public synchronized void subscribe(Consumer<Map<String, Object>> subscriber) {
+        for (Map<String, Object> e : events) {
+            subscriber.accept(e);
+        }
+        subscribers.add(subscriber);
+    }
+
+    public synchronized void unsubscribe(Consumer<Map<String, Object>> subscriber) {
+        subscribers.remove(subscriber);
+    }
+
+    public synchronized List<Map<String, Object>> all() {
+        return List.copyOf(events);
+    }
+}
