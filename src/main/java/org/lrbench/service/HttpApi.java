@@ -281,6 +281,8 @@ public final class HttpApi implements AutoCloseable {
         r.headers().set(HttpHeaderNames.CONTENT_TYPE, type);
         r.headers().setInt(HttpHeaderNames.CONTENT_LENGTH, body.length);
         r.headers().set("X-Content-Type-Options", "nosniff");
+        // one request per connection: say so, so clients do not reuse a connection being closed
+        r.headers().set(HttpHeaderNames.CONNECTION, "close");
         ctx.writeAndFlush(r).addListener(ChannelFutureListener.CLOSE);
     }
 }

@@ -1,0 +1,171 @@
+package org.lrbench.service;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.BufferedReader;
+import java.io.InputStreamReader;
+import java.net.InetAddress;
+import java.net.URI;
+import java.net.http.HttpClient;
+import java.net.http.HttpRequest;
+import java.net.http.HttpResponse;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.TestBench;
+
+/** The service's API with the JDK's HTTP client against a service on a free loopback port. */
+class BenchServiceApiTests {
+    static final Path HOME = TestBench.home();
+    static final ObjectMapper JSON = new ObjectMapper();
+    final HttpClient http = HttpClient.newBuilder().connectTimeout(Duration.ofSeconds(5)).build();
+
+    static ServiceConfig config(Path dir) {
+        return new ServiceConfig(HOME.resolve("simulator/bench.yaml"), HOME.resolve("drivers"), HOME.resolve("plans"),
+                HOME.resolve("simulator"), dir.resolve("data"), dir.resolve("runs"), dir.resolve("cal"), "test");
+    }
+
+    HttpResponse<String> call(int port, String method, String path, String body, String token) throws Exception {
+        HttpRequest.Builder b = HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + port + path))
+                .timeout(Duration.ofSeconds(30))
+                .method(method, body == null ? HttpRequest.BodyPublishers.noBody() : HttpRequest.BodyPublishers.ofString(body));
+        if (token != null) {
+            b.header(HttpApi.TOKEN_HEADER, token);
+        }
+        return http.send(b.build(), HttpResponse.BodyHandlers.ofString());
+    }
+
+    JsonNode json(HttpResponse<String> r) throws Exception {
+        return JSON.readTree(r.body());
+    }
+
+    void answer(int port, String serial) throws Exception {
+        assertThat(call(port, "POST", "/api/runs/current/answer", "{\"serial\":\"" + serial + "\"}", null).statusCode())
+                .isEqualTo(202);
+    }
+
+    void waitForParts(int port, int parts) throws Exception {
+        long deadline = System.currentTimeMillis() + 30_000;
+        while (System.currentTimeMillis() < deadline) {
+            JsonNode s = json(call(port, "GET", "/api/runs/current", null, null));
+            if (s.get("parts_done").asInt() >= parts || !s.get("state").asText().equals("running")) {
+                return;
+            }
+            Thread.sleep(20);
+        }
+    }
+
+    @Test
+    void aWholeLotRunWithPromptsStopResumeAndTheEventStream(@TempDir Path dir) throws Exception {
+        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\"}";
+        List<String> serials = List.of("HC0417-0001", "HC0417-0002", "HC0417-0003", "HC0417-0004", "HC0417-0005",
+                "HC0417-0006", "HC0417-0007", "HC0417-0008");
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            assertThat(json(call(port, "GET", "/api/plans", null, null)).get("plans").get(0).get("part_number").asText())
+                    .isEqualTo("QFD-IND-1M0");
+            assertThat(call(port, "POST", "/api/runs", start, null).statusCode()).isEqualTo(201);
+            // a second start while the first runs is refused
+            HttpResponse<String> second = call(port, "POST", "/api/runs", start.replace("API-1", "API-2"), null);
+            assertThat(second.statusCode()).isEqualTo(409);
+            assertThat(json(second).get("error").asText()).contains("already going");
+            for (int i = 0; i < 3; i++) {
+                answer(port, serials.get(i));
+                waitForParts(port, i + 1);
+            }
+            assertThat(call(port, "POST", "/api/runs/current/stop", null, null).statusCode()).isEqualTo(202);
+            service.join(30_000);
+            assertThat(json(call(port, "GET", "/api/runs/current", null, null)).get("state").asText()).isEqualTo("stopped");
+            assertThat(json(call(port, "GET", "/api/runs/interrupted", null, null)).get("interrupted")).hasSize(1);
+            // resume: the three parts are kept and not asked for again
+            assertThat(call(port, "POST", "/api/runs", start, null).statusCode()).isEqualTo(201);
+            for (int i = 3; i < serials.size(); i++) {
+                answer(port, serials.get(i));
+                waitForParts(port, i + 1);
+            }
+            service.join(30_000);
+            // the event stream replays the whole run: prompts, points, parts in order, then the disposition
+            List<String> types = new ArrayList<>();
+            HttpResponse<java.io.InputStream> stream = http.send(HttpRequest.newBuilder(
+                    URI.create("http://127.0.0.1:" + port + "/api/runs/current/events")).build(),
+                    HttpResponse.BodyHandlers.ofInputStream());
+            try (BufferedReader r = new BufferedReader(new InputStreamReader(stream.body(), StandardCharsets.UTF_8))) {
+                String line;
+                while ((line = r.readLine()) != null) {
+                    if (line.startsWith("event: ")) {
+                        types.add(line.substring(7));
+                        if (line.equals("event: lot_done")) {
+                            break;
+                        }
+                    }
+                }
+            }
+            assertThat(types.get(0)).isEqualTo("run_started");
+            assertThat(types).filteredOn("part_done"::equals).hasSize(5);
+            assertThat(types).filteredOn("point"::equals).hasSize(5 * 7);
+            assertThat(types.get(types.size() - 1)).isEqualTo("lot_done");
+            JsonNode lot = json(call(port, "GET", "/api/lots/API-1", null, null));
+            assertThat(lot.get("parts")).hasSize(8);
+            assertThat(json(call(port, "GET", "/api/lots", null, null)).get("lots").get(0).get("disposition").asText())
+                    .isEqualTo("reject");
+            HttpResponse<String> report = call(port, "GET", "/api/lots/API-1/report", null, null);
+            assertThat(report.statusCode()).isEqualTo(200);
+            assertThat(report.body()).contains("<h1>Lot API-1");
+            assertThat(call(port, "GET", "/", null, null).body()).contains("STOP the lot");
+        }
+    }
+
+    @Test
+    void badRequestsGetClearErrorsAndNoStackTraces(@TempDir Path dir) throws Exception {
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            HttpResponse<String> traversal = call(port, "POST", "/api/runs",
+                    "{\"plan\":\"../pom.xml\",\"lot\":\"L\",\"lot_size\":40}", null);
+            assertThat(traversal.statusCode()).isEqualTo(400);
+            assertThat(json(traversal).get("error").asText()).startsWith("plan:");
+            assertThat(call(port, "POST", "/api/runs", "{\"plan\":\"..%2Fpom.yaml\",\"lot\":\"L\",\"lot_size\":40}", null)
+                    .statusCode()).isEqualTo(400);
+            assertThat(call(port, "POST", "/api/runs", "{\"plan\":\"nope.yaml\",\"lot\":\"L\",\"lot_size\":40}", null)
+                    .statusCode()).isEqualTo(404);
+            HttpResponse<String> malformed = call(port, "POST", "/api/runs", "{not json", null);
+            assertThat(malformed.statusCode()).isEqualTo(400);
+            assertThat(json(malformed).get("error").asText()).isEqualTo("body: not valid JSON");
+            HttpResponse<String> size = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"L\"}", null);
+            assertThat(json(size).get("error").asText()).startsWith("lot_size:");
+            HttpResponse<String> big = call(port, "POST", "/api/runs", "{\"x\":\"" + "a".repeat(100_000) + "\"}", null);
+            assertThat(big.statusCode()).isEqualTo(413);
+            assertThat(call(port, "GET", "/api/lots/..%2F..%2Fetc", null, null).statusCode()).isIn(400, 404);
+            HttpResponse<String> none = call(port, "GET", "/api/runs/current", null, null);
+            assertThat(none.statusCode()).isEqualTo(404);
+            assertThat(none.body()).doesNotContain("Exception").doesNotContain("at org.");
+        }
+    }
+
+    @Test
+    void offLoopbackEveryCallNeedsTheToken(@TempDir Path dir) throws Exception {
+        // the token check itself is address-independent; a service given a token enforces it
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, "s3cret")) {
+            int port = api.port();
+            assertThat(call(port, "GET", "/api/plans", null, null).statusCode()).isEqualTo(401);
+            assertThat(call(port, "GET", "/api/plans", null, "wrong").statusCode()).isEqualTo(401);
+            assertThat(call(port, "GET", "/api/plans", null, "s3cret").statusCode()).isEqualTo(200);
+        }
+        Path token = dir.resolve("t");
+        String t = org.lrbench.cli.ServeTokens.token(token);
+        assertThat(t).hasSize(48).isEqualTo(org.lrbench.cli.ServeTokens.token(token));
+        assertThat(java.nio.file.Files.getPosixFilePermissions(token.resolve("service-token")))
+                .containsExactlyInAnyOrder(java.nio.file.attribute.PosixFilePermission.OWNER_READ,
+                        java.nio.file.attribute.PosixFilePermission.OWNER_WRITE);
+        TimeUnit.MILLISECONDS.sleep(1);
+    }
+}
