@@ -11,12 +11,13 @@ import picocli.CommandLine.Option;
 
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
 @Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
-        subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class})
+        subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class,
+            BenchmarkCommand.Service.class})
 final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links | fits | accuracy");
+        System.out.println("use: lrbench benchmark links | fits | accuracy | service");
     }
 
     @Command(name = "fits", description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
@@ -46,6 +47,21 @@ final class BenchmarkCommand implements Runnable {
             }
             org.lrbench.benchmark.AccuracyBenchmark.run(System.out, Inputs.bench(Home.defaultBench()), Home.drivers(),
                     repeats);
+            return ExitCodes.PASS;
+        }
+    }
+
+    @Command(name = "service", description = "Event-stream clients and status latency of the bench service on loopback.")
+    static final class Service implements Callable<Integer> {
+        @Option(names = "--clients", defaultValue = "50", description = "event-stream clients (default: ${DEFAULT-VALUE})")
+        int clients;
+
+        @Override
+        public Integer call() throws Exception {
+            if (clients < 1 || clients > 500) {
+                throw new BadInputException("--clients 1..500");
+            }
+            org.lrbench.benchmark.ServiceBenchmark.run(System.out, Home.root(), Home.drivers(), Home.defaultBench(), clients);
             return ExitCodes.PASS;
         }
     }

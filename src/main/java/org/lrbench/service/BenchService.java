@@ -39,10 +39,10 @@ public final class BenchService implements AutoCloseable {
     private Run current;
 
     /** One lot run: its events, its feeder, its state. */
-    final class Run {
+    public final class Run {
         final String lot;
         final String plan;
-        final RunEvents events = new RunEvents();
+        public final RunEvents events = new RunEvents();
         PromptFeeder feeder;
         volatile String state = "running";
         volatile String reason;

@@ -43,6 +43,10 @@ public final class RunEvents {
         subscribers.remove(subscriber);
     }
 
+    public synchronized int size() {
+        return events.size();
+    }
+
     public synchronized List<Map<String, Object>> all() {
         return List.copyOf(events);
     }
