@@ -32,6 +32,10 @@ final class ServeCommand implements Callable<Integer> {
     @Option(names = "--data", paramLabel = "DIR", defaultValue = "data", description = "results store folder (default: ${DEFAULT-VALUE})")
     Path data;
 
+    @Option(names = "--store", paramLabel = "URL",
+            description = "a store shared by several benches, jdbc:postgresql://HOST:PORT/DB?user=U (instead of DIR/lrbench.db)")
+    String store;
+
     @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs", description = "result files (default: ${DEFAULT-VALUE})")
     Path runs;
 
@@ -52,7 +56,8 @@ final class ServeCommand implements Callable<Integer> {
         }
         String token = address.isLoopbackAddress() ? null : token(data);
         ServiceConfig cfg = new ServiceConfig(bench != null ? bench : Home.defaultBench(), Home.drivers(),
-                Home.root().resolve("plans"), Home.root().resolve("simulator"), data, runs, calibration, Home.version());
+                Home.root().resolve("plans"), Home.root().resolve("simulator"), data, runs, calibration, Home.version(),
+                store);
         CountDownLatch stop = new CountDownLatch(1);
         try (BenchService service = new BenchService(cfg); HttpApi api = new HttpApi(service, address, port, token)) {
             System.out.println("bench service for " + service.benchName() + " listening on http://"

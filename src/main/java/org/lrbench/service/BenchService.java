@@ -125,7 +125,7 @@ public final class BenchService implements AutoCloseable {
         String sha = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(planFile)));
         PartRun.Request template = new PartRun.Request(plan, sha, bench, lot, "-", tray != null, config.programVersion(),
                 new CalibrationStore(config.calibration(), bench.name()).load());
-        ResultStore store = ResultStore.open(config.data().resolve("lrbench.db"));
+        ResultStore store = openStore();
         Set<String> done = store.completed(lot);
         Run r = new Run(lot, planName);
         PromptFeeder feeder = new PromptFeeder(r.events, tray, done);
@@ -208,6 +208,16 @@ public final class BenchService implements AutoCloseable {
 
     public Path dataFile() {
         return config.data().resolve("lrbench.db");
+    }
+
+    /** Whether there is a store to read: a shared one, or the local file once a lot has run. */
+    public boolean hasStore() {
+        return config.storeUrl() != null || Files.isRegularFile(dataFile());
+    }
+
+    /** The results store: the shared one when configured (every bench's lots), else the local file. */
+    public ResultStore openStore() {
+        return config.storeUrl() != null ? ResultStore.openUrl(config.storeUrl()) : ResultStore.open(dataFile());
     }
 
     public Path runs() {

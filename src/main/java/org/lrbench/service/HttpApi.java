@@ -143,7 +143,7 @@ public final class HttpApi implements AutoCloseable {
                 // lots begun and not decided, other than the one running now: resume by starting them again
                 BenchService.Run cur = service.current();
                 List<Object> open = new java.util.ArrayList<>();
-                if (java.nio.file.Files.isRegularFile(service.dataFile())) {
+                if (service.hasStore()) {
                     try (ResultStore s = store()) {
                         for (var l : s.lots()) {
                             boolean running = cur != null && cur.state.equals("running") && cur.lot.equals(l.lot());
@@ -184,10 +184,10 @@ public final class HttpApi implements AutoCloseable {
         }
 
         private ResultStore store() {
-            if (!java.nio.file.Files.isRegularFile(service.dataFile())) {
+            if (!service.hasStore()) {
                 throw new ServiceException(404, "the results store is empty: no lot has been run yet");
             }
-            return ResultStore.open(service.dataFile());
+            return service.openStore();
         }
 
         private String lotName(String lot) {

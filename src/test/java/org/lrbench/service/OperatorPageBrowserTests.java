@@ -1,0 +1,76 @@
+package org.lrbench.service;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
+
+import java.net.InetAddress;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.openqa.selenium.By;
+import org.openqa.selenium.Keys;
+import org.openqa.selenium.OutputType;
+import org.openqa.selenium.WebElement;
+import org.openqa.selenium.chrome.ChromeDriver;
+import org.openqa.selenium.chrome.ChromeDriverService;
+import org.openqa.selenium.chrome.ChromeOptions;
+import org.openqa.selenium.support.ui.ExpectedConditions;
+import org.openqa.selenium.support.ui.WebDriverWait;
+
+/**
+ * The operator page in a real browser: headless Chromium driven by Selenium (Debian packages
+ * chromium and chromium-driver; .ci/run installs them; skipped with the reason where absent).
+ * Starts a lot, answers every prompt through the serial field as a scanner would, and waits for
+ * the verdicts and the disposition; the screenshot goes to target/operator-page.png.
+ */
+class OperatorPageBrowserTests {
+
+    @Test
+    void anOperatorRunsALotFromThePage(@TempDir Path dir) throws Exception {
+        Path chromium = Path.of("/usr/bin/chromium");
+        Path driverBinary = Path.of("/usr/bin/chromedriver");
+        assumeTrue(Files.isExecutable(chromium) && Files.isExecutable(driverBinary),
+                "chromium and chromium-driver are not installed (apt-get install chromium chromium-driver):"
+                        + " browser test skipped");
+        ChromeOptions options = new ChromeOptions();
+        options.setBinary(chromium.toString());
+        options.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+                "--disable-background-networking", "--disable-component-update", "--disable-sync",
+                "--disable-dev-shm-usage", "--user-data-dir=" + dir.resolve("profile"), "--window-size=1200,1600");
+        ChromeDriverService driverService = new ChromeDriverService.Builder()
+                .usingDriverExecutable(driverBinary.toFile()).usingAnyFreePort().build();
+        try (BenchService service = new BenchService(BenchServiceApiTests.config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            ChromeDriver browser = new ChromeDriver(driverService, options);
+            try {
+                browser.get("http://127.0.0.1:" + api.port() + "/");
+                WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
+                wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#plan option")));
+                WebElement lot = browser.findElement(By.id("lot"));
+                lot.clear();
+                lot.sendKeys("PAGE-1");
+                browser.findElement(By.id("start")).click();
+                for (int i = 1; i <= 8; i++) {
+                    String text = "place part " + i + " of 8";
+                    wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), text));
+                    // focus stays in the serial field: typing and Enter is all a scanner does
+                    WebElement active = browser.switchTo().activeElement();
+                    assertThat(active.getAttribute("id")).isEqualTo("serial");
+                    active.sendKeys(String.format("HC0417-%04d", i), Keys.ENTER);
+                    int rows = i + 1;
+                    wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() >= rows);
+                }
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("disposition"), "REJECT"));
+                assertThat(browser.findElements(By.cssSelector("#parts td.fail"))).hasSize(3);
+                assertThat(browser.findElement(By.id("reportlink")).getText()).contains("PAGE-1");
+                assertThat(browser.findElements(By.cssSelector("#plot circle"))).isNotEmpty();
+                Files.createDirectories(Path.of("target"));
+                Files.write(Path.of("target", "operator-page.png"), browser.getScreenshotAs(OutputType.BYTES));
+            } finally {
+                browser.quit();
+            }
+        }
+    }
+}
