@@ -129,7 +129,7 @@ public final class LotRunner {
     }
 
     /** The disposition from the stored results, in measuring order. */
-    static LotDisposition.Result disposition(Setup s, List<PartRow> stored) {
+    public static LotDisposition.Result disposition(Setup s, List<PartRow> stored) {
         Map<String, Limit> byName = new HashMap<>();
         s.template().plan().limits().forEach(l -> byName.put(l.name(), l));
         List<Set<CharacteristicClass>> failed = new ArrayList<>();

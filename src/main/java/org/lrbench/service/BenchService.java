@@ -145,11 +145,19 @@ public final class BenchService implements AutoCloseable {
                 "sample_size", r.sampleSize, "already_measured", done.size()));
         r.thread = new Thread(() -> {
             try (store) {
-                LotRunner.Outcome o = LotRunner.run(new LotRunner.Setup(template, lotSize, new DriverLoader(config.drivers()),
-                        store, config.runs(), sleeper, points), feeder, part -> {
-                            r.partsDone++;
-                            r.events.add("part_done", partEvent(part));
-                        });
+                LotRunner.Setup setup = new LotRunner.Setup(template, lotSize, new DriverLoader(config.drivers()),
+                        store, config.runs(), sleeper, points);
+                LotRunner.Outcome o = LotRunner.run(setup, feeder, part -> {
+                    r.partsDone++;
+                    Map<String, Object> e = partEvent(part);
+                    // the lot's running counts against Ac/Re, with the part just measured
+                    List<org.lrbench.store.PartRow> rows = new ArrayList<>(store.parts(lot));
+                    rows.removeIf(row -> row.serial().equals(part.serial()));
+                    rows.add(new org.lrbench.store.PartRow(lot, part.serial(), rows.size() + 1, part.verdict(), null, null,
+                            part.finishedAt(), org.lrbench.service.ResultFilesJson.write(part)));
+                    e.put("standing", LotRunner.disposition(setup, rows).reason());
+                    r.events.add("part_done", e);
+                });
                 r.state = o.disposition().state() == LotDisposition.State.OPEN ? "stopped" : "finished";
                 r.events.add("lot_done", Map.of("disposition", o.disposition().state().name().toLowerCase(),
                         "reason", o.disposition().reason(), "state", r.state));

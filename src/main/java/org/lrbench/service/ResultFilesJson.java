@@ -10,6 +10,14 @@ final class ResultFilesJson {
     private ResultFilesJson() {
     }
 
+    static String write(Object value) {
+        try {
+            return ResultFiles.JSON.writeValueAsString(value);
+        } catch (IOException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
     static JsonNode tree(String json) {
         try {
             return ResultFiles.JSON.readTree(json);

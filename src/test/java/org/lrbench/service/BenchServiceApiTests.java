@@ -124,6 +124,27 @@ class BenchServiceApiTests {
     }
 
     @Test
+    void aRestartedServiceOffersTheInterruptedLot(@TempDir Path dir) throws Exception {
+        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-9\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\"}";
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            assertThat(call(port, "POST", "/api/runs", start, null).statusCode()).isEqualTo(201);
+            answer(port, "HC0417-0002");
+            waitForParts(port, 1);
+            JsonNode status = json(call(port, "GET", "/api/runs/current", null, null));
+            assertThat(status.get("parts_done").asInt()).isEqualTo(1);
+        } // the service goes down with the lot undecided
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            JsonNode open = json(call(api.port(), "GET", "/api/runs/interrupted", null, null)).get("interrupted");
+            assertThat(open).hasSize(1);
+            assertThat(open.get(0).get("lot").asText()).isEqualTo("API-9");
+            assertThat(open.get(0).get("measured").asInt()).isEqualTo(1);
+        }
+    }
+
+    @Test
     void badRequestsGetClearErrorsAndNoStackTraces(@TempDir Path dir) throws Exception {
         try (BenchService service = new BenchService(config(dir));
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {

@@ -63,6 +63,8 @@ class OperatorPageBrowserTests {
                     wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() >= rows);
                 }
                 wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("disposition"), "REJECT"));
+                // the running counts against Ac/Re were shown as parts came in
+                assertThat(browser.findElement(By.id("standing")).getText()).contains("major: 3 nonconforming");
                 assertThat(browser.findElements(By.cssSelector("#parts td.fail"))).hasSize(3);
                 assertThat(browser.findElement(By.id("reportlink")).getText()).contains("PAGE-1");
                 assertThat(browser.findElements(By.cssSelector("#plot circle"))).isNotEmpty();
