@@ -1,0 +1,51 @@
+package org.lrbench.cli;
+
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.plan.Plan;
+import org.lrbench.rehearsal.Rehearsal;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/** {@code lrbench rehearse PLAN}: proves on the simulated bench that a plan decides its limits right. */
+@Command(name = "rehearse", description = {"Rehearse a plan on the simulated bench: parts at the nominal and just",
+        "inside and outside every limit, several seeds each. Exit 0 only when every verdict is right."})
+final class RehearseCommand implements Callable<Integer> {
+
+    @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
+    Path plan;
+
+    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file for the simulation (default: simulator/bench.yaml)")
+    Path bench;
+
+    @Option(names = "--seeds", paramLabel = "N", defaultValue = "3", description = "seeds per part (default: ${DEFAULT-VALUE})")
+    int seeds;
+
+    @Override
+    public Integer call() throws Exception {
+        if (seeds < 1 || seeds > 100) {
+            throw new BadInputException("--seeds " + seeds + ": use 1 to 100");
+        }
+        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        Plan p = Inputs.plan(plan, b);
+        Rehearsal.Result r;
+        try {
+            r = Rehearsal.rehearse(p, b, new DriverLoader(Home.drivers()), seeds);
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException(e.getMessage());
+        }
+        System.out.printf("rehearsal of %s on the simulated bench %s, %d seeds per part%n", plan, b.name(), seeds);
+        System.out.printf("%-24s %8s %8s  %s%n", "limit", "right", "TUR", "wrong verdicts");
+        for (Rehearsal.LimitOutcome o : r.limits()) {
+            System.out.printf(Locale.ROOT, "%-24s %4d/%-3d %8s  %s%n", o.limit(), o.right(), o.runs(),
+                    o.tur() == null ? "-" : String.format(Locale.ROOT, "%.1f", o.tur()), String.join("; ", o.wrong()));
+        }
+        r.warnings().forEach(w -> System.out.println("warning: " + w));
+        System.out.println(r.allRight() ? "every limit was decided right" : "some limits were decided wrong");
+        return r.allRight() ? ExitCodes.PASS : ExitCodes.FAIL;
+    }
+}

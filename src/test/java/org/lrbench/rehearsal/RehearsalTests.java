@@ -1,0 +1,48 @@
+package org.lrbench.rehearsal;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.nio.file.Files;
+import org.junit.jupiter.api.Test;
+import org.lrbench.TestBench;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.BenchLoader;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.plan.Plan;
+import org.lrbench.plan.PlanLoader;
+
+class RehearsalTests {
+    static final BenchConfig BENCH;
+
+    static {
+        try {
+            BENCH = BenchLoader.load(TestBench.home().resolve("simulator/bench.yaml"));
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    static Plan plan(String from, String to) throws Exception {
+        String text = Files.readString(TestBench.home().resolve("plans/qfd-ind-1m0.yaml")).replace(from, to);
+        return PlanLoader.parse(text, "rehearsed.yaml", BENCH.maxAmplitudeVolt());
+    }
+
+    @Test
+    void theShippedPlanDecidesEveryLimitRightWithoutWarnings() throws Exception {
+        Rehearsal.Result r = Rehearsal.rehearse(plan("", ""), BENCH, new DriverLoader(TestBench.home().resolve("drivers")), 1);
+        assertThat(r.allRight()).isTrue();
+        assertThat(r.limits()).hasSize(3).allMatch(l -> l.tur() != null && l.tur() >= Rehearsal.MIN_TUR);
+        assertThat(r.warnings()).isEmpty();
+        // nominal, just inside and just outside each bound: 5 parts for the two-sided limit, 3 for one-sided
+        assertThat(r.limits().get(0).runs()).isEqualTo(5);
+        assertThat(r.limits().get(1).runs()).isEqualTo(3);
+    }
+
+    @Test
+    void aSenseResistorFarTooLargeIsFlagged() throws Exception {
+        Rehearsal.Result r = Rehearsal.rehearse(plan("sense_resistor: 100 ohm", "sense_resistor: 20 kohm"), BENCH,
+                new DriverLoader(TestBench.home().resolve("drivers")), 1);
+        assertThat(r.warnings()).anyMatch(w -> w.contains("sense resistor") && w.contains("too large"));
+        assertThat(r.warnings()).anyMatch(w -> w.contains("test uncertainty ratio"));
+    }
+}
