@@ -1,0 +1,80 @@
+package org.lrbench.traces;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+
+/**
+ * Two-channel traces from a plain text file, as any scope or simulator can write them: a header
+ * line naming the columns, then one sample per line with time (s), the sense-resistor voltage (V)
+ * and the part's voltage (V), separated by commas, semicolons or blanks. Sampling must be uniform.
+ * A file that is not gives an error naming the line.
+ */
+public record CsvTraces(String file, double intervalSecond, double[] sense, double[] part) {
+
+    public static CsvTraces read(Path file) throws IOException {
+        List<String> lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+        int first = -1;
+        for (int i = 0; i < lines.size(); i++) {
+            if (!lines.get(i).isBlank()) {
+                first = i;
+                break;
+            }
+        }
+        if (first < 0) {
+            throw new IllegalArgumentException(file + ": empty file");
+        }
+        String[] header = split(lines.get(first));
+        if (header.length < 3 || isNumber(header[0])) {
+            throw new IllegalArgumentException(file + ":" + (first + 1) + ":1: expected a header naming the columns"
+                    + " time (s), sense-resistor voltage (V), part voltage (V)");
+        }
+        int n = 0;
+        double[] t = new double[lines.size()];
+        double[] a = new double[lines.size()];
+        double[] b = new double[lines.size()];
+        for (int i = first + 1; i < lines.size(); i++) {
+            if (lines.get(i).isBlank()) {
+                continue;
+            }
+            String[] f = split(lines.get(i));
+            if (f.length < 3) {
+                throw new IllegalArgumentException(file + ":" + (i + 1) + ":1: expected 3 numbers, found " + f.length);
+            }
+            try {
+                t[n] = Double.parseDouble(f[0]);
+                a[n] = Double.parseDouble(f[1]);
+                b[n] = Double.parseDouble(f[2]);
+            } catch (NumberFormatException e) {
+                throw new IllegalArgumentException(file + ":" + (i + 1) + ":1: not a number: " + e.getMessage());
+            }
+            n++;
+        }
+        if (n < 16) {
+            throw new IllegalArgumentException(file + ": only " + n + " samples; at least 16 are needed");
+        }
+        double dt = (t[n - 1] - t[0]) / (n - 1);
+        for (int i = 1; i < n; i++) {
+            if (Math.abs(t[i] - t[i - 1] - dt) > 1e-3 * dt) {
+                throw new IllegalArgumentException(file + ": sample " + (i + 1) + " breaks the uniform interval of "
+                        + dt + " s (resample the data, or ask the simulator to interpolate)");
+            }
+        }
+        return new CsvTraces(file.toString(), dt, java.util.Arrays.copyOf(a, n), java.util.Arrays.copyOf(b, n));
+    }
+
+    private static String[] split(String line) {
+        return line.trim().split("[,;\\s]+");
+    }
+
+    private static boolean isNumber(String s) {
+        try {
+            Double.parseDouble(s);
+            return true;
+        } catch (NumberFormatException e) {
+            return false;
+        }
+    }
+}
