@@ -13,8 +13,8 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench analyze --csv FILE --sense-resistor R}: the metrology on traces from any scope. */
-@Command(name = "analyze", description = {"Extract R, X, L and Q from a two-channel trace file (time, sense-resistor",
-        "voltage, part voltage, with a header), as captured by any scope or circuit simulator."})
+@Command(name = "analyze", description = {"Extract R, X, L and Q from a two-channel trace file.",
+        "Time, sense-resistor voltage and part voltage with a header, as any scope or simulator writes them."})
 final class AnalyzeCommand implements Callable<Integer> {
 
     @Option(names = "--csv", required = true, paramLabel = "FILE", description = "the trace file")

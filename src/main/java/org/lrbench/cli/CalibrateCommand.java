@@ -23,8 +23,8 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code lrbench calibrate PLAN}: measures the channel match and the fixture's open and short. */
-@Command(name = "calibrate", description = {"Measure the bench's corrections at a plan's frequencies: the digitizer",
-        "channel match, then the fixture's short and open; kept under DIR/BENCH/ and applied to later runs."})
+@Command(name = "calibrate", description = {"Measure the bench's channel match and fixture short and open.",
+        "At the plan's frequencies; kept under DIR/BENCH/ and applied to later runs."})
 final class CalibrateCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan whose frequencies and fixture to calibrate")

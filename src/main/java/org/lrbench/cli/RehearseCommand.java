@@ -12,8 +12,9 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code lrbench rehearse PLAN}: proves on the simulated bench that a plan decides its limits right. */
-@Command(name = "rehearse", description = {"Rehearse a plan on the simulated bench: parts at the nominal and just",
-        "inside and outside every limit, several seeds each. Exit 0 only when every verdict is right."})
+@Command(name = "rehearse", description = {"Prove on the simulated bench that a plan decides its limits right.",
+        "Parts at the nominal and just inside and outside every limit, several seeds each.",
+        "Exit 0 only when every verdict is right."})
 final class RehearseCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
