@@ -73,7 +73,7 @@ final class DemoCommand implements Callable<Integer> {
             store.deleteLot(lot.lot());
             PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
             LotRunner.Outcome outcome = RunCommand.runTray(template, lotSize, b, lot, drivers, store, runs, Set.of(),
-                    org.lrbench.measure.SweepListener.NONE, r -> ResultText.tableRow(System.out, r, qAt));
+                    org.lrbench.measure.SweepListener.NONE, r -> ResultText.tableRow(System.out, r, qAt), true);
             summary = LotSummaries.of(lot.lot(), plan, lotSize, outcome);
             Path report = runs.resolve(lot.lot()).resolve("report.html");
             ResultFiles.writeAtomically(report, org.lrbench.report.LotReport.html(store, lot.lot())

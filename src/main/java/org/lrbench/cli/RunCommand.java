@@ -56,6 +56,10 @@ final class RunCommand implements Callable<Integer> {
                     + " one per line in position order; the tray is then measured unattended")
     Path traySerials;
 
+    @Option(names = "--traces", paramLabel = "keep|none", defaultValue = "keep",
+            description = "keep every captured trace as DIR/LOT/SERIAL.lrtraces, or none (default: ${DEFAULT-VALUE})")
+    String tracesRetention;
+
     @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
             description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
     Path data;
@@ -114,14 +118,24 @@ final class RunCommand implements Callable<Integer> {
         PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version(),
                 new CalibrationStore(calibration, b.name()).load());
         PartResult result;
+        org.lrbench.traces.TraceRecorder recorder = new org.lrbench.traces.TraceRecorder(SweepListener.NONE);
         try (BenchInstruments instruments = BenchInstruments.open(b, new DriverLoader(Home.drivers()), simBench)) {
-            result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, SweepListener.NONE);
+            result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, recorder);
+        }
+        Path archive = runs.resolve(lot).resolve(serial + ".lrtraces");
+        byte[] traces = keepTraces() ? org.lrbench.traces.TraceArchive.encode(lot, serial, p.partNumber(),
+                p.senseResistanceOhm(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
+        if (traces != null) {
+            ResultFiles.writeAtomically(archive, traces);
         }
         ResultFiles.writeJson(runs.resolve(lot).resolve(serial + ".json"), result);
         if (json != null) {
             ResultFiles.writeJson(json, result);
         }
         ResultText.part(System.out, result);
+        if (traces != null) {
+            System.out.printf("traces kept in %s (%d bytes)%n", archive, traces.length);
+        }
         if (result.error() != null) {
             System.err.println("lrbench: measurement error: " + result.error());
         }
@@ -135,19 +149,27 @@ final class RunCommand implements Callable<Integer> {
     static LotRunner.Outcome runTray(PartRun.Request template, int lotSize, BenchConfig b, SimLot tray,
                                      DriverLoader drivers, ResultStore store, Path runs, java.util.Set<String> done,
                                      org.lrbench.measure.SweepListener progress,
-                                     java.util.function.Consumer<org.lrbench.results.PartResult> onPart) throws Exception {
+                                     java.util.function.Consumer<org.lrbench.results.PartResult> onPart,
+                                     boolean keepTraces) throws Exception {
         if (b.switchUnit() == null) {
-            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress),
-                    new TrayFeeder(tray.parts(), done), onPart);
+            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress)
+                    .withTraces(keepTraces), new TrayFeeder(tray.parts(), done), onPart);
         }
         SimBench bench = new SimBench(b.simulation(), template.plan().senseResistanceOhm(),
                 tray.parts().stream().map(SimLot.Part::model).toList());
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, bench, true)) {
             inst.switchUnit().prepare();
-            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress, inst),
-                    new SwitchFeeder(inst.switchUnit(), tray.parts().stream().map(SimLot.Part::serial).toList(), done),
+            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress, inst)
+                    .withTraces(keepTraces), new SwitchFeeder(inst.switchUnit(), tray.parts().stream().map(SimLot.Part::serial).toList(), done),
                     onPart);
         }
+    }
+
+    private boolean keepTraces() {
+        if (!tracesRetention.equals("keep") && !tracesRetention.equals("none")) {
+            throw new BadInputException("--traces '" + tracesRetention + "': use keep or none");
+        }
+        return tracesRetention.equals("keep");
     }
 
     /** Serials of a tray file: one per line, blank lines and # comments ignored, each checked. */
@@ -210,7 +232,7 @@ final class RunCommand implements Callable<Integer> {
             try (LotProgress progress = LotProgress.start(Math.max(0, sample - done.size()), p.sweep().frequenciesHz().size())) {
                 if (tray != null) {
                     outcome = runTray(template, lotSize, b, tray, drivers, store, runs, done, progress,
-                            r -> ResultText.tableRow(System.out, r, qAt));
+                            r -> ResultText.tableRow(System.out, r, qAt), keepTraces());
                 } else if (traySerials != null) {
                     if (b.switchUnit() == null) {
                         throw new BadInputException("--tray needs a bench with a switch unit (bench file key switch)");
@@ -219,14 +241,14 @@ final class RunCommand implements Callable<Integer> {
                     try (BenchInstruments inst = BenchInstruments.open(b, drivers, null, true)) {
                         inst.switchUnit().prepare();
                         outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper,
-                                progress, inst), new SwitchFeeder(inst.switchUnit(), serials, done),
+                                progress, inst).withTraces(keepTraces()), new SwitchFeeder(inst.switchUnit(), serials, done),
                                 r -> ResultText.tableRow(System.out, r, qAt));
                     }
                 } else {
                     PartFeeder feeder = new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
                                     java.nio.charset.StandardCharsets.UTF_8)), System.out);
-                    outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper, progress),
-                            feeder, r -> ResultText.tableRow(System.out, r, qAt));
+                    outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper, progress)
+                            .withTraces(keepTraces()), feeder, r -> ResultText.tableRow(System.out, r, qAt));
                 }
             }
         }

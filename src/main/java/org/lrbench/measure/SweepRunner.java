@@ -126,7 +126,8 @@ public final class SweepRunner {
                 ImpedancePoint none = new ImpedancePoint(f, new org.apache.commons.math3.complex.Complex(Double.NaN, Double.NaN),
                         Double.NaN, org.apache.commons.math3.complex.Complex.ZERO);
                 return new PointResult(none, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
-                        timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), Double.NaN);
+                        timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), Double.NaN,
+                        capture.sense(), capture.part());
             }
             throw new MeasurementException(String.format(java.util.Locale.ROOT,
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
@@ -134,6 +135,7 @@ public final class SweepRunner {
         ImpedancePoint z = PhasorImpedance.of(f, sense, part, plan.senseResistanceOhm());
         double thd = HarmonicFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f, THD_HARMONICS).thd();
         return new PointResult(z, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
-                timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), thd);
+                timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), thd,
+                capture.sense(), capture.part());
     }
 }

@@ -42,7 +42,17 @@ public final class LotRunner {
 
     /** Everything a lot run needs besides the feeder. */
     public record Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
-                        Sleeper sleeper, SweepListener listener, BenchInstruments shared) {
+                        Sleeper sleeper, SweepListener listener, BenchInstruments shared, boolean keepTraces) {
+
+        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
+                     Sleeper sleeper, SweepListener listener, BenchInstruments shared) {
+            this(template, lotSize, drivers, store, runs, sleeper, listener, shared, true);
+        }
+
+        /** The same set-up, keeping the trace archive of every part or none. */
+        public Setup withTraces(boolean keep) {
+            return new Setup(template, lotSize, drivers, store, runs, sleeper, listener, shared, keep);
+        }
 
         public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
                      Sleeper sleeper) {
@@ -91,11 +101,21 @@ public final class LotRunner {
                 continue;
             }
             PartResult r;
+            org.lrbench.traces.TraceRecorder recorder;
             do {
-                r = measure(s, next, seed++);
+                recorder = new org.lrbench.traces.TraceRecorder(s.listener());
+                r = measure(s, next, seed++, recorder);
                 onPart.accept(r);
             } while (feeder.redo(r.serial(), r.verdict()));
-            s.store().savePart(position, r);
+            if (s.keepTraces()) {
+                Path archive = s.runs().resolve(t.lot()).resolve(r.serial() + ".lrtraces");
+                byte[] traces = org.lrbench.traces.TraceArchive.encode(t.lot(), r.serial(), t.plan().partNumber(),
+                        t.plan().senseResistanceOhm(), ResultFiles.JSON.valueToTree(r.instruments()), recorder.points());
+                ResultFiles.writeAtomically(archive, traces);
+                s.store().savePart(position, r, archive.toString(), (long) traces.length);
+            } else {
+                s.store().savePart(position, r);
+            }
             ResultFiles.writeJson(s.runs().resolve(t.lot()).resolve(r.serial() + ".json"), r);
             measured.add(r);
         }
@@ -108,7 +128,8 @@ public final class LotRunner {
         return new Outcome(measured, stored, d);
     }
 
-    private static PartResult measure(Setup s, PartFeeder.Next next, int seed) throws ProblemsException {
+    private static PartResult measure(Setup s, PartFeeder.Next next, int seed, SweepListener listener)
+            throws ProblemsException {
         PartRun.Request t = s.template();
         BenchConfig bench = t.bench();
         SimBench sim = null;
@@ -121,10 +142,10 @@ public final class LotRunner {
                 t.simulated(), t.programVersion(), t.calibration());
         if (sim == null && s.shared() != null) {
             // the bench's instruments stay open for the whole lot (a switch unit changes parts)
-            return PartRun.measure(request, s.shared(), s.sleeper(), s.listener());
+            return PartRun.measure(request, s.shared(), s.sleeper(), listener);
         }
         try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
-            return PartRun.measure(request, instruments, s.sleeper(), s.listener());
+            return PartRun.measure(request, instruments, s.sleeper(), listener);
         }
     }
 

@@ -23,5 +23,8 @@ final class Migrations {
                             + " CHECK (verdict IN ('pass', 'fail', 'error', 'skipped')), inductance_h DOUBLE PRECISION,"
                             + " series_resistance_ohm DOUBLE PRECISION, measured_at TEXT NOT NULL, program_version TEXT NOT NULL,"
                             + " result_json TEXT NOT NULL, PRIMARY KEY (lot, serial))",
-                    "CREATE INDEX part_result_by_lot ON part_result (lot, position)"));
+                    "CREATE INDEX part_result_by_lot ON part_result (lot, position)"),
+            List.of(
+                    "ALTER TABLE part_result ADD COLUMN traces_file TEXT",
+                    "ALTER TABLE part_result ADD COLUMN traces_bytes BIGINT"));
 }

@@ -157,6 +157,11 @@ public final class ResultStore implements AutoCloseable {
 
     /** Commits one part's result; an earlier error result of the same serial is replaced. */
     public void savePart(int position, PartResult result) {
+        savePart(position, result, null, null);
+    }
+
+    /** Commits one part's result with the trace archive it references (or nulls without one). */
+    public void savePart(int position, PartResult result, String tracesFile, Long tracesBytes) {
         try {
             String json = ResultFiles.JSON.writeValueAsString(result);
             inTransaction(() -> {
@@ -178,8 +183,8 @@ public final class ResultStore implements AutoCloseable {
                     d.executeUpdate();
                 }
                 try (PreparedStatement p = db.prepareStatement("INSERT INTO part_result (lot, serial, position,"
-                        + " verdict, inductance_h, series_resistance_ohm, measured_at, program_version, result_json)"
-                        + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                        + " verdict, inductance_h, series_resistance_ohm, measured_at, program_version, result_json,"
+                        + " traces_file, traces_bytes) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
                     p.setString(1, result.lot());
                     p.setString(2, result.serial());
                     p.setInt(3, position);
@@ -189,6 +194,8 @@ public final class ResultStore implements AutoCloseable {
                     p.setString(7, result.finishedAt());
                     p.setString(8, result.programVersion());
                     p.setString(9, json);
+                    p.setString(10, tracesFile);
+                    p.setObject(11, tracesBytes);
                     p.executeUpdate();
                 }
             });

@@ -1,0 +1,95 @@
+package org.lrbench.traces;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.TestBench;
+import org.lrbench.cli.Main;
+import org.lrbench.measure.PointResult;
+import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.SweepRunner;
+import org.lrbench.plan.Plan;
+import org.lrbench.plan.PlanLoader;
+import org.lrbench.sim.PartModel;
+import org.lrbench.sim.SimSettings;
+
+class TraceArchiveTests {
+
+    static List<PointResult> sweep() throws Exception {
+        TestBench b = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());
+        Plan plan = PlanLoader.parse("""
+                plan_format: 1
+                part_number: T-1
+                fixture: {sense_resistor: 100 ohm}
+                sine_sweep: {amplitude: 3 V, frequencies: [1 kHz, 5 kHz], cycles: 5, settle: 0 s}
+                limits: [{characteristic: series_resistance, max: 10 ohm}]
+                """, "t.yaml", 5.0);
+        TraceRecorder rec = new TraceRecorder(org.lrbench.measure.SweepListener.NONE);
+        new SweepRunner(b.generator, b.digitizer, Sleeper.NONE).run(plan, rec);
+        return rec.points();
+    }
+
+    @Test
+    void theArchiveRoundTripIsBitExact(@TempDir Path dir) throws Exception {
+        List<PointResult> points = sweep();
+        byte[] bytes = TraceArchive.encode("L", "S", "T-1", 100, new ObjectMapper().createObjectNode(), points);
+        Path f = dir.resolve("S.lrtraces");
+        Files.write(f, bytes);
+        TraceArchive.Contents c = TraceArchive.read(f);
+        assertThat(c.points()).hasSize(2);
+        for (int i = 0; i < 2; i++) {
+            assertThat(c.points().get(i).sense()).containsExactly(points.get(i).senseTrace().volts());
+            assertThat(c.points().get(i).part()).containsExactly(points.get(i).partTrace().volts());
+            assertThat(c.points().get(i).intervalSecond()).isEqualTo(points.get(i).senseTrace().intervalSecond());
+        }
+        assertThat(c.header().get("serial").asText()).isEqualTo("S");
+    }
+
+    @Test
+    void aTruncatedOrCorruptedArchiveIsAClearError(@TempDir Path dir) throws Exception {
+        byte[] bytes = TraceArchive.encode("L", "S", "T-1", 100, new ObjectMapper().createObjectNode(), sweep());
+        Path cut = dir.resolve("cut.lrtraces");
+        Files.write(cut, java.util.Arrays.copyOf(bytes, bytes.length / 2));
+        assertThatThrownBy(() -> TraceArchive.read(cut)).hasMessageContaining("corrupt or truncated");
+        byte[] flipped = bytes.clone();
+        flipped[flipped.length / 2] ^= 0x10;
+        Path bad = dir.resolve("bad.lrtraces");
+        Files.write(bad, flipped);
+        assertThatThrownBy(() -> TraceArchive.read(bad)).hasMessageContaining("CRC-32");
+        Path other = dir.resolve("other.lrtraces");
+        Files.writeString(other, "hello, not an archive");
+        assertThatThrownBy(() -> TraceArchive.read(other)).hasMessageContaining("not a trace archive");
+    }
+
+    @Test
+    void reAnalysisReproducesTheMeasuredPointsAndAddsARecord(@TempDir Path dir) throws Exception {
+        Path home = TestBench.home();
+        int code = Main.execute("run", home.resolve("plans/qfd-ind-1m0.yaml").toString(), "--lot", "L", "--serial", "S",
+                "--sim", home.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString(),
+                "--calibration", dir.resolve("none").toString());
+        assertThat(code).isZero();
+        Path original = dir.resolve("L/S.json");
+        String before = Files.readString(original);
+        assertThat(Main.execute("analyze", "--archive", dir.resolve("L/S.lrtraces").toString())).isZero();
+        assertThat(Files.readString(original)).isEqualTo(before);
+        Path record;
+        try (var files = Files.list(dir.resolve("L"))) {
+            record = files.filter(f -> f.getFileName().toString().startsWith("S.analysis-")).findFirst().orElseThrow();
+        }
+        JsonNode points = new ObjectMapper().readTree(record.toFile()).get("points");
+        JsonNode measured = new ObjectMapper().readTree(before).get("points");
+        assertThat(points).hasSize(measured.size());
+        for (int i = 0; i < points.size(); i++) {
+            // the same traces through the same extraction give the same numbers, to the last bit
+            assertThat(points.get(i).get("resistance_ohm").asDouble()).isEqualTo(measured.get(i).get("resistance_ohm").asDouble());
+            assertThat(points.get(i).get("inductance_h").asDouble()).isEqualTo(measured.get(i).get("inductance_h").asDouble());
+        }
+    }
+}
