@@ -44,7 +44,7 @@ public final class LinkBenchmark {
     public static void run(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part, int points,
                            int repeats) throws Exception {
         out.printf(Locale.ROOT, "trace transfer over loopback TCP: %d samples of 8 bits, %d repeats each%n", points, repeats);
-        SimBench sim = new SimBench(bench.simulation(), plan.senseResistanceOhm(), part);
+        SimBench sim = new SimBench(bench.simulation(), plan.wiring(), part);
         try (SimServer server = new SimServer(sim, 0)) {
             prepare(server, points);
             double[] ours = new double[repeats];
@@ -113,7 +113,7 @@ public final class LinkBenchmark {
     }
 
     private static void sweep(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part) throws Exception {
-        SimBench sim = new SimBench(bench.simulation(), plan.senseResistanceOhm(), part);
+        SimBench sim = new SimBench(bench.simulation(), plan.wiring(), part);
         try (SimServer server = new SimServer(sim, 0)) {
             BenchConfig tcp = bench.withAddresses(Address.parse("tcp://127.0.0.1:" + server.generatorPort()),
                     Address.parse("tcp://127.0.0.1:" + server.digitizerPort()));

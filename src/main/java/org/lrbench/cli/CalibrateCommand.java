@@ -47,7 +47,7 @@ final class CalibrateCommand implements Callable<Integer> {
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
-            simBench = new SimBench(b.simulation(), p.senseResistanceOhm(), PartFile.load(sim));
+            simBench = new SimBench(b.simulation(), p.wiring(), PartFile.load(sim));
         }
         Path written = calibrate(p, b, simBench, calibration);
         System.out.println("corrections kept in " + written);

@@ -56,7 +56,7 @@ final class DemoCommand implements Callable<Integer> {
                 plan.partNumber(), plan.description(), Home.root().relativize(lot.plan().toAbsolutePath()), b.name());
         // a bench is calibrated before a lot: channel match and fixture, here on the simulated bench
         System.out.println("calibrating the simulated bench at the plan's frequencies:");
-        CalibrateCommand.calibrate(plan, b, new SimBench(b.simulation(), plan.senseResistanceOhm(),
+        CalibrateCommand.calibrate(plan, b, new SimBench(b.simulation(), plan.wiring(),
                 lot.parts().get(0).model()), calibration);
         Calibration corrections = new CalibrationStore(calibration, b.name()).load();
         System.out.println();

@@ -113,7 +113,7 @@ final class RunCommand implements Callable<Integer> {
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
             PartModel part = PartFile.load(sim);
-            simBench = new SimBench(b.simulation(), p.senseResistanceOhm(), part);
+            simBench = new SimBench(b.simulation(), p.wiring(), part);
         }
         PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version(),
                 new CalibrationStore(calibration, b.name()).load());
@@ -155,7 +155,7 @@ final class RunCommand implements Callable<Integer> {
             return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress)
                     .withTraces(keepTraces), new TrayFeeder(tray.parts(), done), onPart);
         }
-        SimBench bench = new SimBench(b.simulation(), template.plan().senseResistanceOhm(),
+        SimBench bench = new SimBench(b.simulation(), template.plan().wiring(),
                 tray.parts().stream().map(SimLot.Part::model).toList());
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, bench, true)) {
             inst.switchUnit().prepare();

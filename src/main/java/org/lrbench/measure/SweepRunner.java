@@ -109,8 +109,34 @@ public final class SweepRunner {
         sleeper.sleep(plan.sweep().settleSecond());
         double start = 2.2 * t.amplitudeVolt();
         AutoRanger.Capture capture = new AutoRanger(digitizer, start, start).acquire();
-        return TriangleExtraction.extract(capture.sense().volts(), capture.part().volts(), timing.sampleIntervalSecond(),
+        double[][] v = volts(plan, capture);
+        return TriangleExtraction.extract(v[0], v[1], timing.sampleIntervalSecond(),
                 t.frequencyHz(), plan.senseResistanceOhm(), t.harmonics());
+    }
+
+    /**
+     * The sense-resistor and part voltages at the fixture from the two traces: each multiplied by
+     * its probe's attenuation; with the low-side wiring the part's voltage is channel 2 minus
+     * channel 1 (channel 2 sees the part and the sense resistor to ground).
+     */
+    static double attenuation(Plan plan, int channel) {
+        return plan.wiring() == null ? 1 : plan.wiring().attenuation(channel);
+    }
+
+    static double[][] volts(Plan plan, AutoRanger.Capture capture) {
+        org.lrbench.sim.FixtureWiring w = plan.wiring();
+        double a1 = w == null ? 1 : w.attenuation1();
+        double a2 = w == null ? 1 : w.attenuation2();
+        boolean lowSide = w != null && w.topology() == org.lrbench.sim.FixtureWiring.Topology.LOW_SIDE;
+        double[] s = capture.sense().volts();
+        double[] p = capture.part().volts();
+        double[] sense = new double[s.length];
+        double[] part = new double[p.length];
+        for (int i = 0; i < s.length; i++) {
+            sense[i] = s[i] * a1;
+            part[i] = p[i] * a2 - (lowSide ? sense[i] : 0);
+        }
+        return new double[][] {sense, part};
     }
 
     private PointResult measurePoint(Plan plan, double f, AutoRanger ranger) {
@@ -119,13 +145,15 @@ public final class SweepRunner {
         Timing timing = TimeBase.set(digitizer, f, sweep.cycles(), sweep.samplesPerCycle());
         sleeper.sleep(sweep.settleSecond());
         AutoRanger.Capture capture = ranger.acquire();
-        SineFitResult sense = SineFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f);
-        SineFitResult part = SineFit.fit(capture.part().volts(), capture.part().intervalSecond(), f);
+        double[][] v = volts(plan, capture);
+        SineFitResult sense = SineFit.fit(v[0], capture.sense().intervalSecond(), f);
+        SineFitResult part = SineFit.fit(v[1], capture.part().intervalSecond(), f);
         if (sense.amplitude() <= 3 * sense.residualRms() * Math.sqrt(2.0 / sense.samples())) {
             if (openCircuit) {
                 ImpedancePoint none = new ImpedancePoint(f, new org.apache.commons.math3.complex.Complex(Double.NaN, Double.NaN),
                         Double.NaN, org.apache.commons.math3.complex.Complex.ZERO);
-                return new PointResult(none, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
+                return new PointResult(none, sense, part, capture.sense().rangeVolt() * attenuation(plan, 1),
+                        capture.part().rangeVolt() * attenuation(plan, 2),
                         timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), Double.NaN,
                         capture.sense(), capture.part());
             }
@@ -133,8 +161,9 @@ public final class SweepRunner {
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
         }
         ImpedancePoint z = PhasorImpedance.of(f, sense, part, plan.senseResistanceOhm());
-        double thd = HarmonicFit.fit(capture.sense().volts(), capture.sense().intervalSecond(), f, THD_HARMONICS).thd();
-        return new PointResult(z, sense, part, capture.sense().rangeVolt(), capture.part().rangeVolt(),
+        double thd = HarmonicFit.fit(v[0], capture.sense().intervalSecond(), f, THD_HARMONICS).thd();
+        return new PointResult(z, sense, part, capture.sense().rangeVolt() * attenuation(plan, 1),
+                capture.part().rangeVolt() * attenuation(plan, 2),
                 timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), thd,
                 capture.sense(), capture.part());
     }

@@ -3,11 +3,13 @@ package org.lrbench.plan;
 import java.util.List;
 import org.lrbench.judge.Limit;
 import org.lrbench.sampling.SamplingScheme;
+import org.lrbench.sim.FixtureWiring;
 
 /**
  * A validated measurement plan for one part number; {@code triangle} is null when the plan has no
  * time-domain check, {@code sampling} when it has no lot sampling section. Immutable; made only by {@link PlanLoader}.
  */
 public record Plan(String source, String partNumber, String description, double senseResistanceOhm,
-                   SineSweep sweep, TriangleCheck triangle, List<Limit> limits, SamplingScheme sampling) {
+                   SineSweep sweep, TriangleCheck triangle, List<Limit> limits, SamplingScheme sampling,
+                   FixtureWiring wiring) {
 }

@@ -14,6 +14,7 @@ import org.lrbench.judge.CharacteristicClass;
 import org.lrbench.sampling.InspectionLevel;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.sampling.SingleSampling;
+import org.lrbench.sim.FixtureWiring;
 import org.lrbench.judge.DecisionRule;
 import org.lrbench.judge.Limit;
 import org.lrbench.units.Dimension;
@@ -60,12 +61,14 @@ public final class PlanLoader {
         String partNumber = root.text("part_number", true);
         String description = root.text("description", false);
         Double sense = null;
-        YamlMap fixture = root.map("fixture", true, "sense_resistor");
+        FixtureWiring wiring = null;
+        YamlMap fixture = root.map("fixture", true, "sense_resistor", "wiring", "probes");
         if (fixture != null) {
             sense = fixture.quantity("sense_resistor", Dimension.RESISTANCE, true);
             if (sense != null && !(sense > 0)) {
                 fixture.problem("sense_resistor", "must be greater than 0 ohm");
             }
+            wiring = readWiring(fixture, sense);
         }
         SineSweep sweep = readSweep(root, maxAmplitudeVolt);
         TriangleCheck triangle = readTriangle(root, maxAmplitudeVolt);
@@ -73,7 +76,51 @@ public final class PlanLoader {
         SamplingScheme sampling = readSampling(root, limits);
         root.problems().throwIfAny();
         return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, triangle,
-                List.copyOf(limits), sampling);
+                List.copyOf(limits), sampling, wiring);
+    }
+
+    /**
+     * The fixture's wiring and probes. A single-ended (grounded) input cannot measure across the
+     * sense resistor of the differential wiring, which floats between the generator and the part:
+     * it would short the part to ground through the scope's common. That is refused here.
+     */
+    private static FixtureWiring readWiring(YamlMap fixture, Double sense) {
+        FixtureWiring.Topology topology = fixture.has("wiring")
+                ? fixture.choice("wiring", true, Map.of("differential", FixtureWiring.Topology.DIFFERENTIAL,
+                        "low_side", FixtureWiring.Topology.LOW_SIDE))
+                : FixtureWiring.Topology.DIFFERENTIAL;
+        double[] att = {1, 1};
+        boolean[] diff = {topology != FixtureWiring.Topology.LOW_SIDE, topology != FixtureWiring.Topology.LOW_SIDE};
+        YamlMap probes = fixture.map("probes", false, "channel1", "channel2");
+        if (probes != null) {
+            for (int ch = 1; ch <= 2; ch++) {
+                YamlMap p = probes.map("channel" + ch, false, "kind", "attenuation");
+                if (p == null) {
+                    continue;
+                }
+                if (p.has("kind")) {
+                    Boolean d = p.choice("kind", true, Map.of("differential", Boolean.TRUE, "single_ended", Boolean.FALSE));
+                    if (d != null) {
+                        diff[ch - 1] = d;
+                    }
+                }
+                Double a = p.quantity("attenuation", Dimension.NONE, false);
+                if (a != null && !(a > 0)) {
+                    p.problem("attenuation", "must be greater than 0 (1 for 1x, 10 for 10x, or a measured factor)");
+                } else if (a != null) {
+                    att[ch - 1] = a;
+                }
+            }
+        }
+        if (topology == FixtureWiring.Topology.DIFFERENTIAL && !diff[0]) {
+            fixture.problem("probes", "channel 1 is single-ended (grounded), but in the differential wiring the sense"
+                    + " resistor floats between the generator and the part: a grounded input across it would short the part"
+                    + " through the scope's common. Use a differential probe on channel 1, or wiring: low_side");
+        }
+        if (topology == null || sense == null) {
+            return null;
+        }
+        return new FixtureWiring(sense, topology, att[0], att[1], diff[0], diff[1]);
     }
 
     private static final Map<String, CharacteristicClass> CLASSES = Map.of(

@@ -55,7 +55,7 @@ public final class Rehearsal {
     public static Result rehearse(Plan plan, BenchConfig bench, DriverLoader drivers, int seeds) throws ProblemsException {
         PartModel nominal = nominal(plan);
         // calibrate the simulated bench as an operator would before a lot
-        SimBench calBench = new SimBench(bench.simulation(), plan.senseResistanceOhm(), nominal);
+        SimBench calBench = new SimBench(bench.simulation(), plan.wiring(), nominal);
         Calibration calibration;
         try (BenchInstruments inst = BenchInstruments.open(bench, drivers, calBench)) {
             ChannelMatch m = CalibrationRun.channels(plan, inst, calBench::setPosition, Sleeper.NONE);
@@ -78,7 +78,7 @@ public final class Rehearsal {
         for (RehearsalCase c : cases) {
             for (int s = 0; s < seeds; s++) {
                 BenchConfig b = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 7919L * ++seed));
-                SimBench sim = new SimBench(b.simulation(), plan.senseResistanceOhm(), c.part());
+                SimBench sim = new SimBench(b.simulation(), plan.wiring(), c.part());
                 PartResult r;
                 try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
                     r = PartRun.measure(new PartRun.Request(plan, "rehearsal", b, "REHEARSAL", c.where().replace(' ', '-'),

@@ -136,7 +136,7 @@ public final class LotRunner {
         if (next.simulated() != null) {
             // each simulated part gets its own noise: the bench seed advanced per measurement
             bench = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + seed));
-            sim = new SimBench(bench.simulation(), t.plan().senseResistanceOhm(), next.simulated());
+            sim = new SimBench(bench.simulation(), t.plan().wiring(), next.simulated());
         }
         PartRun.Request request = new PartRun.Request(t.plan(), t.planSha256(), bench, t.lot(), next.serial(),
                 t.simulated(), t.programVersion(), t.calibration());

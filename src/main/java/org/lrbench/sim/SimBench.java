@@ -20,10 +20,21 @@ public final class SimBench implements AnalogInputs {
 
     private final java.util.List<PartModel> tray;
     private final SimSwitch switchUnit;
+    private final FixtureWiring wiring;
 
     /** One part in the fixture, always connected. */
     public SimBench(SimSettings settings, double senseOhm, PartModel part) {
-        this(settings, senseOhm, part, java.util.List.of());
+        this(settings, FixtureWiring.differential(senseOhm), part, java.util.List.of());
+    }
+
+    /** One part in a fixture wired and probed as given. */
+    public SimBench(SimSettings settings, FixtureWiring wiring, PartModel part) {
+        this(settings, wiring, part, java.util.List.of());
+    }
+
+    /** A tray behind the switch, in a fixture wired and probed as given. */
+    public SimBench(SimSettings settings, FixtureWiring wiring, java.util.List<PartModel> tray) {
+        this(settings, wiring, tray.get(0), tray);
     }
 
     /**
@@ -31,11 +42,12 @@ public final class SimBench implements AnalogInputs {
      * channel (101 for the first position) is connected; with none closed the fixture is open.
      */
     public SimBench(SimSettings settings, double senseOhm, java.util.List<PartModel> tray) {
-        this(settings, senseOhm, tray.get(0), tray);
+        this(settings, FixtureWiring.differential(senseOhm), tray.get(0), tray);
     }
 
-    private SimBench(SimSettings settings, double senseOhm, PartModel first, java.util.List<PartModel> tray) {
-        this.circuit = new Circuit(settings.sourceImpedanceOhm(), senseOhm, first);
+    private SimBench(SimSettings settings, FixtureWiring wiring, PartModel first, java.util.List<PartModel> tray) {
+        this.wiring = wiring;
+        this.circuit = new Circuit(settings.sourceImpedanceOhm(), wiring.senseOhm(), first);
         this.settings = settings;
         this.tray = java.util.List.copyOf(tray);
         this.generator = new SimGenerator(settings.sourceImpedanceOhm());
@@ -119,10 +131,15 @@ public final class SimBench implements AnalogInputs {
                     : omega == 0 ? new Complex(1e15, 0) : fixtureImpedance(omega);
             Complex current = h.amplitude().divide(load.add(circuit.sourceOhm() + circuit.senseOhm()));
             Complex sense = current.multiply(circuit.senseOhm());
+            boolean lowSide = wiring.topology() == FixtureWiring.Topology.LOW_SIDE;
+            double att = wiring.attenuation(channel);
             if (channel == 1) {
-                out.add(new Harmonic(h.k(), sense));
+                out.add(new Harmonic(h.k(), sense.divide(att)));
             } else {
-                Complex v = position == FixturePosition.CHANNEL_MATCH ? sense : current.multiply(load);
+                // low side: channel 2 sees the top of the part to ground, the part plus the sense resistor
+                Complex v = position == FixturePosition.CHANNEL_MATCH ? sense
+                        : lowSide ? current.multiply(load).add(sense) : current.multiply(load);
+                v = v.divide(att);
                 // channel 2's front end: its gain error and its delay against channel 1
                 double phase = -omega * settings.channel2SkewSecond();
                 out.add(new Harmonic(h.k(), v.multiply(1 + settings.channel2GainError())
