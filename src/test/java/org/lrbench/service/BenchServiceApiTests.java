@@ -134,6 +134,12 @@ class BenchServiceApiTests {
             waitForParts(port, 1);
             JsonNode status = json(call(port, "GET", "/api/runs/current", null, null));
             assertThat(status.get("parts_done").asInt()).isEqualTo(1);
+            // the part is reported as it completes and committed right after: wait for the commit
+            long deadline = System.currentTimeMillis() + 10_000;
+            while (call(port, "GET", "/api/lots/API-9", null, null).statusCode() != 200
+                    && System.currentTimeMillis() < deadline) {
+                Thread.sleep(20);
+            }
         } // the service goes down with the lot undecided
         try (BenchService service = new BenchService(config(dir));
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
