@@ -10,7 +10,9 @@ public enum Dimension {
     CAPACITANCE("F"),
     FREQUENCY("Hz"),
     TIME("s"),
-    LENGTH("m");
+    LENGTH("m"),
+    /** Temperature in degrees Celsius (not kelvin): the unit inspection records use. */
+    TEMPERATURE("C");
 
     private final String symbol;
 

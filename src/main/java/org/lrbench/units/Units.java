@@ -27,7 +27,10 @@ public final class Units {
             Map.entry("H", Dimension.INDUCTANCE),
             Map.entry("F", Dimension.CAPACITANCE),
             Map.entry("s", Dimension.TIME),
-            Map.entry("m", Dimension.LENGTH));
+            Map.entry("m", Dimension.LENGTH),
+            Map.entry("\u00B0C", Dimension.TEMPERATURE),
+            Map.entry("degC", Dimension.TEMPERATURE),
+            Map.entry("C", Dimension.TEMPERATURE));
 
     private static final Map<String, Double> PREFIXES = Map.of(
             "p", 1e-12, "n", 1e-9, "u", 1e-6, "\u00B5", 1e-6, "m", 1e-3,
