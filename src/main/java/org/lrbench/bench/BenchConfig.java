@@ -9,13 +9,13 @@ import org.lrbench.uncertainty.BenchAccuracy;
  * specifications that enter every uncertainty budget.
  */
 public record BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
-                          InstrumentLink digitizer, InstrumentLink switchUnit, SimSettings simulation,
-                          BenchAccuracy accuracy) {
+                          InstrumentLink digitizer, InstrumentLink switchUnit, InstrumentLink meter,
+                          SimSettings simulation, BenchAccuracy accuracy) {
 
     /** A bench without a switch unit. */
     public BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
                        InstrumentLink digitizer, SimSettings simulation, BenchAccuracy accuracy) {
-        this(source, name, maxAmplitudeVolt, generator, digitizer, null, simulation, accuracy);
+        this(source, name, maxAmplitudeVolt, generator, digitizer, null, null, simulation, accuracy);
     }
 
     /** The same bench with other instrument addresses (null keeps an address). */
@@ -24,10 +24,10 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
         return new BenchConfig(source, name, maxAmplitudeVolt,
                 generatorAddress == null ? generator : new InstrumentLink(generator.driver(), generatorAddress),
                 digitizerAddress == null ? digitizer : new InstrumentLink(digitizer.driver(), digitizerAddress),
-                switchUnit, simulation, accuracy);
+                switchUnit, meter, simulation, accuracy);
     }
 
     public BenchConfig withSimulation(SimSettings settings) {
-        return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, switchUnit, settings, accuracy);
+        return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, switchUnit, meter, settings, accuracy);
     }
 }

@@ -14,7 +14,7 @@ import org.lrbench.yaml.YamlMap;
 /** Reads and validates a bench file. */
 public final class BenchLoader {
     private static final String[] KEYS = {"bench_format", "name", "max_amplitude", "generator", "digitizer", "simulation",
-        "accuracy", "switch"};
+        "accuracy", "switch", "meter"};
 
     private BenchLoader() {
     }
@@ -42,10 +42,11 @@ public final class BenchLoader {
         InstrumentLink generator = link(root, "generator");
         InstrumentLink digitizer = link(root, "digitizer");
         InstrumentLink switchUnit = root.has("switch") ? link(root, "switch") : null;
+        InstrumentLink meter = root.has("meter") ? link(root, "meter") : null;
         SimSettings sim = simulation(root);
         BenchAccuracy accuracy = accuracy(root);
         root.problems().throwIfAny();
-        return new BenchConfig(source, name, max, generator, digitizer, switchUnit, sim, accuracy);
+        return new BenchConfig(source, name, max, generator, digitizer, switchUnit, meter, sim, accuracy);
     }
 
     private static BenchAccuracy accuracy(YamlMap root) {
@@ -98,7 +99,8 @@ public final class BenchLoader {
     private static SimSettings simulation(YamlMap root) {
         SimSettings d = SimSettings.defaults();
         YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed",
-                "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance");
+                "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
+                "meter_lead_resistance");
         if (m == null) {
             return d;
         }
@@ -130,9 +132,14 @@ public final class BenchLoader {
                 m.problem(k, "must not be negative");
             }
         }
+        Double meterLead = m.quantity("meter_lead_resistance", Dimension.RESISTANCE, false);
+        if (meterLead != null && meterLead < 0) {
+            m.problem("meter_lead_resistance", "must not be negative");
+        }
         return new SimSettings(source == null ? d.sourceImpedanceOhm() : source, noise == null ? d.noiseVoltRms() : noise,
                 bits == null ? d.resolutionBits() : bits, seed == null ? d.seed() : seed,
                 gain == null || !gain.relative() ? 0 : gain.value(), skew == null ? 0 : skew,
-                leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray);
+                leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray,
+                meterLead == null ? 0.05 : meterLead);
     }
 }

@@ -51,6 +51,14 @@ final class ResultText {
                         Units.format(r.triangle().residualRmsV(), Dimension.VOLTAGE));
             }
         }
+        if (r.dcResistance() != null) {
+            var dc = r.dcResistance();
+            out.printf(Locale.ROOT, "  multimeter (%s): %s at %.1f C, %s at %.1f C; sweep R_dc %s; %s%n", dc.wiring(),
+                    Units.format(dc.measuredOhm(), Dimension.RESISTANCE), dc.temperatureC(),
+                    Units.format(dc.atReferenceOhm(), Dimension.RESISTANCE), dc.referenceTemperatureC(),
+                    dc.sweepResistanceOhm() == null ? "-" : Units.format(dc.sweepResistanceOhm(), Dimension.RESISTANCE),
+                    Boolean.TRUE.equals(dc.agrees()) ? "agree" : "disagree");
+        }
         r.warnings().forEach(w -> out.println("  warning: " + w));
         for (PartResult.LimitRecord l : r.limits()) {
             out.printf("  %-4s %s (spec %s)%n", l.pass() ? "ok" : "FAIL", l.reason(), l.spec());

@@ -51,7 +51,7 @@ public final class DriverLoader {
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
-                "switch", DriverKind.SWITCH));
+                "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
         if (kind != null && expected != null && kind != expected) {
             root.problem("kind", "this driver is for a " + kind.key() + "; a " + expected.key() + " driver is needed here");
         }

@@ -11,5 +11,5 @@ import org.lrbench.sim.FixtureWiring;
  */
 public record Plan(String source, String partNumber, String description, double senseResistanceOhm,
                    SineSweep sweep, TriangleCheck triangle, List<Limit> limits, SamplingScheme sampling,
-                   FixtureWiring wiring) {
+                   FixtureWiring wiring, DcResistanceStep dcResistance) {
 }

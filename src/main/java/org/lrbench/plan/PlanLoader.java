@@ -44,7 +44,7 @@ public final class PlanLoader {
     public static Plan load(Path file, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(file.toString());
         YamlMap root = YamlFile.read(file, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "triangle_check", "sampling", "limits");
+                "sine_sweep", "triangle_check", "sampling", "dc_resistance", "limits");
         return read(root, file.toString(), maxAmplitudeVolt);
     }
 
@@ -52,7 +52,7 @@ public final class PlanLoader {
     public static Plan parse(String text, String name, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(name);
         YamlMap root = YamlFile.parse(text, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "triangle_check", "sampling", "limits");
+                "sine_sweep", "triangle_check", "sampling", "dc_resistance", "limits");
         return read(root, name, maxAmplitudeVolt);
     }
 
@@ -76,7 +76,23 @@ public final class PlanLoader {
         SamplingScheme sampling = readSampling(root, limits);
         root.problems().throwIfAny();
         return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, triangle,
-                List.copyOf(limits), sampling, wiring);
+                List.copyOf(limits), sampling, wiring, readDcResistance(root));
+    }
+
+    private static DcResistanceStep readDcResistance(YamlMap root) {
+        YamlMap m = root.map("dc_resistance", false, "wiring", "temperature", "reference_temperature");
+        if (m == null) {
+            return null;
+        }
+        Boolean four = m.has("wiring") ? m.choice("wiring", true, Map.of("four_wire", Boolean.TRUE, "two_wire", Boolean.FALSE))
+                : Boolean.TRUE;
+        Double t = m.quantity("temperature", Dimension.TEMPERATURE, true);
+        Double ref = m.has("reference_temperature") ? m.quantity("reference_temperature", Dimension.TEMPERATURE, true)
+                : Double.valueOf(20);
+        if (four == null || t == null || ref == null) {
+            return null;
+        }
+        return new DcResistanceStep(four, t, ref);
     }
 
     /**

@@ -17,7 +17,7 @@ public record PartResult(String schema, String programVersion, String lot, Strin
                          Double seriesResistanceExpandedUncertaintyOhm,
                          Double selfResonanceHz, Double selfResonanceAboveHz,
                          Map<String, String> methods, CorrectionsRecord corrections, ModelRecord model,
-                         TriangleRecord triangle, List<LimitRecord> limits,
+                         TriangleRecord triangle, DcResistanceRecord dcResistance, List<LimitRecord> limits,
                          List<PointRecord> points, Map<String, BudgetRecord> budgets, Map<String, String> instruments) {
 
     public static final String SCHEMA = "lrbench.part-result.v2";
@@ -35,6 +35,15 @@ public record PartResult(String schema, String programVersion, String lot, Strin
     /** The bench corrections applied before the fit (null members: not in force). */
     public record CorrectionsRecord(String channelMatchMeasuredAt, Double channel2GainRatio, Double channel2SkewS,
                                     String fixtureMeasuredAt, Integer fixtureFrequencies) {
+    }
+
+    /**
+     * The multimeter's DC resistance of the winding beside the sweep's R_dc: the reading, its
+     * wiring, the entered temperature, the reading corrected to the reference temperature, and
+     * whether the two methods agree within their combined uncertainty.
+     */
+    public record DcResistanceRecord(String wiring, double measuredOhm, double temperatureC, double referenceTemperatureC,
+                                     double atReferenceOhm, Double sweepResistanceOhm, Boolean agrees) {
     }
 
     /** A fitted parameter. */

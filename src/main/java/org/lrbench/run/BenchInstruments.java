@@ -26,6 +26,7 @@ public final class BenchInstruments implements AutoCloseable {
     private final Digitizer digitizer;
     private final List<ScpiSession> sessions;
     private final org.lrbench.instrument.Switch switchUnit;
+    private org.lrbench.instrument.Multimeter meter;
 
     BenchInstruments(Generator generator, Digitizer digitizer, List<ScpiSession> sessions) {
         this(generator, digitizer, null, sessions);
@@ -37,6 +38,11 @@ public final class BenchInstruments implements AutoCloseable {
         this.digitizer = digitizer;
         this.switchUnit = switchUnit;
         this.sessions = sessions;
+    }
+
+    /** The bench's multimeter, or null when it has none (or it was not opened). */
+    public org.lrbench.instrument.Multimeter multimeter() {
+        return meter;
     }
 
     /** The bench's switch unit, or null when it has none. */
@@ -63,7 +69,7 @@ public final class BenchInstruments implements AutoCloseable {
         DriverFile digitizerDriver = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER);
         Map<String, InProcessPeer> peers = simulated == null ? Map.of()
                 : Map.of("generator", simulated.generator(), "digitizer", simulated.digitizer(),
-                        "switch", simulated.switchUnit());
+                        "switch", simulated.switchUnit(), "meter", simulated.meter());
         ScpiSession g = session("generator", bench.generator(), sourceDriver, peers, simulated != null);
         ScpiSession d;
         try {
@@ -73,8 +79,10 @@ public final class BenchInstruments implements AutoCloseable {
             throw e;
         }
         if (bench.switchUnit() == null || !withSwitch) {
-            return new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
-                    List.of(g, d));
+            BenchInstruments bi = new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
+                    new java.util.ArrayList<>(List.of(g, d)));
+            bi.openMeter(bench, drivers, peers, simulated != null);
+            return bi;
         }
         DriverFile switchDriver = drivers.load(bench.switchUnit().driver(), DriverKind.SWITCH);
         ScpiSession w;
@@ -85,8 +93,10 @@ public final class BenchInstruments implements AutoCloseable {
             closeQuietly(d);
             throw e;
         }
-        return new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
-                new org.lrbench.driver.ScpiSwitch(w, switchDriver), List.of(g, d, w));
+        BenchInstruments bi = new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
+                new org.lrbench.driver.ScpiSwitch(w, switchDriver), new java.util.ArrayList<>(List.of(g, d, w)));
+        bi.openMeter(bench, drivers, peers, simulated != null);
+        return bi;
     }
 
     private static ScpiSession session(String role, InstrumentLink link, DriverFile driver,
@@ -100,6 +110,21 @@ public final class BenchInstruments implements AutoCloseable {
     /** The SCPI sessions of the links (for counting round trips), generator first. */
     public List<ScpiSession> sessions() {
         return sessions;
+    }
+
+    /**
+     * Opens the bench's multimeter when it has one that can be reached: on the simulated bench
+     * always, on real links when its address is not a simulated one.
+     */
+    private void openMeter(BenchConfig bench, DriverLoader drivers, Map<String, InProcessPeer> peers, boolean simulated)
+            throws ProblemsException {
+        if (bench.meter() == null || (!simulated && bench.meter().address().scheme().equals("sim"))) {
+            return;
+        }
+        DriverFile meterDriver = drivers.load(bench.meter().driver(), DriverKind.METER);
+        ScpiSession m = session("meter", bench.meter(), meterDriver, peers, simulated);
+        sessions.add(m);
+        meter = new org.lrbench.driver.ScpiMultimeter(m, meterDriver);
     }
 
     public Generator generator() {

@@ -64,7 +64,7 @@ public final class CalibrationRun {
             guard.switchOff();
             change.moveTo(position);
             Plan sweepOnly = new Plan(plan.source(), plan.partNumber(), plan.description(), plan.senseResistanceOhm(),
-                    plan.sweep(), null, plan.limits(), plan.sampling(), plan.wiring());
+                    plan.sweep(), null, plan.limits(), plan.sampling(), plan.wiring(), null);
             return new SweepRunner(inst.generator(), inst.digitizer(), sleeper, open).run(sweepOnly, SweepListener.NONE)
                     .points();
         } finally {

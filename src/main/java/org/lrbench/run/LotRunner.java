@@ -180,6 +180,6 @@ public final class LotRunner {
         return new PartResult(PartResult.SCHEMA, t.programVersion(), t.lot(), serial, t.plan().partNumber(),
                 t.plan().source(), t.planSha256(), t.bench().name(), t.simulated(), now, now, "skipped",
                 "skipped by the operator: not measured", List.of(), List.of(), null, null, null, null, null, null,
-                null, null, Map.of(), null, null, null, List.of(), List.of(), Map.of(), Map.of());
+                null, null, Map.of(), null, null, null, null, List.of(), List.of(), Map.of(), Map.of());
     }
 }

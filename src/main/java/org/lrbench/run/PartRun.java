@@ -82,6 +82,23 @@ public final class PartRun {
         if (guard.failure() != null) {
             error = error == null ? guard.failure() : error + "; " + guard.failure();
         }
+        // DC resistance with the multimeter: only once the generator output is off
+        double dcOhm = Double.NaN;
+        boolean noMeter = false;
+        if (error == null && plan.dcResistance() != null) {
+            if (instruments.multimeter() == null) {
+                // the step is a cross-check of the sweep's R_dc, which the limits are judged on
+                noMeter = true;
+            } else {
+                try {
+                    instruments.multimeter().prepare();
+                    identities.put("meter", instruments.multimeter().identity().toString());
+                    dcOhm = instruments.multimeter().resistance(plan.dcResistance().fourWire());
+                } catch (InstrumentException e) {
+                    error = e.getMessage();
+                }
+            }
+        }
         Analysis analysis = null;
         if (error == null) {
             try {
@@ -91,7 +108,29 @@ public final class PartRun {
             }
         }
         Verdict verdict = error != null ? Verdict.ERROR : Judge.verdict(analysis.judged);
-        return ResultRecord.of(request, started, Instant.now(), verdict, error, analysis, points, identities);
+        PartResult.DcResistanceRecord dc = null;
+        if (noMeter && analysis != null) {
+            analysis.warnings().add("the plan's dc_resistance step was not done: no multimeter reachable on this bench"
+                    + " (bench key meter)");
+        }
+        if (error == null && plan.dcResistance() != null && !noMeter) {
+            var step = plan.dcResistance();
+            var r = analysis.sweep().budgets().get(Readings.RESISTANCE);
+            // agreement: the sweep's expanded uncertainty with 0.1 % for the multimeter reading
+            // (common practice, no source, for a bench DMM's resistance range)
+            double combined = Math.hypot(r.expandedUncertainty(), 2 * 0.001 * dcOhm);
+            boolean agrees = Math.abs(dcOhm - r.value()) <= combined;
+            dc = new PartResult.DcResistanceRecord(step.fourWire() ? "four_wire" : "two_wire", dcOhm, step.temperatureC(),
+                    step.referenceTemperatureC(), org.lrbench.analysis.CopperResistance.toReference(dcOhm,
+                    step.temperatureC(), step.referenceTemperatureC()), r.value(), agrees);
+            if (!agrees) {
+                analysis.warnings().add(String.format(Locale.ROOT, "the multimeter's %s resistance %s and the sweep's"
+                        + " R_dc %s differ by more than their combined expanded uncertainty %s",
+                        step.fourWire() ? "4-wire" : "2-wire", Units.format(dcOhm, Dimension.RESISTANCE),
+                        Units.format(r.value(), Dimension.RESISTANCE), Units.format(combined, Dimension.RESISTANCE)));
+            }
+        }
+        return ResultRecord.of(request, started, Instant.now(), verdict, error, analysis, points, identities, dc);
     }
 
     /** The model fit, budgets, judged limits and warnings of a completed sweep. */

@@ -23,7 +23,8 @@ final class ResultRecord {
     }
 
     static PartResult of(PartRun.Request request, Instant started, Instant finished, Verdict verdict, String error,
-                         PartRun.Analysis analysis, List<PointResult> points, Map<String, String> identities) {
+                         PartRun.Analysis analysis, List<PointResult> points, Map<String, String> identities,
+                         PartResult.DcResistanceRecord dc) {
         boolean have = analysis != null && error == null;
         List<PartResult.LimitRecord> limits = new ArrayList<>();
         List<String> failed = new ArrayList<>();
@@ -73,7 +74,8 @@ final class ResultRecord {
                 have ? l.value() : null, have ? l.standardUncertainty() : null, have ? l.expandedUncertainty() : null,
                 have ? r.value() : null, have ? r.standardUncertainty() : null, have ? r.expandedUncertainty() : null,
                 have ? analysis.srfHz() : null, have ? analysis.srfAboveHz() : null,
-                methods, corrections(request.calibration()), model, have && analysis.triangle() != null ? triangle(analysis.triangle()) : null,
+                methods, corrections(request.calibration()), model,
+                have && analysis.triangle() != null ? triangle(analysis.triangle()) : null, dc,
                 limits, pointRecords, budgets, identities);
     }
 

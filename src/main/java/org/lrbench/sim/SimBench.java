@@ -53,6 +53,13 @@ public final class SimBench implements AnalogInputs {
         this.generator = new SimGenerator(settings.sourceImpedanceOhm());
         this.digitizer = new SimDigitizer(this, settings);
         this.switchUnit = new SimSwitch(Math.max(1, tray.size()));
+        this.meter = new SimMultimeter(this::connectedPart, settings.meterLeadOhm());
+    }
+
+    private final SimMultimeter meter;
+
+    public SimMultimeter meter() {
+        return meter;
     }
 
     public SimSwitch switchUnit() {

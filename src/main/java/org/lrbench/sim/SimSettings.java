@@ -5,11 +5,20 @@ package org.lrbench.sim;
  * input noise (RMS volts, white and Gaussian, per channel), its converter resolution in bits
  * (0 for an ideal converter with no quantization), the random seed that makes runs repeatable,
  * channel 2's gain error (relative) and time skew against channel 1, and the fixture's parasitics:
- * lead resistance and inductance in series with the part, stray capacitance across it.
+ * lead resistance and inductance in series with the part, stray capacitance across it; and the
+ * resistance of each multimeter test lead.
  */
 public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
                           double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
-                          double leadInductanceHenry, double strayCapacitanceFarad) {
+                          double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm) {
+
+    /** 50 mohm per multimeter test lead. */
+    public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
+                       double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
+                       double leadInductanceHenry, double strayCapacitanceFarad) {
+        this(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError, channel2SkewSecond,
+                leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, 0.05);
+    }
 
     /** An ideal fixture and matched channels. */
     public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed) {
@@ -23,6 +32,6 @@ public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int re
 
     public SimSettings withSeed(long newSeed) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, newSeed, channel2GainError,
-                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad);
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm);
     }
 }

@@ -80,6 +80,14 @@ class CommandLineTests {
         assertThat(r.get("inductance_expanded_uncertainty_h").asDouble()).isPositive();
         assertThat(r.get("methods").get("inductance_h").asText()).contains("sweep fit");
         assertThat(r.get("model").get("parameters").has("inductance")).isTrue();
+        // the multimeter step: 4-wire reading of the simulated part (2.3 ohm), corrected from the
+        // entered 23 C to 20 C with copper's 0.00393 per K (IACS), and agreeing with the sweep
+        JsonNode dc = r.get("dc_resistance");
+        assertThat(dc.get("wiring").asText()).isEqualTo("four_wire");
+        assertThat(dc.get("measured_ohm").asDouble()).isCloseTo(2.3, org.assertj.core.api.Assertions.within(1e-9));
+        assertThat(dc.get("at_reference_ohm").asDouble())
+                .isCloseTo(2.3 / (1 + 0.00393 * 3), org.assertj.core.api.Assertions.within(1e-9));
+        assertThat(dc.get("agrees").asBoolean()).isTrue();
         // the kept record is the same result, and no half-written file is left behind
         assertThat(Files.readString(dir.resolve("runs/L-1/S-1.json"))).isEqualTo(Files.readString(json));
         try (Stream<Path> files = Files.walk(dir)) {

@@ -15,7 +15,7 @@ public class ResultStoreTests {
     public static PartResult part(String lot, String serial, String verdict) {
         return new PartResult(PartResult.SCHEMA, "t", lot, serial, "P-1", "p.yaml", "ab".repeat(32), "b", true,
                 "2026-12-01T00:00:00Z", "2026-12-01T00:00:01Z", verdict, verdict.equals("error") ? "lost" : null,
-                List.of(), List.of(), 1e-3, 1e-6, 2e-6, 2.3, 0.01, 0.02, null, 1e6, Map.of(), null, null, null,
+                List.of(), List.of(), 1e-3, 1e-6, 2e-6, 2.3, 0.01, 0.02, null, 1e6, Map.of(), null, null, null, null,
                 List.of(), List.of(), Map.of(), Map.of());
     }
 
@@ -49,7 +49,7 @@ public class ResultStoreTests {
         PartResult p = part(lot, serial, verdict);
         return new PartResult(p.schema(), p.programVersion(), lot, serial, p.partNumber(), p.planPath(), p.planSha256(),
                 p.bench(), true, p.startedAt(), p.finishedAt(), verdict, null, List.of(), List.of(), l, 0.0, 0.0, r,
-                0.0, 0.0, null, null, Map.of(), null, null, null, List.of(), List.of(), Map.of(), Map.of());
+                0.0, 0.0, null, null, Map.of(), null, null, null, null, List.of(), List.of(), Map.of(), Map.of());
     }
 
     @Test
