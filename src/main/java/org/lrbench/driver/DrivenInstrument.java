@@ -30,6 +30,12 @@ abstract class DrivenInstrument {
         return identity;
     }
 
+    /** Checks the identity, then sends the driver's {@code prepare} commands. */
+    public void prepare() {
+        identity();
+        configure("prepare", Map.of());
+    }
+
     /**
      * Sends a configuration command with the error query in the same message (one round trip) and
      * fails, naming the command, on any error it caused.

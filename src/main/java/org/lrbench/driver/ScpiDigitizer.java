@@ -30,8 +30,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public void prepare() {
-        identity();
-        configure("prepare", Map.of());
+        super.prepare();
         ranges.clear();
         requestedRanges.clear();
         offsets.clear();

@@ -16,8 +16,7 @@ public final class ScpiGenerator extends DrivenInstrument implements Generator {
 
     @Override
     public void prepare() {
-        identity();
-        configure("prepare", Map.of());
+        super.prepare();
         outputOff();
     }
 

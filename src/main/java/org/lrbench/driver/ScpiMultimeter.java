@@ -12,12 +12,6 @@ public final class ScpiMultimeter extends DrivenInstrument implements Multimeter
     }
 
     @Override
-    public void prepare() {
-        identity();
-        configure("prepare", Map.of());
-    }
-
-    @Override
     public double resistance(boolean fourWire) {
         return queryNumber(fourWire ? "resistance_4w_query" : "resistance_2w_query", Map.of());
     }

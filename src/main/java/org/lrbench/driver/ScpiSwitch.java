@@ -13,12 +13,6 @@ public final class ScpiSwitch extends DrivenInstrument implements Switch {
     }
 
     @Override
-    public void prepare() {
-        identity();
-        configure("prepare", Map.of());
-    }
-
-    @Override
     public void connect(int channel) {
         if (channel < 1 || channel > 999_999) {
             throw new IllegalArgumentException("switch channel " + channel + " is not 1 to 999999");
