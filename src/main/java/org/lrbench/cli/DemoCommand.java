@@ -2,7 +2,6 @@ package org.lrbench.cli;
 
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
-import java.util.Set;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.store.ResultStore;
 import org.lrbench.calibration.Calibration;
@@ -12,6 +11,7 @@ import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.ResultFiles;
+import org.lrbench.records.StoreLedger;
 import org.lrbench.run.LotRunner;
 import org.lrbench.run.PartRun;
 import org.lrbench.sim.SimBench;
@@ -41,6 +41,18 @@ final class DemoCommand implements Callable<Integer> {
             description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
     Path data;
 
+    /** The demo lot's earlier result files and trace archives (only those: other files stay). */
+    private static void removeDemoRecords(Path dir) throws java.io.IOException {
+        if (!java.nio.file.Files.isDirectory(dir)) {
+            return;
+        }
+        try (var files = java.nio.file.Files.newDirectoryStream(dir, "*.{json,lrtraces}")) {
+            for (Path f : files) {
+                java.nio.file.Files.delete(f);
+            }
+        }
+    }
+
     @Override
     public Integer call() throws Exception {
         Path lotPath = lotFile != null ? lotFile : Home.demoLot();
@@ -69,12 +81,15 @@ final class DemoCommand implements Callable<Integer> {
         ResultText.tableHeader(System.out, qAt);
         LotSummary summary;
         try (ResultStore store = ResultStore.open(data.resolve("lrbench.db"))) {
-            // the demo measures its lot afresh each time; a real lot resumes where it stopped
+            // the demo measures its invented lot afresh each time (a real lot resumes where it stopped
+            // and its records are never removed): its earlier demo records go first, store and files
             store.deleteLot(lot.lot());
+            removeDemoRecords(runs.resolve(lot.lot()));
             PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
-            LotRunner.Outcome outcome = RunCommand.runTray(template, lotSize, b, lot, drivers, store, runs, Set.of(),
-                    org.lrbench.measure.SweepListener.NONE, r -> ResultText.tableRow(System.out, r, qAt), true);
-            summary = LotSummaries.of(lot.lot(), plan, lotSize, outcome);
+            LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, new StoreLedger(store, runs, true))
+                    .withOperator("demo");
+            LotRunner.Outcome outcome = RunCommand.runTray(setup, b, lot, r -> ResultText.tableRow(System.out, r, qAt));
+            summary = LotSummaries.of(outcome, store.attempts(lot.lot()).size(), store.chainHead(lot.lot()));
             Path report = runs.resolve(lot.lot()).resolve("report.html");
             ResultFiles.writeAtomically(report, org.lrbench.report.LotReport.html(store, lot.lot())
                     .getBytes(java.nio.charset.StandardCharsets.UTF_8));

@@ -9,7 +9,7 @@ import picocli.CommandLine.Command;
 @Command(name = "lrbench", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Inductor incoming inspection on a signal generator and digitizer bench.",
         subcommands = {DemoCommand.class, CheckCommand.class, RunCommand.class, CalibrateCommand.class, StoreCommands.Lots.class,
-                StoreCommands.Lot.class, StoreCommands.History.class, ReportCommand.class, ServeCommand.class, RehearseCommand.class, AnalyzeCommand.class, SimCommand.class,
+                StoreCommands.Lot.class, StoreCommands.History.class, VerifyCommand.class, ReportCommand.class, ServeCommand.class, RehearseCommand.class, AnalyzeCommand.class, SimCommand.class,
                 BenchmarkCommand.class})
 public final class Main implements Runnable {
 
@@ -26,7 +26,7 @@ public final class Main implements Runnable {
                 ResultText.problems(commandLine.getErr(), p.problems());
                 return ExitCodes.BAD_INPUT;
             }
-            if (e instanceof BadInputException) {
+            if (e instanceof BadInputException || e instanceof org.lrbench.run.LotRunner.Refused) {
                 commandLine.getErr().println("lrbench: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }

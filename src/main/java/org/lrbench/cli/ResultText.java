@@ -86,13 +86,18 @@ final class ResultText {
         String q = r.limits().stream().filter(x -> x.characteristic().equals("quality_factor") && x.value() != null)
                 .findFirst().map(x -> String.format(Locale.ROOT, "%.1f", x.value())).orElse("-");
         String reason = r.error() != null ? r.error() : String.join("; ", r.failedLimits());
-        out.printf(ROW, r.serial(), l, res, q, r.verdict(), reason);
+        String serial = r.attempt() != null && r.attempt().number() > 1 ? r.serial() + " #" + r.attempt().number() : r.serial();
+        if (r.attempt() != null && r.attempt().reason() != null) {
+            reason = (reason.isEmpty() ? "" : reason + "; ") + "measured again: " + r.attempt().reason();
+        }
+        out.printf(ROW, serial, l, res, q, r.verdict(), reason);
     }
 
     static void summary(PrintStream out, LotSummary s) {
         double yield = s.measured() == 0 ? 0 : 100.0 * s.passed() / s.measured();
-        out.printf("lot %s (%s): %d measured, %d pass, %d fail, %d error; yield %.1f %%%n", s.lot(), s.partNumber(),
-                s.measured(), s.passed(), s.failed(), s.errors(), yield);
+        out.printf("lot %s (%s)%s: %d measured, %d pass, %d fail, %d error%s; yield %.1f %%%n", s.lot(), s.partNumber(),
+                s.inspection() > 1 ? ", re-inspection " + s.inspection() : "", s.measured(), s.passed(), s.failed(),
+                s.errors(), s.skipped() > 0 ? ", " + s.skipped() + " skipped (not measured)" : "", yield);
         if (!s.failedSerials().isEmpty()) {
             out.println("  failed: " + String.join(", ", s.failedSerials()));
         }

@@ -10,11 +10,16 @@ import org.lrbench.judge.Verdict;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
+import org.lrbench.records.StoreLedger;
+import org.lrbench.results.Attempt;
+import org.lrbench.results.LotSummary;
+import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.ConsoleFeeder;
 import org.lrbench.run.LotRunner;
+import org.lrbench.run.LotStop;
 import org.lrbench.run.PartFeeder;
 import org.lrbench.run.PartRun;
 import org.lrbench.run.SwitchFeeder;
@@ -56,9 +61,25 @@ final class RunCommand implements Callable<Integer> {
                     + " one per line in position order; the tray is then measured unattended")
     Path traySerials;
 
+    /** What is kept of the captured traces. */
+    enum TraceRetention { keep, none }
+
     @Option(names = "--traces", paramLabel = "keep|none", defaultValue = "keep",
             description = "keep every captured trace as DIR/LOT/SERIAL.lrtraces, or none (default: ${DEFAULT-VALUE})")
-    String tracesRetention;
+    TraceRetention tracesRetention;
+
+    @Option(names = "--operator", paramLabel = "NAME",
+            description = "who measures, recorded with every attempt (default: the login name)")
+    String operator;
+
+    @Option(names = "--reason", paramLabel = "TEXT",
+            description = "one part measured again (--serial): why; the earlier record is kept")
+    String reason;
+
+    @Option(names = "--reinspect", paramLabel = "REASON",
+            description = "with --lot-size: open a new inspection of a lot already decided, for this reason;"
+                    + " the earlier inspection stays in the store and the report")
+    String reinspect;
 
     @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
             description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
@@ -102,6 +123,7 @@ final class RunCommand implements Callable<Integer> {
             throw new BadInputException("give --serial SN for one part, or --lot-size N for the lot's sample");
         }
         Inputs.name("--serial", serial);
+        int number = singleAttemptNumber();
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
         if (sim != null && (generatorAddress != null || digitizerAddress != null)) {
             throw new BadInputException("--sim measures on the in-process simulated bench; it cannot be combined"
@@ -122,17 +144,21 @@ final class RunCommand implements Callable<Integer> {
         try (BenchInstruments instruments = BenchInstruments.open(b, new DriverLoader(Home.drivers()), simBench)) {
             result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, recorder);
         }
-        Path archive = runs.resolve(lot).resolve(serial + ".lrtraces");
+        result = result.withAttempt(new PartResult.AttemptRecord(1, number, operatorName(), reason));
+        Path dir = runs.resolve(lot);
+        Path archive = dir.resolve(Attempt.fileName(serial, number, "lrtraces"));
         byte[] traces = keepTraces() ? org.lrbench.traces.TraceArchive.encode(lot, serial, p.partNumber(),
                 p.senseResistanceOhm(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
         if (traces != null) {
-            ResultFiles.writeAtomically(archive, traces);
+            ResultFiles.writeNew(archive, traces);
         }
-        ResultFiles.writeJson(runs.resolve(lot).resolve(serial + ".json"), result);
+        Path record = dir.resolve(Attempt.fileName(serial, number, "json"));
+        ResultFiles.writeNew(record, ResultFiles.JSON.writeValueAsBytes(result));
         if (json != null) {
             ResultFiles.writeJson(json, result);
         }
         ResultText.part(System.out, result);
+        System.out.println("record: " + record + (number > 1 ? " (attempt " + number + "; earlier ones kept)" : ""));
         if (traces != null) {
             System.out.printf("traces kept in %s (%d bytes)%n", archive, traces.length);
         }
@@ -146,30 +172,47 @@ final class RunCommand implements Callable<Integer> {
      * A simulated tray measured unattended: on a bench with a switch unit, one simulated bench
      * holds the whole tray and the switch changes parts; without one, each part is its own bench.
      */
-    static LotRunner.Outcome runTray(PartRun.Request template, int lotSize, BenchConfig b, SimLot tray,
-                                     DriverLoader drivers, ResultStore store, Path runs, java.util.Set<String> done,
-                                     org.lrbench.measure.SweepListener progress,
-                                     java.util.function.Consumer<org.lrbench.results.PartResult> onPart,
-                                     boolean keepTraces) throws Exception {
+    static LotRunner.Outcome runTray(LotRunner.Setup setup, BenchConfig b, SimLot tray,
+                                     java.util.function.Consumer<PartResult> onPart) throws Exception {
         if (b.switchUnit() == null) {
-            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress)
-                    .withTraces(keepTraces), new TrayFeeder(tray.parts(), done), onPart);
+            return LotRunner.run(setup, new TrayFeeder(tray.parts()), onPart);
         }
-        SimBench bench = new SimBench(b.simulation(), template.plan().wiring(),
+        SimBench bench = new SimBench(b.simulation(), setup.template().plan().wiring(),
                 tray.parts().stream().map(SimLot.Part::model).toList());
-        try (BenchInstruments inst = BenchInstruments.open(b, drivers, bench, true)) {
+        try (BenchInstruments inst = BenchInstruments.open(b, setup.drivers(), bench, true)) {
             inst.switchUnit().prepare();
-            return LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, Sleeper.NONE, progress, inst)
-                    .withTraces(keepTraces), new SwitchFeeder(inst.switchUnit(), tray.parts().stream().map(SimLot.Part::serial).toList(), done),
-                    onPart);
+            return LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(),
+                    tray.parts().stream().map(SimLot.Part::serial).toList()), onPart);
         }
     }
 
     private boolean keepTraces() {
-        if (!tracesRetention.equals("keep") && !tracesRetention.equals("none")) {
-            throw new BadInputException("--traces '" + tracesRetention + "': use keep or none");
+        return tracesRetention == TraceRetention.keep;
+    }
+
+    private String operatorName() {
+        return operator != null ? operator : System.getProperty("user.name", "unknown");
+    }
+
+    /**
+     * One part's attempt number from the records already in its lot's folder: a part measured
+     * before is measured again only with --reason, and gets the next free file names.
+     */
+    private int singleAttemptNumber() {
+        Path dir = runs.resolve(lot);
+        int number = 1;
+        while (java.nio.file.Files.exists(dir.resolve(Attempt.fileName(serial, number, "json")))) {
+            number++;
         }
-        return tracesRetention.equals("keep");
+        if (number > 1 && (reason == null || reason.isBlank())) {
+            throw new BadInputException(dir.resolve(Attempt.fileName(serial, 1, "json")) + " exists: " + serial
+                    + " was measured before in lot " + lot + " (" + (number - 1) + " record(s)). To measure it again"
+                    + " give --reason TEXT; every earlier record is kept");
+        }
+        if (number == 1 && reason != null) {
+            throw new BadInputException("--reason is for a part measured again; " + serial + " has no record in " + dir);
+        }
+        return number;
     }
 
     /** Serials of a tray file: one per line, blank lines and # comments ignored, each checked. */
@@ -183,9 +226,10 @@ final class RunCommand implements Callable<Integer> {
             if (t.isEmpty()) {
                 continue;
             }
-            if (!t.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}") || !seen.add(t)) {
-                throw new BadInputException(file + ":" + (i + 1) + ":1: serial '" + t + "': "
-                        + (seen.contains(t) ? "appears twice" : "use 1 to 64 letters, digits, '.', '_' or '-'"));
+            String problem = Names.problem("serial", t);
+            if (problem != null || !seen.add(t)) {
+                throw new BadInputException(file + ":" + (i + 1) + ":1: " + (problem != null ? problem
+                        : "serial '" + t + "' appears twice"));
             }
             out.add(t);
         }
@@ -195,14 +239,17 @@ final class RunCommand implements Callable<Integer> {
         return out;
     }
 
-    /** Lot mode: the sample one part after another, committed as it goes, resumable. */
+    /** Lot mode: the sample one part after another, each attempt committed as it goes, resumable. */
     private int runLot() throws Exception {
-        if (serial != null || sim != null) {
+        if (serial != null || sim != null || reason != null) {
             throw new BadInputException("--lot-size runs the lot's sample: use --sim-lot for simulated parts, not"
-                    + " --serial or --sim");
+                    + " --serial, --sim or --reason (a part is measured again at its prompt)");
         }
         if (lotSize < 2) {
             throw new BadInputException("--lot-size " + lotSize + ": ISO 2859-1 lots have at least 2 parts");
+        }
+        if (reinspect != null && reinspect.isBlank()) {
+            throw new BadInputException("--reinspect needs a reason, in words");
         }
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
         b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
@@ -211,55 +258,89 @@ final class RunCommand implements Callable<Integer> {
             throw new BadInputException(plan + ": a lot run needs the plan's sampling section (level, AQL per class)");
         }
         SimLot tray = null;
+        List<String> serials = null;
         if (simLot != null) {
             Inputs.requireFile(simLot, "simulated tray");
             tray = SimLot.load(simLot);
+        } else if (traySerials != null) {
+            if (b.switchUnit() == null) {
+                throw new BadInputException("--tray needs a bench with a switch unit (bench file key switch)");
+            }
+            serials = readSerials(traySerials);
         }
         ResultText.samplingPlans(System.out, lotSize, p.sampling());
         double qAt = ResultText.qFrequency(p);
         PartRun.Request template = new PartRun.Request(p, Inputs.sha256(plan), b, lot, "-", tray != null, Home.version(),
                 new CalibrationStore(calibration, b.name()).load());
+        DriverLoader drivers = new DriverLoader(Home.drivers());
+        LotStop stop = new LotStop();
         LotRunner.Outcome outcome;
+        LotSummary summary;
         try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.open(data.resolve("lrbench.db"))) {
-            java.util.Set<String> done = store.completed(lot);
-            if (!done.isEmpty()) {
-                System.out.println("resuming lot " + lot + ": " + done.size() + " part(s) already stored are not measured again");
+            StoreLedger ledger = new StoreLedger(store, runs, keepTraces());
+            LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, ledger).withOperator(operatorName())
+                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL).withStop(stop);
+            if (reinspect != null) {
+                setup = setup.reinspecting(reinspect);
+            }
+            Integer closed = refuseOrReport(setup);
+            if (closed != null) {
+                return closed;
+            }
+            List<Attempt> before = store.parts(lot);
+            long judged = before.stream().filter(Attempt::judged).count();
+            if (!before.isEmpty() && reinspect == null) {
+                System.out.println("resuming lot " + lot + ": " + judged + " part(s) already measured are not measured again");
             }
             ResultText.tableHeader(System.out, qAt);
-            int sample = org.lrbench.sampling.LotDisposition.judge(lotSize, p.sampling(), java.util.List.of()).sampleSize();
-            DriverLoader drivers = new DriverLoader(Home.drivers());
-            Sleeper sleeper = tray != null ? Sleeper.NONE : Sleeper.REAL;
-            try (LotProgress progress = LotProgress.start(Math.max(0, sample - done.size()), p.sweep().frequenciesHz().size())) {
+            java.util.function.Consumer<PartResult> row = r -> ResultText.tableRow(System.out, r, qAt);
+            try (StopSignals signals = StopSignals.install(stop, lot, System.err);
+                 LotProgress progress = LotProgress.start((int) Math.max(0, setup.sampleSize() - judged),
+                         p.sweep().frequenciesHz().size())) {
+                setup = setup.withListener(progress);
                 if (tray != null) {
-                    outcome = runTray(template, lotSize, b, tray, drivers, store, runs, done, progress,
-                            r -> ResultText.tableRow(System.out, r, qAt), keepTraces());
-                } else if (traySerials != null) {
-                    if (b.switchUnit() == null) {
-                        throw new BadInputException("--tray needs a bench with a switch unit (bench file key switch)");
-                    }
-                    List<String> serials = readSerials(traySerials);
+                    outcome = runTray(setup, b, tray, row);
+                } else if (serials != null) {
                     try (BenchInstruments inst = BenchInstruments.open(b, drivers, null, true)) {
                         inst.switchUnit().prepare();
-                        outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper,
-                                progress, inst).withTraces(keepTraces()), new SwitchFeeder(inst.switchUnit(), serials, done),
-                                r -> ResultText.tableRow(System.out, r, qAt));
+                        outcome = LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(), serials), row);
                     }
                 } else {
                     PartFeeder feeder = new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
                                     java.nio.charset.StandardCharsets.UTF_8)), System.out);
-                    outcome = LotRunner.run(new LotRunner.Setup(template, lotSize, drivers, store, runs, sleeper, progress)
-                            .withTraces(keepTraces()), feeder, r -> ResultText.tableRow(System.out, r, qAt));
+                    outcome = LotRunner.run(setup, feeder, row);
                 }
             }
+            ledger.repairs().forEach(m -> System.out.println("repaired: " + m));
+            summary = LotSummaries.of(outcome, store.attempts(lot).size(), store.chainHead(lot));
         }
-        var summary = LotSummaries.of(lot, p, lotSize, outcome);
         ResultFiles.writeJson(runs.resolve(lot).resolve("lot-summary.json"), summary);
         System.out.println();
         ResultText.summary(System.out, summary);
+        if (outcome.stopped()) {
+            System.err.println("lrbench: " + StopSignals.stoppedMessage(lot, stop));
+            return ExitCodes.LOT_OPEN;
+        }
         return switch (outcome.disposition().state()) {
             case ACCEPT -> ExitCodes.PASS;
             case REJECT -> ExitCodes.FAIL;
             case OPEN -> ExitCodes.LOT_OPEN;
         };
+    }
+
+    /**
+     * Before any instrument is touched: an open inspection under other terms is refused; a decided
+     * one is closed, so its disposition is printed, nothing is measured, and its exit code returned.
+     * Null when the run may go on.
+     */
+    private static Integer refuseOrReport(LotRunner.Setup setup) {
+        var i = LotRunner.preflight(setup);
+        if (i == null) {
+            return null;
+        }
+        System.out.printf("lot %s is closed: inspection %d was decided on %s: %s (%s).%nNothing was measured. To inspect"
+                        + " it again, give --reinspect REASON; the earlier inspection is kept.%n", i.lot(), i.round(),
+                i.finishedAt(), i.disposition().toUpperCase(java.util.Locale.ROOT), i.dispositionReason());
+        return i.disposition().equals("accept") ? ExitCodes.PASS : ExitCodes.FAIL;
     }
 }

@@ -10,7 +10,7 @@ import java.util.concurrent.Callable;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
-import org.lrbench.store.PartRow;
+import org.lrbench.results.Attempt;
 import org.lrbench.store.ResultStore;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -43,7 +43,8 @@ final class StoreCommands {
             if (!java.nio.file.Files.isRegularFile(db)) {
                 throw new BadInputException("no results store at " + db + " (measure a lot first, or give --data)");
             }
-            return ResultStore.open(db);
+            // queries only read: a store on read-only media, or a copy handed to an auditor, is read as it is
+            return ResultStore.openForReading(db);
         }
 
         void print(List<String> header, List<List<String>> rows) throws IOException {
@@ -89,18 +90,20 @@ final class StoreCommands {
             try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
                 for (LotRecord l : s.lots()) {
-                    rows.add(List.of(l.lot(), l.partNumber(), l.createdAt(), String.valueOf(l.lotSize()),
-                            String.valueOf(l.sampleSize()), String.valueOf(l.measured()), String.valueOf(l.passed()),
-                            String.valueOf(l.failed()), l.disposition() == null ? "open" : l.disposition()));
+                    rows.add(List.of(l.lot(), String.valueOf(l.round()), l.partNumber(), l.createdAt(),
+                            String.valueOf(l.lotSize()), String.valueOf(l.sampleSize()), String.valueOf(l.measured()),
+                            String.valueOf(l.passed()), String.valueOf(l.failed()), String.valueOf(l.errors()),
+                            String.valueOf(l.skipped()), String.valueOf(l.attempts()),
+                            l.disposition() == null ? "open" : l.disposition()));
                 }
-                print(List.of("lot", "part_number", "started", "lot_size", "sample", "stored", "pass", "fail",
-                        "disposition"), rows);
+                print(List.of("lot", "inspection", "part_number", "started", "lot_size", "sample", "measured", "pass",
+                        "fail", "error", "skipped", "attempts", "disposition"), rows);
             }
             return ExitCodes.PASS;
         }
     }
 
-    @Command(name = "lot", description = "A lot's parts and verdicts from the results store.")
+    @Command(name = "lot", description = "Every attempt of a lot's parts from the results store, and which one counts.")
     static final class Lot extends StoreOptions implements Callable<Integer> {
         @Parameters(index = "0", paramLabel = "LOT")
         String lot;
@@ -109,14 +112,24 @@ final class StoreCommands {
         public Integer call() throws Exception {
             try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
-                for (PartRow p : s.parts(lot)) {
-                    rows.add(List.of(String.valueOf(p.position()), p.serial(), p.verdict(), num(p.inductanceH(), "%.6e"),
-                            num(p.seriesResistanceOhm(), "%.6f"), p.measuredAt()));
+                List<Attempt> all = s.attempts(lot);
+                for (var inspection : s.lot(lot)) {
+                    var counting = Attempt.counting(all.stream().filter(a -> a.round() == inspection.round()).toList());
+                    for (Attempt p : all) {
+                        if (p.round() != inspection.round()) {
+                            continue;
+                        }
+                        rows.add(List.of(String.valueOf(p.round()), String.valueOf(p.position()), p.serial(),
+                                String.valueOf(p.number()), counting.contains(p) ? "yes" : "no", p.verdict(),
+                                num(p.inductanceH(), "%.6e"), num(p.seriesResistanceOhm(), "%.6f"), p.measuredAt(),
+                                String.valueOf(p.operator()), p.reason() == null ? "" : p.reason()));
+                    }
                 }
                 if (rows.isEmpty()) {
                     throw new BadInputException("lot " + lot + " has no stored parts");
                 }
-                print(List.of("position", "serial", "verdict", "inductance_h", "series_resistance_ohm", "measured_at"), rows);
+                print(List.of("inspection", "position", "serial", "attempt", "counts", "verdict", "inductance_h",
+                        "series_resistance_ohm", "measured_at", "operator", "reason"), rows);
             }
             return ExitCodes.PASS;
         }
@@ -132,7 +145,7 @@ final class StoreCommands {
             try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
                 for (LotStatistics l : s.history(partNumber)) {
-                    rows.add(List.of(l.lot(), l.createdAt(), l.disposition() == null ? "open" : l.disposition(),
+                    rows.add(List.of(l.lot(), String.valueOf(l.round()), l.createdAt(), l.disposition() == null ? "open" : l.disposition(),
                             String.valueOf(l.measured()), num(Double.isNaN(l.yield()) ? null : 100 * l.yield(), "%.1f"),
                             num(l.meanInductanceH(), "%.6e"), num(l.sdInductanceH(), "%.3e"),
                             num(l.meanResistanceOhm(), "%.5f"), num(l.sdResistanceOhm(), "%.3e")));
@@ -140,7 +153,7 @@ final class StoreCommands {
                 if (rows.isEmpty()) {
                     throw new BadInputException("no lots of part number " + partNumber + " in the store");
                 }
-                print(List.of("lot", "started", "disposition", "measured", "yield_percent", "mean_inductance_h",
+                print(List.of("lot", "inspection", "started", "disposition", "measured", "yield_percent", "mean_inductance_h",
                         "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows);
             }
             return ExitCodes.PASS;

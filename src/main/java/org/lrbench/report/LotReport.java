@@ -15,7 +15,7 @@ import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.results.PartResult;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
-import org.lrbench.store.PartRow;
+import org.lrbench.results.Attempt;
 import org.lrbench.store.ResultStore;
 
 /**
@@ -34,11 +34,18 @@ public final class LotReport {
 
     public static String html(ResultStore store, String lot) throws IOException {
         System.setProperty("java.awt.headless", "true");
-        LotRecord l = store.lots().stream().filter(x -> x.lot().equals(lot)).findFirst()
-                .orElseThrow(() -> new IllegalArgumentException("no lot " + lot + " in the store"));
+        List<LotRecord> inspections = store.lot(lot);
+        if (inspections.isEmpty()) {
+            throw new IllegalArgumentException("no lot " + lot + " in the store");
+        }
+        LotRecord l = inspections.get(inspections.size() - 1);
+        List<Attempt> attempts = store.attempts(lot);
+        List<Attempt> counting = Attempt.counting(attempts.stream().filter(a -> a.round() == l.round()).toList());
         List<PartResult> parts = new ArrayList<>();
-        for (PartRow row : store.parts(lot)) {
-            parts.add(READ.readValue(row.resultJson(), PartResult.class));
+        for (Attempt a : counting) {
+            if (!a.skipped()) {
+                parts.add(READ.readValue(a.resultJson(), PartResult.class));
+            }
         }
         StringBuilder h = new StringBuilder();
         h.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>Lot ").append(esc(lot))
@@ -52,7 +59,13 @@ public final class LotReport {
         row(h, "disposition", "<span class=\"" + esc(disp) + "\">" + esc(disp.toUpperCase(Locale.ROOT)) + "</span>"
                 + (l.dispositionReason() == null ? "" : " &mdash; " + esc(l.dispositionReason())));
         row(h, "lot size / sample", l.lotSize() + " / " + l.sampleSize());
-        row(h, "parts stored", l.measured() + " (" + l.passed() + " pass, " + l.failed() + " fail)");
+        if (l.round() > 1) {
+            row(h, "inspection", "re-inspection " + l.round() + " &mdash; " + esc(l.reason()));
+        }
+        row(h, "parts measured", l.measured() + " (" + l.passed() + " pass, " + l.failed() + " fail, " + l.errors()
+                + " error)" + (l.skipped() > 0 ? "; " + l.skipped() + " position(s) skipped, not measured" : ""));
+        row(h, "attempts stored", l.attempts() + " (every measurement is kept; the latest attempt of a part counts)");
+        row(h, "operator", esc(String.valueOf(l.operator())));
         row(h, "plan", esc(l.planPath()) + "<br>SHA-256 " + esc(l.planSha256()));
         row(h, "bench", esc(l.bench()));
         row(h, "started / finished", esc(l.createdAt()) + " / " + esc(l.finishedAt() == null ? "-" : l.finishedAt()));
@@ -69,8 +82,45 @@ public final class LotReport {
                     .append(fmt(p.inductanceH())).append("</td><td>").append(fmt(p.seriesResistanceOhm())).append("</td><td>")
                     .append(esc(p.error() != null ? p.error() : String.join("; ", p.failedLimits()))).append("</td></tr>");
         }
-        h.append("</table>\n<p>Written by lrbench from the results store.</p></body></html>\n");
+        h.append("</table>\n");
+        attempts(h, inspections, attempts);
+        h.append("<p>Written by lrbench from the results store. Hash chain head SHA-256 ")
+                .append(esc(String.valueOf(store.chainHead(lot)))).append("; check the records with lrbench verify.</p>")
+                .append("</body></html>\n");
         return h.toString();
+    }
+
+    /** Every inspection of the lot and every attempt of every part, with the one that counts marked. */
+    private static void attempts(StringBuilder h, List<LotRecord> inspections, List<Attempt> attempts) {
+        if (inspections.size() > 1) {
+            h.append("<h2>Inspections</h2><table><tr><th>inspection</th><th>started</th><th>reason</th>"
+                    + "<th>disposition</th><th>decided</th></tr>");
+            for (LotRecord i : inspections) {
+                h.append("<tr><td>").append(i.round()).append("</td><td>").append(esc(i.createdAt())).append("</td><td>")
+                        .append(esc(i.reason() == null ? "first inspection" : i.reason())).append("</td><td>")
+                        .append(esc(i.disposition() == null ? "open" : i.disposition())).append("</td><td>")
+                        .append(esc(i.finishedAt() == null ? "-" : i.finishedAt())).append("</td></tr>");
+            }
+            h.append("</table>\n");
+        }
+        h.append("<h2>Attempts</h2><table><tr><th>inspection</th><th>#</th><th>serial</th><th>attempt</th>"
+                + "<th>counts</th><th>verdict</th><th>L</th><th>R_dc</th><th>measured</th><th>operator</th>"
+                + "<th>why measured again</th></tr>");
+        for (LotRecord i : inspections) {
+            List<Attempt> round = attempts.stream().filter(a -> a.round() == i.round()).toList();
+            List<Attempt> counting = Attempt.counting(round);
+            for (Attempt a : round) {
+                h.append("<tr><td>").append(a.round()).append("</td><td>").append(a.position()).append("</td><td>")
+                        .append(esc(a.serial())).append("</td><td>").append(a.number()).append("</td><td>")
+                        .append(counting.contains(a) ? "yes" : "no (superseded)").append("</td><td class=\"")
+                        .append(esc(a.verdict())).append("\">").append(esc(a.verdict())).append("</td><td>")
+                        .append(fmt(a.inductanceH())).append("</td><td>").append(fmt(a.seriesResistanceOhm()))
+                        .append("</td><td>").append(esc(a.measuredAt())).append("</td><td>")
+                        .append(esc(String.valueOf(a.operator()))).append("</td><td>")
+                        .append(esc(a.reason() == null ? "" : a.reason())).append("</td></tr>");
+            }
+        }
+        h.append("</table>\n");
     }
 
     private static void limits(StringBuilder h, List<PartResult> parts) throws IOException {

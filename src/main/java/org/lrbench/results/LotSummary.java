@@ -2,26 +2,16 @@ package org.lrbench.results;
 
 import java.util.List;
 
-/** The parts of one lot measured in one run, counted by verdict. */
-public record LotSummary(String schema, String lot, String partNumber, String planPath, String finishedAt,
-                         int measured, int passed, int failed, int errors, List<String> failedSerials,
-                         List<String> errorSerials, Integer lotSize, Integer sampleSize, String disposition,
-                         String dispositionReason) {
+/**
+ * One inspection of a lot, counted over the attempt that counts for each part: measured (pass,
+ * fail or error), passed, failed, errors, skipped positions (never measured), every attempt
+ * stored, the disposition, and the head of the lot's hash chain when the summary was written.
+ * A derived file: the store is the record.
+ */
+public record LotSummary(String schema, String lot, int inspection, String partNumber, String planPath, String operator,
+                         String finishedAt, int measured, int passed, int failed, int errors, int skipped, int attempts,
+                         List<String> failedSerials, List<String> errorSerials, Integer lotSize, Integer sampleSize,
+                         String disposition, String dispositionReason, String chainHeadSha256) {
 
-    public static final String SCHEMA = "lrbench.lot-summary.v2";
-
-    public static LotSummary of(String lot, String partNumber, String planPath, String finishedAt,
-                                List<PartResult> parts) {
-        List<String> failed = parts.stream().filter(p -> p.verdict().equals("fail")).map(PartResult::serial).toList();
-        List<String> errors = parts.stream().filter(p -> p.verdict().equals("error")).map(PartResult::serial).toList();
-        int passed = (int) parts.stream().filter(p -> p.verdict().equals("pass")).count();
-        return new LotSummary(SCHEMA, lot, partNumber, planPath, finishedAt, parts.size(), passed, failed.size(),
-                errors.size(), failed, errors, null, null, null, null);
-    }
-
-    /** The same counts with the lot's sampling and disposition. */
-    public LotSummary withDisposition(int size, int sample, String state, String reason) {
-        return new LotSummary(schema, lot, partNumber, planPath, finishedAt, measured, passed, failed, errors,
-                failedSerials, errorSerials, size, sample, state, reason);
-    }
+    public static final String SCHEMA = "lrbench.lot-summary.v3";
 }

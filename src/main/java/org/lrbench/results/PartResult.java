@@ -18,9 +18,27 @@ public record PartResult(String schema, String programVersion, String lot, Strin
                          Double selfResonanceHz, Double selfResonanceAboveHz,
                          Map<String, String> methods, CorrectionsRecord corrections, ModelRecord model,
                          TriangleRecord triangle, DcResistanceRecord dcResistance, List<LimitRecord> limits,
-                         List<PointRecord> points, Map<String, BudgetRecord> budgets, Map<String, String> instruments) {
+                         List<PointRecord> points, Map<String, BudgetRecord> budgets, Map<String, String> instruments,
+                         AttemptRecord attempt) {
 
-    public static final String SCHEMA = "lrbench.part-result.v2";
+    public static final String SCHEMA = "lrbench.part-result.v3";
+
+    /**
+     * Which measurement of the part this is: the lot's inspection round, the attempt number among
+     * the measurements of this serial, the operator, and why a part was measured again (null the
+     * first time).
+     */
+    public record AttemptRecord(int inspection, int number, String operator, String reason) {
+    }
+
+    /** The same record as attempt {@code a}. */
+    public PartResult withAttempt(AttemptRecord a) {
+        return new PartResult(schema, programVersion, lot, serial, partNumber, planPath, planSha256, bench, simulated,
+                startedAt, finishedAt, verdict, error, failedLimits, warnings, inductanceH, inductanceUncertaintyH,
+                inductanceExpandedUncertaintyH, seriesResistanceOhm, seriesResistanceUncertaintyOhm,
+                seriesResistanceExpandedUncertaintyOhm, selfResonanceHz, selfResonanceAboveHz, methods, corrections,
+                model, triangle, dcResistance, limits, points, budgets, instruments, a);
+    }
 
     /** The sweep model: its name, each free parameter with its standard uncertainty, what was dropped. */
     public record ModelRecord(String name, Map<String, ParameterRecord> parameters, List<String> dropped,

@@ -3,14 +3,16 @@ package org.lrbench.run;
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.PrintStream;
+import org.lrbench.results.Names;
 
 /**
  * Operator prompts: "place part 3 of 8, enter or scan its serial". A keyboard-wedge scanner types
  * the serial and Enter. {@code s} skips a position (recorded as not measured), {@code q} stops the
- * lot (it can be resumed); after each part, {@code r} measures it again.
+ * lot (it can be resumed). A serial already measured in this inspection (a double scan, say) is
+ * refused unless the operator gives a reason to measure it again; after each part, {@code r} with a
+ * reason measures it again. Every measurement is kept as its own attempt.
  */
 public final class ConsoleFeeder implements PartFeeder {
-    private static final String SERIAL = "[A-Za-z0-9][A-Za-z0-9._-]{0,63}";
     private final BufferedReader in;
     private final PrintStream out;
 
@@ -20,9 +22,9 @@ public final class ConsoleFeeder implements PartFeeder {
     }
 
     @Override
-    public Next next(int index, int of) {
+    public Next next(Prompt prompt) {
         while (true) {
-            out.printf("place part %d of %d, enter or scan its serial (s skip, q stop): ", index, of);
+            out.printf("place part %d of %d, enter or scan its serial (s skip, q stop): ", prompt.index(), prompt.of());
             out.flush();
             String line = read();
             if (line == null || line.equals("q")) {
@@ -32,21 +34,49 @@ public final class ConsoleFeeder implements PartFeeder {
                 out.print("serial of the skipped part (or Enter for none): ");
                 out.flush();
                 String serial = read();
-                return new Next(Action.SKIP, serial == null || serial.isEmpty() ? "skipped-" + index : serial, null);
+                if (serial == null || serial.isEmpty()) {
+                    return Next.skip("skipped-" + prompt.index());
+                }
+                if (!Names.valid(serial)) {
+                    out.println(Names.problem("serial", serial));
+                    continue;
+                }
+                return Next.skip(serial);
             }
-            if (line.matches(SERIAL)) {
-                return new Next(Action.MEASURE, line, null);
+            if (!Names.valid(line)) {
+                out.println(Names.problem("serial", line));
+                continue;
             }
-            out.println("'" + line + "' is not a serial: 1 to 64 letters, digits, '.', '_' or '-'");
+            if (prompt.measured().contains(line)) {
+                out.printf("%s is already measured in this lot. Reason to measure it again (Enter: do not): ", line);
+                out.flush();
+                String reason = read();
+                if (reason == null || reason.isBlank()) {
+                    out.println(line + " not measured again");
+                    continue;
+                }
+                return new Next(Action.MEASURE, line, null, reason);
+            }
+            return Next.measure(line, null);
         }
     }
 
     @Override
-    public boolean redo(String serial, String verdict) {
+    public String again(String serial, String verdict) {
         out.printf("%s: %s. r + Enter to measure it again, Enter to go on: ", serial, verdict);
         out.flush();
-        String line = read();
-        return "r".equals(line);
+        if (!"r".equals(read())) {
+            return null;
+        }
+        out.print("reason to measure it again: ");
+        out.flush();
+        String reason = read();
+        return reason == null || reason.isBlank() ? null : reason;
+    }
+
+    @Override
+    public void refused(String message) {
+        out.println(message);
     }
 
     private String read() {

@@ -4,36 +4,42 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.PropertyNamingStrategies;
 import java.io.IOException;
-import java.nio.file.Path;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.EnumSet;
 import java.util.HashMap;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import java.util.function.Consumer;
+import java.util.stream.Collectors;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.CharacteristicClass;
 import org.lrbench.judge.Limit;
+import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
+import org.lrbench.results.Attempt;
+import org.lrbench.results.Inspection;
+import org.lrbench.results.LotTerms;
+import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
-import org.lrbench.results.ResultFiles;
 import org.lrbench.sampling.LotDisposition;
 import org.lrbench.sim.SimBench;
-import org.lrbench.store.PartRow;
-import org.lrbench.store.ResultStore;
 import org.lrbench.yaml.ProblemsException;
 
 /**
- * Runs a lot's sample: parts one after another from a {@link PartFeeder}, each result committed to
- * the store and written as JSON as soon as it is complete, until the sample is complete or the
- * feeder stops. Running the same lot again continues after the parts already stored (errors are
- * measured again). The disposition is recorded once the sample decides it.
+ * Runs a lot's sample: parts one after another from a {@link PartFeeder}, each measurement kept
+ * through the {@link LotLedger} as an attempt of its own the moment it is complete, until the
+ * sample is complete or the feeder stops. A lot is inspected under the terms it started with;
+ * running it again continues after the parts already measured (a part whose last attempt ended in
+ * error is measured again). A decided inspection is closed: running it again measures nothing,
+ * unless a re-inspection is asked for with a reason. The attempt that counts for a part is its
+ * latest one in the inspection.
  */
 public final class LotRunner {
     private static final ObjectMapper READ = new ObjectMapper()
@@ -41,126 +47,253 @@ public final class LotRunner {
             .configure(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES, false);
 
     /** Everything a lot run needs besides the feeder. */
-    public record Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
-                        Sleeper sleeper, SweepListener listener, BenchInstruments shared, boolean keepTraces) {
+    public record Setup(PartRun.Request template, int lotSize, String operator, String reinspectReason,
+                        DriverLoader drivers, LotLedger ledger, Sleeper sleeper, SweepListener listener,
+                        BenchInstruments shared, LotStop stop) {
 
-        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
-                     Sleeper sleeper, SweepListener listener, BenchInstruments shared) {
-            this(template, lotSize, drivers, store, runs, sleeper, listener, shared, true);
+        public static Setup of(PartRun.Request template, int lotSize, DriverLoader drivers, LotLedger ledger) {
+            return new Setup(template, lotSize, System.getProperty("user.name", "unknown"), null, drivers, ledger,
+                    Sleeper.NONE, SweepListener.NONE, null, new LotStop());
         }
 
-        /** The same set-up, keeping the trace archive of every part or none. */
-        public Setup withTraces(boolean keep) {
-            return new Setup(template, lotSize, drivers, store, runs, sleeper, listener, shared, keep);
+        public Setup withOperator(String name) {
+            return new Setup(template, lotSize, name, reinspectReason, drivers, ledger, sleeper, listener, shared, stop);
         }
 
-        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
-                     Sleeper sleeper) {
-            this(template, lotSize, drivers, store, runs, sleeper, SweepListener.NONE, null);
+        /** A re-inspection of a decided lot, with its reason. */
+        public Setup reinspecting(String reason) {
+            return new Setup(template, lotSize, operator, reason, drivers, ledger, sleeper, listener, shared, stop);
         }
 
-        public Setup(PartRun.Request template, int lotSize, DriverLoader drivers, ResultStore store, Path runs,
-                     Sleeper sleeper, SweepListener listener) {
-            this(template, lotSize, drivers, store, runs, sleeper, listener, null);
+        public Setup withSleeper(Sleeper s) {
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, s, listener, shared, stop);
+        }
+
+        public Setup withListener(SweepListener l) {
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, l, shared, stop);
+        }
+
+        /** The bench's instruments, open for the whole lot (a switch unit changes parts). */
+        public Setup withShared(BenchInstruments instruments) {
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, listener,
+                    instruments, stop);
+        }
+
+        public Setup withStop(LotStop s) {
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, listener, shared, s);
+        }
+
+        /** The terms this run holds the lot to. */
+        public LotTerms terms() {
+            var plan = template.plan();
+            return new LotTerms(template.lot(), plan.partNumber(), plan.source(), template.planSha256(),
+                    template.bench().name(), lotSize, sampleSize(), plan.sampling().describe(), operator);
+        }
+
+        public int sampleSize() {
+            return LotDisposition.judge(lotSize, template.plan().sampling(), List.of()).sampleSize();
         }
     }
 
-    /** The lot's state after this run. */
-    public record Outcome(List<PartResult> measuredNow, List<PartRow> stored, LotDisposition.Result disposition) {
+    /**
+     * The inspection's state after this run: the attempts kept now, the attempts that count, the
+     * disposition; {@code closed} when the inspection was decided before this run (nothing was
+     * measured), {@code stopped} when a stop request ended it.
+     */
+    public record Outcome(Inspection inspection, List<Attempt> keptNow, List<Attempt> counting,
+                          LotDisposition.Result disposition, boolean closed, boolean stopped) {
     }
 
     private LotRunner() {
     }
 
+    /** A lot run refused before anything was measured: other terms, or a re-inspection of an open lot. */
+    public static final class Refused extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        Refused(String message) {
+            super(message);
+        }
+    }
+
+    /**
+     * What a lot run would do, checked before any instrument is touched: returns the decided
+     * inspection when the lot is closed (the run measures nothing), or null when the run may go on.
+     * Throws {@link Refused} for an open inspection under other terms (naming each stored and given
+     * term) or a re-inspection asked for while the inspection is open.
+     */
+    public static Inspection preflight(Setup s) {
+        var latest = s.ledger().latest(s.template().lot());
+        if (latest.isEmpty()) {
+            return null;
+        }
+        Inspection i = latest.get();
+        if (!i.decided()) {
+            if (s.reinspectReason() != null) {
+                throw new Refused("lot " + i.lot() + ": inspection " + i.round() + " is still open; finish it before"
+                        + " re-inspecting");
+            }
+            List<String> diff = i.terms().differences(s.terms());
+            if (!diff.isEmpty()) {
+                throw new Refused("lot " + i.lot() + " was started on " + i.createdAt() + " under other terms: "
+                        + String.join("; ", diff) + ". Continue it with its own terms, or use another lot number");
+            }
+            return null;
+        }
+        return s.reinspectReason() != null ? null : i;
+    }
+
     public static Outcome run(Setup s, PartFeeder feeder, Consumer<PartResult> onPart) throws IOException, ProblemsException {
         PartRun.Request t = s.template();
-        var scheme = t.plan().sampling();
-        if (scheme == null) {
+        if (t.plan().sampling() == null) {
             throw new IllegalArgumentException(t.plan().source() + ": the plan has no sampling section; a lot run needs"
                     + " one (level and AQL per class)");
         }
-        int n = LotDisposition.judge(s.lotSize(), scheme, List.of()).sampleSize();
-        String now = Instant.now().truncatedTo(ChronoUnit.MILLIS).toString();
-        s.store().beginLot(t.lot(), t.plan().partNumber(), t.plan().source(), t.planSha256(), t.bench().name(),
-                s.lotSize(), n, now);
-        List<PartResult> measured = new ArrayList<>();
-        int seed = 0;
-        while (true) {
-            List<PartRow> stored = s.store().parts(t.lot());
-            long good = stored.stream().filter(r -> r.verdict().equals("pass") || r.verdict().equals("fail")).count();
-            if (good >= n) {
+        String lot = t.lot();
+        Inspection inspection = s.ledger().open(s.terms(), s.reinspectReason());
+        if (inspection.decided()) {
+            List<Attempt> counting = counting(s.ledger().attempts(lot, inspection.round()));
+            return new Outcome(inspection, List.of(), counting, disposition(s, inspection.terms().lotSize(), counting),
+                    true, false);
+        }
+        int n = s.sampleSize();
+        int round = inspection.round();
+        List<Attempt> kept = new ArrayList<>();
+        boolean stopped = false;
+        LotStop stop = s.stop();
+        while (!stopped) {
+            List<Attempt> counting = counting(s.ledger().attempts(lot, round));
+            Map<String, Attempt> bySerial = counting.stream()
+                    .collect(Collectors.toMap(Attempt::serial, a -> a, (a, b) -> b, LinkedHashMap::new));
+            int judged = (int) counting.stream().filter(Attempt::judged).count();
+            if (judged >= n) {
                 break;
             }
-            int position = stored.size() + 1;
-            PartFeeder.Next next = feeder.next((int) good + 1, n);
-            if (next.action() == PartFeeder.Action.STOP) {
+            Set<String> measured = counting.stream().filter(Attempt::judged).map(Attempt::serial).collect(Collectors.toSet());
+            stop.waiting(judged, n);
+            PartFeeder.Next next = feeder.next(new PartFeeder.Prompt(judged + 1, n, Set.copyOf(measured)));
+            stop.working();
+            if (next.action() == PartFeeder.Action.STOP || stop.requested()) {
+                stopped = stop.requested();
                 break;
             }
-            if (next.action() == PartFeeder.Action.SKIP) {
-                s.store().savePart(position, skipped(t, next.serial()));
+            String problem = Names.problem("serial", next.serial());
+            if (problem != null) {
+                throw new IllegalArgumentException(problem);
+            }
+            Attempt before = bySerial.get(next.serial());
+            if (before != null && before.judged() && next.reason() == null) {
+                feeder.refused(next.serial() + " is already measured in this lot (" + before.verdict() + ", attempt "
+                        + before.number() + "); measure it again only with a reason");
                 continue;
             }
-            PartResult r;
-            org.lrbench.traces.TraceRecorder recorder;
-            do {
-                recorder = new org.lrbench.traces.TraceRecorder(s.listener());
-                r = measure(s, next, seed++, recorder);
+            int position = before != null ? before.position() : bySerial.size() + 1;
+            if (next.action() == PartFeeder.Action.SKIP) {
+                PartResult r = skipped(t, next.serial()).withAttempt(new PartResult.AttemptRecord(round,
+                        s.ledger().nextAttempt(lot, next.serial()), s.operator(), next.reason()));
+                Attempt a = stop.unlessStopped(() -> s.ledger().keep(r, position, List.of(), t.plan().senseResistanceOhm()));
+                if (a == null) {
+                    stopped = true;
+                    break;
+                }
+                kept.add(a);
                 onPart.accept(r);
-            } while (feeder.redo(r.serial(), r.verdict()));
-            if (s.keepTraces()) {
-                Path archive = s.runs().resolve(t.lot()).resolve(r.serial() + ".lrtraces");
-                byte[] traces = org.lrbench.traces.TraceArchive.encode(t.lot(), r.serial(), t.plan().partNumber(),
-                        t.plan().senseResistanceOhm(), ResultFiles.JSON.valueToTree(r.instruments()), recorder.points());
-                ResultFiles.writeAtomically(archive, traces);
-                s.store().savePart(position, r, archive.toString(), (long) traces.length);
-            } else {
-                s.store().savePart(position, r);
+                continue;
             }
-            ResultFiles.writeJson(s.runs().resolve(t.lot()).resolve(r.serial() + ".json"), r);
-            measured.add(r);
+            String reason = next.reason();
+            if (reason == null && before != null && before.verdict().equals("error")) {
+                reason = "measured again: attempt " + before.number() + " ended in error";
+            }
+            while (true) {
+                int number = s.ledger().nextAttempt(lot, next.serial());
+                Measured m;
+                try {
+                    m = measure(s, next, number);
+                } catch (LotStop.Stopped dropped) {
+                    stopped = true;
+                    break;
+                }
+                PartResult r = m.result().withAttempt(new PartResult.AttemptRecord(round, number, s.operator(), reason));
+                Attempt a = stop.unlessStopped(() -> s.ledger().keep(r, position, m.points(), t.plan().senseResistanceOhm()));
+                if (a == null) {
+                    stopped = true;
+                    break;
+                }
+                kept.add(a);
+                onPart.accept(r);
+                stop.waiting((int) counting(s.ledger().attempts(lot, round)).stream().filter(Attempt::judged).count(), n);
+                reason = feeder.again(r.serial(), r.verdict());
+                stop.working();
+                if (stop.requested()) {
+                    stopped = true;
+                    break;
+                }
+                if (reason == null) {
+                    break;
+                }
+            }
         }
-        List<PartRow> stored = s.store().parts(t.lot());
-        LotDisposition.Result d = disposition(s, stored);
-        if (d.state() != LotDisposition.State.OPEN) {
-            s.store().finishLot(t.lot(), d.state().name().toLowerCase(Locale.ROOT), d.reason(),
+        List<Attempt> counting = counting(s.ledger().attempts(lot, round));
+        LotDisposition.Result d = disposition(s, s.lotSize(), counting);
+        if (d.state() != LotDisposition.State.OPEN && !stopped) {
+            s.ledger().decide(lot, round, d.state().name().toLowerCase(Locale.ROOT), d.reason(),
                     Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
         }
-        return new Outcome(measured, stored, d);
+        return new Outcome(inspection, List.copyOf(kept), counting, d, false, stopped);
     }
 
-    private static PartResult measure(Setup s, PartFeeder.Next next, int seed, SweepListener listener)
-            throws ProblemsException {
+    private static List<Attempt> counting(List<Attempt> roundAttempts) {
+        return Attempt.counting(roundAttempts);
+    }
+
+    private record Measured(PartResult result, List<PointResult> points) {
+    }
+
+    private static Measured measure(Setup s, PartFeeder.Next next, int attempt) throws ProblemsException {
         PartRun.Request t = s.template();
         BenchConfig bench = t.bench();
         SimBench sim = null;
         if (next.simulated() != null) {
-            // each simulated part gets its own noise: the bench seed advanced per measurement
-            bench = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + seed));
+            // each simulated measurement gets its own noise, the same however often the lot is resumed
+            long offset = Math.floorMod(31L * next.serial().hashCode() + attempt, 1_000_003L);
+            bench = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + offset));
             sim = new SimBench(bench.simulation(), t.plan().wiring(), next.simulated());
         }
         PartRun.Request request = new PartRun.Request(t.plan(), t.planSha256(), bench, t.lot(), next.serial(),
                 t.simulated(), t.programVersion(), t.calibration());
+        List<PointResult> points = new ArrayList<>();
+        SweepListener listener = new SweepListener() {
+            @Override
+            public void pointMeasured(int index, int count, PointResult point) {
+                s.stop().check();
+                points.add(point);
+                s.listener().pointMeasured(index, count, point);
+            }
+        };
+        PartResult r;
         if (sim == null && s.shared() != null) {
-            // the bench's instruments stay open for the whole lot (a switch unit changes parts)
-            return PartRun.measure(request, s.shared(), s.sleeper(), listener);
+            r = PartRun.measure(request, s.shared(), s.sleeper(), listener);
+        } else {
+            try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
+                r = PartRun.measure(request, instruments, s.sleeper(), listener);
+            }
         }
-        try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
-            return PartRun.measure(request, instruments, s.sleeper(), listener);
-        }
+        s.stop().check();
+        return new Measured(r, List.copyOf(points));
     }
 
-    /** The disposition from the stored results, in measuring order. */
-    public static LotDisposition.Result disposition(Setup s, List<PartRow> stored) {
+    /** The disposition from the attempts that count, in measuring order. */
+    public static LotDisposition.Result disposition(Setup s, int lotSize, List<Attempt> counting) {
         Map<String, Limit> byName = new HashMap<>();
         s.template().plan().limits().forEach(l -> byName.put(l.name(), l));
         List<Set<CharacteristicClass>> failed = new ArrayList<>();
-        for (PartRow row : stored) {
-            if (!row.verdict().equals("pass") && !row.verdict().equals("fail")) {
+        for (Attempt a : counting) {
+            if (!a.judged()) {
                 continue;
             }
             Set<CharacteristicClass> classes = EnumSet.noneOf(CharacteristicClass.class);
             try {
-                PartResult r = READ.readValue(row.resultJson(), PartResult.class);
+                PartResult r = READ.readValue(a.resultJson(), PartResult.class);
                 for (PartResult.LimitRecord l : r.limits()) {
                     Limit limit = byName.get(l.name());
                     if (!l.pass() && limit != null) {
@@ -168,11 +301,11 @@ public final class LotRunner {
                     }
                 }
             } catch (IOException e) {
-                throw new IllegalStateException("stored result of " + row.serial() + " is unreadable: " + e.getMessage(), e);
+                throw new IllegalStateException("stored result of " + a.serial() + " is unreadable: " + e.getMessage(), e);
             }
             failed.add(classes);
         }
-        return LotDisposition.judge(s.lotSize(), s.template().plan().sampling(), failed);
+        return LotDisposition.judge(lotSize, s.template().plan().sampling(), failed);
     }
 
     private static PartResult skipped(PartRun.Request t, String serial) {
@@ -180,6 +313,6 @@ public final class LotRunner {
         return new PartResult(PartResult.SCHEMA, t.programVersion(), t.lot(), serial, t.plan().partNumber(),
                 t.plan().source(), t.planSha256(), t.bench().name(), t.simulated(), now, now, "skipped",
                 "skipped by the operator: not measured", List.of(), List.of(), null, null, null, null, null, null,
-                null, null, Map.of(), null, null, null, null, List.of(), List.of(), Map.of(), Map.of());
+                null, null, Map.of(), null, null, null, null, List.of(), List.of(), Map.of(), Map.of(), null);
     }
 }

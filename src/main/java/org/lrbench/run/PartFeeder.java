@@ -1,27 +1,54 @@
 package org.lrbench.run;
 
+import java.util.Set;
 import org.lrbench.sim.PartModel;
 
 /**
- * Brings the next part of a lot's sample to the fixture: an operator at the console, or a tray of
- * simulated parts measured unattended. Returns what to do with position {@code index} of {@code of}.
+ * Brings the next part of a lot's sample to the fixture: an operator at the console or at the
+ * service's page, a tray of simulated parts, or a tray behind a switch unit.
  */
 public interface PartFeeder {
 
-    /** What to do next: measure a part (its serial, and on the simulated bench its model), skip one, or stop. */
-    record Next(Action action, String serial, PartModel simulated) {
+    /**
+     * What the runner asks for: position {@code index} of {@code of}, and the serials already
+     * measured (pass or fail) in this inspection, which may be measured again only on purpose,
+     * with a reason.
+     */
+    record Prompt(int index, int of, Set<String> measured) {
+    }
+
+    /**
+     * What to do next: measure a part (its serial, on the simulated bench its model, and the reason
+     * when it was measured before), skip a position, or stop.
+     */
+    record Next(Action action, String serial, PartModel simulated, String reason) {
 
         public static Next stop() {
-            return new Next(Action.STOP, null, null);
+            return new Next(Action.STOP, null, null, null);
+        }
+
+        public static Next measure(String serial, PartModel simulated) {
+            return new Next(Action.MEASURE, serial, simulated, null);
+        }
+
+        public static Next skip(String serial) {
+            return new Next(Action.SKIP, serial, null, null);
         }
     }
 
     enum Action { MEASURE, SKIP, STOP }
 
-    Next next(int index, int of);
+    Next next(Prompt prompt);
 
-    /** Whether to measure the part just measured again (the operator saw a bad contact, say). */
-    default boolean redo(String serial, String verdict) {
-        return false;
+    /**
+     * Asked after each part: a reason to measure it again at once (the operator saw a bad
+     * contact, say), or null to go on. The new measurement is a new attempt; both are kept.
+     */
+    default String again(String serial, String verdict) {
+        return null;
+    }
+
+    /** Told when the runner refuses what {@link #next} returned, with the reason. */
+    default void refused(String message) {
     }
 }

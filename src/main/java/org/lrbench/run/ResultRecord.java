@@ -76,7 +76,7 @@ final class ResultRecord {
                 have ? analysis.srfHz() : null, have ? analysis.srfAboveHz() : null,
                 methods, corrections(request.calibration()), model,
                 have && analysis.triangle() != null ? triangle(analysis.triangle()) : null, dc,
-                limits, pointRecords, budgets, identities);
+                limits, pointRecords, budgets, identities, null);
     }
 
     private static PartResult.TriangleRecord triangle(org.lrbench.analysis.TriangleExtraction.Result t) {

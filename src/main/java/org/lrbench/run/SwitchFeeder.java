@@ -1,30 +1,27 @@
 package org.lrbench.run;
 
 import java.util.List;
-import java.util.Set;
 import org.lrbench.instrument.Switch;
 
 /**
  * A multi-position fixture behind a switch unit: position i of the tray (serials in tray order)
- * is connected by closing channel 101 + i, so a whole tray is measured unattended. Serials the
- * store already has are passed over.
+ * is connected by closing channel 101 + i, so a whole tray is measured unattended. Serials already
+ * measured in the inspection are passed over.
  */
 public final class SwitchFeeder implements PartFeeder {
     public static final int FIRST_CHANNEL = 101;
     private final Switch unit;
     private final List<String> serials;
-    private final Set<String> done;
     private int next;
 
-    public SwitchFeeder(Switch unit, List<String> serials, Set<String> done) {
+    public SwitchFeeder(Switch unit, List<String> serials) {
         this.unit = unit;
         this.serials = serials;
-        this.done = done;
     }
 
     @Override
-    public Next next(int index, int of) {
-        while (next < serials.size() && done.contains(serials.get(next))) {
+    public Next next(Prompt prompt) {
+        while (next < serials.size() && prompt.measured().contains(serials.get(next))) {
             next++;
         }
         if (next >= serials.size()) {
@@ -33,6 +30,6 @@ public final class SwitchFeeder implements PartFeeder {
         }
         int position = next++;
         unit.connect(FIRST_CHANNEL + position);
-        return new Next(Action.MEASURE, serials.get(position), null);
+        return Next.measure(serials.get(position), null);
     }
 }

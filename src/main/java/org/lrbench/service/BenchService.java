@@ -9,7 +9,6 @@ import java.util.HexFormat;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.Set;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.calibration.CalibrationStore;
@@ -19,6 +18,10 @@ import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
+import java.util.Locale;
+import org.lrbench.records.StoreLedger;
+import org.lrbench.results.Attempt;
+import org.lrbench.results.Inspection;
 import org.lrbench.results.PartResult;
 import org.lrbench.run.LotRunner;
 import org.lrbench.run.PartRun;
@@ -98,13 +101,22 @@ public final class BenchService implements AutoCloseable {
         return out;
     }
 
-    /** Starts a lot run; {@code tray} names a simulated lot in the simulator folder (simulated bench). */
-    public synchronized Run start(String planName, String lot, int lotSize, String trayName) throws Exception {
+    /** What an operator asks for when starting a lot run. */
+    public record StartRequest(String plan, String lot, int lotSize, String tray, String operator, String reinspectReason) {
+    }
+
+    /**
+     * Starts a lot run; {@code tray} names a simulated lot in the simulator folder (simulated
+     * bench). Refused before anything is measured: a run already going (409), a lot started under
+     * other terms (409, naming each), a decided lot without a re-inspection reason (409, with its
+     * disposition), a simulated bench without a tray (400).
+     */
+    public synchronized Run start(StartRequest q) throws Exception {
         if (current != null && current.state.equals("running")) {
             throw new ServiceException(409, "a run is already going on this bench: lot " + current.lot
                     + "; stop it or wait for it to end");
         }
-        Path planFile = inside(config.plans(), planName, "plan");
+        Path planFile = inside(config.plans(), q.plan(), "plan");
         Plan plan;
         try {
             plan = PlanLoader.load(planFile, bench.maxAmplitudeVolt());
@@ -112,27 +124,48 @@ public final class BenchService implements AutoCloseable {
             throw new ServiceException(400, "plan: " + e.getMessage());
         }
         if (plan.sampling() == null) {
-            throw new ServiceException(400, "plan: " + planName + " has no sampling section; a lot run needs one");
+            throw new ServiceException(400, "plan: " + q.plan() + " has no sampling section; a lot run needs one");
         }
         SimLot tray = null;
-        if (trayName != null) {
+        if (q.tray() != null) {
             try {
-                tray = SimLot.load(inside(config.simulator(), trayName, "tray"));
+                tray = SimLot.load(inside(config.simulator(), q.tray(), "tray"));
             } catch (ProblemsException e) {
                 throw new ServiceException(400, "tray: " + e.getMessage());
             }
         }
         String sha = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(planFile)));
-        PartRun.Request template = new PartRun.Request(plan, sha, bench, lot, "-", tray != null, config.programVersion(),
-                new CalibrationStore(config.calibration(), bench.name()).load());
+        PartRun.Request template = new PartRun.Request(plan, sha, bench, q.lot(), "-", tray != null,
+                config.programVersion(), new CalibrationStore(config.calibration(), bench.name()).load());
         ResultStore store = openStore();
-        Set<String> done = store.completed(lot);
-        Run r = new Run(lot, planName);
-        PromptFeeder feeder = new PromptFeeder(r.events, tray, done);
+        Run r = new Run(q.lot(), q.plan());
+        LotRunner.Setup setup;
+        try {
+            setup = LotRunner.Setup.of(template, q.lotSize(), new DriverLoader(config.drivers()),
+                    new StoreLedger(store, config.runs(), true)).withOperator(q.operator())
+                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL);
+            if (q.reinspectReason() != null) {
+                setup = setup.reinspecting(q.reinspectReason());
+            }
+            Inspection closed = LotRunner.preflight(setup);
+            if (closed != null) {
+                throw new ServiceException(409, "lot " + closed.lot() + " is closed: inspection " + closed.round()
+                        + " was decided on " + closed.finishedAt() + ": " + closed.disposition().toUpperCase(Locale.ROOT)
+                        + " (" + closed.dispositionReason() + "). Nothing was measured; to inspect it again give"
+                        + " reinspect_reason");
+            }
+        } catch (LotRunner.Refused e) {
+            store.close();
+            throw new ServiceException(409, e.getMessage());
+        } catch (RuntimeException e) {
+            store.close();
+            throw e;
+        }
+        PromptFeeder feeder = new PromptFeeder(r.events, tray);
         r.feeder = feeder;
-        Sleeper sleeper = tray != null ? Sleeper.NONE : Sleeper.REAL;
-        r.sampleSize = LotDisposition.judge(lotSize, plan.sampling(), List.of()).sampleSize();
-        r.partsDone = done.size();
+        r.sampleSize = setup.sampleSize();
+        List<Attempt> before = store.parts(q.lot());
+        r.partsDone = (int) before.stream().filter(Attempt::judged).count();
         current = r;
         SweepListener points = new SweepListener() {
             @Override
@@ -141,26 +174,22 @@ public final class BenchService implements AutoCloseable {
                         "frequency_hz", p.impedance().frequencyHz(), "impedance_ohm", p.impedance().impedanceOhm().abs()));
             }
         };
-        r.events.add("run_started", Map.of("lot", lot, "plan", planName, "lot_size", lotSize,
-                "sample_size", r.sampleSize, "already_measured", done.size()));
+        r.events.add("run_started", Map.of("lot", q.lot(), "plan", q.plan(), "lot_size", q.lotSize(),
+                "sample_size", r.sampleSize, "already_measured", r.partsDone, "operator", q.operator()));
+        LotRunner.Setup go = setup.withListener(points);
         r.thread = new Thread(() -> {
             try (store) {
-                LotRunner.Setup setup = new LotRunner.Setup(template, lotSize, new DriverLoader(config.drivers()),
-                        store, config.runs(), sleeper, points);
-                LotRunner.Outcome o = LotRunner.run(setup, feeder, part -> {
-                    r.partsDone++;
+                LotRunner.Outcome o = LotRunner.run(go, feeder, part -> {
+                    // called once the part is committed: the event never shows an unstored verdict
+                    List<Attempt> counting = store.parts(q.lot());
+                    r.partsDone = (int) counting.stream().filter(Attempt::judged).count();
                     Map<String, Object> e = partEvent(part);
-                    // the lot's running counts against Ac/Re, with the part just measured
-                    List<org.lrbench.store.PartRow> rows = new ArrayList<>(store.parts(lot));
-                    rows.removeIf(row -> row.serial().equals(part.serial()));
-                    rows.add(new org.lrbench.store.PartRow(lot, part.serial(), rows.size() + 1, part.verdict(), null, null,
-                            part.finishedAt(), org.lrbench.service.ResultFilesJson.write(part)));
-                    e.put("standing", LotRunner.disposition(setup, rows).reason());
+                    e.put("standing", LotRunner.disposition(go, q.lotSize(), counting).reason());
                     r.events.add("part_done", e);
                 });
                 r.state = o.disposition().state() == LotDisposition.State.OPEN ? "stopped" : "finished";
-                r.events.add("lot_done", Map.of("disposition", o.disposition().state().name().toLowerCase(),
-                        "reason", o.disposition().reason(), "state", r.state));
+                r.events.add("lot_done", Map.of("lot", q.lot(), "disposition", o.disposition().state().name()
+                        .toLowerCase(Locale.ROOT), "reason", o.disposition().reason(), "state", r.state));
                 if (!r.state.equals("finished")) {
                     r.reason = "stopped before the sample was complete; start the lot again to resume";
                 }
@@ -169,7 +198,7 @@ public final class BenchService implements AutoCloseable {
                 r.reason = e.getMessage();
                 r.events.add("error", Map.of("reason", String.valueOf(e.getMessage())));
             }
-        }, "lrbench-run-" + lot);
+        }, "lrbench-run-" + q.lot());
         r.thread.setDaemon(true);
         r.thread.start();
         return r;
@@ -178,6 +207,8 @@ public final class BenchService implements AutoCloseable {
     private static Map<String, Object> partEvent(PartResult p) {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("serial", p.serial());
+        m.put("attempt", p.attempt() == null ? 1 : p.attempt().number());
+        m.put("remeasure_reason", p.attempt() == null ? null : p.attempt().reason());
         m.put("verdict", p.verdict());
         m.put("inductance_h", p.inductanceH());
         m.put("series_resistance_ohm", p.seriesResistanceOhm());
@@ -201,6 +232,9 @@ public final class BenchService implements AutoCloseable {
     /** Stops the current run before its next part. */
     public void stop() {
         Run r = currentOr404();
+        if (!r.state.equals("running")) {
+            throw new ServiceException(409, "lot " + r.lot + " is not running (" + r.state + "); nothing to stop");
+        }
         r.feeder.stop();
         r.events.add("stopping", Map.of("text", "stopping after the part in progress; the generator output is off"
                 + " between parts and completed parts are kept"));

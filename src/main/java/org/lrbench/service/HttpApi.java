@@ -34,6 +34,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.function.Consumer;
 import org.lrbench.report.LotReport;
+import org.lrbench.results.Names;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.store.ResultStore;
 
@@ -47,6 +48,9 @@ import org.lrbench.store.ResultStore;
 public final class HttpApi implements AutoCloseable {
     public static final int MAX_BODY = 64 * 1024;
     public static final String TOKEN_HEADER = "X-Lrbench-Token";
+    /** Request bodies: a key given twice is refused, not silently taken as the last one. */
+    private static final com.fasterxml.jackson.databind.ObjectReader STRICT = ResultFiles.JSON.reader()
+            .with(com.fasterxml.jackson.core.StreamReadFeature.STRICT_DUPLICATE_DETECTION);
 
     private final BenchService service;
     private final String token;
@@ -62,7 +66,7 @@ public final class HttpApi implements AutoCloseable {
                 .childHandler(new ChannelInitializer<SocketChannel>() {
                     @Override
                     protected void initChannel(SocketChannel ch) {
-                        ch.pipeline().addLast(new HttpServerCodec(), new HttpObjectAggregator(MAX_BODY), new Handler());
+                        ch.pipeline().addLast(new HttpServerCodec(), new BodyLimit(), new Handler());
                     }
                 }).bind(address, port).awaitUninterruptibly();
         if (!f.isSuccess()) {
@@ -80,6 +84,19 @@ public final class HttpApi implements AutoCloseable {
     public void close() {
         listener.close().awaitUninterruptibly();
         loop.shutdownGracefully(0, 1, java.util.concurrent.TimeUnit.SECONDS).awaitUninterruptibly();
+    }
+
+    /** A request body over the limit is answered like every refusal: a JSON error (413), then the connection closes. */
+    private static final class BodyLimit extends HttpObjectAggregator {
+        BodyLimit() {
+            super(MAX_BODY);
+        }
+
+        @Override
+        protected void handleOversizedMessage(ChannelHandlerContext ctx, io.netty.handler.codec.http.HttpMessage oversized) {
+            json(ctx, HttpResponseStatus.REQUEST_ENTITY_TOO_LARGE, Map.of("error", "body: larger than " + MAX_BODY
+                    + " bytes; nothing was done"));
+        }
     }
 
     private final class Handler extends SimpleChannelInboundHandler<FullHttpRequest> {
@@ -110,14 +127,24 @@ public final class HttpApi implements AutoCloseable {
                 JsonNode b = body(req);
                 String plan = text(b, "plan", true);
                 String lot = text(b, "lot", true);
-                if (!lot.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
-                    throw new ServiceException(400, "lot: '" + lot + "' must be 1 to 64 letters, digits, '.', '_' or '-'");
+                if (!Names.valid(lot)) {
+                    throw new ServiceException(400, "lot: " + Names.problem("lot", lot));
+                }
+                String operator = text(b, "operator", true);
+                if (operator.isBlank()) {
+                    throw new ServiceException(400, "operator: who measures, in words, is required");
+                }
+                String reinspect = text(b, "reinspect_reason", false);
+                if (reinspect != null && reinspect.isBlank()) {
+                    throw new ServiceException(400, "reinspect_reason: a re-inspection needs a reason, in words");
                 }
                 JsonNode size = b.get("lot_size");
-                if (size == null || !size.canConvertToInt() || size.asInt() < 2) {
-                    throw new ServiceException(400, "lot_size: a whole number of at least 2 is required");
+                if (size == null || !size.isIntegralNumber() || !size.canConvertToInt() || size.asInt() < 2) {
+                    throw new ServiceException(400, "lot_size: " + (size == null ? "missing" : "'" + size + "'")
+                            + "; a whole number of at least 2 is required");
                 }
-                var run = service.start(plan, lot, size.asInt(), text(b, "tray", false));
+                var run = service.start(new BenchService.StartRequest(plan, lot, size.asInt(), text(b, "tray", false),
+                        operator, reinspect));
                 json(ctx, HttpResponseStatus.CREATED, run.status());
             } else if (m == HttpMethod.GET && path.equals("/api/runs/current")) {
                 json(ctx, HttpResponseStatus.OK, service.currentOr404().status());
@@ -125,17 +152,26 @@ public final class HttpApi implements AutoCloseable {
                 events(ctx, service.currentOr404().events);
             } else if (m == HttpMethod.POST && path.equals("/api/runs/current/answer")) {
                 JsonNode b = body(req);
+                JsonNode prompt = b.get("prompt");
+                if (prompt == null || !prompt.isIntegralNumber() || prompt.asLong() < 1) {
+                    throw new ServiceException(400, "prompt: the id of the prompt being answered (a whole number,"
+                            + " from the prompt event) is required");
+                }
                 String action = text(b, "action", false);
                 String serial = text(b, "serial", false);
-                if (action != null && !action.equals("skip") && !action.equals("stop")) {
-                    throw new ServiceException(400, "action: '" + action + "' is not skip or stop");
+                String reason = text(b, "reason", false);
+                if (action != null && !List.of("skip", "stop", "again").contains(action)) {
+                    throw new ServiceException(400, "action: '" + action + "' is not skip, stop or again");
                 }
-                if (action == null && (serial == null || !serial.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}"))) {
-                    throw new ServiceException(400, "serial: give the part's serial (letters, digits, '.', '_', '-'),"
+                if ((action == null || action.equals("again")) && serial == null) {
+                    throw new ServiceException(400, "serial: give the part's serial (" + Names.RULE + "),"
                             + " or action skip or stop");
                 }
-                service.currentOr404().feeder.answer(new PromptFeeder.Answer(serial, action));
-                json(ctx, HttpResponseStatus.ACCEPTED, Map.of("accepted", true));
+                if ("again".equals(action) && (reason == null || reason.isBlank())) {
+                    throw new ServiceException(400, "reason: measuring a part again needs a reason, in words");
+                }
+                service.currentOr404().feeder.answer(new PromptFeeder.Answer(prompt.asLong(), serial, action, reason));
+                json(ctx, HttpResponseStatus.ACCEPTED, Map.of("accepted", true, "prompt", prompt.asLong()));
             } else if (m == HttpMethod.POST && path.equals("/api/runs/current/stop")) {
                 service.stop();
                 json(ctx, HttpResponseStatus.ACCEPTED, service.currentOr404().status());
@@ -160,13 +196,30 @@ public final class HttpApi implements AutoCloseable {
                 }
             } else if (m == HttpMethod.GET && parts.size() == 3 && parts.get(0).equals("api") && parts.get(1).equals("lots")) {
                 try (ResultStore s = store()) {
-                    var rows = s.parts(lotName(parts.get(2)));
-                    if (rows.isEmpty()) {
-                        throw new ServiceException(404, "lot: no parts stored for " + parts.get(2));
+                    String lot = lotName(parts.get(2));
+                    var all = s.attempts(lot);
+                    if (all.isEmpty()) {
+                        throw new ServiceException(404, "lot: no parts stored for " + lot);
                     }
-                    json(ctx, HttpResponseStatus.OK, Map.of("lot", parts.get(2), "parts", rows.stream().map(r -> Map.of(
-                            "serial", r.serial(), "position", r.position(), "verdict", r.verdict(),
-                            "result", ResultFilesJson.tree(r.resultJson()))).toList()));
+                    List<Object> rows = new java.util.ArrayList<>();
+                    for (var i : s.lot(lot)) {
+                        var round = all.stream().filter(a -> a.round() == i.round()).toList();
+                        var counting = org.lrbench.results.Attempt.counting(round);
+                        for (var a : round) {
+                            Map<String, Object> row = new java.util.LinkedHashMap<>();
+                            row.put("inspection", a.round());
+                            row.put("serial", a.serial());
+                            row.put("position", a.position());
+                            row.put("attempt", a.number());
+                            row.put("counts", counting.contains(a));
+                            row.put("verdict", a.verdict());
+                            row.put("operator", a.operator());
+                            row.put("reason", a.reason());
+                            row.put("result", ResultFilesJson.tree(a.resultJson()));
+                            rows.add(row);
+                        }
+                    }
+                    json(ctx, HttpResponseStatus.OK, Map.of("lot", lot, "inspections", s.lot(lot), "parts", rows));
                 }
             } else if (m == HttpMethod.GET && parts.size() == 4 && parts.get(0).equals("api") && parts.get(1).equals("lots")
                     && parts.get(3).equals("report")) {
@@ -191,7 +244,7 @@ public final class HttpApi implements AutoCloseable {
         }
 
         private String lotName(String lot) {
-            if (!lot.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
+            if (!Names.valid(lot)) {
                 throw new ServiceException(400, "lot: '" + lot + "' is not a lot number");
             }
             return lot;
@@ -226,13 +279,15 @@ public final class HttpApi implements AutoCloseable {
         private JsonNode body(FullHttpRequest req) {
             String text = req.content().toString(StandardCharsets.UTF_8);
             try {
-                JsonNode n = ResultFiles.JSON.readTree(text);
+                JsonNode n = STRICT.readTree(text);
                 if (n == null || !n.isObject()) {
                     throw new ServiceException(400, "body: a JSON object is required");
                 }
                 return n;
             } catch (IOException e) {
-                throw new ServiceException(400, "body: not valid JSON");
+                String why = e.getMessage() != null && e.getMessage().startsWith("Duplicate field")
+                        ? e.getMessage().lines().findFirst().orElse("") : "not valid JSON";
+                throw new ServiceException(400, "body: " + why);
             }
         }
 

@@ -1,79 +1,113 @@
 package org.lrbench.service;
 
+import java.util.LinkedHashMap;
 import java.util.Map;
-import java.util.Set;
-import java.util.concurrent.BlockingQueue;
-import java.util.concurrent.LinkedBlockingQueue;
-import java.util.concurrent.TimeUnit;
+import org.lrbench.results.Names;
 import org.lrbench.run.PartFeeder;
 import org.lrbench.sim.SimLot;
 
 /**
- * Operator prompts through the service: each position is announced as a {@code prompt} event and
- * waits for an answer (a scanned serial, skip or stop) posted to the API. On the simulated bench the
- * scanned serial picks that part from the simulated tray, as if the operator had placed it.
+ * Operator prompts through the service. Each prompt is announced as a {@code prompt} event with
+ * its own id, and exactly one answer is taken for it: an answer must name the prompt it answers
+ * and is refused (409, nothing measured) when that prompt is not the open one, so scans made
+ * while a part is being measured are not queued. A serial already measured in the inspection (a
+ * double scan) is refused unless the answer is {@code again} with a reason. On the simulated bench
+ * the scanned serial picks that part from the simulated tray, as if the operator had placed it.
  */
 final class PromptFeeder implements PartFeeder {
-    /** An operator's answer: a serial, or the words skip and stop. */
-    record Answer(String serial, String action) {
+    /** An operator's answer to prompt {@code prompt}: a serial, skip, stop, or again (a serial and a reason). */
+    record Answer(long prompt, String serial, String action, String reason) {
     }
 
-    private final BlockingQueue<Answer> answers = new LinkedBlockingQueue<>();
     private final RunEvents events;
     private final SimLot tray;
-    private final Set<String> done;
-    private volatile boolean stopped;
+    private long lastId;
+    private Prompt open;
+    private long openId;
+    private Answer answer;
+    private boolean stopped;
 
-    PromptFeeder(RunEvents events, SimLot tray, Set<String> done) {
+    PromptFeeder(RunEvents events, SimLot tray) {
         this.events = events;
         this.tray = tray;
-        this.done = done;
     }
 
-    void answer(Answer a) {
-        answers.add(a);
+    /** Takes the answer to the open prompt, or refuses it with the reason (nothing is measured then). */
+    synchronized void answer(Answer a) {
+        if (stopped) {
+            throw new ServiceException(409, "the run is stopping; nothing more is measured");
+        }
+        if (open == null) {
+            throw new ServiceException(409, "prompt " + a.prompt() + " is not open: no prompt is open now (a part is"
+                    + " being measured); answer the next prompt when it is shown");
+        }
+        if (a.prompt() != openId) {
+            throw new ServiceException(409, "prompt " + a.prompt() + " is not open; the open prompt is " + openId
+                    + " (place part " + open.index() + " of " + open.of() + "); nothing was measured");
+        }
+        if (a.action() == null || a.action().equals("again")) {
+            String problem = Names.problem("serial", a.serial());
+            if (problem != null) {
+                throw new ServiceException(400, problem);
+            }
+            if (open.measured().contains(a.serial()) && a.action() == null) {
+                throw new ServiceException(409, a.serial() + " is already measured in this lot; to measure it again"
+                        + " answer with action again and a reason (the earlier measurement is kept)");
+            }
+            if (tray != null && tray.parts().stream().noneMatch(p -> p.serial().equals(a.serial()))) {
+                throw new ServiceException(409, a.serial() + " is not on the simulated tray");
+            }
+        }
+        if ("skip".equals(a.action()) && a.serial() != null && !Names.valid(a.serial())) {
+            throw new ServiceException(400, Names.problem("serial", a.serial()));
+        }
+        open = null;
+        answer = a;
+        notifyAll();
     }
 
-    void stop() {
+    synchronized void stop() {
         stopped = true;
-        answers.add(new Answer(null, "stop"));
+        notifyAll();
     }
 
     @Override
-    public Next next(int index, int of) {
-        events.add("prompt", Map.of("position", index, "of", of,
-                "text", "place part " + index + " of " + of + ", enter or scan its serial"));
-        while (!stopped) {
-            Answer a;
-            try {
-                a = answers.poll(1, TimeUnit.SECONDS);
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-                return Next.stop();
-            }
-            if (a == null) {
-                continue;
-            }
-            if ("stop".equals(a.action())) {
-                return Next.stop();
-            }
-            if ("skip".equals(a.action())) {
-                return new Next(Action.SKIP, a.serial() == null ? "skipped-" + index : a.serial(), null);
-            }
-            if (done.contains(a.serial())) {
-                events.add("notice", Map.of("text", a.serial() + " is already measured in this lot"));
-                continue;
-            }
-            if (tray == null) {
-                return new Next(Action.MEASURE, a.serial(), null);
-            }
-            var part = tray.parts().stream().filter(p -> p.serial().equals(a.serial())).findFirst();
-            if (part.isEmpty()) {
-                events.add("notice", Map.of("text", a.serial() + " is not on the simulated tray"));
-                continue;
-            }
-            return new Next(Action.MEASURE, a.serial(), part.get().model());
+    public synchronized Next next(Prompt prompt) {
+        if (stopped) {
+            return Next.stop();
         }
-        return Next.stop();
+        open = prompt;
+        openId = ++lastId;
+        Map<String, Object> e = new LinkedHashMap<>();
+        e.put("prompt", openId);
+        e.put("position", prompt.index());
+        e.put("of", prompt.of());
+        e.put("text", "place part " + prompt.index() + " of " + prompt.of() + ", enter or scan its serial");
+        events.add("prompt", e);
+        try {
+            while (answer == null && !stopped) {
+                wait(1000);
+            }
+        } catch (InterruptedException x) {
+            Thread.currentThread().interrupt();
+            stopped = true;
+        }
+        open = null;
+        Answer a = answer;
+        answer = null;
+        if (stopped || a == null || "stop".equals(a.action())) {
+            return Next.stop();
+        }
+        if ("skip".equals(a.action())) {
+            return Next.skip(a.serial() == null ? "skipped-" + prompt.index() : a.serial());
+        }
+        var model = tray == null ? null : tray.parts().stream().filter(p -> p.serial().equals(a.serial()))
+                .findFirst().orElseThrow().model();
+        return new Next(Action.MEASURE, a.serial(), model, "again".equals(a.action()) ? a.reason() : null);
+    }
+
+    @Override
+    public void refused(String message) {
+        events.add("notice", Map.of("text", message));
     }
 }

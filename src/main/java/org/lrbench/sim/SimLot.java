@@ -38,6 +38,10 @@ public record SimLot(String lot, Path plan, Integer lotSize, List<Part> parts) {
                 continue;
             }
             String serial = m.text("serial", true);
+            if (serial != null && !org.lrbench.results.Names.valid(serial)) {
+                m.problem("serial", org.lrbench.results.Names.problem("serial", serial));
+                serial = null;
+            }
             PartModel model = PartFile.read(m);
             if (serial != null && !serials.add(serial)) {
                 m.problem("serial", "serial '" + serial + "' appears twice in the lot");

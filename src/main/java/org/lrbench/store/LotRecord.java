@@ -1,7 +1,12 @@
 package org.lrbench.store;
 
-/** A lot as the store holds it; disposition null while the lot is open. */
-public record LotRecord(String lot, String partNumber, String planPath, String planSha256, String bench,
-                        Integer lotSize, Integer sampleSize, String createdAt, String disposition,
-                        String dispositionReason, String finishedAt, int measured, int passed, int failed) {
+/**
+ * One inspection of a lot as the store holds it, counted by the attempt that counts for each
+ * part: measured (pass, fail or error; skipped positions are never measured), passed, failed,
+ * errors, skipped, and all attempts stored. The disposition is null while the inspection is open.
+ */
+public record LotRecord(String lot, int round, String partNumber, String planPath, String planSha256, String bench,
+                        Integer lotSize, Integer sampleSize, String sampling, String operator, String reason,
+                        String createdAt, String disposition, String dispositionReason, String finishedAt,
+                        int measured, int passed, int failed, int errors, int skipped, int attempts) {
 }

@@ -26,5 +26,38 @@ final class Migrations {
                     "CREATE INDEX part_result_by_lot ON part_result (lot, position)"),
             List.of(
                     "ALTER TABLE part_result ADD COLUMN traces_file TEXT",
-                    "ALTER TABLE part_result ADD COLUMN traces_bytes BIGINT"));
+                    "ALTER TABLE part_result ADD COLUMN traces_bytes BIGINT"),
+            // step 3: inspections with fixed terms, append-only attempts, and the lot's hash chain;
+            // the rows of steps 1 and 2 move over as round 1, attempt 1 (they carry no hashes)
+            List.of(
+                    "CREATE TABLE inspection (lot TEXT NOT NULL, round INTEGER NOT NULL CHECK (round >= 1),"
+                            + " part_number TEXT NOT NULL, plan_path TEXT NOT NULL, plan_sha256 TEXT NOT NULL,"
+                            + " bench TEXT NOT NULL, lot_size INTEGER CHECK (lot_size >= 1), sample_size INTEGER,"
+                            + " sampling TEXT, operator TEXT, reason TEXT, created_at TEXT NOT NULL, disposition TEXT"
+                            + " CHECK (disposition IN ('accept', 'reject')), disposition_reason TEXT, finished_at TEXT,"
+                            + " PRIMARY KEY (lot, round))",
+                    "INSERT INTO inspection (lot, round, part_number, plan_path, plan_sha256, bench, lot_size, sample_size,"
+                            + " created_at, disposition, disposition_reason, finished_at) SELECT lot, 1, part_number,"
+                            + " plan_path, plan_sha256, bench, lot_size, sample_size, created_at, disposition,"
+                            + " disposition_reason, finished_at FROM lot",
+                    "CREATE TABLE attempt (lot TEXT NOT NULL, serial TEXT NOT NULL, attempt INTEGER NOT NULL"
+                            + " CHECK (attempt >= 1), round INTEGER NOT NULL, position INTEGER NOT NULL, verdict TEXT NOT NULL"
+                            + " CHECK (verdict IN ('pass', 'fail', 'error', 'skipped')), inductance_h DOUBLE PRECISION,"
+                            + " series_resistance_ohm DOUBLE PRECISION, measured_at TEXT NOT NULL,"
+                            + " program_version TEXT NOT NULL, operator TEXT, reason TEXT, result_json TEXT NOT NULL,"
+                            + " json_file TEXT, traces_file TEXT, traces_bytes BIGINT, traces_sha256 TEXT,"
+                            + " PRIMARY KEY (lot, serial, attempt), FOREIGN KEY (lot, round) REFERENCES inspection (lot, round))",
+                    "INSERT INTO attempt (lot, serial, attempt, round, position, verdict, inductance_h,"
+                            + " series_resistance_ohm, measured_at, program_version, result_json, json_file, traces_file,"
+                            + " traces_bytes) SELECT lot, serial, 1, 1, position, verdict, inductance_h, series_resistance_ohm,"
+                            + " measured_at, program_version, result_json, serial || '.json', traces_file, traces_bytes"
+                            + " FROM part_result",
+                    "CREATE INDEX attempt_by_round ON attempt (lot, round, position)",
+                    "CREATE TABLE lot_chain (lot TEXT PRIMARY KEY, length INTEGER NOT NULL, head_sha256 TEXT NOT NULL)",
+                    "CREATE TABLE chain_record (lot TEXT NOT NULL, seq INTEGER NOT NULL, kind TEXT NOT NULL"
+                            + " CHECK (kind IN ('terms', 'attempt', 'decision')), round INTEGER NOT NULL, serial TEXT,"
+                            + " attempt INTEGER, content_sha256 TEXT NOT NULL, previous_sha256 TEXT NOT NULL,"
+                            + " record_sha256 TEXT NOT NULL, PRIMARY KEY (lot, seq))",
+                    "DROP TABLE part_result",
+                    "DROP TABLE lot"));
 }

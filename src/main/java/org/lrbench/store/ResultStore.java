@@ -9,44 +9,117 @@ import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.sql.Statement;
 import java.util.ArrayList;
-import java.util.LinkedHashSet;
+import java.util.Arrays;
+import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Set;
-import org.lrbench.results.PartResult;
-import org.lrbench.results.ResultFiles;
+import java.util.Map;
+import java.util.Optional;
+import org.lrbench.results.Attempt;
+import org.lrbench.results.Inspection;
+import org.lrbench.results.LotTerms;
+import org.sqlite.SQLiteConfig;
 
 /**
  * The results store: an embedded SQLite file (xerial sqlite-jdbc) by default, or a PostgreSQL
  * database through a JDBC URL when several benches share one store. The SQL is the portable subset
- * both speak. Each part result is committed on its own as soon as it is complete, so a crash loses
- * at most the part being measured; the primary key (lot, serial) keeps a part from being stored
- * twice, even by two benches writing at once, and a lot cannot be continued with a plan other than
- * the one it was started with.
+ * both speak.
+ * <ul>
+ * <li>A lot is inspected under fixed terms ({@link LotTerms}); continuing it with other terms is
+ * refused, a decided inspection is closed, and a re-inspection is a new round with its reason.</li>
+ * <li>Every measurement is an {@link Attempt}, committed on its own as soon as it is complete and
+ * never replaced; the attempt that counts for a part is its latest one in the round.</li>
+ * <li>Every record (terms, attempt, decision) is a link of the lot's SHA-256 hash chain
+ * ({@link Canonical}), so {@link #chainFindings} names a row altered, removed or added behind
+ * lrbench's back.</li>
+ * <li>The schema is migrated under a write lock, so benches opening one new store at once agree;
+ * a store of a newer schema is refused and never written; a read-only store can be read.</li>
+ * </ul>
  */
 public final class ResultStore implements AutoCloseable {
+    /** A constant key for PostgreSQL's advisory lock around migrations. */
+    private static final long MIGRATION_LOCK = 0x6c7262656e6368L;
     private final Connection db;
+    private final String where;
+    private final boolean postgres;
+    private final boolean readOnly;
 
-    private ResultStore(Connection db) {
+    private ResultStore(Connection db, String where, boolean postgres, boolean readOnly) {
         this.db = db;
+        this.where = where;
+        this.postgres = postgres;
+        this.readOnly = readOnly;
     }
 
-    /** Opens (creating if needed) an SQLite store file and brings its schema up to date. */
+    /** The schema version this program writes. */
+    public static int latestVersion() {
+        return Migrations.STEPS.size();
+    }
+
+    /**
+     * Opens (creating if needed) an SQLite store file and brings its schema up to date. A file this
+     * process may not write is opened read-only: it can be read if its schema is current.
+     */
     public static ResultStore open(Path file) {
+        boolean readOnly = Files.exists(file) && !Files.isWritable(file);
+        return open(file, readOnly);
+    }
+
+    /** Opens an existing SQLite store for reading only: nothing is migrated or written. */
+    public static ResultStore openForReading(Path file) {
+        if (!Files.isRegularFile(file)) {
+            throw new StoreException("no results store at " + file, null);
+        }
+        return open(file, true);
+    }
+
+    private static ResultStore open(Path file, boolean readOnly) {
+        Connection c = null;
         try {
-            Files.createDirectories(file.toAbsolutePath().getParent());
-            org.sqlite.SQLiteConfig cfg = new org.sqlite.SQLiteConfig();
+            if (!readOnly) {
+                Files.createDirectories(file.toAbsolutePath().getParent());
+            }
+            SQLiteConfig cfg = new SQLiteConfig();
             cfg.enforceForeignKeys(true);
-            cfg.setJournalMode(org.sqlite.SQLiteConfig.JournalMode.WAL);
             cfg.setBusyTimeout(10_000);
-            // a transaction takes the write lock when it begins: two writers then wait for each
-            // other instead of failing when a read would have to turn into a write
-            cfg.setTransactionMode(org.sqlite.SQLiteConfig.TransactionMode.IMMEDIATE);
-            Connection c = DriverManager.getConnection("jdbc:sqlite:" + file, cfg.toProperties());
-            ResultStore store = new ResultStore(c);
-            store.migrate();
+            if (readOnly) {
+                cfg.setReadOnly(true);
+            } else {
+                cfg.setJournalMode(SQLiteConfig.JournalMode.WAL);
+                // a transaction takes the write lock when it begins: two writers then wait for each
+                // other instead of failing when a read would have to turn into a write
+                cfg.setTransactionMode(SQLiteConfig.TransactionMode.IMMEDIATE);
+            }
+            c = connectWithRetry("jdbc:sqlite:" + file, cfg);
+            ResultStore store = new ResultStore(c, file.toString(), false, readOnly);
+            store.prepare();
             return store;
-        } catch (Exception e) {
+        } catch (StoreException e) {
+            closeQuietly(c);
+            throw e;
+        } catch (SQLException e) {
+            closeQuietly(c);
+            throw new StoreException("cannot open the results store " + file + ": " + StoreErrors.describe(e), e);
+        } catch (java.io.IOException e) {
             throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** Setting WAL mode on a new file needs a lock for a moment; a bench opening it at the same time waits. */
+    private static Connection connectWithRetry(String url, SQLiteConfig cfg) throws SQLException {
+        for (int attempt = 1; ; attempt++) {
+            try {
+                return DriverManager.getConnection(url, cfg.toProperties());
+            } catch (SQLException e) {
+                if (attempt >= 50 || !String.valueOf(e.getMessage()).contains("SQLITE_BUSY")) {
+                    throw e;
+                }
+                try {
+                    Thread.sleep(20L * attempt);
+                } catch (InterruptedException i) {
+                    Thread.currentThread().interrupt();
+                    throw e;
+                }
+            }
         }
     }
 
@@ -61,292 +134,670 @@ public final class ResultStore implements AutoCloseable {
         if (!url.startsWith("jdbc:postgresql:")) {
             throw new StoreException("store URL '" + url + "': use jdbc:postgresql://... or jdbc:sqlite:FILE", null);
         }
+        String shown = url.replaceAll("password=[^&]*", "password=***");
+        Connection c = null;
         try {
-            Connection c = DriverManager.getConnection(url);
-            ResultStore store = new ResultStore(c);
-            store.migrate();
+            c = DriverManager.getConnection(url);
+            ResultStore store = new ResultStore(c, shown, true, false);
+            store.prepare();
             return store;
+        } catch (StoreException e) {
+            closeQuietly(c);
+            throw e;
         } catch (SQLException e) {
-            throw new StoreException("cannot open the results store at " + url.replaceAll("password=[^&]*", "password=***")
-                    + ": " + e.getMessage(), e);
+            closeQuietly(c);
+            throw new StoreException("cannot open the results store at " + shown + ": " + StoreErrors.describe(e), e);
         }
     }
 
     /** Work done inside one transaction. */
     @FunctionalInterface
-    private interface Work {
-        void run() throws SQLException;
+    private interface Work<T> {
+        T run() throws SQLException;
     }
 
     /** Runs work as one transaction: committed whole, or rolled back whole on any failure. */
-    private void inTransaction(Work work) throws SQLException {
+    private <T> T inTransaction(Work<T> work) throws SQLException {
+        if (readOnly) {
+            throw new StoreException("the results store " + where + " is open for reading only (the file is not"
+                    + " writable here); nothing was written", null);
+        }
         db.setAutoCommit(false);
         try {
-            work.run();
+            T out = work.run();
             db.commit();
+            return out;
         } catch (SQLException | RuntimeException e) {
-            db.rollback();
+            try {
+                db.rollback();
+            } catch (SQLException afterFailure) {
+                e.addSuppressed(afterFailure);
+            }
             throw e;
         } finally {
-            db.setAutoCommit(true);
+            try {
+                db.setAutoCommit(true);
+            } catch (SQLException afterFailure) {
+                // the connection is unusable; the original failure is what the caller reports
+            }
         }
     }
 
-    /** The schema version the store is at. */
+    /** The schema version the store is at (0 for a new store). */
     public int version() {
+        try {
+            return readVersion();
+        } catch (SQLException e) {
+            throw new StoreException("reading the schema version of " + where + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    private int readVersion() throws SQLException {
         try (Statement s = db.createStatement(); ResultSet r = s.executeQuery("SELECT version FROM schema_version")) {
             return r.next() ? r.getInt(1) : 0;
         } catch (SQLException e) {
-            throw new StoreException("reading the schema version failed: " + e.getMessage(), e);
-        }
-    }
-
-    private void migrate() throws SQLException {
-        try (Statement s = db.createStatement()) {
-            s.execute("CREATE TABLE IF NOT EXISTS schema_version (version INTEGER NOT NULL)");
-        }
-        int at = version();
-        for (int step = at; step < Migrations.STEPS.size(); step++) {
-            int version = step + 1;
-            List<String> statements = Migrations.STEPS.get(step);
-            inTransaction(() -> {
-                try (Statement s = db.createStatement()) {
-                    for (String sql : statements) {
-                        s.execute(sql);
-                    }
-                    s.execute("DELETE FROM schema_version");
-                    s.execute("INSERT INTO schema_version (version) VALUES (" + version + ")");
-                }
-            });
-        }
-    }
-
-    /** Records a lot, or checks that an existing one was started with the same plan. */
-    public void beginLot(String lot, String partNumber, String planPath, String planSha256, String bench,
-                         Integer lotSize, Integer sampleSize, String now) {
-        try {
-            try (PreparedStatement q = db.prepareStatement("SELECT plan_sha256, disposition FROM lot WHERE lot = ?")) {
-                q.setString(1, lot);
-                try (ResultSet r = q.executeQuery()) {
-                    if (r.next()) {
-                        if (!r.getString(1).equals(planSha256)) {
-                            throw new StoreException("lot " + lot + " was started with another plan (content "
-                                    + r.getString(1).substring(0, 12) + "..., this one " + planSha256.substring(0, 12)
-                                    + "...); use another lot number or the original plan", null);
-                        }
-                        return;
-                    }
-                }
+            if (String.valueOf(e.getMessage()).toLowerCase(java.util.Locale.ROOT).contains("no such table")
+                    || "42P01".equals(e.getSQLState())) {
+                return 0;
             }
-            try (PreparedStatement p = db.prepareStatement("INSERT INTO lot (lot, part_number, plan_path, plan_sha256,"
-                    + " bench, lot_size, sample_size, created_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)")) {
-                p.setString(1, lot);
-                p.setString(2, partNumber);
-                p.setString(3, planPath);
-                p.setString(4, planSha256);
-                p.setString(5, bench);
-                p.setObject(6, lotSize);
-                p.setObject(7, sampleSize);
-                p.setString(8, now);
-                p.executeUpdate();
-            }
-        } catch (SQLException e) {
-            throw new StoreException("recording lot " + lot + " failed: " + e.getMessage(), e);
+            throw e;
         }
-    }
-
-    /** Commits one part's result; an earlier error result of the same serial is replaced. */
-    public void savePart(int position, PartResult result) {
-        savePart(position, result, null, null);
-    }
-
-    /** Commits one part's result with the trace archive it references (or nulls without one). */
-    public void savePart(int position, PartResult result, String tracesFile, Long tracesBytes) {
-        try {
-            String json = ResultFiles.JSON.writeValueAsString(result);
-            inTransaction(() -> {
-                try (PreparedStatement q = db.prepareStatement(
-                        "SELECT verdict FROM part_result WHERE lot = ? AND serial = ?")) {
-                    q.setString(1, result.lot());
-                    q.setString(2, result.serial());
-                    try (ResultSet r = q.executeQuery()) {
-                        if (r.next() && !r.getString(1).equals("error")) {
-                            throw new StoreException("serial " + result.serial() + " of lot " + result.lot()
-                                    + " is already stored with verdict " + r.getString(1), null);
-                        }
-                    }
-                }
-                try (PreparedStatement d = db.prepareStatement(
-                        "DELETE FROM part_result WHERE lot = ? AND serial = ? AND verdict = 'error'")) {
-                    d.setString(1, result.lot());
-                    d.setString(2, result.serial());
-                    d.executeUpdate();
-                }
-                try (PreparedStatement p = db.prepareStatement("INSERT INTO part_result (lot, serial, position,"
-                        + " verdict, inductance_h, series_resistance_ohm, measured_at, program_version, result_json,"
-                        + " traces_file, traces_bytes) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
-                    p.setString(1, result.lot());
-                    p.setString(2, result.serial());
-                    p.setInt(3, position);
-                    p.setString(4, result.verdict());
-                    p.setObject(5, result.inductanceH());
-                    p.setObject(6, result.seriesResistanceOhm());
-                    p.setString(7, result.finishedAt());
-                    p.setString(8, result.programVersion());
-                    p.setString(9, json);
-                    p.setString(10, tracesFile);
-                    p.setObject(11, tracesBytes);
-                    p.executeUpdate();
-                }
-            });
-        } catch (SQLException | com.fasterxml.jackson.core.JsonProcessingException e) {
-            throw new StoreException("storing " + result.serial() + " of lot " + result.lot() + " failed: "
-                    + e.getMessage(), e);
-        }
-    }
-
-    /** Serials of a lot that need no measuring again (everything but errors). */
-    public Set<String> completed(String lot) {
-        Set<String> out = new LinkedHashSet<>();
-        for (PartRow r : parts(lot)) {
-            if (!r.verdict().equals("error")) {
-                out.add(r.serial());
-            }
-        }
-        return out;
-    }
-
-    /** Removes a lot and its parts (the demo starts its lot afresh; nothing else deletes). */
-    public void deleteLot(String lot) {
-        try {
-            inTransaction(() -> {
-                try (PreparedStatement a = db.prepareStatement("DELETE FROM part_result WHERE lot = ?");
-                     PreparedStatement b = db.prepareStatement("DELETE FROM lot WHERE lot = ?")) {
-                    a.setString(1, lot);
-                    a.executeUpdate();
-                    b.setString(1, lot);
-                    b.executeUpdate();
-                }
-            });
-        } catch (SQLException e) {
-            throw new StoreException("removing lot " + lot + " failed: " + e.getMessage(), e);
-        }
-    }
-
-    public void finishLot(String lot, String disposition, String reason, String now) {
-        try (PreparedStatement p = db.prepareStatement(
-                "UPDATE lot SET disposition = ?, disposition_reason = ?, finished_at = ? WHERE lot = ?")) {
-            p.setString(1, disposition);
-            p.setString(2, reason);
-            p.setString(3, now);
-            p.setString(4, lot);
-            p.executeUpdate();
-        } catch (SQLException e) {
-            throw new StoreException("recording the disposition of lot " + lot + " failed: " + e.getMessage(), e);
-        }
-    }
-
-    public List<PartRow> parts(String lot) {
-        List<PartRow> out = new ArrayList<>();
-        try (PreparedStatement q = db.prepareStatement("SELECT lot, serial, position, verdict, inductance_h,"
-                + " series_resistance_ohm, measured_at, result_json FROM part_result WHERE lot = ? ORDER BY position")) {
-            q.setString(1, lot);
-            try (ResultSet r = q.executeQuery()) {
-                while (r.next()) {
-                    out.add(new PartRow(r.getString(1), r.getString(2), r.getInt(3), r.getString(4),
-                            real(r, 5), real(r, 6), r.getString(7), r.getString(8)));
-                }
-            }
-        } catch (SQLException e) {
-            throw new StoreException("reading lot " + lot + " failed: " + e.getMessage(), e);
-        }
-        return out;
-    }
-
-    public List<LotRecord> lots() {
-        List<LotRecord> out = new ArrayList<>();
-        String sql = "SELECT l.lot, l.part_number, l.plan_path, l.plan_sha256, l.bench, l.lot_size, l.sample_size,"
-                + " l.created_at, l.disposition, l.disposition_reason, l.finished_at,"
-                + " COUNT(p.serial), SUM(CASE WHEN p.verdict = 'pass' THEN 1 ELSE 0 END),"
-                + " SUM(CASE WHEN p.verdict = 'fail' THEN 1 ELSE 0 END)"
-                + " FROM lot l LEFT JOIN part_result p ON p.lot = l.lot GROUP BY l.lot, l.part_number, l.plan_path,"
-                + " l.plan_sha256, l.bench, l.lot_size, l.sample_size, l.created_at, l.disposition,"
-                + " l.disposition_reason, l.finished_at ORDER BY l.created_at";
-        try (Statement s = db.createStatement(); ResultSet r = s.executeQuery(sql)) {
-            while (r.next()) {
-                out.add(new LotRecord(r.getString(1), r.getString(2), r.getString(3), r.getString(4), r.getString(5),
-                        whole(r, 6), whole(r, 7), r.getString(8), r.getString(9),
-                        r.getString(10), r.getString(11), r.getInt(12), r.getInt(13), r.getInt(14)));
-            }
-        } catch (SQLException e) {
-            throw new StoreException("listing lots failed: " + e.getMessage(), e);
-        }
-        return out;
     }
 
     /**
-     * A part number's lots in the order they were started, with yield (passed over passed and
-     * failed) and the mean and sample standard deviation of the measured L and R.
+     * Checks the schema and brings it up to date. The version is read and every missing step applied
+     * inside one write transaction (and, on PostgreSQL, under an advisory lock), so stores opened by
+     * several benches at the same moment are migrated exactly once.
      */
-    public List<LotStatistics> history(String partNumber) {
-        List<LotStatistics> out = new ArrayList<>();
-        String sql = "SELECT l.lot, l.created_at, l.disposition, p.verdict, p.inductance_h, p.series_resistance_ohm"
-                + " FROM lot l LEFT JOIN part_result p ON p.lot = l.lot AND p.verdict IN ('pass', 'fail')"
-                + " WHERE l.part_number = ? ORDER BY l.created_at, l.lot, p.position";
-        try (PreparedStatement q = db.prepareStatement(sql)) {
-            q.setString(1, partNumber);
-            try (ResultSet r = q.executeQuery()) {
-                String lot = null;
-                String created = null;
-                String disposition = null;
-                List<double[]> values = new ArrayList<>();
-                int passed = 0;
-                while (r.next()) {
-                    if (!r.getString(1).equals(lot)) {
-                        if (lot != null) {
-                            out.add(stats(lot, created, disposition, values, passed));
-                        }
-                        lot = r.getString(1);
-                        created = r.getString(2);
-                        disposition = r.getString(3);
-                        values = new ArrayList<>();
-                        passed = 0;
-                    }
-                    if (r.getString(4) != null) {
-                        passed += r.getString(4).equals("pass") ? 1 : 0;
-                        Double l = real(r, 5);
-                        Double res = real(r, 6);
-                        values.add(new double[] {l == null ? Double.NaN : l, res == null ? Double.NaN : res});
-                    }
+    private void prepare() throws SQLException {
+        if (postgres) {
+            // a failed statement aborts a PostgreSQL transaction, so look before taking the lock
+            db.setAutoCommit(true);
+        }
+        int at = readVersionIfAny();
+        refuseNewer(at);
+        if (at == latestVersion()) {
+            return;
+        }
+        if (readOnly) {
+            throw new StoreException("the results store " + where + " is at schema version " + at + " and this lrbench"
+                    + " needs " + latestVersion() + "; it is read-only here, so it cannot be upgraded: open it once where"
+                    + " it is writable", null);
+        }
+        inTransaction(() -> {
+            try (Statement s = db.createStatement()) {
+                if (postgres) {
+                    s.execute("SELECT pg_advisory_xact_lock(" + MIGRATION_LOCK + ")");
                 }
-                if (lot != null) {
-                    out.add(stats(lot, created, disposition, values, passed));
+                s.execute("CREATE TABLE IF NOT EXISTS schema_version (version INTEGER NOT NULL)");
+            }
+            int now = readVersion();
+            refuseNewer(now);
+            for (int step = now; step < latestVersion(); step++) {
+                try (Statement s = db.createStatement()) {
+                    for (String sql : Migrations.STEPS.get(step)) {
+                        s.execute(sql);
+                    }
                 }
             }
+            if (now < 3) {
+                sealEarlierRows();
+            }
+            if (now < latestVersion()) {
+                try (Statement s = db.createStatement()) {
+                    s.execute("DELETE FROM schema_version");
+                    s.execute("INSERT INTO schema_version (version) VALUES (" + latestVersion() + ")");
+                }
+            }
+            return null;
+        });
+    }
+
+    /**
+     * Rows moved over from schema 2 and older had no hashes: they get their links now, in the
+     * migration's transaction, so the chain proves from here on that nothing changed.
+     */
+    private void sealEarlierRows() throws SQLException {
+        List<Inspection> all = inspections(null);
+        for (Inspection i : all) {
+            lockChain(i.lot());
+            appendChain(i.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
+            for (HashedAttempt h : attemptsWithHashes(i.lot())) {
+                Attempt a = h.attempt();
+                appendChain(a.lot(), "attempt", a.round(), a.serial(), a.number(),
+                        Canonical.sha256(Canonical.attempt(a, h.programVersion(), h.tracesSha256())));
+            }
+            if (i.decided()) {
+                appendChain(i.lot(), "decision", i.round(), null, null, Canonical.sha256(Canonical.decision(i)));
+            }
+        }
+    }
+
+    /** The version, or 0 where there is no schema yet; never writes. */
+    private int readVersionIfAny() throws SQLException {
+        if (postgres) {
+            try (Statement s = db.createStatement();
+                 ResultSet r = s.executeQuery("SELECT to_regclass('schema_version') IS NOT NULL")) {
+                if (!r.next() || !r.getBoolean(1)) {
+                    return 0;
+                }
+            }
+        }
+        return readVersion();
+    }
+
+    private void refuseNewer(int at) {
+        if (at > latestVersion()) {
+            throw new StoreException("the results store " + where + " is at schema version " + at + ", newer than this"
+                    + " lrbench knows (" + latestVersion() + "); it was written by a newer lrbench. Use that version;"
+                    + " nothing was changed", null);
+        }
+    }
+
+    // ---- inspections -------------------------------------------------------------------------
+
+    /**
+     * The inspection a lot run works on. A new lot starts inspection 1 under the given terms. An
+     * open inspection is continued only under the same terms ({@link LotTermsException} names every
+     * difference). A decided inspection is returned as it is (closed: nothing more is measured), unless
+     * {@code reinspectReason} is given, which opens the next round under the given terms.
+     */
+    public Inspection inspect(LotTerms given, String reinspectReason, String now) {
+        try {
+            return inTransaction(() -> {
+                lockChain(given.lot());
+                Optional<Inspection> latest = latestInspection(given.lot());
+                if (latest.isEmpty()) {
+                    return insertInspection(new Inspection(given, 1, null, now, null, null, null));
+                }
+                Inspection cur = latest.get();
+                if (!cur.decided()) {
+                    if (reinspectReason != null) {
+                        throw new LotTermsException("lot " + given.lot() + ": inspection " + cur.round() + " is still"
+                                + " open; finish it (run without the re-inspection option) before re-inspecting", List.of());
+                    }
+                    List<String> diff = cur.terms().differences(given);
+                    if (!diff.isEmpty()) {
+                        throw new LotTermsException("lot " + given.lot() + " was started on " + cur.createdAt()
+                                + " under other terms: " + String.join("; ", diff) + ". Continue it with its own terms,"
+                                + " or use another lot number", diff);
+                    }
+                    return cur;
+                }
+                if (reinspectReason == null) {
+                    return cur;
+                }
+                return insertInspection(new Inspection(given, cur.round() + 1, reinspectReason, now, null, null, null));
+            });
         } catch (SQLException e) {
-            throw new StoreException("reading the history of " + partNumber + " failed: " + e.getMessage(), e);
+            throw new StoreException("recording lot " + given.lot() + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    private Inspection insertInspection(Inspection i) throws SQLException {
+        LotTerms t = i.terms();
+        try (PreparedStatement p = db.prepareStatement("INSERT INTO inspection (lot, round, part_number, plan_path,"
+                + " plan_sha256, bench, lot_size, sample_size, sampling, operator, reason, created_at)"
+                + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+            p.setString(1, t.lot());
+            p.setInt(2, i.round());
+            p.setString(3, t.partNumber());
+            p.setString(4, t.planPath());
+            p.setString(5, t.planSha256());
+            p.setString(6, t.bench());
+            p.setObject(7, t.lotSize());
+            p.setObject(8, t.sampleSize());
+            p.setString(9, t.sampling());
+            p.setString(10, t.operator());
+            p.setString(11, i.reason());
+            p.setString(12, i.createdAt());
+            p.executeUpdate();
+        }
+        appendChain(t.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
+        return i;
+    }
+
+    /** The lot's latest inspection, if the lot is stored. */
+    public Optional<Inspection> latestInspection(String lot) {
+        try {
+            List<Inspection> all = inspections(lot);
+            return all.isEmpty() ? Optional.empty() : Optional.of(all.get(all.size() - 1));
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    private static final String INSPECTION_COLUMNS = "lot, round, part_number, plan_path, plan_sha256, bench, lot_size,"
+            + " sample_size, sampling, operator, reason, created_at, disposition, disposition_reason, finished_at";
+
+    private List<Inspection> inspections(String lot) throws SQLException {
+        String sql = "SELECT " + INSPECTION_COLUMNS + " FROM inspection" + (lot == null ? "" : " WHERE lot = ?")
+                + " ORDER BY created_at, lot, round";
+        List<Inspection> out = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement(sql)) {
+            if (lot != null) {
+                q.setString(1, lot);
+            }
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    out.add(inspection(r));
+                }
+            }
         }
         return out;
     }
 
-    private static LotStatistics stats(String lot, String created, String disposition, List<double[]> v, int passed) {
-        double[] mean = new double[2];
-        double[] sd = new double[2];
-        for (int k = 0; k < 2; k++) {
-            final int c = k;
-            double[] xs = v.stream().mapToDouble(a -> a[c]).filter(Double::isFinite).toArray();
-            if (xs.length > 0) {
-                mean[k] = java.util.Arrays.stream(xs).average().orElse(Double.NaN);
-                sd[k] = xs.length > 1 ? Math.sqrt(java.util.Arrays.stream(xs).map(x -> (x - mean[c]) * (x - mean[c])).sum()
-                        / (xs.length - 1)) : Double.NaN;
-            } else {
-                mean[k] = Double.NaN;
-                sd[k] = Double.NaN;
+    private static Inspection inspection(ResultSet r) throws SQLException {
+        LotTerms t = new LotTerms(r.getString(1), r.getString(3), r.getString(4), r.getString(5), r.getString(6),
+                whole(r, 7), whole(r, 8), r.getString(9), r.getString(10));
+        return new Inspection(t, r.getInt(2), r.getString(11), r.getString(12), r.getString(13), r.getString(14),
+                r.getString(15));
+    }
+
+    /**
+     * Records the disposition of an open inspection, once. Returns false (and changes nothing) when
+     * the inspection was already decided.
+     */
+    public boolean decide(String lot, int round, String disposition, String reason, String now) {
+        try {
+            return inTransaction(() -> {
+                lockChain(lot);
+                int n;
+                try (PreparedStatement p = db.prepareStatement("UPDATE inspection SET disposition = ?,"
+                        + " disposition_reason = ?, finished_at = ? WHERE lot = ? AND round = ? AND disposition IS NULL")) {
+                    p.setString(1, disposition);
+                    p.setString(2, reason);
+                    p.setString(3, now);
+                    p.setString(4, lot);
+                    p.setInt(5, round);
+                    n = p.executeUpdate();
+                }
+                if (n == 0) {
+                    return false;
+                }
+                Inspection i = inspections(lot).stream().filter(x -> x.round() == round).findFirst().orElseThrow();
+                appendChain(lot, "decision", round, null, null, Canonical.sha256(Canonical.decision(i)));
+                return true;
+            });
+        } catch (SQLException e) {
+            throw new StoreException("recording the disposition of lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    // ---- attempts ----------------------------------------------------------------------------
+
+    /**
+     * Commits one attempt and its link in the lot's hash chain. The attempt number must be the next
+     * one of the serial: when another run stored that number first, the commit is refused and
+     * nothing is written.
+     */
+    public void record(Attempt a, String programVersion, String tracesSha256) {
+        try {
+            inTransaction(() -> {
+                lockChain(a.lot());
+                int next = nextAttempt(a.lot(), a.serial());
+                if (a.number() != next) {
+                    throw new StoreException("serial " + a.serial() + " of lot " + a.lot() + " already has attempt "
+                            + a.number() + " (stored by another run meanwhile); this measurement was not stored", null);
+                }
+                Inspection open = latestInspection(a.lot()).orElseThrow(() -> new StoreException("lot " + a.lot()
+                        + " is not stored; start it before storing parts", null));
+                if (open.round() != a.round() || open.decided()) {
+                    throw new StoreException("inspection " + a.round() + " of lot " + a.lot() + " is closed"
+                            + " (decided or followed by a re-inspection); this measurement was not stored", null);
+                }
+                try (PreparedStatement p = db.prepareStatement("INSERT INTO attempt (lot, serial, attempt, round,"
+                        + " position, verdict, inductance_h, series_resistance_ohm, measured_at, program_version,"
+                        + " operator, reason, result_json, json_file, traces_file, traces_bytes, traces_sha256)"
+                        + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                    p.setString(1, a.lot());
+                    p.setString(2, a.serial());
+                    p.setInt(3, a.number());
+                    p.setInt(4, a.round());
+                    p.setInt(5, a.position());
+                    p.setString(6, a.verdict());
+                    p.setObject(7, a.inductanceH());
+                    p.setObject(8, a.seriesResistanceOhm());
+                    p.setString(9, a.measuredAt());
+                    p.setString(10, programVersion);
+                    p.setString(11, a.operator());
+                    p.setString(12, a.reason());
+                    p.setString(13, a.resultJson());
+                    p.setString(14, a.jsonFile());
+                    p.setString(15, a.tracesFile());
+                    p.setObject(16, a.tracesBytes());
+                    p.setString(17, tracesSha256);
+                    p.executeUpdate();
+                }
+                appendChain(a.lot(), "attempt", a.round(), a.serial(), a.number(),
+                        Canonical.sha256(Canonical.attempt(a, programVersion, tracesSha256)));
+                return null;
+            });
+        } catch (SQLException e) {
+            throw new StoreException("storing " + a.serial() + " of lot " + a.lot() + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    /** The number the serial's next attempt in the lot gets: 1 for a serial not yet stored. */
+    public int nextAttempt(String lot, String serial) {
+        try (PreparedStatement q = db.prepareStatement("SELECT MAX(attempt) FROM attempt WHERE lot = ? AND serial = ?")) {
+            q.setString(1, lot);
+            q.setString(2, serial);
+            try (ResultSet r = q.executeQuery()) {
+                return r.next() ? r.getInt(1) + 1 : 1;
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    private static final String ATTEMPT_COLUMNS = "lot, serial, attempt, round, position, verdict, inductance_h,"
+            + " series_resistance_ohm, measured_at, operator, reason, result_json, json_file, traces_file, traces_bytes";
+
+    /** Every attempt of a lot, by round, position and attempt number. */
+    public List<Attempt> attempts(String lot) {
+        List<Attempt> out = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement("SELECT " + ATTEMPT_COLUMNS + " FROM attempt WHERE lot = ?"
+                + " ORDER BY round, position, attempt")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    out.add(attempt(r));
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    /** The attempts of one inspection round. */
+    public List<Attempt> attempts(String lot, int round) {
+        return attempts(lot).stream().filter(a -> a.round() == round).toList();
+    }
+
+    /** The counting attempts of the lot's latest inspection (empty for a lot not stored). */
+    public List<Attempt> parts(String lot) {
+        Optional<Inspection> i = latestInspection(lot);
+        return i.isEmpty() ? List.of() : Attempt.counting(attempts(lot, i.get().round()));
+    }
+
+    private static Attempt attempt(ResultSet r) throws SQLException {
+        String traces = r.getString(14);
+        if (traces != null) {
+            // stores before schema 3 kept the archive's whole path; records name files in the lot's folder
+            traces = Path.of(traces).getFileName().toString();
+        }
+        Long bytes = r.getLong(15);
+        if (r.wasNull()) {
+            bytes = null;
+        }
+        return new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5), r.getString(6),
+                real(r, 7), real(r, 8), r.getString(9), r.getString(10), r.getString(11), r.getString(12),
+                r.getString(13), traces, bytes);
+    }
+
+    /** Removes a lot, its parts and its chain (the demo starts its lot afresh; nothing else deletes). */
+    public void deleteLot(String lot) {
+        try {
+            inTransaction(() -> {
+                for (String table : List.of("attempt", "chain_record", "lot_chain", "inspection")) {
+                    try (PreparedStatement p = db.prepareStatement("DELETE FROM " + table + " WHERE lot = ?")) {
+                        p.setString(1, lot);
+                        p.executeUpdate();
+                    }
+                }
+                return null;
+            });
+        } catch (SQLException e) {
+            throw new StoreException("removing lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    // ---- the hash chain ----------------------------------------------------------------------
+
+    /**
+     * Takes the lot's chain row for this transaction (creating it for a new lot): on PostgreSQL the
+     * update locks the row until commit, so two benches appending to one lot take turns; SQLite's
+     * immediate transactions already serialize writers.
+     */
+    private void lockChain(String lot) throws SQLException {
+        int n;
+        try (PreparedStatement p = db.prepareStatement("UPDATE lot_chain SET length = length WHERE lot = ?")) {
+            p.setString(1, lot);
+            n = p.executeUpdate();
+        }
+        if (n == 0) {
+            try (PreparedStatement p = db.prepareStatement(
+                    "INSERT INTO lot_chain (lot, length, head_sha256) VALUES (?, 0, ?)")) {
+                p.setString(1, lot);
+                p.setString(2, Canonical.GENESIS);
+                p.executeUpdate();
             }
         }
-        int n = v.size();
-        return new LotStatistics(lot, created, disposition, n, passed, n == 0 ? Double.NaN : (double) passed / n,
-                finite(mean[0]), finite(sd[0]), finite(mean[1]), finite(sd[1]));
+    }
+
+    private void appendChain(String lot, String kind, int round, String serial, Integer attempt, String content)
+            throws SQLException {
+        int length;
+        String head;
+        try (PreparedStatement q = db.prepareStatement("SELECT length, head_sha256 FROM lot_chain WHERE lot = ?")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                if (!r.next()) {
+                    throw new StoreException("lot " + lot + " has no hash chain row", null);
+                }
+                length = r.getInt(1);
+                head = r.getString(2);
+            }
+        }
+        String record = Canonical.chain(head, content);
+        try (PreparedStatement p = db.prepareStatement("INSERT INTO chain_record (lot, seq, kind, round, serial, attempt,"
+                + " content_sha256, previous_sha256, record_sha256) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+            p.setString(1, lot);
+            p.setInt(2, length + 1);
+            p.setString(3, kind);
+            p.setInt(4, round);
+            p.setString(5, serial);
+            p.setObject(6, attempt);
+            p.setString(7, content);
+            p.setString(8, head);
+            p.setString(9, record);
+            p.executeUpdate();
+        }
+        try (PreparedStatement p = db.prepareStatement(
+                "UPDATE lot_chain SET length = ?, head_sha256 = ? WHERE lot = ?")) {
+            p.setInt(1, length + 1);
+            p.setString(2, record);
+            p.setString(3, lot);
+            p.executeUpdate();
+        }
+    }
+
+    /** The lots that have rows anywhere in the store (inspections, attempts or chain links). */
+    public List<String> lotNames() {
+        List<String> out = new ArrayList<>();
+        String sql = "SELECT lot FROM inspection UNION SELECT lot FROM attempt UNION SELECT lot FROM lot_chain"
+                + " UNION SELECT lot FROM chain_record ORDER BY 1";
+        try (Statement s = db.createStatement(); ResultSet r = s.executeQuery(sql)) {
+            while (r.next()) {
+                out.add(r.getString(1));
+            }
+        } catch (SQLException e) {
+            throw new StoreException("listing lots failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    /** The lot's chain head (hash of its last record), or null for a lot without a chain. */
+    public String chainHead(String lot) {
+        try (PreparedStatement q = db.prepareStatement("SELECT head_sha256 FROM lot_chain WHERE lot = ?")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                return r.next() ? r.getString(1) : null;
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    /**
+     * Re-reads a lot's rows and its hash chain and names every row altered, removed or added
+     * outside lrbench, every broken or missing link, and every row stored before the chain existed
+     * (schema 2 and older: unverifiable, listed as such). Empty when the lot is intact.
+     */
+    public List<String> chainFindings(String lot) {
+        try {
+            return ChainCheck.findings(lot, inspections(lot), attemptsWithHashes(lot), chain(lot), chainState(lot));
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    /** An attempt as stored with the two columns its content hash covers besides the record. */
+    record HashedAttempt(Attempt attempt, String programVersion, String tracesSha256) {
+    }
+
+    private List<HashedAttempt> attemptsWithHashes(String lot) throws SQLException {
+        List<HashedAttempt> out = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement("SELECT " + ATTEMPT_COLUMNS + ", program_version, traces_sha256"
+                + " FROM attempt WHERE lot = ? ORDER BY round, position, attempt")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    out.add(new HashedAttempt(attemptRaw(r), r.getString(16), r.getString(17)));
+                }
+            }
+        }
+        return out;
+    }
+
+    /** The attempt exactly as stored (the trace file column unchanged), for hashing. */
+    private static Attempt attemptRaw(ResultSet r) throws SQLException {
+        Long bytes = r.getLong(15);
+        if (r.wasNull()) {
+            bytes = null;
+        }
+        return new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5), r.getString(6),
+                real(r, 7), real(r, 8), r.getString(9), r.getString(10), r.getString(11), r.getString(12),
+                r.getString(13), r.getString(14), bytes);
+    }
+
+    /** The traces SHA-256 recorded for each attempt of a lot, keyed "serial~attempt". */
+    public Map<String, String> tracesHashes(String lot) {
+        Map<String, String> out = new LinkedHashMap<>();
+        try {
+            for (HashedAttempt h : attemptsWithHashes(lot)) {
+                out.put(h.attempt().serial() + "~" + h.attempt().number(), h.tracesSha256());
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    private List<ChainRecord> chain(String lot) throws SQLException {
+        List<ChainRecord> out = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement("SELECT lot, seq, kind, round, serial, attempt, content_sha256,"
+                + " previous_sha256, record_sha256 FROM chain_record WHERE lot = ? ORDER BY seq")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    out.add(new ChainRecord(r.getString(1), r.getInt(2), r.getString(3), r.getInt(4), r.getString(5),
+                            whole(r, 6), r.getString(7), r.getString(8), r.getString(9)));
+                }
+            }
+        }
+        return out;
+    }
+
+    private ChainCheck.State chainState(String lot) throws SQLException {
+        try (PreparedStatement q = db.prepareStatement("SELECT length, head_sha256 FROM lot_chain WHERE lot = ?")) {
+            q.setString(1, lot);
+            try (ResultSet r = q.executeQuery()) {
+                return r.next() ? new ChainCheck.State(r.getInt(1), r.getString(2)) : null;
+            }
+        }
+    }
+
+    // ---- queries -----------------------------------------------------------------------------
+
+    /** Every inspection of every lot, in the order they were started, with counts of their counting attempts. */
+    public List<LotRecord> lots() {
+        try {
+            List<LotRecord> out = new ArrayList<>();
+            for (Inspection i : inspections(null)) {
+                out.add(record(i, attempts(i.lot(), i.round())));
+            }
+            return out;
+        } catch (SQLException e) {
+            throw new StoreException("listing lots failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    /** Every inspection of one lot, first to latest. */
+    public List<LotRecord> lot(String lot) {
+        return lots().stream().filter(l -> l.lot().equals(lot)).toList();
+    }
+
+    private static LotRecord record(Inspection i, List<Attempt> all) {
+        List<Attempt> counting = Attempt.counting(all);
+        int passed = count(counting, "pass");
+        int failed = count(counting, "fail");
+        int errors = count(counting, "error");
+        int skipped = count(counting, "skipped");
+        LotTerms t = i.terms();
+        return new LotRecord(t.lot(), i.round(), t.partNumber(), t.planPath(), t.planSha256(), t.bench(), t.lotSize(),
+                t.sampleSize(), t.sampling(), t.operator(), i.reason(), i.createdAt(), i.disposition(),
+                i.dispositionReason(), i.finishedAt(), passed + failed + errors, passed, failed, errors, skipped, all.size());
+    }
+
+    private static int count(List<Attempt> as, String verdict) {
+        return (int) as.stream().filter(a -> a.verdict().equals(verdict)).count();
+    }
+
+    /**
+     * A part number's inspections in the order they were started, with yield (passed over passed
+     * and failed) and the mean and sample standard deviation of the measured L and R, over the
+     * attempts that count.
+     */
+    public List<LotStatistics> history(String partNumber) {
+        List<LotStatistics> out = new ArrayList<>();
+        try {
+            for (Inspection i : inspections(null)) {
+                if (!i.terms().partNumber().equals(partNumber)) {
+                    continue;
+                }
+                List<Attempt> judged = Attempt.counting(attempts(i.lot(), i.round())).stream().filter(Attempt::judged).toList();
+                int passed = count(judged, "pass");
+                out.add(stats(i, judged, passed));
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the history of " + partNumber + " failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    private static LotStatistics stats(Inspection i, List<Attempt> judged, int passed) {
+        double[] l = judged.stream().map(Attempt::inductanceH).filter(v -> v != null && Double.isFinite(v))
+                .mapToDouble(Double::doubleValue).toArray();
+        double[] r = judged.stream().map(Attempt::seriesResistanceOhm).filter(v -> v != null && Double.isFinite(v))
+                .mapToDouble(Double::doubleValue).toArray();
+        int n = judged.size();
+        return new LotStatistics(i.lot(), i.round(), i.createdAt(), i.disposition(), n, passed,
+                n == 0 ? Double.NaN : (double) passed / n, mean(l), sd(l), mean(r), sd(r));
+    }
+
+    private static Double mean(double[] xs) {
+        return xs.length == 0 ? null : Arrays.stream(xs).average().orElseThrow();
+    }
+
+    private static Double sd(double[] xs) {
+        if (xs.length < 2) {
+            return null;
+        }
+        double m = mean(xs);
+        return Math.sqrt(Arrays.stream(xs).map(x -> (x - m) * (x - m)).sum() / (xs.length - 1));
     }
 
     private static Double real(ResultSet r, int column) throws SQLException {
@@ -359,8 +810,14 @@ public final class ResultStore implements AutoCloseable {
         return r.wasNull() ? null : v;
     }
 
-    private static Double finite(double x) {
-        return Double.isFinite(x) ? x : null;
+    private static void closeQuietly(Connection c) {
+        if (c != null) {
+            try {
+                c.close();
+            } catch (SQLException ignored) {
+                // already failing; the first error is the one reported
+            }
+        }
     }
 
     @Override

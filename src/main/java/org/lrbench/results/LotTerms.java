@@ -1,0 +1,36 @@
+package org.lrbench.results;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Objects;
+
+/**
+ * What a lot's inspection is held to, fixed when it starts: the plan (by content), the bench, the
+ * lot size, the sample size and the sampling (inspection level and AQL per class) the plan gave,
+ * and the operator who started it. Resuming with any term different is refused.
+ */
+public record LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench,
+                       Integer lotSize, Integer sampleSize, String sampling, String operator) {
+
+    /** The terms that must match to continue an inspection, each as "term: stored X, given Y". */
+    public List<String> differences(LotTerms given) {
+        List<String> out = new ArrayList<>();
+        differ(out, "plan content (SHA-256)", shortHash(planSha256), shortHash(given.planSha256));
+        differ(out, "part number", partNumber, given.partNumber);
+        differ(out, "bench", bench, given.bench);
+        differ(out, "lot size", lotSize, given.lotSize);
+        differ(out, "sample size", sampleSize, given.sampleSize);
+        differ(out, "sampling", sampling, given.sampling);
+        return out;
+    }
+
+    private static void differ(List<String> out, String term, Object stored, Object given) {
+        if (!Objects.equals(stored, given)) {
+            out.add(term + ": stored " + (stored == null ? "none" : stored) + ", given " + (given == null ? "none" : given));
+        }
+    }
+
+    private static String shortHash(String sha) {
+        return sha == null || sha.length() < 12 ? sha : sha.substring(0, 12) + "...";
+    }
+}

@@ -1,0 +1,39 @@
+package org.lrbench.run;
+
+import java.io.IOException;
+import java.util.List;
+import org.lrbench.measure.PointResult;
+import org.lrbench.results.Attempt;
+import org.lrbench.results.Inspection;
+import org.lrbench.results.LotTerms;
+import org.lrbench.results.PartResult;
+
+/**
+ * Where a lot run's records go: the runner's one path to the store, the result files and the
+ * trace archives. {@link #keep} returns only once the attempt is committed; what the console and
+ * the service show comes after it.
+ */
+public interface LotLedger {
+
+    /** The inspection to work on, under these terms (refused when they differ from the stored ones). */
+    Inspection open(LotTerms terms, String reinspectReason);
+
+    /** The lot's latest inspection, if the lot was started. */
+    java.util.Optional<Inspection> latest(String lot);
+
+    /** Every attempt of one inspection round. */
+    List<Attempt> attempts(String lot, int round);
+
+    /** The number the serial's next attempt gets. */
+    int nextAttempt(String lot, String serial);
+
+    /**
+     * Keeps one finished attempt ({@code result} carries its attempt record) with its traces (empty
+     * for a skipped position) and the sense resistance they were captured with: files written whole,
+     * the store commit, then the files' final names.
+     */
+    Attempt keep(PartResult result, int position, List<PointResult> traces, double senseOhm) throws IOException;
+
+    /** Records an inspection's disposition once; false when it was decided already. */
+    boolean decide(String lot, int round, String disposition, String reason, String now);
+}

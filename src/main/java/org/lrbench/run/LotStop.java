@@ -1,0 +1,69 @@
+package org.lrbench.run;
+
+/**
+ * A request to stop a lot run from outside its thread (SIGTERM, Ctrl-C). The part in progress is
+ * dropped (its sweep ends at the next point, the output goes off, nothing of it is stored); a part
+ * being committed is committed whole first. While the runner waits for the operator nothing is in
+ * progress, so the one who asked may end the process at once.
+ */
+public final class LotStop {
+    private boolean requested;
+    private boolean waiting;
+    private int done;
+    private int of;
+
+    /** Thrown out of a sweep when a stop was requested. */
+    public static final class Stopped extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        Stopped() {
+            super("stop requested", null, false, false);
+        }
+    }
+
+    /**
+     * Asks the run to stop; waits for a commit in progress. Returns true when the runner is
+     * waiting for the next part (nothing in progress, nothing half-committed).
+     */
+    public synchronized boolean request() {
+        requested = true;
+        return waiting;
+    }
+
+    public synchronized boolean requested() {
+        return requested;
+    }
+
+    /** "N of M parts": the judged parts of the sample so far. */
+    public synchronized String progress() {
+        return done + " of " + of + " parts";
+    }
+
+    synchronized void waiting(int judged, int sample) {
+        waiting = true;
+        done = judged;
+        of = sample;
+    }
+
+    synchronized void working() {
+        waiting = false;
+    }
+
+    /** Throws {@link Stopped} when a stop was requested (between sweep points). */
+    void check() {
+        if (requested()) {
+            throw new Stopped();
+        }
+    }
+
+    /** Work that must not be cut in half by a stop: a commit and what follows it. */
+    @FunctionalInterface
+    interface Whole<T> {
+        T run() throws java.io.IOException;
+    }
+
+    /** Runs {@code work} unless a stop was requested first (then returns null and does nothing). */
+    synchronized <T> T unlessStopped(Whole<T> work) throws java.io.IOException {
+        return requested ? null : work.run();
+    }
+}
