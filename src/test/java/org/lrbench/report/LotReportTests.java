@@ -5,7 +5,6 @@ import static org.assertj.core.api.Assertions.within;
 
 import java.nio.file.Path;
 import java.util.Base64;
-import java.util.Set;
 import org.jsoup.Jsoup;
 import org.jsoup.nodes.Document;
 import org.jsoup.nodes.Element;
@@ -16,7 +15,7 @@ import org.lrbench.run.LotRunTests;
 import org.lrbench.run.LotRunner;
 import org.lrbench.run.TrayFeeder;
 import org.lrbench.sim.SimLot;
-import org.lrbench.store.PartRow;
+import org.lrbench.results.Attempt;
 import org.lrbench.store.ResultStore;
 
 class LotReportTests {
@@ -37,7 +36,7 @@ class LotReportTests {
     void theReportParsesCarriesEveryPlotAndMatchesTheStore(@TempDir Path dir) throws Exception {
         SimLot tray = SimLot.load(TestBench.home().resolve("simulator/demo-lot.yaml"));
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
-            LotRunner.run(LotRunTests.setup(store, dir), new TrayFeeder(tray.parts(), Set.of()), r -> { });
+            LotRunner.run(LotRunTests.setup(store, dir), new TrayFeeder(tray.parts()), r -> { });
             Document d = Jsoup.parse(LotReport.html(store, "LOT-1"));
             assertThat(d.title()).isEqualTo("Lot LOT-1");
             assertThat(d.text()).contains("REJECT");
@@ -51,12 +50,14 @@ class LotReportTests {
                 assertThat(png[1]).isEqualTo((byte) 'P');
                 assertThat(png[2]).isEqualTo((byte) 'N');
             }
+            // every attempt is listed, each with the one that counts marked
+            assertThat(d.select("h2:contains(Attempts) + table tr")).hasSize(store.attempts("LOT-1").size() + 1);
             // the parts table matches the store row by row
             var rows = d.select("h2:contains(Parts) + table tr");
             var stored = store.parts("LOT-1");
             assertThat(rows).hasSize(stored.size() + 1);
             for (int i = 0; i < stored.size(); i++) {
-                PartRow p = stored.get(i);
+                Attempt p = stored.get(i);
                 var cells = rows.get(i + 1).select("td");
                 assertThat(cells.get(1).text()).isEqualTo(p.serial());
                 assertThat(cells.get(2).text()).isEqualTo(p.verdict());

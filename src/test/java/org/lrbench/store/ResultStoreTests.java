@@ -2,54 +2,95 @@ package org.lrbench.store;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.within;
 
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.sql.DriverManager;
 import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.results.Attempt;
+import org.lrbench.results.Inspection;
+import org.lrbench.results.LotTerms;
 import org.lrbench.results.PartResult;
+import org.lrbench.results.ResultFiles;
 
 public class ResultStoreTests {
 
     public static PartResult part(String lot, String serial, String verdict) {
-        return new PartResult(PartResult.SCHEMA, "t", lot, serial, "P-1", "p.yaml", "ab".repeat(32), "b", true,
-                "2026-12-01T00:00:00Z", "2026-12-01T00:00:01Z", verdict, verdict.equals("error") ? "lost" : null,
-                List.of(), List.of(), 1e-3, 1e-6, 2e-6, 2.3, 0.01, 0.02, null, 1e6, Map.of(), null, null, null, null,
-                List.of(), List.of(), Map.of(), Map.of());
-    }
-
-    @Test
-    void schemaIsMigratedOnceAndPartsAreKeptPerLot(@TempDir Path dir) {
-        Path db = dir.resolve("store.db");
-        try (ResultStore s = ResultStore.open(db)) {
-            assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
-            s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "now");
-            s.savePart(1, part("L1", "S1", "pass"));
-            s.savePart(2, part("L1", "S2", "error"));
-        }
-        try (ResultStore s = ResultStore.open(db)) {
-            assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
-            assertThat(s.completed("L1")).containsExactly("S1");
-            // an error is measured again and replaces its row; a completed part is never stored twice
-            s.savePart(2, part("L1", "S2", "fail"));
-            assertThat(s.completed("L1")).containsExactly("S1", "S2");
-            assertThatThrownBy(() -> s.savePart(3, part("L1", "S1", "pass"))).hasMessageContaining("already stored");
-            assertThat(s.parts("L1")).hasSize(2);
-            LotRecord l = s.lots().get(0);
-            assertThat(l.measured()).isEqualTo(2);
-            assertThat(l.passed()).isEqualTo(1);
-            assertThat(l.failed()).isEqualTo(1);
-            s.finishLot("L1", "reject", "2 major nonconforming >= Re 2", "later");
-            assertThat(s.lots().get(0).disposition()).isEqualTo("reject");
-        }
+        return part(lot, serial, verdict, 1e-3, 2.3);
     }
 
     static PartResult part(String lot, String serial, String verdict, double l, double r) {
-        PartResult p = part(lot, serial, verdict);
-        return new PartResult(p.schema(), p.programVersion(), lot, serial, p.partNumber(), p.planPath(), p.planSha256(),
-                p.bench(), true, p.startedAt(), p.finishedAt(), verdict, null, List.of(), List.of(), l, 0.0, 0.0, r,
-                0.0, 0.0, null, null, Map.of(), null, null, null, null, List.of(), List.of(), Map.of(), Map.of());
+        return new PartResult(PartResult.SCHEMA, "t", lot, serial, "P-1", "p.yaml", "ab".repeat(32), "b", true,
+                "2026-12-01T00:00:00Z", "2026-12-01T00:00:01Z", verdict, verdict.equals("error") ? "lost" : null,
+                List.of(), List.of(), l, 1e-6, 2e-6, r, 0.01, 0.02, null, 1e6, Map.of(), null, null, null, null,
+                List.of(), List.of(), Map.of(), Map.of(), null);
+    }
+
+    public static LotTerms terms(String lot, int lotSize) {
+        return new LotTerms(lot, "P-1", "p.yaml", "ab".repeat(32), "b", lotSize, lotSize >= 26 ? 8 : 2,
+                "level II; AQL major 1", "op");
+    }
+
+    /** Stores attempt {@code number} of a serial at a position, its JSON made from {@link #part}. */
+    public static Attempt store(ResultStore s, int round, int position, int number, PartResult p, String reason) {
+        PartResult withAttempt = p.withAttempt(new PartResult.AttemptRecord(round, number, "op", reason));
+        String json;
+        try {
+            json = ResultFiles.JSON.writeValueAsString(withAttempt);
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+        Attempt a = new Attempt(p.lot(), p.serial(), number, round, position, p.verdict(), p.inductanceH(),
+                p.seriesResistanceOhm(), p.finishedAt(), "op", reason, json, Attempt.fileName(p.serial(), number, "json"),
+                null, null);
+        s.record(a, "t", null);
+        return a;
+    }
+
+    @Test
+    void everyMeasurementIsKeptAndTheLatestAttemptCounts(@TempDir Path dir) {
+        Path db = dir.resolve("store.db");
+        try (ResultStore s = ResultStore.open(db)) {
+            assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
+            s.inspect(terms("L1", 40), null, "2026-12-01T00:00:00Z");
+            store(s, 1, 1, 1, part("L1", "S1", "pass"), null);
+            store(s, 1, 2, 1, part("L1", "S2", "fail"), null);
+        }
+        try (ResultStore s = ResultStore.open(db)) {
+            // "test until it passes" leaves its trace: the failing attempt stays, the re-measure has its reason
+            store(s, 1, 2, 2, part("L1", "S2", "pass"), "bad contact seen");
+            assertThat(s.attempts("L1")).extracting(Attempt::serial, Attempt::number, Attempt::verdict)
+                    .containsExactly(org.assertj.core.groups.Tuple.tuple("S1", 1, "pass"),
+                            org.assertj.core.groups.Tuple.tuple("S2", 1, "fail"),
+                            org.assertj.core.groups.Tuple.tuple("S2", 2, "pass"));
+            assertThat(s.parts("L1")).extracting(Attempt::serial, Attempt::number)
+                    .containsExactly(org.assertj.core.groups.Tuple.tuple("S1", 1), org.assertj.core.groups.Tuple.tuple("S2", 2));
+            // an attempt number is taken once: a second writer of attempt 2 is refused, nothing replaced
+            assertThatThrownBy(() -> store(s, 1, 2, 2, part("L1", "S2", "fail"), "again"))
+                    .hasMessageContaining("already has attempt 2");
+            LotRecord l = s.lots().get(0);
+            assertThat(l.measured()).isEqualTo(2);
+            assertThat(l.passed()).isEqualTo(2);
+            assertThat(l.attempts()).isEqualTo(3);
+            assertThat(s.chainFindings("L1")).isEmpty();
+        }
+    }
+
+    @Test
+    void skippedPositionsAreNeverCountedAsMeasured(@TempDir Path dir) {
+        try (ResultStore s = ResultStore.open(dir.resolve("s.db"))) {
+            s.inspect(terms("L1", 40), null, "now");
+            store(s, 1, 1, 1, part("L1", "S1", "pass"), null);
+            store(s, 1, 2, 1, part("L1", "skipped-2", "skipped"), null);
+            store(s, 1, 3, 1, part("L1", "S3", "fail"), null);
+            LotRecord l = s.lots().get(0);
+            assertThat(l.measured()).isEqualTo(l.passed() + l.failed() + l.errors()).isEqualTo(2);
+            assertThat(l.skipped()).isEqualTo(1);
+        }
     }
 
     @Test
@@ -57,32 +98,174 @@ public class ResultStoreTests {
         double[] ls = {1.01e-3, 0.99e-3, 1.03e-3, 0.95e-3};
         double[] rs = {2.31, 2.28, 2.42, 2.90};
         try (ResultStore s = ResultStore.open(dir.resolve("s.db"))) {
-            s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "2026-12-01T00:00:00Z");
+            s.inspect(terms("L1", 40), null, "2026-12-01T00:00:00Z");
             for (int i = 0; i < ls.length; i++) {
-                s.savePart(i + 1, part("L1", "S" + i, i == 3 ? "fail" : "pass", ls[i], rs[i]));
+                store(s, 1, i + 1, 1, part("L1", "S" + i, i == 3 ? "fail" : "pass", ls[i], rs[i]), null);
             }
-            s.savePart(5, part("L1", "S9", "error"));
+            store(s, 1, 5, 1, part("L1", "S9", "error"), null);
             LotStatistics st = s.history("P-1").get(0);
             // reference: Apache Commons Math DescriptiveStatistics (sample standard deviation)
             var dl = new org.apache.commons.math3.stat.descriptive.DescriptiveStatistics(ls);
             var dr = new org.apache.commons.math3.stat.descriptive.DescriptiveStatistics(rs);
             assertThat(st.measured()).isEqualTo(4);
             assertThat(st.yield()).isEqualTo(0.75);
-            assertThat(st.meanInductanceH()).isCloseTo(dl.getMean(), org.assertj.core.api.Assertions.within(1e-15));
-            assertThat(st.sdInductanceH()).isCloseTo(dl.getStandardDeviation(), org.assertj.core.api.Assertions.within(1e-15));
-            assertThat(st.meanResistanceOhm()).isCloseTo(dr.getMean(), org.assertj.core.api.Assertions.within(1e-12));
-            assertThat(st.sdResistanceOhm()).isCloseTo(dr.getStandardDeviation(), org.assertj.core.api.Assertions.within(1e-12));
+            assertThat(st.meanInductanceH()).isCloseTo(dl.getMean(), within(1e-15));
+            assertThat(st.sdInductanceH()).isCloseTo(dl.getStandardDeviation(), within(1e-15));
+            assertThat(st.meanResistanceOhm()).isCloseTo(dr.getMean(), within(1e-12));
+            assertThat(st.sdResistanceOhm()).isCloseTo(dr.getStandardDeviation(), within(1e-12));
         }
     }
 
     @Test
-    void aLotCannotBeContinuedWithAnotherPlan(@TempDir Path dir) {
+    void aLotKeepsTheTermsItStartedWithAndADecidedLotIsClosed(@TempDir Path dir) {
         try (ResultStore s = ResultStore.open(dir.resolve("store.db"))) {
-            s.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "now");
-            assertThatThrownBy(() -> s.beginLot("L1", "P-1", "p.yaml", "cd".repeat(32), "b", 40, 8, "now"))
-                    .hasMessageContaining("started with another plan");
-            // a part of an unknown lot breaks the foreign key
-            assertThatThrownBy(() -> s.savePart(1, part("L9", "S1", "pass"))).isInstanceOf(StoreException.class);
+            s.inspect(terms("L1", 40), null, "t0");
+            assertThatThrownBy(() -> s.inspect(terms("L1", 5), null, "t1"))
+                    .isInstanceOf(LotTermsException.class)
+                    .hasMessageContaining("lot size: stored 40, given 5")
+                    .hasMessageContaining("sample size: stored 8, given 2");
+            LotTerms otherPlan = new LotTerms("L1", "P-1", "p.yaml", "cd".repeat(32), "b", 40, 8, "level II; AQL major 1", "op");
+            assertThatThrownBy(() -> s.inspect(otherPlan, null, "t1")).hasMessageContaining("plan content");
+            assertThatThrownBy(() -> s.inspect(terms("L1", 40), "supplier screened the lot", "t1"))
+                    .hasMessageContaining("still open");
+            assertThat(s.decide("L1", 1, "reject", "2 major nonconforming >= Re 2", "t2")).isTrue();
+            // a decision is taken once: a later one changes nothing
+            assertThat(s.decide("L1", 1, "accept", "0 major", "t3")).isFalse();
+            Inspection closed = s.inspect(terms("L1", 5), null, "t4");
+            assertThat(closed.decided()).isTrue();
+            assertThat(closed.disposition()).isEqualTo("reject");
+            assertThat(closed.terms().lotSize()).isEqualTo(40);
+            // a re-inspection is explicit, with its reason, and keeps the first inspection
+            Inspection second = s.inspect(terms("L1", 38), "supplier screened the lot", "t5");
+            assertThat(second.round()).isEqualTo(2);
+            assertThat(s.lots()).extracting(LotRecord::round, LotRecord::disposition, LotRecord::reason)
+                    .containsExactly(org.assertj.core.groups.Tuple.tuple(1, "reject", null),
+                            org.assertj.core.groups.Tuple.tuple(2, null, "supplier screened the lot"));
+            // parts of the closed inspection cannot be added any more
+            assertThatThrownBy(() -> store(s, 1, 1, 1, part("L1", "S1", "pass"), null)).hasMessageContaining("closed");
+            assertThat(s.chainFindings("L1")).isEmpty();
         }
+    }
+
+    @Test
+    void theHashChainNamesRowsAlteredDeletedOrAddedBehindItsBack(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("store.db");
+        try (ResultStore s = ResultStore.open(db)) {
+            s.inspect(terms("L1", 40), null, "t0");
+            for (int i = 1; i <= 4; i++) {
+                store(s, 1, i, 1, part("L1", "S" + i, i == 2 ? "fail" : "pass"), null);
+            }
+            s.decide("L1", 1, "accept", "1 major nonconforming <= Ac 1", "t1");
+            assertThat(s.chainFindings("L1")).isEmpty();
+        }
+        try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
+            st.executeUpdate("UPDATE attempt SET verdict = 'pass' WHERE serial = 'S2'");
+            st.executeUpdate("DELETE FROM attempt WHERE serial = 'S3'");
+            st.executeUpdate("INSERT INTO attempt (lot, serial, attempt, round, position, verdict, measured_at,"
+                    + " program_version, result_json) VALUES ('L1', 'S9', 1, 1, 9, 'pass', 't', 't', '{}')");
+        }
+        try (ResultStore s = ResultStore.open(db)) {
+            List<String> f = s.chainFindings("L1");
+            assertThat(f).anySatisfy(x -> assertThat(x).contains("attempt 1 of S2").contains("altered"));
+            assertThat(f).anySatisfy(x -> assertThat(x).contains("attempt 1 of S3").contains("missing"));
+            assertThat(f).anySatisfy(x -> assertThat(x).contains("attempt 1 of S9").contains("outside lrbench"));
+            assertThat(f).hasSize(3);
+        }
+        try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
+            // removing the decision's link too: the chain head no longer matches the links
+            st.executeUpdate("DELETE FROM chain_record WHERE kind = 'decision'");
+        }
+        try (ResultStore s = ResultStore.open(db)) {
+            assertThat(s.chainFindings("L1")).anySatisfy(x -> assertThat(x).contains("links were removed or added"));
+        }
+    }
+
+    @Test
+    void aStoreOfAnEarlierSchemaIsMigratedAndSealed(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("old.db");
+        try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
+            st.execute("CREATE TABLE schema_version (version INTEGER NOT NULL)");
+            for (int step = 0; step < 2; step++) {
+                for (String sql : Migrations.STEPS.get(step)) {
+                    st.execute(sql);
+                }
+            }
+            st.execute("INSERT INTO schema_version VALUES (2)");
+            st.execute("INSERT INTO lot (lot, part_number, plan_path, plan_sha256, bench, lot_size, sample_size,"
+                    + " created_at, disposition, disposition_reason, finished_at) VALUES ('OLD', 'P-1', 'p.yaml', '"
+                    + "ab".repeat(32) + "', 'b', 40, 8, 't0', 'accept', '0 major', 't1')");
+            st.execute("INSERT INTO part_result (lot, serial, position, verdict, inductance_h, series_resistance_ohm,"
+                    + " measured_at, program_version, result_json, traces_file, traces_bytes) VALUES ('OLD', 'S1', 1,"
+                    + " 'pass', 0.001, 2.3, 't', 'old', '{}', 'runs/OLD/S1.lrtraces', 1234)");
+        }
+        try (ResultStore s = ResultStore.open(db)) {
+            assertThat(s.version()).isEqualTo(ResultStore.latestVersion());
+            Attempt a = s.attempts("OLD").get(0);
+            assertThat(a.number()).isEqualTo(1);
+            assertThat(a.jsonFile()).isEqualTo("S1.json");
+            assertThat(a.tracesFile()).isEqualTo("S1.lrtraces");
+            assertThat(s.lots().get(0).disposition()).isEqualTo("accept");
+            assertThat(s.chainFindings("OLD")).isEmpty();
+        }
+    }
+
+    @Test
+    void aStoreFromANewerLrbenchIsRefusedAndNotWritten(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("new.db");
+        try (ResultStore s = ResultStore.open(db)) {
+            s.inspect(terms("L1", 40), null, "t0");
+        }
+        try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
+            st.executeUpdate("UPDATE schema_version SET version = " + (ResultStore.latestVersion() + 5));
+            st.execute("PRAGMA wal_checkpoint(TRUNCATE)");
+        }
+        byte[] before = Files.readAllBytes(db);
+        assertThatThrownBy(() -> ResultStore.open(db)).isInstanceOf(StoreException.class)
+                .hasMessageContaining("newer than this lrbench knows").hasMessageContaining("nothing was changed");
+        assertThatThrownBy(() -> ResultStore.openForReading(db)).hasMessageContaining("newer");
+        assertThat(Files.readAllBytes(db)).isEqualTo(before);
+    }
+
+    @Test
+    void aStoreOpenedForReadingIsReadAndNeverWritten(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("s.db");
+        try (ResultStore s = ResultStore.open(db)) {
+            s.inspect(terms("L1", 40), null, "t0");
+            store(s, 1, 1, 1, part("L1", "S1", "pass"), null);
+        }
+        try (ResultStore s = ResultStore.openForReading(db)) {
+            assertThat(s.lots()).hasSize(1);
+            assertThat(s.parts("L1")).hasSize(1);
+            assertThatThrownBy(() -> s.inspect(terms("L2", 40), null, "t1")).hasMessageContaining("reading only");
+        }
+    }
+
+    @Test
+    void aNewStoreOpenedByManyBenchesAtOnceIsMigratedOnce(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("fresh.db");
+        SharedStoreTests.openAtOnce(() -> ResultStore.open(db), 8);
+    }
+
+    @Test
+    void databaseFailuresAreNamedByTheirCause() {
+        // the causes of xerial sqlite-jdbc's result codes (sqlite.org/rescode.html) and PostgreSQL SQLSTATEs
+        // (postgresql.org/docs/current/errcodes-appendix.html: 53100 disk_full, 25006 read_only_sql_transaction)
+        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_FULL] Insertion failed because database is full")))
+                .startsWith("the disk is full");
+        assertThat(StoreErrors.describe(new java.sql.SQLException("could not extend file", "53100"))).startsWith("the disk is full");
+        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_READONLY] attempt to write a readonly database")))
+                .startsWith("the store is read-only");
+        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_BUSY] The database file is locked")))
+                .startsWith("another program holds the store locked");
+        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_NOTADB] file is not a database")))
+                .startsWith("the store file is corrupt");
+    }
+
+    @Test
+    void aFileThatIsNotAStoreIsNamedAsSuch(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("junk.db");
+        Files.writeString(db, "this is not a database, it is a shopping list ".repeat(100));
+        assertThatThrownBy(() -> ResultStore.open(db)).isInstanceOf(StoreException.class)
+                .hasMessageContaining("corrupt or not an lrbench store");
     }
 }

@@ -29,9 +29,10 @@ class SharedStoreTests {
 
     static void reset(String url) throws Exception {
         try (var c = DriverManager.getConnection(url); var s = c.createStatement()) {
-            s.execute("DROP TABLE IF EXISTS part_result");
-            s.execute("DROP TABLE IF EXISTS lot");
-            s.execute("DROP TABLE IF EXISTS schema_version");
+            for (String table : List.of("chain_record", "lot_chain", "attempt", "inspection", "part_result", "lot",
+                    "schema_version")) {
+                s.execute("DROP TABLE IF EXISTS " + table);
+            }
         }
     }
 
@@ -52,10 +53,50 @@ class SharedStoreTests {
         }
     }
 
+    @Test
+    void postgresStoreOpenedByManyBenchesAtOnceIsMigratedOnce() throws Exception {
+        String url = postgres();
+        reset(url);
+        openAtOnce(() -> ResultStore.openUrl(url), 8);
+    }
+
+    /** Many benches open one new store at the same moment: every one opens it, at the latest schema. */
+    static void openAtOnce(Supplier<ResultStore> open, int benches) throws Exception {
+        List<Throwable> failures = new ArrayList<>();
+        CountDownLatch go = new CountDownLatch(1);
+        List<Thread> threads = new ArrayList<>();
+        for (int b = 0; b < benches; b++) {
+            int bench = b;
+            Thread t = new Thread(() -> {
+                try {
+                    go.await();
+                    try (ResultStore s = open.get()) {
+                        assertThat(s.version()).isEqualTo(ResultStore.latestVersion());
+                        s.inspect(ResultStoreTests.terms("B" + bench, 40), null, "t0");
+                    }
+                } catch (Throwable e) {
+                    synchronized (failures) {
+                        failures.add(e);
+                    }
+                }
+            });
+            threads.add(t);
+            t.start();
+        }
+        go.countDown();
+        for (Thread t : threads) {
+            t.join(60_000);
+        }
+        assertThat(failures).isEmpty();
+        try (ResultStore s = open.get()) {
+            assertThat(s.lots()).hasSize(benches);
+        }
+    }
+
     /** Two stores (two connections), each saving its own serials and both racing for one shared serial. */
     static void twoBenches(Supplier<ResultStore> open) throws Exception {
         try (ResultStore first = open.get()) {
-            first.beginLot("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "2026-12-01T00:00:00Z");
+            first.inspect(ResultStoreTests.terms("L1", 40), null, "2026-12-01T00:00:00Z");
         }
         AtomicInteger sharedWins = new AtomicInteger();
         List<Throwable> unexpected = new ArrayList<>();
@@ -67,10 +108,11 @@ class SharedStoreTests {
                 try (ResultStore s = open.get()) {
                     go.await();
                     for (int i = 0; i < 10; i++) {
-                        s.savePart(bench * 100 + i, ResultStoreTests.part("L1", "B" + bench + "-" + i, "pass"));
+                        ResultStoreTests.store(s, 1, bench * 100 + i, 1, ResultStoreTests.part("L1", "B" + bench + "-" + i,
+                                "pass"), null);
                     }
                     try {
-                        s.savePart(999, ResultStoreTests.part("L1", "SHARED", "pass"));
+                        ResultStoreTests.store(s, 1, 999, 1, ResultStoreTests.part("L1", "SHARED", "pass"), null);
                         sharedWins.incrementAndGet();
                     } catch (StoreException expected) {
                         // the other bench stored it first
@@ -91,7 +133,10 @@ class SharedStoreTests {
         assertThat(unexpected).isEmpty();
         assertThat(sharedWins.get()).isEqualTo(1);
         try (ResultStore s = open.get()) {
-            assertThat(s.parts("L1")).hasSize(21).extracting(PartRow::serial).doesNotHaveDuplicates();
+            assertThat(s.parts("L1")).hasSize(21).extracting(org.lrbench.results.Attempt::serial).doesNotHaveDuplicates();
+            assertThat(s.attempts("L1")).hasSize(21);
+            // both benches appended to one lot's hash chain, in turn, without a gap
+            assertThat(s.chainFindings("L1")).isEmpty();
         }
     }
 }
