@@ -66,6 +66,7 @@ public final class BenchService implements AutoCloseable {
             m.put("parts_done", partsDone);
             m.put("sample_size", sampleSize);
             m.put("reason", reason);
+            m.put("prompt", feeder == null ? null : feeder.openPrompt());
             m.put("events", events.all().size());
             return m;
         }

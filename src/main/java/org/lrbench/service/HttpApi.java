@@ -94,8 +94,21 @@ public final class HttpApi implements AutoCloseable {
 
         @Override
         protected void handleOversizedMessage(ChannelHandlerContext ctx, io.netty.handler.codec.http.HttpMessage oversized) {
-            json(ctx, HttpResponseStatus.REQUEST_ENTITY_TOO_LARGE, Map.of("error", "body: larger than " + MAX_BODY
-                    + " bytes; nothing was done"));
+            byte[] body = ("{\"error\":\"body: larger than " + MAX_BODY + " bytes; nothing was done\"}")
+                    .getBytes(StandardCharsets.UTF_8);
+            FullHttpResponse r = new DefaultFullHttpResponse(HttpVersion.HTTP_1_1,
+                    HttpResponseStatus.REQUEST_ENTITY_TOO_LARGE, Unpooled.wrappedBuffer(body));
+            r.headers().set(HttpHeaderNames.CONTENT_TYPE, "application/json");
+            r.headers().setInt(HttpHeaderNames.CONTENT_LENGTH, body.length);
+            if (oversized instanceof io.netty.handler.codec.http.FullHttpMessage
+                    || !io.netty.handler.codec.http.HttpUtil.isKeepAlive(oversized)) {
+                r.headers().set(HttpHeaderNames.CONNECTION, "close");
+                ctx.writeAndFlush(r).addListener(ChannelFutureListener.CLOSE);
+            } else {
+                // as Netty's own answer does: the rest of the body is read and dropped, so the client,
+                // still sending, gets the answer instead of a reset connection
+                ctx.writeAndFlush(r);
+            }
         }
     }
 
@@ -130,6 +143,11 @@ public final class HttpApi implements AutoCloseable {
                 if (!Names.valid(lot)) {
                     throw new ServiceException(400, "lot: " + Names.problem("lot", lot));
                 }
+                JsonNode size = b.get("lot_size");
+                if (size == null || !size.isIntegralNumber() || !size.canConvertToInt() || size.asInt() < 2) {
+                    throw new ServiceException(400, "lot_size: " + (size == null ? "missing" : "'" + size + "'")
+                            + "; a whole number of at least 2 is required");
+                }
                 String operator = text(b, "operator", true);
                 if (operator.isBlank()) {
                     throw new ServiceException(400, "operator: who measures, in words, is required");
@@ -137,11 +155,6 @@ public final class HttpApi implements AutoCloseable {
                 String reinspect = text(b, "reinspect_reason", false);
                 if (reinspect != null && reinspect.isBlank()) {
                     throw new ServiceException(400, "reinspect_reason: a re-inspection needs a reason, in words");
-                }
-                JsonNode size = b.get("lot_size");
-                if (size == null || !size.isIntegralNumber() || !size.canConvertToInt() || size.asInt() < 2) {
-                    throw new ServiceException(400, "lot_size: " + (size == null ? "missing" : "'" + size + "'")
-                            + "; a whole number of at least 2 is required");
                 }
                 var run = service.start(new BenchService.StartRequest(plan, lot, size.asInt(), text(b, "tray", false),
                         operator, reinspect));

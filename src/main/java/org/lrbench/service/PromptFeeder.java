@@ -66,6 +66,11 @@ final class PromptFeeder implements PartFeeder {
         notifyAll();
     }
 
+    /** The open prompt's id, or null while no prompt is open (a part is being measured, say). */
+    synchronized Long openPrompt() {
+        return open == null ? null : openId;
+    }
+
     synchronized void stop() {
         stopped = true;
         notifyAll();

@@ -50,7 +50,9 @@ class CommandLineTests {
         assertThat(o.out()).contains("verdict: PASS");
         JsonNode r = new ObjectMapper().readTree(json.toFile());
         // the schema the README documents
-        assertThat(r.get("schema").asText()).isEqualTo("lrbench.part-result.v2");
+        assertThat(r.get("schema").asText()).isEqualTo("lrbench.part-result.v3");
+        assertThat(r.get("attempt").get("number").asInt()).isEqualTo(1);
+        assertThat(r.get("attempt").get("reason").isNull()).isTrue();
         assertThat(r.get("verdict").asText()).isEqualTo("pass");
         assertThat(r.get("inductance_h").isNumber()).isTrue();
         assertThat(r.get("inductance_h").asDouble()).isBetween(0.99e-3, 1.01e-3);
@@ -170,5 +172,103 @@ class CommandLineTests {
         JsonNode first = json.readTree(dir.resolve("HCC-2611-0417/HC0417-0001.json").toFile());
         assertThat(first.get("corrections").get("channel_match_measured_at").asText()).isNotBlank();
         assertThat(Files.exists(dir.resolve("cal/sim-bench-1/fixture.json"))).isTrue();
+    }
+
+    static final String LOT_FILE = HOME.resolve("simulator/demo-lot.yaml").toString();
+
+    static Outcome lotRun(Path dir, String lot, String lotSize, String... more) {
+        java.util.List<String> args = new java.util.ArrayList<>(java.util.List.of("run", PLAN, "--lot", lot, "--lot-size",
+                lotSize, "--sim-lot", LOT_FILE, "--runs", dir.resolve("runs").toString(), "--data",
+                dir.resolve("data").toString(), "--calibration", dir.resolve("none").toString(), "--operator", "Tam"));
+        args.addAll(java.util.List.of(more));
+        return run(args.toArray(String[]::new));
+    }
+
+    @Test
+    void aRejectedLotCannotBeTurnedIntoAnAcceptedOne(@TempDir Path dir) {
+        Outcome first = lotRun(dir, "X1", "40");
+        assertThat(first.code()).as(first.out() + first.err()).isEqualTo(1);
+        assertThat(first.out()).contains("disposition: REJECT");
+        // the same lot with a smaller lot size (n = 2, Ac 0 by ISO 2859-1) would accept: it is closed instead
+        Outcome again = lotRun(dir, "X1", "5");
+        assertThat(again.code()).isEqualTo(1);
+        assertThat(again.out()).contains("lot X1 is closed").contains("REJECT").contains("Nothing was measured");
+        Outcome lots = run("lots", "--data", dir.resolve("data").toString());
+        assertThat(lots.out()).contains("reject").doesNotContain("accept");
+        // a re-inspection is explicit and recorded; both inspections stay
+        Outcome re = lotRun(dir, "X1", "40", "--reinspect", "supplier replaced the failed parts");
+        assertThat(re.code()).isEqualTo(1);
+        Outcome lot = run("lot", "X1", "--data", dir.resolve("data").toString());
+        assertThat(lot.out().lines().filter(l -> l.startsWith("1 ")).count()).isEqualTo(8);
+        assertThat(lot.out().lines().filter(l -> l.startsWith("2 ")).count()).isEqualTo(8);
+        Outcome verify = run("verify", "--data", dir.resolve("data").toString(), "--runs", dir.resolve("runs").toString());
+        assertThat(verify.code()).as(verify.out()).isZero();
+    }
+
+    @Test
+    void aHalfMeasuredLotResumedWithOtherTermsIsRefusedNamingBoth(@TempDir Path dir) throws Exception {
+        try (var store = org.lrbench.store.ResultStore.open(dir.resolve("data/lrbench.db"))) {
+            store.inspect(new org.lrbench.results.LotTerms("X2", "QFD-IND-1M0", PLAN, org.lrbench.store.Canonical.sha256(
+                    Files.readAllBytes(Path.of(PLAN))), "sim-bench-1", 40, 8, "level II; AQL major 6.5", "Tam"), null, "t0");
+        }
+        Outcome o = lotRun(dir, "X2", "5");
+        assertThat(o.code()).isEqualTo(2);
+        assertThat(o.err()).contains("lot size: stored 40, given 5").contains("sample size: stored 8, given 2");
+    }
+
+    @Test
+    void measuringAPartAgainNeedsAReasonAndKeepsTheFirstRecord(@TempDir Path dir) throws Exception {
+        String runs = dir.resolve("runs").toString();
+        Outcome fail = run("run", PLAN, "--lot", "T1", "--serial", "S4", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-high-r.yaml").toString(), "--runs", runs,
+                "--calibration", dir.resolve("none").toString());
+        assertThat(fail.code()).isEqualTo(1);
+        String first = Files.readString(dir.resolve("runs/T1/S4.json"));
+        Outcome noReason = run("run", PLAN, "--lot", "T1", "--serial", "S4", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", runs,
+                "--calibration", dir.resolve("none").toString());
+        assertThat(noReason.code()).isEqualTo(2);
+        assertThat(noReason.err()).contains("S4.json exists").contains("--reason");
+        Outcome again = run("run", PLAN, "--lot", "T1", "--serial", "S4", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", runs,
+                "--calibration", dir.resolve("none").toString(), "--reason", "lead clip was loose");
+        assertThat(again.code()).isZero();
+        assertThat(Files.readString(dir.resolve("runs/T1/S4.json"))).isEqualTo(first);
+        JsonNode second = new ObjectMapper().readTree(dir.resolve("runs/T1/S4~2.json").toFile());
+        assertThat(second.get("attempt").get("number").asInt()).isEqualTo(2);
+        assertThat(second.get("attempt").get("reason").asText()).isEqualTo("lead clip was loose");
+    }
+
+    @Test
+    void badOptionValuesAreRefusedBeforeAnyPartIsMeasured(@TempDir Path dir) {
+        Outcome o = run("run", PLAN, "--lot", "L", "--serial", "S", "--traces", "bogus", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString());
+        assertThat(o.code()).isEqualTo(2);
+        assertThat(o.err()).contains("--traces").contains("keep, none");
+        assertThat(dir.resolve("L")).doesNotExist();
+    }
+
+    @Test
+    void serialsInALotFileAreCheckedLikeTheCommandLinesOwn(@TempDir Path dir) throws Exception {
+        Path lot = dir.resolve("evil-lot.yaml");
+        Files.writeString(lot, Files.readString(Path.of(LOT_FILE)).replace("plan: ../plans/", "plan: " + HOME.resolve("plans") + "/")
+                .replace("serial: HC0417-0002", "serial: ../../../x"));
+        Outcome o = run("run", PLAN, "--lot", "X3", "--lot-size", "40", "--sim-lot", lot.toString(), "--runs",
+                dir.resolve("runs").toString(), "--data", dir.resolve("data").toString());
+        assertThat(o.code()).isEqualTo(2);
+        assertThat(o.err()).contains(lot + ":").contains("serial '../../../x'");
+        assertThat(dir.resolve("x")).doesNotExist();
+        assertThat(dir.getParent().resolve("x")).doesNotExist();
+    }
+
+    @Test
+    void verifyNamesAnEditedResultFile(@TempDir Path dir) throws Exception {
+        assertThat(lotRun(dir, "X4", "40").code()).isEqualTo(1);
+        Path json = dir.resolve("runs/X4/HC0417-0002.json");
+        Files.writeString(json, Files.readString(json).replace("\"verdict\" : \"pass\"", "\"verdict\" : \"fail\""));
+        Outcome v = run("verify", "--lot", "X4", "--data", dir.resolve("data").toString(), "--runs",
+                dir.resolve("runs").toString());
+        assertThat(v.code()).isEqualTo(1);
+        assertThat(v.out()).contains("HC0417-0002.json: altered").contains("1 finding");
     }
 }

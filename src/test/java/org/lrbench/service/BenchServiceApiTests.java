@@ -46,9 +46,23 @@ class BenchServiceApiTests {
         return JSON.readTree(r.body());
     }
 
+    /** Waits for a prompt to open and returns its id. */
+    long openPrompt(int port) throws Exception {
+        long deadline = System.currentTimeMillis() + 30_000;
+        while (System.currentTimeMillis() < deadline) {
+            JsonNode s = json(call(port, "GET", "/api/runs/current", null, null));
+            if (s.get("prompt").isIntegralNumber()) {
+                return s.get("prompt").asLong();
+            }
+            Thread.sleep(10);
+        }
+        throw new AssertionError("no prompt opened");
+    }
+
     void answer(int port, String serial) throws Exception {
-        assertThat(call(port, "POST", "/api/runs/current/answer", "{\"serial\":\"" + serial + "\"}", null).statusCode())
-                .isEqualTo(202);
+        long prompt = openPrompt(port);
+        assertThat(call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + prompt + ",\"serial\":\"" + serial
+                + "\"}", null).statusCode()).isEqualTo(202);
     }
 
     void waitForParts(int port, int parts) throws Exception {
@@ -64,7 +78,7 @@ class BenchServiceApiTests {
 
     @Test
     void aWholeLotRunWithPromptsStopResumeAndTheEventStream(@TempDir Path dir) throws Exception {
-        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\"}";
+        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\",\"operator\":\"Tam\"}";
         List<String> serials = List.of("HC0417-0001", "HC0417-0002", "HC0417-0003", "HC0417-0004", "HC0417-0005",
                 "HC0417-0006", "HC0417-0007", "HC0417-0008");
         try (BenchService service = new BenchService(config(dir));
@@ -114,6 +128,10 @@ class BenchServiceApiTests {
             assertThat(types.get(types.size() - 1)).isEqualTo("lot_done");
             JsonNode lot = json(call(port, "GET", "/api/lots/API-1", null, null));
             assertThat(lot.get("parts")).hasSize(8);
+            // the decided lot is closed: starting it again (even with a lot size that would accept) measures nothing
+            HttpResponse<String> closed = call(port, "POST", "/api/runs", start.replace("40", "5"), null);
+            assertThat(closed.statusCode()).isEqualTo(409);
+            assertThat(json(closed).get("error").asText()).contains("is closed").contains("REJECT");
             assertThat(json(call(port, "GET", "/api/lots", null, null)).get("lots").get(0).get("disposition").asText())
                     .isEqualTo("reject");
             HttpResponse<String> report = call(port, "GET", "/api/lots/API-1/report", null, null);
@@ -125,7 +143,7 @@ class BenchServiceApiTests {
 
     @Test
     void aRestartedServiceOffersTheInterruptedLot(@TempDir Path dir) throws Exception {
-        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-9\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\"}";
+        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-9\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\",\"operator\":\"Tam\"}";
         try (BenchService service = new BenchService(config(dir));
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
             int port = api.port();
@@ -156,12 +174,12 @@ class BenchServiceApiTests {
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
             int port = api.port();
             HttpResponse<String> traversal = call(port, "POST", "/api/runs",
-                    "{\"plan\":\"../pom.xml\",\"lot\":\"L\",\"lot_size\":40}", null);
+                    "{\"plan\":\"../pom.xml\",\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\"}", null);
             assertThat(traversal.statusCode()).isEqualTo(400);
             assertThat(json(traversal).get("error").asText()).startsWith("plan:");
-            assertThat(call(port, "POST", "/api/runs", "{\"plan\":\"..%2Fpom.yaml\",\"lot\":\"L\",\"lot_size\":40}", null)
+            assertThat(call(port, "POST", "/api/runs", "{\"plan\":\"..%2Fpom.yaml\",\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\"}", null)
                     .statusCode()).isEqualTo(400);
-            assertThat(call(port, "POST", "/api/runs", "{\"plan\":\"nope.yaml\",\"lot\":\"L\",\"lot_size\":40}", null)
+            assertThat(call(port, "POST", "/api/runs", "{\"plan\":\"nope.yaml\",\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\"}", null)
                     .statusCode()).isEqualTo(404);
             HttpResponse<String> malformed = call(port, "POST", "/api/runs", "{not json", null);
             assertThat(malformed.statusCode()).isEqualTo(400);
@@ -174,6 +192,86 @@ class BenchServiceApiTests {
             HttpResponse<String> none = call(port, "GET", "/api/runs/current", null, null);
             assertThat(none.statusCode()).isEqualTo(404);
             assertThat(none.body()).doesNotContain("Exception").doesNotContain("at org.");
+        }
+    }
+
+    @Test
+    void answersAreBoundToTheOpenPromptAndADoubleScanIsRefused(@TempDir Path dir) throws Exception {
+        String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-5\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\","
+                + "\"operator\":\"Tam\"}";
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            assertThat(call(port, "POST", "/api/runs", start, null).statusCode()).isEqualTo(201);
+            long p1 = openPrompt(port);
+            // three scans against one prompt: the first is taken, the others are refused, not queued
+            List<Integer> codes = new ArrayList<>();
+            for (String s : List.of("HC0417-0001", "HC0417-0002", "HC0417-0003")) {
+                codes.add(call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + p1 + ",\"serial\":\"" + s
+                        + "\"}", null).statusCode());
+            }
+            assertThat(codes).containsExactly(202, 409, 409);
+            waitForParts(port, 1);
+            long p2 = openPrompt(port);
+            assertThat(p2).isGreaterThan(p1);
+            // an answer naming an old prompt is refused
+            HttpResponse<String> stale = call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + p1
+                    + ",\"serial\":\"HC0417-0002\"}", null);
+            assertThat(stale.statusCode()).isEqualTo(409);
+            assertThat(json(stale).get("error").asText()).contains("prompt " + p1 + " is not open");
+            // the same serial scanned twice: refused, unless measured again on purpose with a reason
+            HttpResponse<String> twice = call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + p2
+                    + ",\"serial\":\"HC0417-0001\"}", null);
+            assertThat(twice.statusCode()).isEqualTo(409);
+            assertThat(json(twice).get("error").asText()).contains("already measured");
+            assertThat(call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + p2
+                    + ",\"serial\":\"HC0417-0001\",\"action\":\"again\"}", null).statusCode()).isEqualTo(400);
+            assertThat(call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + p2
+                    + ",\"serial\":\"HC0417-0001\",\"action\":\"again\",\"reason\":\"part was tilted\"}", null)
+                    .statusCode()).isEqualTo(202);
+            long p3 = openPrompt(port);
+            assertThat(call(port, "POST", "/api/runs/current/answer", "{\"prompt\":" + p3 + ",\"action\":\"skip\"}",
+                    null).statusCode()).isEqualTo(202);
+            openPrompt(port);
+            service.stop();
+            service.join(30_000);
+            JsonNode parts = json(call(port, "GET", "/api/lots/API-5", null, null)).get("parts");
+            assertThat(parts).hasSize(3);
+            assertThat(parts.get(0).get("attempt").asInt()).isEqualTo(1);
+            assertThat(parts.get(0).get("counts").asBoolean()).isFalse();
+            assertThat(parts.get(1).get("attempt").asInt()).isEqualTo(2);
+            assertThat(parts.get(1).get("reason").asText()).isEqualTo("part was tilted");
+            assertThat(parts.get(1).get("result").get("attempt").get("operator").asText()).isEqualTo("Tam");
+            // the skipped position is never counted as measured
+            JsonNode lot = json(call(port, "GET", "/api/lots", null, null)).get("lots").get(0);
+            assertThat(lot.get("measured").asInt()).isEqualTo(1);
+            assertThat(lot.get("skipped").asInt()).isEqualTo(1);
+            // resuming under other terms is refused, naming the stored and the given value
+            HttpResponse<String> other = call(port, "POST", "/api/runs", start.replace("40", "5"), null);
+            assertThat(other.statusCode()).isEqualTo(409);
+            assertThat(json(other).get("error").asText()).contains("lot size: stored 40, given 5");
+        }
+    }
+
+    @Test
+    void sloppyBodiesAreRefusedWithJsonErrors(@TempDir Path dir) throws Exception {
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            HttpResponse<String> fraction = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"L\","
+                    + "\"lot_size\":2.9,\"operator\":\"Tam\"}", null);
+            assertThat(fraction.statusCode()).isEqualTo(400);
+            assertThat(json(fraction).get("error").asText()).startsWith("lot_size:").contains("2.9");
+            HttpResponse<String> dup = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"L\","
+                    + "\"lot_size\":40,\"lot_size\":5,\"operator\":\"Tam\"}", null);
+            assertThat(dup.statusCode()).isEqualTo(400);
+            assertThat(json(dup).get("error").asText()).contains("Duplicate field 'lot_size'");
+            HttpResponse<String> noOperator = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L\",\"lot_size\":40}", null);
+            assertThat(json(noOperator).get("error").asText()).startsWith("operator:");
+            HttpResponse<String> big = call(port, "POST", "/api/runs", "{\"x\":\"" + "a".repeat(100_000) + "\"}", null);
+            assertThat(big.statusCode()).isEqualTo(413);
+            assertThat(json(big).get("error").asText()).contains("larger than");
         }
     }
 

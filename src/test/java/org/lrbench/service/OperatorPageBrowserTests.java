@@ -51,6 +51,7 @@ class OperatorPageBrowserTests {
                 WebElement lot = browser.findElement(By.id("lot"));
                 lot.clear();
                 lot.sendKeys("PAGE-1");
+                browser.findElement(By.id("operator")).sendKeys("Tam");
                 browser.findElement(By.id("start")).click();
                 for (int i = 1; i <= 8; i++) {
                     String text = "place part " + i + " of 8";

@@ -20,9 +20,9 @@ import org.lrbench.plan.PlanLoader;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimSettings;
 
-class TraceArchiveTests {
+public class TraceArchiveTests {
 
-    static List<PointResult> sweep() throws Exception {
+    public static List<PointResult> sweep() throws Exception {
         TestBench b = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());
         Plan plan = PlanLoader.parse("""
                 plan_format: 1
