@@ -12,12 +12,12 @@ import picocli.CommandLine.Option;
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
 @Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
         subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class,
-            BenchmarkCommand.Service.class})
+            BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class})
 final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links | fits | accuracy | service");
+        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills");
     }
 
     @Command(name = "fits", description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
@@ -85,6 +85,26 @@ final class BenchmarkCommand implements Runnable {
             LinkBenchmark.run(System.out, bench, plan, Home.drivers(),
                     PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")), points, repeats);
             return ExitCodes.PASS;
+        }
+    }
+
+    @Command(name = "kills", description = {"The kill soak: a simulated lot run in a child process killed with SIGKILL at",
+            "random moments and resumed each time; then every invariant of the records is checked."})
+    static final class Kills implements Callable<Integer> {
+        @Option(names = "--kills", defaultValue = "30", description = "SIGKILLs in all (default: ${DEFAULT-VALUE})")
+        int kills;
+
+        @Option(names = "--seed", defaultValue = "1", description = "seed of the kill moments (default: ${DEFAULT-VALUE})")
+        long seed;
+
+        @Override
+        public Integer call() throws Exception {
+            if (kills < 1 || kills > 10_000) {
+                throw new BadInputException("--kills 1..10000");
+            }
+            int violations = org.lrbench.benchmark.KillSoak.run(System.out, Home.root(),
+                    Home.root().resolve("plans/qfd-ind-1m0.yaml"), Home.demoLot(), kills, seed);
+            return violations == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }
 }

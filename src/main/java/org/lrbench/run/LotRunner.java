@@ -235,7 +235,12 @@ public final class LotRunner {
         }
         List<Attempt> counting = counting(s.ledger().attempts(lot, round));
         LotDisposition.Result d = disposition(s, s.lotSize(), counting);
-        if (d.state() != LotDisposition.State.OPEN && !stopped) {
+        if (stopped) {
+            // a stop request leaves the inspection open whatever the parts so far say: it is resumed, not decided
+            d = new LotDisposition.Result(LotDisposition.State.OPEN, d.sampleSize(), d.classes(),
+                    "stopped before the sample was complete; so far " + d.reason());
+        }
+        if (d.state() != LotDisposition.State.OPEN) {
             s.ledger().decide(lot, round, d.state().name().toLowerCase(Locale.ROOT), d.reason(),
                     Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
         }

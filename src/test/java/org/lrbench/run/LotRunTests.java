@@ -226,4 +226,39 @@ public class LotRunTests {
             assertThat(RecordCheck.findings(store, dir.resolve("runs"), "LOT-1")).isEmpty();
         }
     }
+
+    @Test
+    void sigtermAndCtrlCStopALotWithExitFiveAndAWordOnResuming(@TempDir Path dir) throws Exception {
+        for (String signal : List.of("TERM", "INT")) {
+            Path work = dir.resolve(signal);
+            String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+            List<String> cmd = List.of(java, "-cp", System.getProperty("java.class.path"), "-Dlrbench.home=" + HOME,
+                    "org.lrbench.cli.Main", "run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(), "--lot", "LOT-1",
+                    "--lot-size", "40", "--sim-lot", HOME.resolve("simulator/demo-lot.yaml").toString(),
+                    "--data", work.resolve("data").toString(), "--runs", work.resolve("runs").toString(),
+                    "--calibration", work.resolve("cal").toString(), "--operator", "tester");
+            Files.createDirectories(work);
+            Path output = work.resolve("child.txt");
+            Process p = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(output.toFile()).start();
+            long deadline = System.currentTimeMillis() + 60_000;
+            while (p.isAlive() && System.currentTimeMillis() < deadline
+                    && Files.readAllLines(output).stream().noneMatch(l -> l.startsWith("HC0417-0002"))) {
+                Thread.sleep(10);
+            }
+            new ProcessBuilder("kill", "-" + signal, String.valueOf(p.pid())).start().waitFor(10, TimeUnit.SECONDS);
+            assertThat(p.waitFor(60, TimeUnit.SECONDS)).isTrue();
+            String text = Files.readString(output);
+            // the documented exit code of a lot left open (README, exit codes), never 130 or 143
+            assertThat(p.exitValue()).as(text).isEqualTo(5);
+            assertThat(text).containsPattern("lot LOT-1 stopped after [0-9] of 8 parts; run the same command to resume");
+            try (ResultStore store = ResultStore.open(work.resolve("data/lrbench.db"))) {
+                int shown = (int) text.lines().filter(l -> l.startsWith("HC0417-")).count();
+                // every verdict shown was stored, and nothing more
+                assertThat(store.attempts("LOT-1")).hasSize(shown);
+                assertThat(text).contains("stopped after " + shown + " of 8 parts");
+                assertThat(store.lots().get(0).disposition()).isNull();
+                assertThat(RecordCheck.findings(store, work.resolve("runs"), "LOT-1")).isEmpty();
+            }
+        }
+    }
 }
