@@ -89,7 +89,7 @@ public final class ResultStore implements AutoCloseable {
                 // other instead of failing when a read would have to turn into a write
                 cfg.setTransactionMode(SQLiteConfig.TransactionMode.IMMEDIATE);
             }
-            c = connectWithRetry("jdbc:sqlite:" + file, cfg);
+            c = readOnly ? connectForReading(file, cfg) : connectWithRetry("jdbc:sqlite:" + file, cfg);
             ResultStore store = new ResultStore(c, file.toString(), false, readOnly);
             store.prepare();
             return store;
@@ -101,6 +101,40 @@ public final class ResultStore implements AutoCloseable {
             throw new StoreException("cannot open the results store " + file + ": " + StoreErrors.describe(e), e);
         } catch (java.io.IOException e) {
             throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * A store on read-only media (a copy handed to an auditor, a mounted backup): SQLite's shared
+     * memory file cannot be made there, so the file is opened as immutable, unless a write-ahead
+     * log beside it still holds records not yet in the file, which would then go unread.
+     */
+    private static Connection connectForReading(Path file, SQLiteConfig cfg) throws SQLException {
+        Connection plain = null;
+        try {
+            plain = connectWithRetry("jdbc:sqlite:" + file, cfg);
+            try (Statement s = plain.createStatement(); ResultSet r = s.executeQuery("SELECT COUNT(*) FROM sqlite_master")) {
+                r.next();
+            }
+            return plain;
+        } catch (SQLException e) {
+            closeQuietly(plain);
+            if (!String.valueOf(e.getMessage()).contains("SQLITE_CANTOPEN")) {
+                throw e;
+            }
+            Path wal = Path.of(file + "-wal");
+            try {
+                if (Files.exists(wal) && Files.size(wal) > 0) {
+                    throw new StoreException("the results store " + file + " cannot be read here: its folder is read-only"
+                            + " and " + wal.getFileName() + " holds records not yet folded into the file; copy the store"
+                            + " with its -wal and -shm files to a writable folder and read it there", e);
+                }
+            } catch (java.io.IOException io) {
+                throw new StoreException("cannot read " + wal + ": " + io.getMessage(), io);
+            }
+            cfg.setOpenMode(org.sqlite.SQLiteOpenMode.OPEN_URI);
+            return DriverManager.getConnection("jdbc:sqlite:file:" + file.toAbsolutePath() + "?immutable=1",
+                    cfg.toProperties());
         }
     }
 

@@ -191,6 +191,32 @@ class RecordsTests {
         }
     }
 
+    @Test
+    void aStoreOnReadOnlyMediaIsReadAndVerified(@TempDir Path dir) throws Exception {
+        Path media = dir.resolve("media");
+        Files.createDirectories(media);
+        assumeTrue(mount(media, "size=4m"), "cannot mount a tmpfs here (needs root): read-only media test skipped");
+        try {
+            var points = traces();
+            try (ResultStore s = ResultStore.open(media.resolve("s.db"))) {
+                StoreLedger ledger = new StoreLedger(s, media.resolve("runs"), true);
+                ledger.open(ResultStoreTests.terms("L1", 40), null);
+                ledger.keep(attempt("S1", "pass", 1, null), 1, points, 100);
+            }
+            assumeTrue(new ProcessBuilder("mount", "-o", "remount,ro", media.toString()).start().waitFor() == 0,
+                    "cannot remount read-only here");
+            assertThat(Files.isWritable(media.resolve("s.db"))).isFalse();
+            try (ResultStore s = ResultStore.open(media.resolve("s.db"))) {
+                assertThat(s.lots()).singleElement().extracting(l -> l.measured()).isEqualTo(1);
+                assertThat(RecordCheck.findings(s, media.resolve("runs"), "L1")).isEmpty();
+                assertThatThrownBy(() -> s.inspect(ResultStoreTests.terms("L2", 40), null, "t"))
+                        .hasMessageContaining("reading only");
+            }
+        } finally {
+            new ProcessBuilder("umount", media.toString()).start().waitFor(10, TimeUnit.SECONDS);
+        }
+    }
+
     static boolean mount(Path dir, String options) {
         try {
             Process p = new ProcessBuilder("mount", "-t", "tmpfs", "-o", options, "tmpfs", dir.toString())
