@@ -1,5 +1,6 @@
 package org.lrbench.benchmark;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.BufferedReader;
 import java.io.InputStreamReader;
@@ -46,7 +47,8 @@ public final class ServiceBenchmark {
                 serials.add(String.format(Locale.ROOT, "HC0417-%04d", i));
             }
             send(http, base, "POST", "/api/runs",
-                    "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"BENCH-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\"}");
+                    "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"BENCH-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\","
+                            + "\"operator\":\"benchmark\"}");
             List<Thread> readers = new ArrayList<>();
             AtomicInteger inOrder = new AtomicInteger();
             AtomicInteger eventsSeen = new AtomicInteger();
@@ -103,7 +105,13 @@ public final class ServiceBenchmark {
             poller.start();
             long t0 = System.nanoTime();
             for (String s : serials) {
-                send(http, base, "POST", "/api/runs/current/answer", "{\"serial\":\"" + s + "\"}");
+                JsonNode status = json.readTree(send(http, base, "GET", "/api/runs/current", null));
+                while (!status.get("prompt").isIntegralNumber()) {
+                    Thread.sleep(2);
+                    status = json.readTree(send(http, base, "GET", "/api/runs/current", null));
+                }
+                send(http, base, "POST", "/api/runs/current/answer", "{\"prompt\":" + status.get("prompt").asLong()
+                        + ",\"serial\":\"" + s + "\"}");
                 while (json.readTree(send(http, base, "GET", "/api/runs/current", null)).get("parts_done").asInt()
                         < serials.indexOf(s) + 1) {
                     Thread.sleep(5);

@@ -122,7 +122,7 @@ final class StoreCommands {
                         rows.add(List.of(String.valueOf(p.round()), String.valueOf(p.position()), p.serial(),
                                 String.valueOf(p.number()), counting.contains(p) ? "yes" : "no", p.verdict(),
                                 num(p.inductanceH(), "%.6e"), num(p.seriesResistanceOhm(), "%.6f"), p.measuredAt(),
-                                String.valueOf(p.operator()), p.reason() == null ? "" : p.reason()));
+                                p.operator() == null ? "-" : p.operator(), p.reason() == null ? "" : p.reason()));
                     }
                 }
                 if (rows.isEmpty()) {
