@@ -24,7 +24,7 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
         Inputs.name("--lot", lot);
         String html;
         try (ResultStore s = open()) {
-            if (s.lots().stream().noneMatch(l -> l.lot().equals(lot))) {
+            if (s.lot(lot).isEmpty()) {
                 throw new BadInputException("no lot " + lot + " in " + data.resolve("lrbench.db"));
             }
             html = LotReport.html(s, lot);

@@ -238,7 +238,7 @@ public final class HttpApi implements AutoCloseable {
                     && parts.get(3).equals("report")) {
                 String lot = lotName(parts.get(2));
                 try (ResultStore s = store()) {
-                    if (s.lots().stream().noneMatch(l -> l.lot().equals(lot))) {
+                    if (s.lot(lot).isEmpty()) {
                         throw new ServiceException(404, "lot: no lot " + lot);
                     }
                     send(ctx, HttpResponseStatus.OK, "text/html; charset=utf-8",

@@ -42,9 +42,11 @@ public final class ResultStore implements AutoCloseable {
     private final String where;
     private final boolean postgres;
     private final boolean readOnly;
+    private final HashChain chain;
 
     private ResultStore(Connection db, String where, boolean postgres, boolean readOnly) {
         this.db = db;
+        this.chain = new HashChain(db);
         this.where = where;
         this.postgres = postgres;
         this.readOnly = readOnly;
@@ -294,15 +296,15 @@ public final class ResultStore implements AutoCloseable {
     private void sealEarlierRows() throws SQLException {
         List<Inspection> all = inspections(null);
         for (Inspection i : all) {
-            lockChain(i.lot());
-            appendChain(i.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
+            chain.lock(i.lot());
+            chain.append(i.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
             for (HashedAttempt h : attemptsWithHashes(i.lot())) {
                 Attempt a = h.attempt();
-                appendChain(a.lot(), "attempt", a.round(), a.serial(), a.number(),
+                chain.append(a.lot(), "attempt", a.round(), a.serial(), a.number(),
                         Canonical.sha256(Canonical.attempt(a, h.programVersion(), h.tracesSha256())));
             }
             if (i.decided()) {
-                appendChain(i.lot(), "decision", i.round(), null, null, Canonical.sha256(Canonical.decision(i)));
+                chain.append(i.lot(), "decision", i.round(), null, null, Canonical.sha256(Canonical.decision(i)));
             }
         }
     }
@@ -339,7 +341,7 @@ public final class ResultStore implements AutoCloseable {
     public Inspection inspect(LotTerms given, String reinspectReason, String now) {
         try {
             return inTransaction(() -> {
-                lockChain(given.lot());
+                chain.lock(given.lot());
                 Optional<Inspection> latest = latestInspection(given.lot());
                 if (latest.isEmpty()) {
                     return insertInspection(new Inspection(given, 1, null, now, null, null, null));
@@ -387,7 +389,7 @@ public final class ResultStore implements AutoCloseable {
             p.setString(12, i.createdAt());
             p.executeUpdate();
         }
-        appendChain(t.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
+        chain.append(t.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
         return i;
     }
 
@@ -435,7 +437,7 @@ public final class ResultStore implements AutoCloseable {
     public boolean decide(String lot, int round, String disposition, String reason, String now) {
         try {
             return inTransaction(() -> {
-                lockChain(lot);
+                chain.lock(lot);
                 int n;
                 try (PreparedStatement p = db.prepareStatement("UPDATE inspection SET disposition = ?,"
                         + " disposition_reason = ?, finished_at = ? WHERE lot = ? AND round = ? AND disposition IS NULL")) {
@@ -450,7 +452,7 @@ public final class ResultStore implements AutoCloseable {
                     return false;
                 }
                 Inspection i = inspections(lot).stream().filter(x -> x.round() == round).findFirst().orElseThrow();
-                appendChain(lot, "decision", round, null, null, Canonical.sha256(Canonical.decision(i)));
+                chain.append(lot, "decision", round, null, null, Canonical.sha256(Canonical.decision(i)));
                 return true;
             });
         } catch (SQLException e) {
@@ -468,7 +470,7 @@ public final class ResultStore implements AutoCloseable {
     public void record(Attempt a, String programVersion, String tracesSha256) {
         try {
             inTransaction(() -> {
-                lockChain(a.lot());
+                chain.lock(a.lot());
                 int next = nextAttempt(a.lot(), a.serial());
                 if (a.number() != next) {
                     throw new StoreException("serial " + a.serial() + " of lot " + a.lot() + " already has attempt "
@@ -503,7 +505,7 @@ public final class ResultStore implements AutoCloseable {
                     p.setString(17, tracesSha256);
                     p.executeUpdate();
                 }
-                appendChain(a.lot(), "attempt", a.round(), a.serial(), a.number(),
+                chain.append(a.lot(), "attempt", a.round(), a.serial(), a.number(),
                         Canonical.sha256(Canonical.attempt(a, programVersion, tracesSha256)));
                 return null;
             });
@@ -590,64 +592,6 @@ public final class ResultStore implements AutoCloseable {
 
     // ---- the hash chain ----------------------------------------------------------------------
 
-    /**
-     * Takes the lot's chain row for this transaction (creating it for a new lot): on PostgreSQL the
-     * update locks the row until commit, so two benches appending to one lot take turns; SQLite's
-     * immediate transactions already serialize writers.
-     */
-    private void lockChain(String lot) throws SQLException {
-        int n;
-        try (PreparedStatement p = db.prepareStatement("UPDATE lot_chain SET length = length WHERE lot = ?")) {
-            p.setString(1, lot);
-            n = p.executeUpdate();
-        }
-        if (n == 0) {
-            try (PreparedStatement p = db.prepareStatement(
-                    "INSERT INTO lot_chain (lot, length, head_sha256) VALUES (?, 0, ?)")) {
-                p.setString(1, lot);
-                p.setString(2, Canonical.GENESIS);
-                p.executeUpdate();
-            }
-        }
-    }
-
-    private void appendChain(String lot, String kind, int round, String serial, Integer attempt, String content)
-            throws SQLException {
-        int length;
-        String head;
-        try (PreparedStatement q = db.prepareStatement("SELECT length, head_sha256 FROM lot_chain WHERE lot = ?")) {
-            q.setString(1, lot);
-            try (ResultSet r = q.executeQuery()) {
-                if (!r.next()) {
-                    throw new StoreException("lot " + lot + " has no hash chain row", null);
-                }
-                length = r.getInt(1);
-                head = r.getString(2);
-            }
-        }
-        String record = Canonical.chain(head, content);
-        try (PreparedStatement p = db.prepareStatement("INSERT INTO chain_record (lot, seq, kind, round, serial, attempt,"
-                + " content_sha256, previous_sha256, record_sha256) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
-            p.setString(1, lot);
-            p.setInt(2, length + 1);
-            p.setString(3, kind);
-            p.setInt(4, round);
-            p.setString(5, serial);
-            p.setObject(6, attempt);
-            p.setString(7, content);
-            p.setString(8, head);
-            p.setString(9, record);
-            p.executeUpdate();
-        }
-        try (PreparedStatement p = db.prepareStatement(
-                "UPDATE lot_chain SET length = ?, head_sha256 = ? WHERE lot = ?")) {
-            p.setInt(1, length + 1);
-            p.setString(2, record);
-            p.setString(3, lot);
-            p.executeUpdate();
-        }
-    }
-
     /** The lots that have rows anywhere in the store (inspections, attempts or chain links). */
     public List<String> lotNames() {
         List<String> out = new ArrayList<>();
@@ -665,11 +609,9 @@ public final class ResultStore implements AutoCloseable {
 
     /** The lot's chain head (hash of its last record), or null for a lot without a chain. */
     public String chainHead(String lot) {
-        try (PreparedStatement q = db.prepareStatement("SELECT head_sha256 FROM lot_chain WHERE lot = ?")) {
-            q.setString(1, lot);
-            try (ResultSet r = q.executeQuery()) {
-                return r.next() ? r.getString(1) : null;
-            }
+        try {
+            ChainCheck.State st = chain.state(lot);
+            return st == null ? null : st.head();
         } catch (SQLException e) {
             throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
         }
@@ -682,7 +624,7 @@ public final class ResultStore implements AutoCloseable {
      */
     public List<String> chainFindings(String lot) {
         try {
-            return ChainCheck.findings(lot, inspections(lot), attemptsWithHashes(lot), chain(lot), chainState(lot));
+            return ChainCheck.findings(lot, inspections(lot), attemptsWithHashes(lot), chain.links(lot), chain.state(lot));
         } catch (SQLException e) {
             throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
         }
@@ -730,30 +672,6 @@ public final class ResultStore implements AutoCloseable {
         return out;
     }
 
-    private List<ChainRecord> chain(String lot) throws SQLException {
-        List<ChainRecord> out = new ArrayList<>();
-        try (PreparedStatement q = db.prepareStatement("SELECT lot, seq, kind, round, serial, attempt, content_sha256,"
-                + " previous_sha256, record_sha256 FROM chain_record WHERE lot = ? ORDER BY seq")) {
-            q.setString(1, lot);
-            try (ResultSet r = q.executeQuery()) {
-                while (r.next()) {
-                    out.add(new ChainRecord(r.getString(1), r.getInt(2), r.getString(3), r.getInt(4), r.getString(5),
-                            whole(r, 6), r.getString(7), r.getString(8), r.getString(9)));
-                }
-            }
-        }
-        return out;
-    }
-
-    private ChainCheck.State chainState(String lot) throws SQLException {
-        try (PreparedStatement q = db.prepareStatement("SELECT length, head_sha256 FROM lot_chain WHERE lot = ?")) {
-            q.setString(1, lot);
-            try (ResultSet r = q.executeQuery()) {
-                return r.next() ? new ChainCheck.State(r.getInt(1), r.getString(2)) : null;
-            }
-        }
-    }
-
     // ---- queries -----------------------------------------------------------------------------
 
     /** Every inspection of every lot, in the order they were started, with counts of their counting attempts. */
@@ -771,7 +689,16 @@ public final class ResultStore implements AutoCloseable {
 
     /** Every inspection of one lot, first to latest. */
     public List<LotRecord> lot(String lot) {
-        return lots().stream().filter(l -> l.lot().equals(lot)).toList();
+        try {
+            List<Attempt> all = attempts(lot);
+            List<LotRecord> out = new ArrayList<>();
+            for (Inspection i : inspections(lot)) {
+                out.add(record(i, all.stream().filter(a -> a.round() == i.round()).toList()));
+            }
+            return out;
+        } catch (SQLException e) {
+            throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
+        }
     }
 
     private static LotRecord record(Inspection i, List<Attempt> all) {
