@@ -192,6 +192,37 @@ class RecordsTests {
     }
 
     @Test
+    void aStoreOnAFullDiskSaysSoAndKeepsWhatWasCommitted(@TempDir Path dir) throws Exception {
+        Path disk = dir.resolve("disk");
+        Files.createDirectories(disk);
+        assumeTrue(mount(disk, "size=192k"), "cannot mount a tmpfs here (needs root): full-disk store test skipped");
+        try {
+            int stored = 0;
+            org.lrbench.store.StoreException full = null;
+            try (ResultStore s = ResultStore.open(disk.resolve("s.db"))) {
+                s.inspect(ResultStoreTests.terms("L1", 40), null, "t0");
+                String big = "x".repeat(20_000);
+                for (int i = 1; i <= 100 && full == null; i++) {
+                    try {
+                        ResultStoreTests.store(s, 1, i, 1, ResultStoreTests.part("L1", "S" + i, "pass"), big);
+                        stored++;
+                    } catch (org.lrbench.store.StoreException e) {
+                        full = e;
+                    }
+                }
+            }
+            assertThat(full).isNotNull();
+            assertThat(full.getMessage()).contains("storing S" + (stored + 1)).contains("the disk is full");
+            try (ResultStore s = ResultStore.openForReading(disk.resolve("s.db"))) {
+                assertThat(s.attempts("L1")).hasSize(stored);
+                assertThat(s.chainFindings("L1")).isEmpty();
+            }
+        } finally {
+            new ProcessBuilder("umount", disk.toString()).start().waitFor(10, TimeUnit.SECONDS);
+        }
+    }
+
+    @Test
     void aStoreOnReadOnlyMediaIsReadAndVerified(@TempDir Path dir) throws Exception {
         Path media = dir.resolve("media");
         Files.createDirectories(media);
