@@ -117,7 +117,7 @@ final class AnalyzeCommand implements Callable<Integer> {
         analysis.put("analysed_at", java.time.Instant.now().toString());
         analysis.put("method", "three-parameter sine fits, Z = Rs V2 / V1 per point (before bench corrections)");
         analysis.put("points", rows);
-        org.lrbench.results.ResultFiles.writeJson(record, analysis);
+        org.lrbench.results.ResultFiles.writeNew(record, org.lrbench.results.ResultFiles.JSON.writeValueAsBytes(analysis));
         System.out.println("analysis record added: " + record + " (the original result is unchanged)");
         return ExitCodes.PASS;
     }
