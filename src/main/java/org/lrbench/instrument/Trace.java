@@ -12,6 +12,19 @@ public record Trace(int channel, double intervalSecond, double startSecond, doub
         return volts.length;
     }
 
+    /**
+     * The largest distance of any sample from the channel's offset, the centre of its range: a
+     * signal off centre or lopsided (spikes on one side) is judged by its extremes against both
+     * range limits.
+     */
+    public double excursion() {
+        double e = 0;
+        for (double v : volts) {
+            e = Math.max(e, Math.abs(v - offsetVolt));
+        }
+        return e;
+    }
+
     /** Peak-to-peak of the samples. */
     public double peakToPeak() {
         double min = Double.POSITIVE_INFINITY;

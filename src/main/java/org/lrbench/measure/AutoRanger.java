@@ -1,30 +1,51 @@
 package org.lrbench.measure;
 
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Locale;
+import java.util.Set;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.RangeLimits;
 import org.lrbench.instrument.Trace;
 
 /**
- * Picks each channel's vertical range so its trace fills {@value #LOW_FILL} to {@value #HIGH_FILL}
- * of full scale (peak-to-peak over range), aiming at {@value #TARGET_FILL}; a clipped trace is
- * re-acquired on a range four times larger. A channel whose signal is too small for even the
- * smallest range is accepted at that range.
+ * Picks each channel's vertical range, for any range set an instrument has: continuous, or fixed
+ * steps (1-2-5, say) to which it rounds a request up, down or to the nearest. A trace is judged by
+ * its excursion, the farthest sample from the channel's offset, against half the range, so a
+ * signal off centre or lopsided is judged against both range limits.
+ * <ul>
+ * <li>Clipped, or beyond {@value #HIGH_FILL} of the half range: too small; the next request is
+ * larger (ten times after clipping, which tells nothing of the size; else what puts the excursion at {@value #TARGET_FILL}), and
+ * a granted range already known too small is stepped past without acquiring.</li>
+ * <li>Between {@value #LOW_FILL} and {@value #HIGH_FILL}: settled.</li>
+ * <li>Below {@value #LOW_FILL}: the range that would put the excursion at {@value #TARGET_FILL}
+ * is requested; when the instrument grants nothing smaller than the present range (or only a range
+ * known too small), the present capture is kept: it is the fill the range set allows.</li>
+ * </ul>
+ * No request is made twice in one capture, and when ranging does not settle the error names every
+ * range asked for and granted.
  */
 public final class AutoRanger {
     static final double LOW_FILL = 0.5;
     static final double HIGH_FILL = 0.9;
-    static final double TARGET_FILL = 0.7;
+    static final double TARGET_FILL = 0.75;
     static final int MAX_ACQUISITIONS = 10;
+    private static final double SAME = 1e-9;
 
     private final Digitizer digitizer;
     private final RangeLimits[] limits;
-    private final double[] range;
+    private final double[] request;
+    private final double[] tooSmall = new double[3];
+    private final double[] holds = new double[3];
+    private final List<List<String>> history = List.of(new ArrayList<>(), new ArrayList<>(), new ArrayList<>());
+    private final List<Set<Double>> asked = List.of(new HashSet<>(), new HashSet<>(), new HashSet<>());
 
-    /** Two channels, starting from the given ranges. */
+    /** Two channels, starting from the given full-scale (peak-to-peak) ranges. */
     public AutoRanger(Digitizer digitizer, double startRange1, double startRange2) {
         this.digitizer = digitizer;
         this.limits = new RangeLimits[] {null, digitizer.rangeLimits(1), digitizer.rangeLimits(2)};
-        this.range = new double[] {0, clamp(1, startRange1), clamp(2, startRange2)};
+        this.request = new double[] {0, clamp(1, startRange1), clamp(2, startRange2)};
     }
 
     /** The traces of both channels once ranged, and how many acquisitions it took. */
@@ -32,66 +53,125 @@ public final class AutoRanger {
     }
 
     public Capture acquire() {
-        double[] actual = new double[3];
-        String last = "";
+        for (int ch = 1; ch <= 2; ch++) {
+            tooSmall[ch] = 0;
+            holds[ch] = Double.POSITIVE_INFINITY;
+            history.get(ch).clear();
+            asked.get(ch).clear();
+        }
+        double[] granted = new double[3];
         for (int attempt = 1; attempt <= MAX_ACQUISITIONS; attempt++) {
             for (int ch = 1; ch <= 2; ch++) {
-                actual[ch] = digitizer.setRange(ch, range[ch]);
+                granted[ch] = set(ch);
             }
             digitizer.acquire();
             Trace t1 = digitizer.fetch(1);
             Trace t2 = digitizer.fetch(2);
-            boolean ok1 = judge(1, t1, actual[1]);
-            boolean ok2 = judge(2, t2, actual[2]);
+            // both channels are judged on every acquisition, so the capture returned is one whole acquisition
+            boolean ok1 = judge(1, t1, granted[1]);
+            boolean ok2 = judge(2, t2, granted[2]);
             if (ok1 && ok2) {
                 return new Capture(t1, t2, attempt);
             }
-            last = describe(t1, actual[1]) + "; " + describe(t2, actual[2]);
         }
-        throw new MeasurementException("auto-ranging did not settle after " + MAX_ACQUISITIONS
-                + " acquisitions (" + last + ")");
+        throw new MeasurementException("auto-ranging did not settle after " + MAX_ACQUISITIONS + " acquisitions: "
+                + "channel 1 " + String.join(", ", history.get(1)) + "; channel 2 " + String.join(", ", history.get(2)));
     }
 
-    /** Decides whether a trace is well ranged; if not, sets the next range to try. */
-    private boolean judge(int ch, Trace t, double actual) {
+    /** Sets the channel's requested range, stepping past any granted range known to be too small. */
+    private double set(int ch) {
+        double g = ask(ch, request[ch]);
+        for (int step = 0; step < 40 && g <= tooSmall[ch] * (1 + SAME) && g < limits[ch].maxVolt() * (1 - SAME); step++) {
+            request[ch] = clamp(ch, Math.max(request[ch], g) * 1.5);
+            g = ask(ch, request[ch]);
+        }
+        return g;
+    }
+
+    private double ask(int ch, double r) {
+        asked.get(ch).add(r);
+        double g = digitizer.setRange(ch, r);
+        history.get(ch).add("asked " + volts(r) + " got " + volts(g));
+        return g;
+    }
+
+    /** Whether the channel's trace on range {@code g} is settled; if not, sets the next request. */
+    private boolean judge(int ch, Trace t, double g) {
         RangeLimits lim = limits[ch];
-        if (t.clippedSamples() > 0) {
-            if (actual >= lim.maxVolt()) {
-                throw new MeasurementException("channel " + ch + " clips on its largest range "
-                        + actual + " V: the signal is too large for the digitizer");
+        double half = g / 2;
+        double e = t.excursion();
+        boolean clipped = t.clippedSamples() > 0 || e >= half * (1 - SAME);
+        double fill = e / half;
+        note(ch, clipped ? "clipped" : String.format(Locale.ROOT, "%.0f %% filled", 100 * fill));
+        if (clipped || fill > HIGH_FILL) {
+            if (g >= lim.maxVolt() * (1 - SAME)) {
+                if (clipped) {
+                    throw new MeasurementException("channel " + ch + " clips on its largest range " + g
+                            + " V: the signal is too large for the digitizer (" + String.join(", ", history.get(ch)) + ")");
+                }
+                return true; // held by the largest range, with less margin than wished
             }
-            range[ch] = clamp(ch, actual * 4);
+            tooSmall[ch] = Math.max(tooSmall[ch], g);
+            // clipping tells nothing of the size: ten times larger, but no larger than a range seen to hold it
+            double next = clipped ? Math.min(g * 10, holds[ch]) : 2 * e / TARGET_FILL;
+            request[ch] = fresh(ch, clamp(ch, Math.max(next, g * 1.25)));
             return false;
         }
-        double fill = t.peakToPeak() / actual;
-        if (fill >= LOW_FILL && fill <= HIGH_FILL) {
+        holds[ch] = Math.min(holds[ch], g);
+        if (fill >= LOW_FILL || g <= lim.minVolt() * (1 + SAME)) {
             return true;
         }
-        if (fill < LOW_FILL && actual <= lim.minVolt() * (1 + 1e-9)) {
-            return true; // as sensitive as the instrument goes
+        // ask for the range that would put the excursion at the target fill, stepping up past any
+        // range the instrument grants that could not hold what was just measured (a round trip each,
+        // no acquisition); the instrument's answer tells whether its range set has anything between
+        double r = fresh(ch, clamp(ch, 2 * e / TARGET_FILL));
+        double got = ask(ch, r);
+        for (int step = 0; step < 40 && (got * HIGH_FILL / 2 < e || got <= tooSmall[ch] * (1 + SAME))
+                && got < g * (1 - SAME); step++) {
+            r = fresh(ch, clamp(ch, r * 1.25));
+            got = ask(ch, r);
         }
-        double next = fill < 0.01 ? actual / 50 : t.peakToPeak() / TARGET_FILL;
-        range[ch] = clamp(ch, next);
+        if (got >= g * (1 - SAME)) {
+            // nothing between: this capture has the fill the range set allows; the channel goes back
+            // to its range if the other channel needs another acquisition
+            return true;
+        }
+        request[ch] = r;
         return false;
+    }
+
+    /** A request not yet made in this capture: grown a little until it is new. */
+    private double fresh(int ch, double r) {
+        double x = r;
+        for (int i = 0; i < 20 && asked.get(ch).contains(x) && x < limits[ch].maxVolt(); i++) {
+            x = clamp(ch, x * 1.1);
+        }
+        return x;
+    }
+
+    private static String volts(double v) {
+        return new java.math.BigDecimal(String.format(Locale.ROOT, "%.4g", v)).stripTrailingZeros().toPlainString() + " V";
+    }
+
+    private void note(int ch, String outcome) {
+        List<String> h = history.get(ch);
+        if (!h.isEmpty()) {
+            h.set(h.size() - 1, h.get(h.size() - 1) + " (" + outcome + ")");
+        }
     }
 
     /** Starts the next capture at ranges that put these peak voltages at the target fill. */
     public void expect(double peak1, double peak2) {
-        range[1] = clamp(1, 2 * peak1 / TARGET_FILL);
-        range[2] = clamp(2, 2 * peak2 / TARGET_FILL);
+        request[1] = clamp(1, 2 * peak1 / TARGET_FILL);
+        request[2] = clamp(2, 2 * peak2 / TARGET_FILL);
     }
 
-    /** The ranges the last capture used, for starting the next point near them. */
+    /** The range the next capture starts from, for starting the next point near it. */
     public double range(int ch) {
-        return range[ch];
+        return request[ch];
     }
 
     private double clamp(int ch, double r) {
         return Math.max(limits[ch].minVolt(), Math.min(limits[ch].maxVolt(), r));
-    }
-
-    private static String describe(Trace t, double range) {
-        return "channel " + t.channel() + ": " + String.format(java.util.Locale.ROOT, "%.1f %% of %.4g V",
-                100 * t.peakToPeak() / range, range) + (t.clippedSamples() > 0 ? ", clipped" : "");
     }
 }

@@ -33,7 +33,7 @@ class AutoRangerTests {
         assertThat(c.acquisitions()).isGreaterThan(1);
         for (var t : new org.lrbench.instrument.Trace[] {c.sense(), c.part()}) {
             assertThat(t.clippedSamples()).isZero();
-            assertThat(t.peakToPeak() / t.rangeVolt()).isBetween(AutoRanger.LOW_FILL, AutoRanger.HIGH_FILL);
+            assertThat(2 * t.excursion() / t.rangeVolt()).isBetween(AutoRanger.LOW_FILL, AutoRanger.HIGH_FILL);
         }
     }
 
@@ -41,7 +41,7 @@ class AutoRangerTests {
     void startingFarTooCoarseItNarrowsDown() throws Exception {
         TestBench b = bench(4);
         AutoRanger.Capture c = new AutoRanger(b.digitizer, 100, 100).acquire();
-        assertThat(c.part().peakToPeak() / c.part().rangeVolt()).isBetween(AutoRanger.LOW_FILL, AutoRanger.HIGH_FILL);
+        assertThat(2 * c.part().excursion() / c.part().rangeVolt()).isBetween(AutoRanger.LOW_FILL, AutoRanger.HIGH_FILL);
         assertThat(c.acquisitions()).isLessThanOrEqualTo(AutoRanger.MAX_ACQUISITIONS);
     }
 
@@ -52,5 +52,50 @@ class AutoRangerTests {
         double[] other = new AutoRanger(bench(10).digitizer, 1, 1).acquire().part().volts();
         assertThat(again).containsExactly(a);
         assertThat(other).isNotEqualTo(a);
+    }
+
+    /**
+     * On a 1-2-5 range set (common practice, no source: most oscilloscopes step 1, 2, 5 per decade)
+     * rounded up, down or to the nearest, from far too sensitive and far too coarse, and with the
+     * signal off centre: it settles without clipping on the smallest range that holds the signal
+     * with margin, never asks the same range twice in a row of captures, and the next smaller
+     * range of the set would not have held the signal at the target fill.
+     */
+    @Test
+    void itSettlesOnAnyRangeSetAndJudgesOffCentreSignalsByTheirExtremes() throws Exception {
+        double[] set = RangeSetDigitizer.oneTwoFive(0.01, 50);
+        for (RangeSetDigitizer.Rounding rounding : RangeSetDigitizer.Rounding.values()) {
+            for (double start : new double[] {0.01, 100}) {
+                for (double offset : new double[] {0, 0.8}) {
+                    TestBench b = bench(5);
+                    b.digitizer.setOffset(2, offset);
+                    RangeSetDigitizer d = new RangeSetDigitizer(b.digitizer, set, rounding);
+                    AutoRanger.Capture c = new AutoRanger(d, start, start).acquire();
+                    String what = rounding + " from " + start + " V, offset " + offset + " V";
+                    assertThat(c.acquisitions()).as(what).isLessThanOrEqualTo(6);
+                    for (var t : new org.lrbench.instrument.Trace[] {c.sense(), c.part()}) {
+                        double fill = 2 * t.excursion() / t.rangeVolt();
+                        assertThat(t.clippedSamples()).as(what).isZero();
+                        assertThat(fill).as(what).isLessThanOrEqualTo(AutoRanger.HIGH_FILL);
+                        double smaller = java.util.Arrays.stream(set).filter(x -> x < t.rangeVolt() * (1 - 1e-9))
+                                .max().orElse(0);
+                        // either well filled, or the next smaller range would be filled past the target
+                        assertThat(fill >= AutoRanger.LOW_FILL || 2 * t.excursion() / smaller > AutoRanger.TARGET_FILL)
+                                .as(what + ": fill " + fill + " on " + t.rangeVolt() + " V").isTrue();
+                    }
+                }
+            }
+        }
+    }
+
+    @Test
+    void whenRangingCannotSettleTheErrorNamesWhatWasAskedAndGranted() throws Exception {
+        TestBench b = bench(6);
+        // an instrument whose ranges all clip this signal: asked and granted are in the message
+        RangeSetDigitizer d = new RangeSetDigitizer(b.digitizer, new double[] {0.01, 0.02, 0.05}, RangeSetDigitizer.Rounding.UP);
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> new AutoRanger(d, 0.01, 0.01).acquire())
+                .isInstanceOf(MeasurementException.class)
+                .hasMessageContaining("largest range")
+                .hasMessageContaining("asked 0.01 V got 0.01 V (clipped)").hasMessageContaining("asked 0.05 V got 0.05 V (clipped)");
     }
 }
