@@ -70,7 +70,25 @@ public final class BenchInstruments implements AutoCloseable {
         Map<String, InProcessPeer> peers = simulated == null ? Map.of()
                 : Map.of("generator", simulated.generator(), "digitizer", simulated.digitizer(),
                         "switch", simulated.switchUnit(), "meter", simulated.meter());
-        ScpiSession g = session("generator", bench.generator(), sourceDriver, peers, simulated != null);
+        // safety first: the generator is reached and its output switched off before anything else,
+        // so an output left on by an earlier crash does not stay on when another instrument fails
+        ScpiSession g;
+        ScpiGenerator generator;
+        try {
+            g = session("generator", bench.generator(), sourceDriver, peers, simulated != null);
+        } catch (org.lrbench.instrument.InstrumentException e) {
+            throw new org.lrbench.instrument.InstrumentException(e.getMessage() + ". The generator could not be"
+                    + " reached, so lrbench cannot switch its output off: if it may be on, switch it off at the"
+                    + " instrument", e);
+        }
+        try {
+            generator = new ScpiGenerator(g, sourceDriver);
+            generator.outputOff();
+        } catch (RuntimeException e) {
+            closeQuietly(g);
+            throw new org.lrbench.instrument.InstrumentException(e.getMessage() + ". The generator's output could not"
+                    + " be switched off: if it may be on, switch it off at the instrument", e);
+        }
         ScpiSession d;
         try {
             d = session("digitizer", bench.digitizer(), digitizerDriver, peers, simulated != null);
@@ -79,7 +97,7 @@ public final class BenchInstruments implements AutoCloseable {
             throw e;
         }
         if (bench.switchUnit() == null || !withSwitch) {
-            BenchInstruments bi = new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
+            BenchInstruments bi = new BenchInstruments(generator, new ScpiDigitizer(d, digitizerDriver),
                     new java.util.ArrayList<>(List.of(g, d)));
             bi.openMeter(bench, drivers, peers, simulated != null);
             return bi;
@@ -93,7 +111,7 @@ public final class BenchInstruments implements AutoCloseable {
             closeQuietly(d);
             throw e;
         }
-        BenchInstruments bi = new BenchInstruments(new ScpiGenerator(g, sourceDriver), new ScpiDigitizer(d, digitizerDriver),
+        BenchInstruments bi = new BenchInstruments(generator, new ScpiDigitizer(d, digitizerDriver),
                 new org.lrbench.driver.ScpiSwitch(w, switchDriver), new java.util.ArrayList<>(List.of(g, d, w)));
         bi.openMeter(bench, drivers, peers, simulated != null);
         return bi;

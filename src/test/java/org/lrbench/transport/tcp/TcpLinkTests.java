@@ -132,6 +132,36 @@ class TcpLinkTests {
     }
 
     @Test
+    void aDigitizerThatRefusesTheLinkStillLeavesTheGeneratorOutputOff(@org.junit.jupiter.api.io.TempDir Path dir)
+            throws Exception {
+        BenchConfig b = bench();
+        SimBench sim = simBench(b, plan(b));
+        try (SimServer server = new SimServer(sim, 0);
+             ScpiSession s = new ScpiSession("generator", new TcpTransport("tcp", "127.0.0.1", server.generatorPort(),
+                     Duration.ofSeconds(2)), Duration.ofSeconds(2))) {
+            // an output left on by an earlier crash
+            s.write(":OUTPut1:STATe ON");
+            assertThat(s.query(":OUTPut1:STATe?")).isEqualTo("1");
+            int code = org.lrbench.cli.Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
+                    "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
+                    "--digitizer", "tcp://127.0.0.1:1?connect_timeout_ms=500", "--runs", dir.toString(),
+                    "--calibration", dir.resolve("none").toString());
+            assertThat(code).isEqualTo(3);
+            assertThat(sim.generator().isOutputOn()).isFalse();
+        }
+    }
+
+    @Test
+    void aGeneratorThatCannotBeReachedIsReportedWithWhatToDo() throws Exception {
+        BenchConfig b = bench().withAddresses(Address.parse("tcp://127.0.0.1:1?connect_timeout_ms=500"),
+                Address.parse("tcp://127.0.0.1:2?connect_timeout_ms=500"));
+        assertThatThrownBy(() -> BenchInstruments.open(b, new DriverLoader(HOME.resolve("drivers")), null))
+                .isInstanceOf(InstrumentException.class)
+                .hasMessageContaining("cannot open tcp://127.0.0.1:1")
+                .hasMessageContaining("switch it off at the instrument");
+    }
+
+    @Test
     void nobodyListeningIsAClearError() {
         assertThatThrownBy(() -> org.lrbench.transport.Transports.open(
                 Address.parse("tcp://127.0.0.1:1?connect_timeout_ms=500"), java.util.Map.of()))
