@@ -89,7 +89,9 @@ public final class BenchLoader {
             return null;
         }
         try {
-            return new InstrumentLink(driver, Address.parse(address));
+            Address a = Address.parse(address);
+            org.lrbench.transport.Transports.check(a);
+            return new InstrumentLink(driver, a);
         } catch (AddressException e) {
             m.problem("address", e.getMessage());
             return null;

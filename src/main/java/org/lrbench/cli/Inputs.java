@@ -50,7 +50,9 @@ final class Inputs {
             return null;
         }
         try {
-            return org.lrbench.transport.Address.parse(text);
+            org.lrbench.transport.Address a = org.lrbench.transport.Address.parse(text);
+            org.lrbench.transport.Transports.check(a);
+            return a;
         } catch (org.lrbench.transport.AddressException e) {
             throw new BadInputException(option + ": " + e.getMessage());
         }

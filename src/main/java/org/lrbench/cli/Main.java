@@ -26,7 +26,8 @@ public final class Main implements Runnable {
                 ResultText.problems(commandLine.getErr(), p.problems());
                 return ExitCodes.BAD_INPUT;
             }
-            if (e instanceof BadInputException || e instanceof org.lrbench.run.LotRunner.Refused) {
+            if (e instanceof BadInputException || e instanceof org.lrbench.run.LotRunner.Refused
+                    || e instanceof org.lrbench.transport.AddressException) {
                 commandLine.getErr().println("lrbench: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }

@@ -18,7 +18,6 @@ import java.util.Set;
  */
 public record Address(String scheme, String target, Map<String, String> options, String text) {
 
-    public static final Set<String> SCHEMES = Set.of("sim", "tcp", "serial", "usbtmc");
     public static final int DEFAULT_TCP_PORT = 5025;
 
     public static Address parse(String text) {
@@ -32,7 +31,7 @@ public record Address(String scheme, String target, Map<String, String> options,
                     + schemeList());
         }
         String scheme = t.substring(0, sep).toLowerCase(Locale.ROOT);
-        if (!SCHEMES.contains(scheme)) {
+        if (!Transports.known(scheme)) {
             throw new AddressException("instrument address '" + t + "': unknown scheme '" + scheme + "'; schemes: "
                     + schemeList());
         }
@@ -55,10 +54,6 @@ public record Address(String scheme, String target, Map<String, String> options,
         }
         if (target.isEmpty()) {
             throw new AddressException("instrument address '" + t + "': nothing after '" + scheme + "://'");
-        }
-        if ((scheme.equals("serial") || scheme.equals("usbtmc")) && !target.startsWith("/")) {
-            throw new AddressException("instrument address '" + t + "': the device must be an absolute path, as in "
-                    + scheme + ":///dev/" + (scheme.equals("serial") ? "ttyUSB0" : "usbtmc0"));
         }
         return new Address(scheme, target, Map.copyOf(options), t);
     }
@@ -146,7 +141,7 @@ public record Address(String scheme, String target, Map<String, String> options,
     }
 
     private static String schemeList() {
-        return String.join(", ", SCHEMES.stream().sorted().toList());
+        return String.join(", ", Transports.schemes());
     }
 
     @Override

@@ -33,7 +33,10 @@ class AddressTests {
         assertThatThrownBy(() -> Address.parse("gpib://7")).hasMessageContaining("unknown scheme 'gpib'");
         assertThatThrownBy(() -> Address.parse("192.0.2.7:5025")).hasMessageContaining("has no scheme");
         assertThatThrownBy(() -> Address.parse("tcp://host:99999").port()).hasMessageContaining("port '99999'");
-        assertThatThrownBy(() -> Address.parse("serial://ttyUSB0")).hasMessageContaining("absolute path");
+        assertThatThrownBy(() -> Transports.check(Address.parse("serial://ttyUSB0"))).hasMessageContaining("absolute path");
+        assertThatThrownBy(() -> Transports.check(Address.parse("tcp://host:99999"))).hasMessageContaining("port '99999'");
+        assertThatThrownBy(() -> Transports.check(Address.parse("serial:///dev/ttyUSB0?baud=abc")))
+                .hasMessageContaining("baud=abc");
         assertThatThrownBy(() -> SerialSettings.of(Address.parse("serial:///dev/ttyUSB0?baud=fast")))
                 .hasMessageContaining("baud=fast");
         assertThatThrownBy(() -> SerialSettings.of(Address.parse("serial:///dev/ttyUSB0?speed=9600")))
@@ -41,5 +44,28 @@ class AddressTests {
         assertThatThrownBy(() -> Address.parse("tcp://h?term")).hasMessageContaining("option 'term' is not key=value");
         assertThatThrownBy(() -> Address.parse("sim://g?term=nul").terminator()).hasMessageContaining("term=nul");
         Address.parse("tcp://h").requireOptions(Set.of()); // no options: nothing to refuse
+    }
+
+    @Test
+    void linksAreFoundThroughTheirProvidersAndThisPackageKnowsNoImplementation() throws Exception {
+        assertThat(Transports.schemes()).containsExactly("serial", "sim", "tcp", "usbtmc");
+        java.nio.file.Path dir = org.lrbench.TestBench.home().resolve("src/main/java/org/lrbench/transport");
+        try (var files = java.nio.file.Files.list(dir)) {
+            for (java.nio.file.Path f : files.filter(x -> x.toString().endsWith(".java")).toList()) {
+                assertThat(java.nio.file.Files.readString(f)).as(f.toString())
+                        .doesNotContainPattern("org\\.lrbench\\.transport\\.(tcp|serial|usbtmc|inproc)");
+            }
+        }
+    }
+
+    @Test
+    void aMalformedAddressInABenchFileIsAPositionedProblem(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws Exception {
+        java.nio.file.Path bench = dir.resolve("bench.yaml");
+        String text = java.nio.file.Files.readString(org.lrbench.TestBench.home().resolve("simulator/bench.yaml"));
+        java.nio.file.Files.writeString(bench, text.replaceFirst("address: sim://digitizer", "address: tcp://127.0.0.1:99999"));
+        assertThatThrownBy(() -> org.lrbench.bench.BenchLoader.load(bench))
+                .isInstanceOf(org.lrbench.yaml.ProblemsException.class)
+                .hasMessageContaining("address: instrument address 'tcp://127.0.0.1:99999': port '99999' is not 1 to 65535");
     }
 }
