@@ -1,15 +1,23 @@
 package org.lrbench.cli;
 
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.InstrumentLink;
+import org.lrbench.driver.DriverFile;
+import org.lrbench.driver.DriverKind;
+import org.lrbench.driver.DriverLoader;
 import org.lrbench.plan.Plan;
+import org.lrbench.yaml.ProblemsException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
-/** {@code lrbench check PLAN}: validates a plan against a bench. */
-@Command(name = "check", description = "Validate a plan; print every problem as file:line:column: key: message.")
+/** {@code lrbench check PLAN}: validates a plan against a bench, the bench's addresses and its driver files. */
+@Command(name = "check", description = "Validate a plan, its bench and the bench's driver files; print every problem"
+        + " as file:line:column: key: message.")
 final class CheckCommand implements Callable<Integer> {
 
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
@@ -18,13 +26,48 @@ final class CheckCommand implements Callable<Integer> {
     @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
     Path bench;
 
+    @Option(names = "--drivers", paramLabel = "DIR", description = "folder of driver files (default: the installed drivers/)")
+    Path drivers;
+
     @Override
     public Integer call() throws Exception {
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
-        Plan p = Inputs.plan(plan, b);
-        System.out.printf("%s: ok, part number %s, %d frequencies from %.6g Hz to %.6g Hz, %d limits, bench %s%n",
-                plan, p.partNumber(), p.sweep().frequenciesHz().size(), p.sweep().lowestHz(), p.sweep().highestHz(),
+        DriverLoader loader = new DriverLoader(drivers != null ? drivers : Home.drivers());
+        List<Object> problems = new ArrayList<>();
+        List<String> loaded = new ArrayList<>();
+        Plan p = null;
+        try {
+            p = Inputs.plan(plan, b);
+        } catch (ProblemsException e) {
+            problems.addAll(e.problems());
+        }
+        driver(loader, "generator", b.generator(), DriverKind.SOURCE, problems, loaded);
+        driver(loader, "digitizer", b.digitizer(), DriverKind.DIGITIZER, problems, loaded);
+        driver(loader, "switch", b.switchUnit(), DriverKind.SWITCH, problems, loaded);
+        driver(loader, "meter", b.meter(), DriverKind.METER, problems, loaded);
+        if (!problems.isEmpty()) {
+            problems.forEach(System.err::println);
+            return ExitCodes.BAD_INPUT;
+        }
+        System.out.printf("%s: ok, part number %s, %d frequencies from %s to %s, %d limits, bench %s%n",
+                plan, p.partNumber(), p.sweep().frequenciesHz().size(),
+                org.lrbench.units.Units.format(p.sweep().lowestHz(), org.lrbench.units.Dimension.FREQUENCY),
+                org.lrbench.units.Units.format(p.sweep().highestHz(), org.lrbench.units.Dimension.FREQUENCY),
                 p.limits().size(), b.name());
+        System.out.println("drivers: " + String.join("; ", loaded));
         return ExitCodes.PASS;
+    }
+
+    private static void driver(DriverLoader loader, String role, InstrumentLink link, DriverKind kind, List<Object> problems,
+                               List<String> loaded) {
+        if (link == null) {
+            return;
+        }
+        try {
+            DriverFile d = loader.load(link.driver(), kind);
+            loaded.add(role + " " + d.name() + " at " + link.address());
+        } catch (ProblemsException e) {
+            problems.addAll(e.problems());
+        }
     }
 }

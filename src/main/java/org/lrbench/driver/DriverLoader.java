@@ -58,6 +58,9 @@ public final class DriverLoader {
         String description = root.text("description", false);
         Map<String, Pattern> identity = readIdentity(root);
         Double timeoutSeconds = root.quantity("timeout", Dimension.TIME, false);
+        if (timeoutSeconds != null && !(timeoutSeconds > 0 && timeoutSeconds <= 600)) {
+            root.problem("timeout", "a reply timeout must be more than 0 s and at most 600 s");
+        }
         String errorQuery = root.text("error_query", false);
         Map<String, CommandTemplate> commands = new LinkedHashMap<>();
         Map<String, Map<String, String>> words = new LinkedHashMap<>();

@@ -271,4 +271,36 @@ class CommandLineTests {
         assertThat(v.code()).isEqualTo(1);
         assertThat(v.out()).contains("HC0417-0002.json: altered").contains("1 finding");
     }
+
+    @Test
+    void checkLoadsTheBenchAndItsDriversAndRefusesWhatARunWouldMeet(@TempDir Path dir) throws Exception {
+        Outcome ok = run("check", PLAN);
+        assertThat(ok.code()).as(ok.err()).isZero();
+        assertThat(ok.out()).contains("drivers: generator generic-source").contains("digitizer generic-digitizer");
+        // a driver folder with a zero timeout and an unknown placeholder, and a bench naming a missing driver
+        Path drivers = dir.resolve("drivers");
+        Files.createDirectories(drivers);
+        try (var files = Files.list(HOME.resolve("drivers"))) {
+            for (Path f : files.toList()) {
+                Files.copy(f, drivers.resolve(f.getFileName()));
+            }
+        }
+        Path digitizer = drivers.resolve("generic-digitizer.yaml");
+        Files.writeString(digitizer, Files.readString(digitizer).replace("timeout: 10 s", "timeout: 0 s")
+                .replace(":SENSe:SWEep:TINTerval {interval}", ":SENSe:SWEep:TINTerval {intervall}"));
+        Outcome bad = run("check", PLAN, "--drivers", drivers.toString());
+        assertThat(bad.code()).isEqualTo(2);
+        assertThat(bad.err()).contains(digitizer + ":").contains("timeout: a reply timeout must be more than 0 s")
+                .contains("{intervall}");
+        Path bench = dir.resolve("bench.yaml");
+        Files.writeString(bench, Files.readString(HOME.resolve("simulator/bench.yaml"))
+                .replaceFirst("driver: generic-source", "driver: no-such-source"));
+        Outcome missing = run("check", PLAN, "--bench", bench.toString());
+        assertThat(missing.code()).isEqualTo(2);
+        assertThat(missing.err()).contains("no driver file 'no-such-source.yaml'");
+        Outcome list = run("drivers");
+        assertThat(list.code()).isZero();
+        assertThat(list.out()).containsPattern("generic-digitizer +digitizer ").containsPattern("generic-source +source ");
+        assertThat(run("drivers", "--drivers", drivers.toString()).code()).isEqualTo(2);
+    }
 }
