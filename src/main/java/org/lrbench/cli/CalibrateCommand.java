@@ -40,8 +40,12 @@ final class CalibrateCommand implements Callable<Integer> {
             description = "where corrections are kept (default: ${DEFAULT-VALUE})")
     Path calibration;
 
+    @picocli.CommandLine.Mixin
+    LogOptions logging;
+
     @Override
     public Integer call() throws Exception {
+        logging.apply();
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
         Plan p = Inputs.plan(plan, b);
         SimBench simBench = null;

@@ -53,8 +53,12 @@ final class DemoCommand implements Callable<Integer> {
         }
     }
 
+    @picocli.CommandLine.Mixin
+    LogOptions logging;
+
     @Override
     public Integer call() throws Exception {
+        logging.apply();
         Path lotPath = lotFile != null ? lotFile : Home.demoLot();
         Inputs.requireFile(lotPath, "simulated lot");
         SimLot lot = SimLot.load(lotPath);

@@ -113,8 +113,12 @@ final class RunCommand implements Callable<Integer> {
             description = "folder that keeps every result, as DIR/LOT/SERIAL.json (default: ${DEFAULT-VALUE})")
     Path runs;
 
+    @picocli.CommandLine.Mixin
+    LogOptions logging;
+
     @Override
     public Integer call() throws Exception {
+        logging.apply();
         Inputs.name("--lot", lot);
         if (lotSize != null) {
             return runLot();

@@ -43,8 +43,12 @@ final class ServeCommand implements Callable<Integer> {
             description = "bench corrections (default: ${DEFAULT-VALUE})")
     Path calibration;
 
+    @picocli.CommandLine.Mixin
+    LogOptions logging;
+
     @Override
     public Integer call() throws Exception {
+        logging.apply();
         if (port < 0 || port > 65535) {
             throw new BadInputException("--port " + port + ": use 0 to 65535");
         }

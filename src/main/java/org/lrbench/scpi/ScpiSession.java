@@ -20,6 +20,8 @@ import org.lrbench.transport.TransportTimeoutException;
  * be taken for the answer to a later query.
  */
 public final class ScpiSession implements AutoCloseable {
+    /** Every message to and from every instrument, at DEBUG: off unless the I/O log is asked for. */
+    private static final org.slf4j.Logger IO = org.slf4j.LoggerFactory.getLogger("org.lrbench.io");
     /** Longest text reply accepted. */
     public static final int MAX_LINE = 64 << 20;
     /** Largest binary block accepted. */
@@ -81,6 +83,9 @@ public final class ScpiSession implements AutoCloseable {
         byte[] message = new byte[text.length + terminator.length];
         System.arraycopy(text, 0, message, 0, text.length);
         System.arraycopy(terminator, 0, message, text.length, terminator.length);
+        if (IO.isDebugEnabled()) {
+            IO.debug("{} > {}", instrument, command);
+        }
         long start = System.nanoTime();
         try {
             transport.write(message);
@@ -98,8 +103,14 @@ public final class ScpiSession implements AutoCloseable {
         queries++;
         long start = System.nanoTime();
         try {
-            return readLine(command);
+            String reply = readLine(command);
+            if (IO.isDebugEnabled()) {
+                IO.debug("{} < {}", instrument, reply.length() > 240 ? reply.substring(0, 240) + "... ("
+                        + reply.length() + " characters)" : reply);
+            }
+            return reply;
         } catch (TransportTimeoutException e) {
+            IO.debug("{} ! no reply after {} ms", instrument, elapsedMillis(start));
             stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): no reply to '" + command
@@ -119,8 +130,13 @@ public final class ScpiSession implements AutoCloseable {
         queries++;
         long start = System.nanoTime();
         try {
-            return readBlock();
+            byte[] block = readBlock();
+            if (IO.isDebugEnabled()) {
+                IO.debug("{} < block of {} bytes: {}", instrument, block.length, firstBytes(block));
+            }
+            return block;
         } catch (BlockFormatException e) {
+            IO.debug("{} ! not a valid block: {}", instrument, e.getMessage());
             stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): reply to '" + command
@@ -354,6 +370,14 @@ public final class ScpiSession implements AutoCloseable {
 
     private static String describe(int b) {
         return b >= 0x20 && b < 0x7f ? "'" + (char) b + "'" : String.format("byte 0x%02x", b);
+    }
+
+    private static String firstBytes(byte[] block) {
+        StringBuilder sb = new StringBuilder();
+        for (int i = 0; i < Math.min(16, block.length); i++) {
+            sb.append(String.format("%02x ", block[i] & 0xff));
+        }
+        return block.length > 16 ? sb.append("...").toString() : sb.toString().trim();
     }
 
     private static long elapsedMillis(long startNanos) {

@@ -303,4 +303,20 @@ class CommandLineTests {
         assertThat(list.out()).containsPattern("generic-digitizer +digitizer ").containsPattern("generic-source +source ");
         assertThat(run("drivers", "--drivers", drivers.toString()).code()).isEqualTo(2);
     }
+
+    @Test
+    void theIoLogRecordsEveryMessageToAndFromEachInstrument(@TempDir Path dir) throws Exception {
+        Path log = dir.resolve("io.log");
+        Outcome o = run("run", PLAN, "--lot", "L-1", "--serial", "S-1", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.resolve("runs").toString(),
+                "--calibration", dir.resolve("none").toString(), "--io-log", log.toString());
+        assertThat(o.code()).as(o.err()).isZero();
+        java.util.List<String> lines = Files.readAllLines(log);
+        // IEEE 488.2 *IDN? to each instrument, and its four-field answer
+        assertThat(lines).anyMatch(l -> l.matches("\\S+Z generator \\(generic-source at sim://generator\\) > \\*IDN\\?"));
+        assertThat(lines).anyMatch(l -> l.contains("digitizer (generic-digitizer at sim://digitizer) < LRBENCH,SIM-DIGITIZER-2"));
+        assertThat(lines).anyMatch(l -> l.matches(".*digitizer .* < block of [0-9]+ bytes: ([0-9a-f]{2} )+\\.\\.\\."));
+        // the output goes off first, before anything else is said to any instrument
+        assertThat(lines.get(0)).contains("generator").contains("> :OUTPut1:STATe OFF");
+    }
 }
