@@ -127,6 +127,7 @@ final class RunCommand implements Callable<Integer> {
             throw new BadInputException("give --serial SN for one part, or --lot-size N for the lot's sample");
         }
         Inputs.name("--serial", serial);
+        refuseSampledLot();
         int number = singleAttemptNumber();
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
         if (sim != null && (generatorAddress != null || digitizerAddress != null)) {
@@ -196,6 +197,24 @@ final class RunCommand implements Callable<Integer> {
 
     private String operatorName() {
         return operator != null ? operator : System.getProperty("user.name", "unknown");
+    }
+
+    /**
+     * A lot inspected by sampling keeps its parts in the store; a single part measured into it
+     * would take a record name the lot run needs, so it is refused.
+     */
+    private void refuseSampledLot() {
+        Path db = data.resolve("lrbench.db");
+        if (storeUrl == null && !java.nio.file.Files.isRegularFile(db)) {
+            return;
+        }
+        try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.openForReading(db)) {
+            if (store.latestInspection(lot).isPresent()) {
+                throw new BadInputException("lot " + lot + " is inspected by sampling in the results store: measure its"
+                        + " parts with --lot-size (a part is measured again at its prompt), or give single parts"
+                        + " another lot number");
+            }
+        }
     }
 
     /**

@@ -203,6 +203,12 @@ class CommandLineTests {
         assertThat(lot.out().lines().filter(l -> l.startsWith("2 ")).count()).isEqualTo(8);
         Outcome verify = run("verify", "--data", dir.resolve("data").toString(), "--runs", dir.resolve("runs").toString());
         assertThat(verify.code()).as(verify.out()).isZero();
+        // a single part measured into the sampled lot would take a record name the lot needs: refused
+        Outcome single = run("run", PLAN, "--lot", "X1", "--serial", "HC0417-0009", "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.resolve("runs").toString(),
+                "--data", dir.resolve("data").toString(), "--calibration", dir.resolve("none").toString());
+        assertThat(single.code()).isEqualTo(2);
+        assertThat(single.err()).contains("lot X1 is inspected by sampling");
     }
 
     @Test
@@ -318,5 +324,28 @@ class CommandLineTests {
         assertThat(lines).anyMatch(l -> l.matches(".*digitizer .* < block of [0-9]+ bytes: ([0-9a-f]{2} )+\\.\\.\\."));
         // the output goes off first, before anything else is said to any instrument
         assertThat(lines.get(0)).contains("generator").contains("> :OUTPut1:STATe OFF");
+    }
+
+    @Test
+    void theDriverSelfTestExercisesEveryOperationAndNamesTheExchangeThatFailed(@TempDir Path dir) throws Exception {
+        String part = HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString();
+        Outcome ok = run("exercise", "--sim", part);
+        assertThat(ok.code()).as(ok.out() + ok.err()).isZero();
+        assertThat(ok.out()).contains("ok     digitizer fetch and decode, channel 2").contains("20 of 20 operations worked");
+        Path drivers = dir.resolve("drivers");
+        Files.createDirectories(drivers);
+        try (var files = Files.list(HOME.resolve("drivers"))) {
+            for (Path f : files.toList()) {
+                Files.copy(f, drivers.resolve(f.getFileName()));
+            }
+        }
+        Path digitizer = drivers.resolve("generic-digitizer.yaml");
+        Files.writeString(digitizer, Files.readString(digitizer).replace(":SENSe{channel}:VOLTage:RANGe {range}",
+                ":SENSe{channel}:VOLTage:RANGe:BOGus {range}"));
+        Outcome bad = run("exercise", "--sim", part, "--drivers", drivers.toString());
+        assertThat(bad.code()).isEqualTo(3);
+        // SCPI-1999: -113 is "Undefined header"; the failing command is named
+        assertThat(bad.out()).containsPattern("FAILED digitizer range 1.0 V and read back, channel 1 .*RANGe:BOGus.*-113")
+                .contains("ok     generator amplitude");
     }
 }
