@@ -8,13 +8,18 @@ import org.lrbench.scpi.TraceEncoding;
 
 /**
  * A loaded, validated driver: command templates per logical operation, word tables, the trace
- * encoding (digitizers), the error query, the reply timeout, and patterns for the {@code *IDN?}
+ * encoding and the {@link DigitizerTraits} (digitizers), the error query, the reply timeout, and patterns for the {@code *IDN?}
  * fields of the instruments it is written for.
  */
 public record DriverFile(String name, String source, DriverKind kind, String description,
                          Map<String, Pattern> identity, Duration timeout, String errorQuery,
                          Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
-                         TraceEncoding traceEncoding) {
+                         TraceEncoding traceEncoding, DigitizerTraits digitizer) {
+
+    /** Whether the driver has a template for the operation (some are needed only for some traits). */
+    public boolean has(String operation) {
+        return commands.containsKey(operation);
+    }
 
     public CommandTemplate command(String operation) {
         CommandTemplate t = commands.get(operation);

@@ -48,7 +48,8 @@ public final class DriverLoader {
             throws ProblemsException {
         YamlMap root = YamlFile.read(file, problems,
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
-                "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes");
+                "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
+                "vertical", "scaling", "timebase", "acquisition");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -65,11 +66,30 @@ public final class DriverLoader {
         Map<String, CommandTemplate> commands = new LinkedHashMap<>();
         Map<String, Map<String, String>> words = new LinkedHashMap<>();
         TraceEncoding encoding = null;
+        DigitizerTraits traits = null;
+        if (kind == DriverKind.DIGITIZER) {
+            String key = root.text("trace_format", true);
+            if (key != null) {
+                encoding = TraceEncoding.byKey(key);
+                if (encoding == null) {
+                    root.problem("trace_format", "'" + key + "' is not a trace format; allowed: "
+                            + String.join(", ", java.util.Arrays.stream(TraceEncoding.values()).map(TraceEncoding::key).toList()));
+                }
+            }
+            traits = DigitizerTraitsReader.read(root, encoding);
+        } else if (kind != null) {
+            for (String digitizerOnly : List.of("trace_format", "vertical", "scaling", "timebase", "acquisition")) {
+                if (root.has(digitizerOnly)) {
+                    root.problem(digitizerOnly, "only digitizer drivers have " + digitizerOnly);
+                }
+            }
+        }
         if (kind != null) {
+            Set<String> optional = traits == null ? Set.of() : DigitizerTraitsReader.optional(traits);
             YamlMap cmds = root.map("commands", true, kind.operations().keySet().toArray(String[]::new));
             if (cmds != null) {
                 for (Map.Entry<String, Set<String>> op : kind.operations().entrySet()) {
-                    String text = cmds.text(op.getKey(), true);
+                    String text = cmds.text(op.getKey(), !optional.contains(op.getKey()));
                     if (text != null) {
                         try {
                             commands.put(op.getKey(), CommandTemplate.parse(text, op.getValue()));
@@ -91,18 +111,6 @@ public final class DriverLoader {
                     root.problem(other, "not used by a " + kind.key() + " driver");
                 }
             }
-            if (kind == DriverKind.DIGITIZER) {
-                String key = root.text("trace_format", true);
-                if (key != null) {
-                    encoding = TraceEncoding.byKey(key);
-                    if (encoding == null) {
-                        root.problem("trace_format", "'" + key + "' is not a trace format; allowed: "
-                                + String.join(", ", java.util.Arrays.stream(TraceEncoding.values()).map(TraceEncoding::key).toList()));
-                    }
-                }
-            } else if (root.has("trace_format")) {
-                root.problem("trace_format", "only digitizer drivers have a trace format");
-            }
         }
         if (errorQuery != null) {
             try {
@@ -117,7 +125,7 @@ public final class DriverLoader {
         problems.throwIfAny();
         Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
         return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
-                errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding);
+                errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits);
     }
 
     private static Map<String, Pattern> readIdentity(YamlMap root) {

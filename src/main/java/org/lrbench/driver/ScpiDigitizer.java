@@ -23,9 +23,17 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     private final Map<Integer, Double> offsets = new HashMap<>();
     private final Map<Integer, double[]> scales = new HashMap<>();
     private int points;
+    private double interval;
+    private final DigitizerTraits traits;
 
     public ScpiDigitizer(ScpiSession session, DriverFile driver) {
         super(session, driver);
+        this.traits = driver.digitizer() == null ? DigitizerTraits.GENERIC : driver.digitizer();
+    }
+
+    /** Instrument units of the vertical setting per volt of full-scale peak-to-peak range. */
+    private double perPeakToPeak() {
+        return traits.vertical().perPeakToPeak();
     }
 
     @Override
@@ -39,8 +47,13 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public RangeLimits rangeLimits(int channel) {
+        List<Double> declared = traits.vertical().ranges();
+        if (!declared.isEmpty()) {
+            return new RangeLimits(declared.get(0) / perPeakToPeak(), declared.get(declared.size() - 1) / perPeakToPeak());
+        }
         Map<String, String> ch = channel(channel);
-        return new RangeLimits(queryNumber("range_min_query", ch), queryNumber("range_max_query", ch));
+        return new RangeLimits(queryNumber("range_min_query", ch) / perPeakToPeak(),
+                queryNumber("range_max_query", ch) / perPeakToPeak());
     }
 
     @Override
@@ -50,11 +63,14 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             return ranges.get(channel); // unchanged: no round trip
         }
         Map<String, String> values = new HashMap<>(channel(channel));
-        values.put("range", ScpiNumbers.nr3(peakToPeakVolt));
+        values.put("range", ScpiNumbers.nr3(peakToPeakVolt * perPeakToPeak()));
         String query = driver.command("range_query").render(channel(channel));
         List<String> replies = session.configure(driver.command("range").render(values) + ";" + query,
                 driver.errorQuery());
-        double actual = number(query, single(query, replies));
+        double actual = number(query, single(query, replies)) / perPeakToPeak();
+        if (!(actual > 0)) {
+            throw new InstrumentException(session.instrument() + ": '" + query + "' answered a range of " + actual);
+        }
         ranges.put(channel, actual);
         requestedRanges.put(channel, peakToPeakVolt);
         scales.remove(channel);
@@ -81,7 +97,9 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     public Timing setTiming(double sampleIntervalSecond, int requestedPoints) {
         String intervalQuery = driver.command("interval_query").render(Map.of());
         String pointsQuery = driver.command("points_query").render(Map.of());
-        String command = driver.command("interval").render(Map.of("interval", ScpiNumbers.nr3(sampleIntervalSecond)))
+        boolean rate = traits.timebase().rate();
+        String command = driver.command("interval").render(Map.of("interval",
+                        ScpiNumbers.nr3(rate ? 1 / sampleIntervalSecond : sampleIntervalSecond)))
                 + ";" + driver.command("points").render(Map.of("points", ScpiNumbers.nr1(requestedPoints)))
                 + ";" + intervalQuery + ";" + pointsQuery;
         List<String> replies = session.configure(command, driver.errorQuery());
@@ -89,7 +107,11 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies
                     + "; expected the interval and the record length");
         }
-        double interval = number(intervalQuery, replies.get(0));
+        double answered = number(intervalQuery, replies.get(0));
+        if (!(answered > 0)) {
+            throw new InstrumentException(session.instrument() + ": '" + intervalQuery + "' answered " + answered);
+        }
+        interval = rate ? 1 / answered : answered;
         double n = number(pointsQuery, replies.get(1));
         if (n != Math.rint(n) || n < 1) {
             throw new InstrumentException(session.instrument() + ": record length reply " + n + " is not a count");
@@ -109,12 +131,45 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public void acquire() {
-        // arm and wait in one message: *OPC? answers once the record is complete
-        List<String> replies = session.configure(driver.command("acquire").render(Map.of()) + ";*OPC?",
-                driver.errorQuery());
-        String opc = single("*OPC?", replies);
-        if (!opc.equals("1") && !opc.equals("+1")) {
-            throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
+        String arm = driver.command("acquire").render(Map.of());
+        DigitizerTraits.Acquisition a = traits.acquisition();
+        switch (a.complete()) {
+            case OPC -> {
+                // arm and wait in one message: *OPC? answers once the record is complete
+                List<String> replies = session.configure(arm + ";*OPC?", driver.errorQuery());
+                String opc = single("*OPC?", replies);
+                if (!opc.equals("1") && !opc.equals("+1")) {
+                    throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
+                }
+            }
+            case WAIT -> {
+                session.configure(arm, driver.errorQuery());
+                pause(a.pause().toNanos());
+            }
+            case POLL -> {
+                session.configure(arm, driver.errorQuery());
+                long deadline = System.nanoTime() + driver.timeout().toNanos();
+                String last;
+                do {
+                    last = session.query(a.pollQuery()).trim();
+                    if (last.equalsIgnoreCase(a.until())) {
+                        return;
+                    }
+                    pause(a.pause().toNanos());
+                } while (System.nanoTime() < deadline);
+                throw new InstrumentException(session.instrument() + ": the acquisition did not complete: '" + a.pollQuery()
+                        + "' still answered '" + last + "' (waiting for '" + a.until() + "') after "
+                        + driver.timeout().toMillis() + " ms");
+            }
+        }
+    }
+
+    private static void pause(long nanos) {
+        try {
+            Thread.sleep(nanos / 1_000_000, (int) (nanos % 1_000_000));
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new InstrumentException("interrupted while waiting for an acquisition", e);
         }
     }
 
@@ -125,10 +180,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new IllegalStateException("channel " + channel + " range was never set");
         }
         double offset = offsets.getOrDefault(channel, 0.0);
-        if (!scales.containsKey(channel)) {
-            queryScales(channel);
-        }
-        double[] scale = scales.get(channel);
+        double[] scale = scale(channel, range, offset);
         String fetchCommand = driver.command("fetch").render(channel(channel));
         TraceEncoding encoding = driver.traceEncoding();
         double[] raw;
@@ -145,16 +197,46 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         double[] volts = new double[raw.length];
         int clipped = 0;
         double half = range / 2;
+        DigitizerTraits.Scaling sc = traits.scaling();
+        double low = sc.clipLow() != null ? sc.clipLow() : encoding.minCode();
+        double high = sc.clipHigh() != null ? sc.clipHigh() : encoding.maxCode();
         for (int i = 0; i < raw.length; i++) {
             volts[i] = scale[3] + scale[2] * raw[i];
             boolean atLimit = encoding.isInteger()
-                    ? raw[i] <= encoding.minCode() || raw[i] >= encoding.maxCode()
+                    ? raw[i] <= low || raw[i] >= high
                     : Math.abs(volts[i] - offset) >= half * (1 - 1e-9);
             if (atLimit) {
                 clipped++;
             }
         }
         return new Trace(channel, scale[0], scale[1], volts, range, offset, clipped);
+    }
+
+    /**
+     * The channel's scaling as {x increment, x origin, y increment, y origin}, volts = y origin +
+     * y increment * code: from the instrument (four numbers or a preamble), from the declared
+     * formula, or the identity for data in volts.
+     */
+    private double[] scale(int channel, double range, double offset) {
+        DigitizerTraits.Scaling sc = traits.scaling();
+        return switch (sc.source()) {
+            case SCALE_QUERY, PREAMBLE -> {
+                if (!scales.containsKey(channel)) {
+                    queryScales(channel);
+                }
+                yield scales.get(channel);
+            }
+            case FORMULA -> new double[] {timebase(), 0, range / sc.fullScaleCodes(),
+                offset - sc.zeroCode() * range / sc.fullScaleCodes()};
+            case NONE -> new double[] {timebase(), 0, 1, 0};
+        };
+    }
+
+    private double timebase() {
+        if (!(interval > 0)) {
+            throw new IllegalStateException("the time base was never set");
+        }
+        return interval;
     }
 
     /** Asks the scaling of this channel and of every other ranged channel lacking it, in one message. */
@@ -177,6 +259,9 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     private double[] parseScale(String command, String reply) {
+        if (traits.scaling().source() == DigitizerTraits.ScaleSource.PREAMBLE) {
+            return parsePreamble(command, reply);
+        }
         String[] parts = reply.split(",");
         if (parts.length != 4) {
             throw new InstrumentException(session.instrument() + ": reply to '" + command + "' is '" + reply
@@ -196,6 +281,35 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                     + "' is not positive");
         }
         return out;
+    }
+
+    /** Fields picked by position from a preamble: volts = (code - y reference) * y increment + y origin. */
+    private double[] parsePreamble(String command, String reply) {
+        String[] parts = reply.split(",");
+        Map<String, Integer> fields = traits.scaling().fields();
+        Map<String, Double> v = new HashMap<>();
+        for (Map.Entry<String, Integer> f : fields.entrySet()) {
+            int pos = f.getValue();
+            if (pos > parts.length) {
+                throw new InstrumentException(session.instrument() + ": reply to '" + command + "' has " + parts.length
+                        + " fields; the driver takes " + f.getKey() + " from field " + pos);
+            }
+            try {
+                v.put(f.getKey(), ScpiNumbers.parse(parts[pos - 1]));
+            } catch (NumberFormatException e) {
+                throw new InstrumentException(session.instrument() + ": reply to '" + command + "' field " + pos + " ("
+                        + f.getKey() + ") is '" + parts[pos - 1] + "', not a number");
+            }
+        }
+        double xInc = v.containsKey("x_increment") ? v.get("x_increment") : timebase();
+        if (!(xInc > 0)) {
+            throw new InstrumentException(session.instrument() + ": sample interval " + xInc + " from '" + command
+                    + "' is not positive");
+        }
+        double yInc = v.get("y_increment");
+        double yRef = v.getOrDefault("y_reference", 0.0);
+        double yOrigin = v.getOrDefault("y_origin", 0.0);
+        return new double[] {xInc, v.getOrDefault("x_origin", 0.0), yInc, yOrigin - yRef * yInc};
     }
 
     private String single(String command, List<String> replies) {

@@ -1,0 +1,77 @@
+package org.lrbench.driver;
+
+import java.time.Duration;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * How a digitizer differs from the generic one, as its driver file declares it:
+ * <ul>
+ * <li>{@link Vertical}: what the number in {@code {range}} and in the range reply means (full-scale
+ * peak-to-peak, plus-minus full scale, or volts per division over a number of divisions) and,
+ * optionally, the instrument's list of ranges in that unit;</li>
+ * <li>{@link Scaling}: how trace codes become volts (four numbers from {@code scale_query}, fields
+ * picked by position from a preamble, a fixed formula, or none when the data are volts already),
+ * and which codes mean clipped;</li>
+ * <li>{@link Timebase}: whether {@code {interval}} and its reply are a sample interval or a sample rate;</li>
+ * <li>{@link Acquisition}: how the end of an acquisition is known ({@code *OPC?}, polling a status
+ * query until it answers a value, or a fixed wait).</li>
+ * </ul>
+ */
+public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timebase, Acquisition acquisition) {
+
+    public static final DigitizerTraits GENERIC = new DigitizerTraits(new Vertical(VerticalSetting.PEAK_TO_PEAK, 1,
+            List.of()), new Scaling(ScaleSource.SCALE_QUERY, Map.of(), 0, 0, null, null),
+            new Timebase(false), new Acquisition(Completion.OPC, null, null, Duration.ZERO));
+
+    /** What the instrument's vertical number means. */
+    public enum VerticalSetting { PEAK_TO_PEAK, PLUS_MINUS, PER_DIVISION }
+
+    /**
+     * @param divisions the screen's vertical divisions, for {@code per_division}
+     * @param ranges    the instrument's ranges in its own unit, ascending; empty when its limits are queried
+     */
+    public record Vertical(VerticalSetting setting, int divisions, List<Double> ranges) {
+
+        /** Instrument value per volt of full-scale peak-to-peak range. */
+        public double perPeakToPeak() {
+            return switch (setting) {
+                case PEAK_TO_PEAK -> 1;
+                case PLUS_MINUS -> 0.5;
+                case PER_DIVISION -> 1.0 / divisions;
+            };
+        }
+    }
+
+    /** Where the code-to-volts scaling comes from. */
+    public enum ScaleSource { SCALE_QUERY, PREAMBLE, FORMULA, NONE }
+
+    /**
+     * @param fields         preamble: field name ({@code x_increment}, {@code x_origin},
+     *                       {@code y_increment}, {@code y_origin}, {@code y_reference}) to its 1-based
+     *                       position in the reply
+     * @param zeroCode       formula: the code of 0 V relative to the channel offset
+     * @param fullScaleCodes formula: how many codes span the full-scale (peak-to-peak) range
+     * @param clipLow        the code at or below which a sample counts as clipped (null: the format's own)
+     * @param clipHigh       the code at or above which a sample counts as clipped (null: the format's own)
+     */
+    public record Scaling(ScaleSource source, Map<String, Integer> fields, double zeroCode, double fullScaleCodes,
+                          Double clipLow, Double clipHigh) {
+    }
+
+    /** @param rate true when {@code {interval}} and its reply are a sample rate (per second) */
+    public record Timebase(boolean rate) {
+    }
+
+    /** How the end of an acquisition is known. */
+    public enum Completion { OPC, POLL, WAIT }
+
+    /**
+     * @param pollQuery with {@code poll}: the status query
+     * @param until     with {@code poll}: the reply that means complete
+     * @param pause     with {@code wait}: how long an acquisition takes; with {@code poll}: the pause
+     *                  between polls
+     */
+    public record Acquisition(Completion complete, String pollQuery, String until, Duration pause) {
+    }
+}

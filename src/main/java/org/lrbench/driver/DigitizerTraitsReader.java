@@ -1,0 +1,147 @@
+package org.lrbench.driver;
+
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import org.lrbench.scpi.TraceEncoding;
+import org.lrbench.units.Dimension;
+import org.lrbench.yaml.YamlMap;
+
+/** Reads a digitizer driver's {@code vertical}, {@code scaling}, {@code timebase} and {@code acquisition} sections. */
+final class DigitizerTraitsReader {
+    static final Set<String> PREAMBLE_FIELDS = Set.of("x_increment", "x_origin", "y_increment", "y_origin", "y_reference");
+
+    private DigitizerTraitsReader() {
+    }
+
+    static DigitizerTraits read(YamlMap root, TraceEncoding encoding) {
+        DigitizerTraits g = DigitizerTraits.GENERIC;
+        DigitizerTraits.Vertical vertical = g.vertical();
+        YamlMap v = root.map("vertical", false, "setting", "divisions", "ranges");
+        if (v != null) {
+            DigitizerTraits.VerticalSetting setting = v.choice("setting", true, Map.of(
+                    "peak_to_peak", DigitizerTraits.VerticalSetting.PEAK_TO_PEAK,
+                    "plus_minus", DigitizerTraits.VerticalSetting.PLUS_MINUS,
+                    "per_division", DigitizerTraits.VerticalSetting.PER_DIVISION));
+            Integer divisions = v.integer("divisions", setting == DigitizerTraits.VerticalSetting.PER_DIVISION, 1, 100);
+            if (divisions != null && setting != DigitizerTraits.VerticalSetting.PER_DIVISION) {
+                v.problem("divisions", "only a per_division setting has divisions");
+            }
+            List<Double> ranges = new ArrayList<>();
+            for (YamlMap.Item item : v.has("ranges") ? v.list("ranges", false) : List.<YamlMap.Item>of()) {
+                Double r = v.asQuantity(item, Dimension.VOLTAGE);
+                if (r != null) {
+                    if (!(r > 0) || (!ranges.isEmpty() && r <= ranges.get(ranges.size() - 1))) {
+                        v.problem("ranges", "ranges must be positive and ascending; " + item.path() + " is not");
+                    }
+                    ranges.add(r);
+                }
+            }
+            vertical = new DigitizerTraits.Vertical(setting == null ? DigitizerTraits.VerticalSetting.PEAK_TO_PEAK : setting,
+                    divisions == null ? 1 : divisions, List.copyOf(ranges));
+        }
+        DigitizerTraits.Scaling scaling = g.scaling();
+        YamlMap s = root.map("scaling", false, "source", "fields", "zero_code", "full_scale_codes", "clip_codes");
+        if (s != null) {
+            DigitizerTraits.ScaleSource source = s.choice("source", true, Map.of(
+                    "scale_query", DigitizerTraits.ScaleSource.SCALE_QUERY,
+                    "preamble", DigitizerTraits.ScaleSource.PREAMBLE,
+                    "formula", DigitizerTraits.ScaleSource.FORMULA,
+                    "none", DigitizerTraits.ScaleSource.NONE));
+            Map<String, Integer> fields = new LinkedHashMap<>();
+            YamlMap f = s.map("fields", source == DigitizerTraits.ScaleSource.PREAMBLE,
+                    PREAMBLE_FIELDS.stream().sorted().toArray(String[]::new));
+            if (f != null) {
+                for (String name : PREAMBLE_FIELDS) {
+                    Integer pos = f.integer(name, name.equals("y_increment"), 1, 64);
+                    if (pos != null) {
+                        fields.put(name, pos);
+                    }
+                }
+                if (source != DigitizerTraits.ScaleSource.PREAMBLE) {
+                    s.problem("fields", "only a preamble has fields");
+                }
+            }
+            boolean formula = source == DigitizerTraits.ScaleSource.FORMULA;
+            Long zero = s.has("zero_code") ? s.longValue("zero_code", false) : null;
+            Long full = s.has("full_scale_codes") ? s.longValue("full_scale_codes", false) : null;
+            if (formula && full == null) {
+                s.problem("source", "a formula needs full_scale_codes (codes spanning the full-scale range)");
+            }
+            if (!formula && (zero != null || full != null)) {
+                s.problem(zero != null ? "zero_code" : "full_scale_codes", "only a formula has zero_code and full_scale_codes");
+            }
+            if (full != null && full <= 0) {
+                s.problem("full_scale_codes", "must be a positive number of codes");
+            }
+            Double clipLow = null;
+            Double clipHigh = null;
+            List<YamlMap.Item> clip = s.has("clip_codes") ? s.list("clip_codes", false) : List.of();
+            if (!clip.isEmpty()) {
+                if (clip.size() != 2 || encoding == null || !encoding.isInteger()) {
+                    s.problem("clip_codes", "give two codes [lowest, highest], for an integer trace format only");
+                } else {
+                    clipLow = s.asQuantity(clip.get(0), Dimension.NONE);
+                    clipHigh = s.asQuantity(clip.get(1), Dimension.NONE);
+                }
+            }
+            if (source == DigitizerTraits.ScaleSource.NONE && encoding != null && encoding.isInteger()) {
+                s.problem("source", "an integer trace format needs scaling: scale_query, preamble or formula");
+            }
+            scaling = new DigitizerTraits.Scaling(source == null ? DigitizerTraits.ScaleSource.SCALE_QUERY : source,
+                    Map.copyOf(fields), zero == null ? 0 : zero, full == null ? 0 : full, clipLow, clipHigh);
+        }
+        DigitizerTraits.Timebase timebase = g.timebase();
+        YamlMap t = root.map("timebase", false, "setting");
+        if (t != null) {
+            Boolean rate = t.choice("setting", true, Map.of("interval", false, "rate", true));
+            timebase = new DigitizerTraits.Timebase(rate != null && rate);
+        }
+        DigitizerTraits.Acquisition acquisition = g.acquisition();
+        YamlMap a = root.map("acquisition", false, "complete", "poll_query", "until", "wait");
+        if (a != null) {
+            DigitizerTraits.Completion complete = a.choice("complete", true, Map.of("opc", DigitizerTraits.Completion.OPC,
+                    "poll", DigitizerTraits.Completion.POLL, "wait", DigitizerTraits.Completion.WAIT));
+            boolean poll = complete == DigitizerTraits.Completion.POLL;
+            String query = a.text("poll_query", poll);
+            String until = a.text("until", poll);
+            Double wait = a.quantity("wait", Dimension.TIME, complete == DigitizerTraits.Completion.WAIT);
+            if (query != null) {
+                if (!poll) {
+                    a.problem("poll_query", "only complete: poll polls");
+                } else if (!query.startsWith(":") || !query.endsWith("?")) {
+                    a.problem("poll_query", "must be an absolute query such as :ACQuire:STATe?");
+                } else {
+                    try {
+                        CommandTemplate.parse(query, Set.of());
+                    } catch (IllegalArgumentException e) {
+                        a.problem("poll_query", e.getMessage());
+                    }
+                }
+            }
+            if (wait != null && !(wait > 0 && wait <= 60)) {
+                a.problem("wait", "must be more than 0 s and at most 60 s");
+            }
+            acquisition = new DigitizerTraits.Acquisition(complete == null ? DigitizerTraits.Completion.OPC : complete,
+                    query, until, Duration.ofNanos(Math.round((wait == null ? (poll ? 0.01 : 0) : wait) * 1e9)));
+        }
+        return new DigitizerTraits(vertical, scaling, timebase, acquisition);
+    }
+
+    /** Digitizer operations a driver may leave out, given its traits. */
+    static Set<String> optional(DigitizerTraits traits) {
+        Set<String> out = new java.util.HashSet<>();
+        if (!traits.vertical().ranges().isEmpty()) {
+            out.add("range_min_query");
+            out.add("range_max_query");
+        }
+        if (traits.scaling().source() == DigitizerTraits.ScaleSource.FORMULA
+                || traits.scaling().source() == DigitizerTraits.ScaleSource.NONE) {
+            out.add("scale_query");
+        }
+        return out;
+    }
+}
