@@ -98,8 +98,8 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         String intervalQuery = driver.command("interval_query").render(Map.of());
         String pointsQuery = driver.command("points_query").render(Map.of());
         boolean rate = traits.timebase().rate();
-        String command = driver.command("interval").render(Map.of("interval",
-                        ScpiNumbers.nr3(rate ? 1 / sampleIntervalSecond : sampleIntervalSecond)))
+        String command = driver.command("interval").render(Map.of("interval", ScpiNumbers.nr3(sampleIntervalSecond),
+                        "rate", ScpiNumbers.nr3(1 / sampleIntervalSecond)))
                 + ";" + driver.command("points").render(Map.of("points", ScpiNumbers.nr1(requestedPoints)))
                 + ";" + intervalQuery + ";" + pointsQuery;
         List<String> replies = session.configure(command, driver.errorQuery());

@@ -17,6 +17,39 @@ import org.lrbench.sim.scpi.ScpiFault;
  * record is then fetched as an IEEE 488.2 definite-length block in the set {@code FORMat}.
  */
 public final class SimDigitizer extends ScpiDevice {
+
+    /**
+     * Which instrument the simulated digitizer plays. {@code generic}: SCPI-1999 SENSe/TRACe
+     * subsystems, any range from 10 mV to 100 V peak-to-peak, a scale query, the bench's
+     * resolution. {@code plus-minus-12}: CHANnel/ACQuire/WAVeform subsystems, plus-minus ranges in
+     * 1-2-5 steps from 5 mV to 50 V that round a request up, a sample-rate setting, 12-bit codes in
+     * 16-bit words with a fixed scaling and no scale query, a trigger with a source only, and an
+     * acquisition whose end is polled.
+     */
+    public enum Personality {
+        GENERIC("generic"), PLUS_MINUS_12("plus-minus-12");
+
+        private final String key;
+
+        Personality(String key) {
+            this.key = key;
+        }
+
+        public String key() {
+            return key;
+        }
+
+        public static java.util.Map<String, Personality> byKey() {
+            java.util.Map<String, Personality> m = new java.util.LinkedHashMap<>();
+            for (Personality p : values()) {
+                m.put(p.key, p);
+            }
+            return m;
+        }
+    }
+
+    /** The plus-minus ranges of the {@code plus-minus-12} personality: 1-2-5 from 5 mV to 50 V. */
+    static final double[] PLUS_MINUS_RANGES = {0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10, 20, 50};
     public static final int CHANNELS = 2;
     public static final double MIN_RANGE = 10e-3;
     public static final double MAX_RANGE = 100.0;
@@ -42,13 +75,107 @@ public final class SimDigitizer extends ScpiDevice {
     private double firstSampleAfterTrigger;
     /** Encoded replies of the current record, per channel: the instrument's transfer buffer. */
     private final Object[] encoded = new Object[CHANNELS + 1];
+    private final Personality personality;
+    private boolean acquiring;
 
     public SimDigitizer(AnalogInputs inputs, SimSettings settings) {
-        super("LRBENCH,SIM-DIGITIZER-2,SIM0002,0.1");
+        super(settings.digitizer() == Personality.PLUS_MINUS_12 ? "LRBENCH,SIM-DIGITIZER-PM12,SIM0012,0.1"
+                : "LRBENCH,SIM-DIGITIZER-2,SIM0002,0.1");
         this.inputs = inputs;
         this.settings = settings;
+        this.personality = settings.digitizer();
         this.random = new Random(settings.seed());
         reset();
+        if (personality == Personality.PLUS_MINUS_12) {
+            registerPlusMinus();
+        } else {
+            registerGeneric();
+        }
+    }
+
+    /** The {@code plus-minus-12} dialect. */
+    private void registerPlusMinus() {
+        register("CHANnel#:RANGe", false, c -> {
+            c.expect(1, 1);
+            double pm = c.number(0, 1e-6, 1e3, 1);
+            double granted = PLUS_MINUS_RANGES[PLUS_MINUS_RANGES.length - 1];
+            for (double r : PLUS_MINUS_RANGES) {
+                if (r >= pm * (1 - 1e-9)) {
+                    granted = r;
+                    break;
+                }
+            }
+            range[c.suffixUpTo(CHANNELS)] = 2 * granted;
+            record = null;
+            return null;
+        });
+        register("CHANnel#:RANGe", true, c -> nr3(range[c.suffixUpTo(CHANNELS)] / 2));
+        register("CHANnel#:OFFSet", false, c -> {
+            c.expect(1, 1);
+            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
+            record = null;
+            return null;
+        });
+        register("CHANnel#:COUPling", false, c -> {
+            c.expect(1, 1);
+            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
+            record = null;
+            return null;
+        });
+        register("ACQuire:SRATe", false, c -> {
+            c.expect(1, 1);
+            double rate = c.number(0, 1, 1 / CLOCK_INTERVAL, 1e6);
+            interval = Math.max(1, Math.floor(1 / rate / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
+            record = null;
+            return null;
+        });
+        register("ACQuire:SRATe", true, c -> nr3(1 / interval));
+        register("ACQuire:POINts", false, c -> {
+            c.expect(1, 1);
+            points = (int) Math.round(c.number(0, 16, MAX_POINTS, 1000));
+            record = null;
+            return null;
+        });
+        register("ACQuire:POINts", true, c -> Integer.toString(points));
+        register("TRIGger:SOURce", false, c -> {
+            c.expect(1, 1);
+            triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
+            triggerLevel = 0;
+            triggerRising = true;
+            return null;
+        });
+        register("DIGitize", false, c -> {
+            c.expect(0, 0);
+            acquire();
+            acquiring = true;
+            return null;
+        });
+        // the first status query after DIGitize still finds the acquisition running
+        register("ACQuire:STATe", true, c -> {
+            if (acquiring) {
+                acquiring = false;
+                return "RUN";
+            }
+            return "STOP";
+        });
+        register("WAVeform:FORMat", false, c -> {
+            c.expect(1, 1);
+            format = c.word(0, "WORD", "ASCii").equals("WORD") ? Format.INT16 : Format.ASCII;
+            littleEndian = false;
+            java.util.Arrays.fill(encoded, null);
+            return null;
+        });
+        register("WAVeform:DATA", true, c -> {
+            int ch = channelParameter(c);
+            if (encoded[ch] == null) {
+                encoded[ch] = encode(ch);
+            }
+            return encoded[ch];
+        });
+    }
+
+    /** The generic SCPI-1999 dialect. */
+    private void registerGeneric() {
         register("SENSe#:VOLTage[:DC]:RANGe[:UPPer]", false, c -> {
             c.expect(1, 1);
             range[c.suffixUpTo(CHANNELS)] = c.number(0, MIN_RANGE, MAX_RANGE, 10.0);
@@ -155,6 +282,7 @@ public final class SimDigitizer extends ScpiDevice {
 
     @Override
     protected void reset() {
+        acquiring = false;
         for (int ch = 1; ch <= CHANNELS; ch++) {
             range[ch] = 10.0;
             offset[ch] = 0;
@@ -260,7 +388,7 @@ public final class SimDigitizer extends ScpiDevice {
         double[] out = new double[points];
         double lo = offset[ch] - range[ch] / 2;
         double hi = offset[ch] + range[ch] / 2;
-        int bits = settings.resolutionBits();
+        int bits = personality == Personality.PLUS_MINUS_12 ? 12 : settings.resolutionBits();
         double lsb = bits > 0 ? range[ch] / Math.pow(2, bits) : 0;
         double minCode = bits > 0 ? -Math.pow(2, bits - 1) : 0;
         double maxCode = bits > 0 ? Math.pow(2, bits - 1) - 1 : 0;
@@ -306,7 +434,9 @@ public final class SimDigitizer extends ScpiDevice {
             double rel = x - offset[ch];
             switch (format) {
                 case INT8 -> data.put((byte) clampCode(rel / (range[ch] / 256), 127));
-                case INT16 -> data.putShort((short) clampCode(rel / (range[ch] / 65536), 32767));
+                case INT16 -> data.putShort(personality == Personality.PLUS_MINUS_12
+                        ? (short) clampCode(rel / (range[ch] / 4096), 2047)
+                        : (short) clampCode(rel / (range[ch] / 65536), 32767));
                 case REAL32 -> data.putFloat((float) x);
                 default -> data.putDouble(Math.max(offset[ch] - half, Math.min(offset[ch] + half, x)));
             }
