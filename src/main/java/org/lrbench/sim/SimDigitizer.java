@@ -24,10 +24,13 @@ public final class SimDigitizer extends ScpiDevice {
      * resolution. {@code plus-minus-12}: CHANnel/ACQuire/WAVeform subsystems, plus-minus ranges in
      * 1-2-5 steps from 5 mV to 50 V that round a request up, a sample-rate setting, 12-bit codes in
      * 16-bit words with a fixed scaling and no scale query, a trigger with a source only, and an
-     * acquisition whose end is polled.
+     * acquisition whose end is polled. {@code per-division-8}: volts per division over 10
+     * divisions in 1-2-5 steps from 1 mV to 10 V per division, a request rounded to the nearest step,
+     * a ten-field preamble giving the scaling, 8-bit codes, a sample interval, an edge trigger in its
+     * own subtree, and an acquisition that completes with {@code *OPC?}.
      */
     public enum Personality {
-        GENERIC("generic"), PLUS_MINUS_12("plus-minus-12");
+        GENERIC("generic"), PLUS_MINUS_12("plus-minus-12"), PER_DIVISION_8("per-division-8");
 
         private final String key;
 
@@ -47,6 +50,10 @@ public final class SimDigitizer extends ScpiDevice {
             return m;
         }
     }
+
+    /** The volts per division of the {@code per-division-8} personality: 1-2-5 from 1 mV to 10 V. */
+    static final double[] PER_DIVISION = {0.001, 0.002, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10};
+    static final int DIVISIONS = 10;
 
     /** The plus-minus ranges of the {@code plus-minus-12} personality: 1-2-5 from 5 mV to 50 V. */
     static final double[] PLUS_MINUS_RANGES = {0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10, 20, 50};
@@ -79,18 +86,99 @@ public final class SimDigitizer extends ScpiDevice {
     private boolean acquiring;
 
     public SimDigitizer(AnalogInputs inputs, SimSettings settings) {
-        super(settings.digitizer() == Personality.PLUS_MINUS_12 ? "LRBENCH,SIM-DIGITIZER-PM12,SIM0012,0.1"
-                : "LRBENCH,SIM-DIGITIZER-2,SIM0002,0.1");
+        super(switch (settings.digitizer()) {
+            case PLUS_MINUS_12 -> "LRBENCH,SIM-DIGITIZER-PM12,SIM0012,0.1";
+            case PER_DIVISION_8 -> "LRBENCH,SIM-DIGITIZER-DIV8,SIM0018,0.1";
+            default -> "LRBENCH,SIM-DIGITIZER-2,SIM0002,0.1";
+        });
         this.inputs = inputs;
         this.settings = settings;
         this.personality = settings.digitizer();
         this.random = new Random(settings.seed());
         reset();
-        if (personality == Personality.PLUS_MINUS_12) {
-            registerPlusMinus();
-        } else {
-            registerGeneric();
+        switch (personality) {
+            case PLUS_MINUS_12 -> registerPlusMinus();
+            case PER_DIVISION_8 -> registerPerDivision();
+            default -> registerGeneric();
         }
+    }
+
+    /** The {@code per-division-8} dialect. */
+    private void registerPerDivision() {
+        register("CHANnel#:SCALe", false, c -> {
+            c.expect(1, 1);
+            double perDiv = c.number(0, 1e-6, 1e3, 1);
+            double best = PER_DIVISION[0];
+            for (double d : PER_DIVISION) {
+                if (Math.abs(Math.log(d / perDiv)) < Math.abs(Math.log(best / perDiv))) {
+                    best = d;
+                }
+            }
+            range[c.suffixUpTo(CHANNELS)] = DIVISIONS * best;
+            record = null;
+            return null;
+        });
+        register("CHANnel#:SCALe", true, c -> nr3(range[c.suffixUpTo(CHANNELS)] / DIVISIONS));
+        register("CHANnel#:OFFSet", false, c -> {
+            c.expect(1, 1);
+            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
+            record = null;
+            return null;
+        });
+        register("CHANnel#:COUPling", false, c -> {
+            c.expect(1, 1);
+            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
+            record = null;
+            return null;
+        });
+        register("ACQuire:SINTerval", false, c -> {
+            c.expect(1, 1);
+            double requested = c.number(0, CLOCK_INTERVAL, 1.0, 1e-6);
+            interval = Math.max(1, Math.floor(requested / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
+            record = null;
+            return null;
+        });
+        register("ACQuire:SINTerval", true, c -> nr3(interval));
+        register("ACQuire:POINts", false, c -> {
+            c.expect(1, 1);
+            points = (int) Math.round(c.number(0, 16, MAX_POINTS, 1000));
+            record = null;
+            return null;
+        });
+        register("ACQuire:POINts", true, c -> Integer.toString(points));
+        register("TRIGger:EDGE:SOURce", false, c -> {
+            c.expect(1, 1);
+            triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
+            return null;
+        });
+        register("TRIGger:EDGE:LEVel", false, c -> {
+            c.expect(1, 1);
+            triggerLevel = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
+            return null;
+        });
+        register("TRIGger:EDGE:SLOPe", false, c -> {
+            c.expect(1, 1);
+            triggerRising = c.word(0, "POSitive", "NEGative").equals("POS");
+            return null;
+        });
+        register("SINGle", false, c -> {
+            c.expect(0, 0);
+            acquire();
+            return null;
+        });
+        // format, type, points, count, x increment, x origin, x reference, y increment, y origin, y reference
+        register("WAVeform:PREamble", true, c -> {
+            int ch = channelParameter(c);
+            return "0,2," + points + ",1," + nr3(interval) + "," + nr3(firstSampleAfterTrigger) + ",0,"
+                    + nr3(range[ch] / 256) + "," + nr3(offset[ch]) + ",0";
+        });
+        register("WAVeform:DATA", true, c -> {
+            int ch = channelParameter(c);
+            if (encoded[ch] == null) {
+                encoded[ch] = encode(ch);
+            }
+            return encoded[ch];
+        });
     }
 
     /** The {@code plus-minus-12} dialect. */
