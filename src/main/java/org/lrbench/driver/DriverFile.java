@@ -8,13 +8,15 @@ import org.lrbench.scpi.TraceEncoding;
 
 /**
  * A loaded, validated driver: command templates per logical operation, word tables, the trace
- * encoding and the {@link DigitizerTraits} (digitizers), the error query, the reply timeout, and patterns for the {@code *IDN?}
+ * encoding and the {@link DigitizerTraits} (digitizers), the ratio of a source's amplitude and offset
+ * settings to its open-circuit EMF (1 when the settings are the EMF, below 1 when they are referred
+ * to a load the instrument assumes), the error query, the reply timeout, and patterns for the {@code *IDN?}
  * fields of the instruments it is written for.
  */
 public record DriverFile(String name, String source, DriverKind kind, String description,
                          Map<String, Pattern> identity, Duration timeout, String errorQuery,
                          Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
-                         TraceEncoding traceEncoding, DigitizerTraits digitizer) {
+                         TraceEncoding traceEncoding, DigitizerTraits digitizer, double levelPerEmf) {
 
     /** Whether the driver has a template for the operation (some are needed only for some traits). */
     public boolean has(String operation) {

@@ -49,7 +49,7 @@ public final class DriverLoader {
         YamlMap root = YamlFile.read(file, problems,
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
-                "vertical", "scaling", "timebase", "acquisition");
+                "vertical", "scaling", "timebase", "acquisition", "levels");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -83,6 +83,12 @@ public final class DriverLoader {
                     root.problem(digitizerOnly, "only digitizer drivers have " + digitizerOnly);
                 }
             }
+        }
+        double levelPerEmf = 1;
+        if (kind == DriverKind.SOURCE) {
+            levelPerEmf = levels(root);
+        } else if (kind != null && root.has("levels")) {
+            root.problem("levels", "only source drivers have levels");
         }
         if (kind != null) {
             Set<String> optional = traits == null ? Set.of() : DigitizerTraitsReader.optional(traits);
@@ -125,7 +131,39 @@ public final class DriverLoader {
         problems.throwIfAny();
         Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
         return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
-                errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits);
+                errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits,
+                levelPerEmf);
+    }
+
+    /**
+     * A source's {@code levels}: {@code referred_to: open_circuit} (the default: amplitude and
+     * offset settings are the EMF, as after telling the instrument its load is high impedance) or
+     * {@code referred_to: load} with the {@code load} the instrument assumes and its
+     * {@code output_impedance}: the settings are then the voltage across that load,
+     * EMF x load / (load + output impedance).
+     */
+    private static double levels(YamlMap root) {
+        YamlMap m = root.map("levels", false, "referred_to", "load", "output_impedance");
+        if (m == null) {
+            return 1;
+        }
+        Boolean load = m.choice("referred_to", true, Map.of("open_circuit", false, "load", true));
+        Double ohm = m.quantity("load", Dimension.RESISTANCE, Boolean.TRUE.equals(load));
+        Double out = m.quantity("output_impedance", Dimension.RESISTANCE, Boolean.TRUE.equals(load));
+        if (!Boolean.TRUE.equals(load)) {
+            if (ohm != null || out != null) {
+                m.problem(ohm != null ? "load" : "output_impedance", "only levels referred to a load have this");
+            }
+            return 1;
+        }
+        if (ohm == null || out == null) {
+            return 1;
+        }
+        if (!(ohm > 0) || out < 0) {
+            m.problem(!(ohm > 0) ? "load" : "output_impedance", "must be positive");
+            return 1;
+        }
+        return ohm / (ohm + out);
     }
 
     private static Map<String, Pattern> readIdentity(YamlMap root) {

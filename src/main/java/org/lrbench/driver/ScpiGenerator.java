@@ -32,13 +32,14 @@ public final class ScpiGenerator extends DrivenInstrument implements Generator {
 
     @Override
     public void setAmplitude(double peakVolt) {
-        configure("amplitude", Map.of("amplitude_vpk", ScpiNumbers.nr3(peakVolt),
-                "amplitude_vpp", ScpiNumbers.nr3(2 * peakVolt)));
+        double setting = peakVolt * driver.levelPerEmf();
+        configure("amplitude", Map.of("amplitude_vpk", ScpiNumbers.nr3(setting),
+                "amplitude_vpp", ScpiNumbers.nr3(2 * setting)));
     }
 
     @Override
     public void setOffset(double volt) {
-        configure("offset", Map.of("offset", ScpiNumbers.nr3(volt)));
+        configure("offset", Map.of("offset", ScpiNumbers.nr3(volt * driver.levelPerEmf())));
     }
 
     @Override

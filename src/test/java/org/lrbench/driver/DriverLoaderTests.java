@@ -63,4 +63,49 @@ class DriverLoaderTests {
                 () -> new DriverLoader(TestBench.home().resolve("drivers")).load("../pom", DriverKind.SOURCE));
         assertThat(e.problems().get(0).message()).contains("no driver file");
     }
+
+    @Test
+    void theShippedPersonalityDriversDeclareTheirTraits() throws Exception {
+        DriverLoader loader = new DriverLoader(TestBench.home().resolve("drivers"));
+        DigitizerTraits pm = loader.load("sim-pm12-digitizer", DriverKind.DIGITIZER).digitizer();
+        assertThat(pm.vertical().setting()).isEqualTo(DigitizerTraits.VerticalSetting.PLUS_MINUS);
+        assertThat(pm.vertical().ranges()).hasSize(13).first().isEqualTo(0.005);
+        assertThat(pm.scaling().source()).isEqualTo(DigitizerTraits.ScaleSource.FORMULA);
+        assertThat(pm.acquisition().complete()).isEqualTo(DigitizerTraits.Completion.POLL);
+        DigitizerTraits div = loader.load("sim-div8-digitizer", DriverKind.DIGITIZER).digitizer();
+        assertThat(div.vertical().perPeakToPeak()).isEqualTo(0.1);
+        assertThat(div.scaling().fields()).containsEntry("y_increment", 8).containsEntry("y_reference", 10);
+        assertThat(loader.load("sim-source-matched", DriverKind.SOURCE).levelPerEmf()).isEqualTo(0.5);
+    }
+
+    @Test
+    void digitizerTraitsAreCheckedWithPositions(@TempDir Path dir) throws Exception {
+        String base = Files.readString(TestBench.home().resolve("drivers/sim-pm12-digitizer.yaml"));
+        Map<String, String> broken = Map.of(
+                "setting: plus_minus", "vertical.setting",
+                "ranges: [5 mV, 10 mV", "vertical.ranges",
+                "full_scale_codes: 4096", "scaling.source",
+                "until: STOP", "acquisition.until",
+                "trace_format: int16-big", "scaling.source");
+        Map<String, String> replacement = Map.of(
+                "setting: plus_minus", "setting: halfway",
+                "ranges: [5 mV, 10 mV", "ranges: [5 mV, 1 mV",
+                "full_scale_codes: 4096", "clip_codes: [-1, 1]\n  # no codes",
+                "until: STOP", "# no until",
+                "trace_format: int16-big", "trace_format: int16-big\nunused: 1");
+        for (var e : broken.entrySet()) {
+            String text = base.replace(e.getKey(), replacement.get(e.getKey()));
+            if (e.getKey().startsWith("trace_format")) {
+                text = base.replace("source: formula", "source: none");
+            }
+            Files.writeString(dir.resolve("bad.yaml"), text);
+            ProblemsException x = catchThrowableOfType(ProblemsException.class,
+                    () -> new DriverLoader(dir).load("bad", DriverKind.DIGITIZER));
+            assertThat(x).as(e.getKey()).isNotNull();
+            assertThat(x.problems()).as(e.getKey()).anySatisfy(p -> {
+                assertThat(p.key()).isEqualTo(e.getValue());
+                assertThat(p.line()).isPositive();
+            });
+        }
+    }
 }

@@ -85,4 +85,27 @@ class PersonalityTests {
                     within(1e-2 * truth.seriesResistanceOhm()));
         }
     }
+
+    /**
+     * Both generator drivers set the same open-circuit EMF on the same simulated generator: one by
+     * telling it the load is high impedance, one by declaring its levels referred to 50 ohm behind
+     * 50 ohm, so that a setting of V across the load is an EMF of 2 V (voltage divider, circuit
+     * theory).
+     */
+    @org.junit.jupiter.api.Test
+    void bothGeneratorDriversSetTheSameOpenCircuitEmf() throws Exception {
+        for (String driverName : List.of("generic-source", "sim-source-matched")) {
+            org.lrbench.sim.SimGenerator g = new org.lrbench.sim.SimGenerator(50);
+            DriverFile d = new DriverLoader(HOME.resolve("drivers")).load(driverName, DriverKind.SOURCE);
+            ScpiGenerator gen = new ScpiGenerator(new org.lrbench.scpi.ScpiSession("generator",
+                    new org.lrbench.transport.inproc.InProcessTransport("sim://generator", g), java.time.Duration.ofSeconds(1)), d);
+            gen.prepare();
+            gen.setAmplitude(1.5);
+            gen.setOffset(0.25);
+            gen.outputOn(); // the simulated generator reports its EMF only while the output is on
+            assertThat(g.emfPeak()).as(driverName).isCloseTo(1.5, within(1e-9));
+            assertThat(g.emfOffset()).as(driverName).isCloseTo(0.25, within(1e-9));
+            gen.outputOff();
+        }
+    }
 }
