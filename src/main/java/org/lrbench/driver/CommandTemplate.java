@@ -8,9 +8,16 @@ import java.util.Set;
 /**
  * A SCPI command with {@code {name}} placeholders, from a driver file. The values put into it are
  * produced by lrbench itself (SCPI numbers, or words from the driver's own tables), never text from
- * a plan or an operator, so nothing can inject a second command.
+ * a plan or an operator, so nothing can inject a second command. A numeric placeholder may carry
+ * one factor, {@code {range*0.5}} or {@code {interval/10}}, for an instrument that wants a value
+ * lrbench supplies in another scale (half the range, the time per division of a ten-division
+ * screen); the result is sent as a SCPI NR3 number.
  */
 public final class CommandTemplate {
+    private static final java.util.regex.Pattern PLACEHOLDER = java.util.regex.Pattern.compile(
+            "([a-z0-9_]+)(?:([*/])([0-9]+(?:\\.[0-9]+)?(?:[eE][-+]?[0-9]+)?))?");
+    /** Placeholders whose values are words from the driver's tables or channel lists: no arithmetic. */
+    private static final Set<String> WORDS = Set.of("shape", "coupling", "source", "slope", "channels");
     private final String text;
     private final List<String> placeholders;
 
@@ -39,10 +46,21 @@ public final class CommandTemplate {
                 if (end < 0) {
                     throw new IllegalArgumentException("'{' at index " + i + " is never closed");
                 }
-                String name = text.substring(i + 1, end);
+                String inside = text.substring(i + 1, end);
+                java.util.regex.Matcher m = PLACEHOLDER.matcher(inside);
+                String name = m.matches() ? m.group(1) : inside;
                 if (!allowed.contains(name)) {
-                    throw new IllegalArgumentException("unknown placeholder {" + name + "} at index " + i
+                    throw new IllegalArgumentException("unknown placeholder {" + inside + "} at index " + i
                             + "; allowed here: " + (allowed.isEmpty() ? "none" : String.join(", ", sorted(allowed))));
+                }
+                if (m.group(2) != null) {
+                    if (WORDS.contains(name)) {
+                        throw new IllegalArgumentException("{" + inside + "} at index " + i + ": {" + name
+                                + "} is a word, not a number; only numbers take a factor");
+                    }
+                    if (!(Double.parseDouble(m.group(3)) > 0)) {
+                        throw new IllegalArgumentException("{" + inside + "} at index " + i + ": the factor must be positive");
+                    }
                 }
                 found.add(name);
                 i = end;
@@ -59,12 +77,19 @@ public final class CommandTemplate {
             char c = text.charAt(i);
             if (c == '{') {
                 int end = text.indexOf('}', i);
-                String name = text.substring(i + 1, end);
+                java.util.regex.Matcher m = PLACEHOLDER.matcher(text.substring(i + 1, end));
+                m.matches();
+                String name = m.group(1);
                 String value = values.get(name);
                 if (value == null) {
                     throw new IllegalStateException("no value for placeholder {" + name + "} in '" + text + "'");
                 }
                 requireToken(name, value);
+                if (m.group(2) != null) {
+                    double k = Double.parseDouble(m.group(3));
+                    double v = org.lrbench.scpi.ScpiNumbers.parse(value);
+                    value = org.lrbench.scpi.ScpiNumbers.nr3(m.group(2).equals("*") ? v * k : v / k);
+                }
                 out.append(value);
                 i = end + 1;
             } else {

@@ -108,4 +108,16 @@ class DriverLoaderTests {
             });
         }
     }
+
+    @Test
+    void aNumericPlaceholderTakesOneFactor() {
+        CommandTemplate half = CommandTemplate.parse(":CHAN{channel}:RANG {range*0.5}", Set.of("channel", "range"));
+        assertThat(half.render(Map.of("channel", "1", "range", "4.0E+00"))).isEqualTo(":CHAN1:RANG 2.000000000E+00");
+        CommandTemplate perDiv = CommandTemplate.parse(":TIM:SCAL {interval/10}", Set.of("interval"));
+        assertThat(perDiv.render(Map.of("interval", "1.0E-03"))).isEqualTo(":TIM:SCAL 1.000000000E-04");
+        assertThatThrownBy(() -> CommandTemplate.parse(":TRIG:SOUR {source*2}", Set.of("source")))
+                .hasMessageContaining("is a word, not a number");
+        assertThatThrownBy(() -> CommandTemplate.parse(":X {range+1}", Set.of("range")))
+                .hasMessageContaining("unknown placeholder {range+1}");
+    }
 }
