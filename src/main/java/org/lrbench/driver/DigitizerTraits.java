@@ -22,7 +22,7 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
 
     public static final DigitizerTraits GENERIC = new DigitizerTraits(new Vertical(VerticalSetting.PEAK_TO_PEAK, 1,
             List.of()), new Scaling(ScaleSource.SCALE_QUERY, Map.of(), 0, 0, null, null),
-            new Timebase(false), new Acquisition(Completion.OPC, null, null, Duration.ZERO));
+            new Timebase(false, List.of()), new Acquisition(Completion.OPC, null, null, Duration.ZERO));
 
     /** What the instrument's vertical number means. */
     public enum VerticalSetting { PEAK_TO_PEAK, PLUS_MINUS, PER_DIVISION }
@@ -59,8 +59,12 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
                           Double clipLow, Double clipHigh) {
     }
 
-    /** @param rate true when {@code {interval}} and its reply are a sample rate (per second) */
-    public record Timebase(boolean rate) {
+    /**
+     * @param rate          true when the {@code interval_query} reply is a sample rate (per second)
+     * @param recordLengths the record lengths the instrument offers, ascending; empty when any length
+     *                      goes (the shortest listed length that holds the request is asked for)
+     */
+    public record Timebase(boolean rate, List<Integer> recordLengths) {
     }
 
     /** How the end of an acquisition is known. */

@@ -95,10 +95,23 @@ final class DigitizerTraitsReader {
                     Map.copyOf(fields), zero == null ? 0 : zero, full == null ? 0 : full, clipLow, clipHigh);
         }
         DigitizerTraits.Timebase timebase = g.timebase();
-        YamlMap t = root.map("timebase", false, "setting");
+        YamlMap t = root.map("timebase", false, "setting", "record_lengths");
         if (t != null) {
-            Boolean rate = t.choice("setting", true, Map.of("interval", false, "rate", true));
-            timebase = new DigitizerTraits.Timebase(rate != null && rate);
+            Boolean rate = t.has("setting") ? t.choice("setting", true, Map.of("interval", false, "rate", true)) : Boolean.FALSE;
+            List<Integer> lengths = new ArrayList<>();
+            for (YamlMap.Item item : t.has("record_lengths") ? t.list("record_lengths", false) : List.<YamlMap.Item>of()) {
+                Double n = t.asQuantity(item, Dimension.NONE);
+                if (n != null) {
+                    if (n != Math.rint(n) || n < 16 || n > Integer.MAX_VALUE
+                            || (!lengths.isEmpty() && n <= lengths.get(lengths.size() - 1))) {
+                        t.problem("record_lengths", "record lengths must be whole numbers from 16, ascending; "
+                                + item.path() + " is not");
+                    } else {
+                        lengths.add((int) Math.round(n));
+                    }
+                }
+            }
+            timebase = new DigitizerTraits.Timebase(rate != null && rate, List.copyOf(lengths));
         }
         DigitizerTraits.Acquisition acquisition = g.acquisition();
         YamlMap a = root.map("acquisition", false, "complete", "poll_query", "until", "wait");

@@ -94,7 +94,13 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     @Override
-    public Timing setTiming(double sampleIntervalSecond, int requestedPoints) {
+    public Timing setTiming(double sampleIntervalSecond, int wanted) {
+        int requestedPoints = wanted;
+        List<Integer> lengths = traits.timebase().recordLengths();
+        if (!lengths.isEmpty()) {
+            // the shortest record the instrument offers that holds the request (or its longest)
+            requestedPoints = lengths.stream().filter(n -> n >= wanted).findFirst().orElse(lengths.get(lengths.size() - 1));
+        }
         String intervalQuery = driver.command("interval_query").render(Map.of());
         String pointsQuery = driver.command("points_query").render(Map.of());
         boolean rate = traits.timebase().rate();

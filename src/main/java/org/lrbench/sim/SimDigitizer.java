@@ -103,6 +103,9 @@ public final class SimDigitizer extends ScpiDevice {
         }
     }
 
+    /** The record lengths of the {@code per-division-8} personality; a request is rounded up (or to the longest). */
+    static final int[] RECORD_LENGTHS = {1000, 2000, 5000, 10_000, 20_000, 50_000, 100_000, 200_000, 500_000, 1_000_000};
+
     /** The {@code per-division-8} dialect. */
     private void registerPerDivision() {
         register("CHANnel#:SCALe", false, c -> {
@@ -141,7 +144,14 @@ public final class SimDigitizer extends ScpiDevice {
         register("ACQuire:SINTerval", true, c -> nr3(interval));
         register("ACQuire:POINts", false, c -> {
             c.expect(1, 1);
-            points = (int) Math.round(c.number(0, 16, MAX_POINTS, 1000));
+            double wanted = c.number(0, 16, MAX_POINTS, 1000);
+            points = RECORD_LENGTHS[RECORD_LENGTHS.length - 1];
+            for (int n : RECORD_LENGTHS) {
+                if (n >= wanted) {
+                    points = n;
+                    break;
+                }
+            }
             record = null;
             return null;
         });
