@@ -88,7 +88,8 @@ public enum TraceEncoding {
         if (t.isEmpty()) {
             return new double[0];
         }
-        String[] parts = t.split(",");
+        // values separated by commas, blanks, or both (instruments differ)
+        String[] parts = t.split("[,\\s]+");
         double[] out = new double[parts.length];
         for (int i = 0; i < parts.length; i++) {
             try {

@@ -170,4 +170,14 @@ class ScpiSessionTests {
         assertThat(ScpiNumbers.nr3(1234.5)).isEqualTo("1.234500000E+03");
         assertThatThrownBy(() -> ScpiNumbers.nr3(Double.NaN)).isInstanceOf(IllegalArgumentException.class);
     }
+
+    @Test
+    void asciiTracesSeparatedByCommasBlanksOrBothDecodeAlike() {
+        // SCPI-1999 (Vol. 1, 9.1, from memory): NR1/NR3 numbers in a list; instruments separate them
+        // with commas, blanks, or both
+        double[] want = {1.5, -0.25, 3e-3, 4};
+        for (String reply : new String[] {"1.5,-0.25,3E-3,+4", "1.5 -0.25 3E-3 +4", " 1.5, -0.25,  3E-3 , 4 "}) {
+            org.assertj.core.api.Assertions.assertThat(TraceEncoding.decodeAscii(reply)).as(reply).containsExactly(want);
+        }
+    }
 }
