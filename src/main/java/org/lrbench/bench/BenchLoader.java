@@ -102,12 +102,14 @@ public final class BenchLoader {
         SimSettings d = SimSettings.defaults();
         YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed",
                 "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
-                "meter_lead_resistance", "digitizer");
+                "meter_lead_resistance", "digitizer", "generator");
         if (m == null) {
             return d;
         }
         org.lrbench.sim.SimDigitizer.Personality personality = m.has("digitizer") ? m.choice("digitizer", true,
                 org.lrbench.sim.SimDigitizer.Personality.byKey()) : org.lrbench.sim.SimDigitizer.Personality.GENERIC;
+        org.lrbench.sim.SimGenerator.Personality generator = m.has("generator") ? m.choice("generator", true,
+                org.lrbench.sim.SimGenerator.Personality.byKey()) : org.lrbench.sim.SimGenerator.Personality.GENERIC;
         Double source = m.quantity("source_impedance", Dimension.RESISTANCE, false);
         if (source != null && source < 0) {
             m.problem("source_impedance", "must not be negative");
@@ -145,6 +147,7 @@ public final class BenchLoader {
                 gain == null || !gain.relative() ? 0 : gain.value(), skew == null ? 0 : skew,
                 leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray,
                 meterLead == null ? 0.05 : meterLead,
-                personality == null ? org.lrbench.sim.SimDigitizer.Personality.GENERIC : personality);
+                personality == null ? org.lrbench.sim.SimDigitizer.Personality.GENERIC : personality,
+                generator == null ? org.lrbench.sim.SimGenerator.Personality.GENERIC : generator);
     }
 }

@@ -50,7 +50,7 @@ public final class SimBench implements AnalogInputs {
         this.circuit = new Circuit(settings.sourceImpedanceOhm(), wiring.senseOhm(), first);
         this.settings = settings;
         this.tray = java.util.List.copyOf(tray);
-        this.generator = new SimGenerator(settings.sourceImpedanceOhm());
+        this.generator = new SimGenerator(settings.sourceImpedanceOhm(), settings.generator());
         this.digitizer = new SimDigitizer(this, settings);
         this.switchUnit = new SimSwitch(Math.max(1, tray.size()));
         this.meter = new SimMultimeter(this::connectedPart, settings.meterLeadOhm());

@@ -11,10 +11,35 @@ import org.lrbench.sim.scpi.ScpiDevice;
  * (Rload + Rout) / Rload, twice the setting into a 50 ohm load, equal to it for INFinity.
  */
 public final class SimGenerator extends ScpiDevice {
+
+    /**
+     * Which generator the simulation plays. {@code generic}: SCPI-1999 SOURce/OUTPut subsystems,
+     * peak-to-peak amplitude and offset referred to the load set by {@code OUTPut:LOAD} (50 ohm
+     * after *RST). {@code peak-emf}: a WAVe subsystem whose amplitude is the peak open-circuit EMF
+     * and whose offset is the open-circuit DC level, with one output command taking ON or OFF.
+     */
+    public enum Personality {
+        GENERIC("generic"), PEAK_EMF("peak-emf");
+
+        private final String key;
+
+        Personality(String key) {
+            this.key = key;
+        }
+
+        public static java.util.Map<String, Personality> byKey() {
+            java.util.Map<String, Personality> m = new java.util.LinkedHashMap<>();
+            for (Personality p : values()) {
+                m.put(p.key, p);
+            }
+            return m;
+        }
+    }
     public static final double MAX_FREQUENCY = 20e6;
     public static final double MAX_EMF_PEAK = 10.0;
 
     private final double outputOhm;
+    private final Personality personality;
     private Waveform waveform;
     private double frequency;
     private double amplitudeVpp;
@@ -23,9 +48,59 @@ public final class SimGenerator extends ScpiDevice {
     private boolean outputOn;
 
     public SimGenerator(double outputOhm) {
-        super("LRBENCH,SIM-SOURCE-1,SIM0001,0.1");
+        this(outputOhm, Personality.GENERIC);
+    }
+
+    public SimGenerator(double outputOhm, Personality personality) {
+        super(personality == Personality.PEAK_EMF ? "LRBENCH,SIM-SOURCE-PK,SIM0021,0.1" : "LRBENCH,SIM-SOURCE-1,SIM0001,0.1");
         this.outputOhm = outputOhm;
+        this.personality = personality;
         reset();
+        if (personality == Personality.PEAK_EMF) {
+            registerPeakEmf();
+        } else {
+            registerGeneric();
+        }
+    }
+
+    /** The {@code peak-emf} dialect: levels are the open-circuit EMF whatever the load. */
+    private void registerPeakEmf() {
+        register("WAVe:TYPE", false, c -> {
+            c.expect(1, 1);
+            String w = c.word(0, "SINE", "TRIangle", "SQUare");
+            waveform = switch (w) {
+                case "SINE" -> Waveform.SINE;
+                case "TRI" -> Waveform.TRIANGLE;
+                default -> Waveform.SQUARE;
+            };
+            return null;
+        });
+        register("WAVe:FREQuency", false, c -> {
+            c.expect(1, 1);
+            frequency = c.number(0, 1e-3, MAX_FREQUENCY, 1e3);
+            return null;
+        });
+        register("WAVe:PEAK", false, c -> {
+            c.expect(1, 1);
+            amplitudeVpp = 2 * c.number(0, 1e-3, MAX_EMF_PEAK - Math.abs(offset), 0.05);
+            return null;
+        });
+        register("WAVe:DC", false, c -> {
+            c.expect(1, 1);
+            double max = MAX_EMF_PEAK - amplitudeVpp / 2;
+            offset = c.number(0, -max, max, 0);
+            return null;
+        });
+        register("OUTPut", false, c -> {
+            c.expect(1, 1);
+            outputOn = c.word(0, "ON", "OFF").equals("ON");
+            return null;
+        });
+        register("OUTPut", true, c -> outputOn ? "ON" : "OFF");
+    }
+
+    /** The generic SCPI-1999 dialect. */
+    private void registerGeneric() {
         register("[SOURce#]:FUNCtion[:SHAPe]", false, c -> {
             c.expect(1, 1).suffixUpTo(1);
             String w = c.word(0, "SINusoid", "TRIangle", "SQUare");
@@ -90,6 +165,9 @@ public final class SimGenerator extends ScpiDevice {
     }
 
     private double emfFactor() {
+        if (personality == Personality.PEAK_EMF) {
+            return 1.0; // its levels are the open-circuit EMF
+        }
         return Double.isInfinite(loadOhm) ? 1.0 : (loadOhm + outputOhm) / loadOhm;
     }
 

@@ -6,20 +6,21 @@ package org.lrbench.sim;
  * (0 for an ideal converter with no quantization), the random seed that makes runs repeatable,
  * channel 2's gain error (relative) and time skew against channel 1, and the fixture's parasitics:
  * lead resistance and inductance in series with the part, stray capacitance across it; and the
- * resistance of each multimeter test lead; and which simulated digitizer (its personality: dialect,
- * range set, scaling, resolution) the bench has.
+ * resistance of each multimeter test lead; and which simulated digitizer and generator (their personalities:
+ * dialect, range set, scaling, resolution, levels) the bench has.
  */
 public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
                           double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
                           double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm,
-                          SimDigitizer.Personality digitizer) {
+                          SimDigitizer.Personality digitizer, SimGenerator.Personality generator) {
 
     /** The generic digitizer. */
     public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
                        double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
                        double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm) {
         this(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError, channel2SkewSecond,
-                leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, SimDigitizer.Personality.GENERIC);
+                leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, SimDigitizer.Personality.GENERIC,
+                SimGenerator.Personality.GENERIC);
     }
 
     /** 50 mohm per multimeter test lead. */
@@ -42,12 +43,19 @@ public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int re
 
     public SimSettings withSeed(long newSeed) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, newSeed, channel2GainError,
-                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer);
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer,
+                generator);
     }
 
     /** The same bench with another simulated digitizer personality. */
     public SimSettings withDigitizer(SimDigitizer.Personality p) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
-                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, p);
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, p, generator);
+    }
+
+    /** The same bench with another simulated generator personality. */
+    public SimSettings withGenerator(SimGenerator.Personality p) {
+        return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer, p);
     }
 }

@@ -87,15 +87,16 @@ class PersonalityTests {
     }
 
     /**
-     * Both generator drivers set the same open-circuit EMF on the same simulated generator: one by
-     * telling it the load is high impedance, one by declaring its levels referred to 50 ohm behind
-     * 50 ohm, so that a setting of V across the load is an EMF of 2 V (voltage divider, circuit
-     * theory).
+     * Every generator driver sets the same open-circuit EMF: one by telling the generator its load is
+     * high impedance, one by declaring its levels referred to 50 ohm behind 50 ohm, so that a setting
+     * of V across the load is an EMF of 2 V (voltage divider, circuit theory), and one on the
+     * peak-EMF personality, whose levels are the EMF.
      */
     @org.junit.jupiter.api.Test
-    void bothGeneratorDriversSetTheSameOpenCircuitEmf() throws Exception {
-        for (String driverName : List.of("generic-source", "sim-source-matched")) {
-            org.lrbench.sim.SimGenerator g = new org.lrbench.sim.SimGenerator(50);
+    void everyGeneratorDriverSetsTheSameOpenCircuitEmf() throws Exception {
+        for (String driverName : List.of("generic-source", "sim-source-matched", "sim-source-peak")) {
+            org.lrbench.sim.SimGenerator g = new org.lrbench.sim.SimGenerator(50, driverName.equals("sim-source-peak")
+                    ? org.lrbench.sim.SimGenerator.Personality.PEAK_EMF : org.lrbench.sim.SimGenerator.Personality.GENERIC);
             DriverFile d = new DriverLoader(HOME.resolve("drivers")).load(driverName, DriverKind.SOURCE);
             ScpiGenerator gen = new ScpiGenerator(new org.lrbench.scpi.ScpiSession("generator",
                     new org.lrbench.transport.inproc.InProcessTransport("sim://generator", g), java.time.Duration.ofSeconds(1)), d);
