@@ -48,6 +48,7 @@ final class CalibrateCommand implements Callable<Integer> {
         logging.apply();
         BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
         Plan p = Inputs.plan(plan, b);
+        Inputs.requireFit(p, b, new DriverLoader(Home.drivers()));
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");

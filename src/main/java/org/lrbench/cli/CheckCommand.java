@@ -41,8 +41,11 @@ final class CheckCommand implements Callable<Integer> {
         } catch (ProblemsException e) {
             problems.addAll(e.problems());
         }
-        driver(loader, "generator", b.generator(), DriverKind.SOURCE, problems, loaded);
-        driver(loader, "digitizer", b.digitizer(), DriverKind.DIGITIZER, problems, loaded);
+        DriverFile source = driver(loader, "generator", b.generator(), DriverKind.SOURCE, problems, loaded);
+        DriverFile digitizer = driver(loader, "digitizer", b.digitizer(), DriverKind.DIGITIZER, problems, loaded);
+        if (p != null && source != null && digitizer != null) {
+            problems.addAll(org.lrbench.driver.PlanFit.problems(p, source, digitizer));
+        }
         driver(loader, "switch", b.switchUnit(), DriverKind.SWITCH, problems, loaded);
         driver(loader, "meter", b.meter(), DriverKind.METER, problems, loaded);
         if (!problems.isEmpty()) {
@@ -58,16 +61,18 @@ final class CheckCommand implements Callable<Integer> {
         return ExitCodes.PASS;
     }
 
-    private static void driver(DriverLoader loader, String role, InstrumentLink link, DriverKind kind, List<Object> problems,
-                               List<String> loaded) {
+    private static DriverFile driver(DriverLoader loader, String role, InstrumentLink link, DriverKind kind,
+                                     List<Object> problems, List<String> loaded) {
         if (link == null) {
-            return;
+            return null;
         }
         try {
             DriverFile d = loader.load(link.driver(), kind);
             loaded.add(role + " " + d.name() + " at " + link.address());
+            return d;
         } catch (ProblemsException e) {
             problems.addAll(e.problems());
+            return null;
         }
     }
 }

@@ -29,6 +29,19 @@ final class Inputs {
         return PlanLoader.load(file, bench.maxAmplitudeVolt());
     }
 
+    /**
+     * Refuses, before any instrument is touched, a plan that asks of the bench's generator or
+     * digitizer more than their driver files declare.
+     */
+    static void requireFit(Plan plan, BenchConfig bench, org.lrbench.driver.DriverLoader drivers) throws ProblemsException {
+        var problems = org.lrbench.driver.PlanFit.problems(plan,
+                drivers.load(bench.generator().driver(), org.lrbench.driver.DriverKind.SOURCE),
+                drivers.load(bench.digitizer().driver(), org.lrbench.driver.DriverKind.DIGITIZER));
+        if (!problems.isEmpty()) {
+            throw new BadInputException(String.join("\n", problems));
+        }
+    }
+
     static void requireFile(Path file, String what) {
         if (!Files.isRegularFile(file)) {
             throw new BadInputException(what + " " + file + ": no such file");

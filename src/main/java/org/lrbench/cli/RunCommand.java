@@ -136,6 +136,7 @@ final class RunCommand implements Callable<Integer> {
         }
         b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
         Plan p = Inputs.plan(plan, b);
+        Inputs.requireFit(p, b, new DriverLoader(Home.drivers()));
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
@@ -280,6 +281,7 @@ final class RunCommand implements Callable<Integer> {
         if (p.sampling() == null) {
             throw new BadInputException(plan + ": a lot run needs the plan's sampling section (level, AQL per class)");
         }
+        Inputs.requireFit(p, b, new DriverLoader(Home.drivers()));
         SimLot tray = null;
         List<String> serials = null;
         if (simLot != null) {

@@ -16,7 +16,8 @@ import org.lrbench.scpi.TraceEncoding;
 public record DriverFile(String name, String source, DriverKind kind, String description,
                          Map<String, Pattern> identity, Duration timeout, String errorQuery,
                          Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
-                         TraceEncoding traceEncoding, DigitizerTraits digitizer, double levelPerEmf) {
+                         TraceEncoding traceEncoding, DigitizerTraits digitizer, double levelPerEmf,
+                         InstrumentLimits limits) {
 
     /** Whether the driver has a template for the operation (some are needed only for some traits). */
     public boolean has(String operation) {

@@ -49,7 +49,7 @@ public final class DriverLoader {
         YamlMap root = YamlFile.read(file, problems,
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
-                "vertical", "scaling", "timebase", "acquisition", "levels");
+                "vertical", "scaling", "timebase", "acquisition", "levels", "limits");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -84,6 +84,7 @@ public final class DriverLoader {
                 }
             }
         }
+        InstrumentLimits limits = limits(root, kind);
         double levelPerEmf = 1;
         if (kind == DriverKind.SOURCE) {
             levelPerEmf = levels(root);
@@ -132,7 +133,57 @@ public final class DriverLoader {
         Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
         return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
                 errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits,
-                levelPerEmf);
+                levelPerEmf, limits);
+    }
+
+    /**
+     * {@code limits}: for a source {@code frequency: [LOW, HIGH]} and {@code amplitude} (the highest
+     * peak open-circuit EMF); for a digitizer {@code interval} (the shortest sample interval) and
+     * {@code record_length} (the longest record).
+     */
+    private static InstrumentLimits limits(YamlMap root, DriverKind kind) {
+        if (!root.has("limits")) {
+            return InstrumentLimits.NONE;
+        }
+        if (kind == DriverKind.SOURCE) {
+            YamlMap m = root.map("limits", false, "frequency", "amplitude");
+            if (m == null) {
+                return InstrumentLimits.NONE;
+            }
+            Double low = null;
+            Double high = null;
+            if (m.has("frequency")) {
+                List<YamlMap.Item> f = m.list("frequency", false);
+                if (f.size() != 2) {
+                    m.problem("frequency", "give [lowest, highest], such as [1 mHz, 20 MHz]");
+                } else {
+                    low = m.asQuantity(f.get(0), Dimension.FREQUENCY);
+                    high = m.asQuantity(f.get(1), Dimension.FREQUENCY);
+                    if (low != null && high != null && !(low >= 0 && high > low)) {
+                        m.problem("frequency", "the lowest must be below the highest");
+                    }
+                }
+            }
+            Double amplitude = m.quantity("amplitude", Dimension.VOLTAGE, false);
+            if (amplitude != null && !(amplitude > 0)) {
+                m.problem("amplitude", "must be positive");
+            }
+            return new InstrumentLimits(low, high, amplitude, null, null);
+        }
+        if (kind == DriverKind.DIGITIZER) {
+            YamlMap m = root.map("limits", false, "interval", "record_length");
+            if (m == null) {
+                return InstrumentLimits.NONE;
+            }
+            Double interval = m.quantity("interval", Dimension.TIME, false);
+            if (interval != null && !(interval > 0)) {
+                m.problem("interval", "must be positive");
+            }
+            Integer length = m.integer("record_length", false, 16, Integer.MAX_VALUE);
+            return new InstrumentLimits(null, null, null, interval, length);
+        }
+        root.problem("limits", "only source and digitizer drivers declare limits");
+        return InstrumentLimits.NONE;
     }
 
     /**

@@ -348,4 +348,27 @@ class CommandLineTests {
         assertThat(bad.out()).containsPattern("FAILED digitizer range 1.0 V and read back, channel 1 .*RANGe:BOGus.*-113")
                 .contains("ok     generator amplitude");
     }
+
+    @Test
+    void aPlanAskingMoreThanTheDriversDeclareIsRefusedBeforeAnyInstrumentIsTouched(@TempDir Path dir) throws Exception {
+        Path drivers = dir.resolve("drivers");
+        Files.createDirectories(drivers);
+        try (var files = Files.list(HOME.resolve("drivers"))) {
+            for (Path f : files.toList()) {
+                Files.copy(f, drivers.resolve(f.getFileName()));
+            }
+        }
+        Path source = drivers.resolve("generic-source.yaml");
+        Files.writeString(source, Files.readString(source).replace("frequency: [1 mHz, 20 MHz]", "frequency: [1 mHz, 10 kHz]")
+                .replace("amplitude: 10 V ", "amplitude: 2 V "));
+        Path digitizer = drivers.resolve("generic-digitizer.yaml");
+        Files.writeString(digitizer, Files.readString(digitizer).replace("interval: 1 ns", "interval: 10 us"));
+        Outcome o = run("check", PLAN, "--drivers", drivers.toString());
+        assertThat(o.code()).isEqualTo(2);
+        // the demo plan sweeps 200 Hz to 20 kHz at 3 V with a triangle check (plans/qfd-ind-1m0.yaml)
+        assertThat(o.err()).contains("20.00 kHz is above the 10.00 kHz that the generator driver generic-source")
+                .contains("is above the 2.000 V that the generator driver generic-source")
+                .contains("between samples; the digitizer driver generic-digitizer").contains("declares 10.00 us at the shortest");
+        assertThat(run("check", PLAN).code()).isZero();
+    }
 }
