@@ -11,7 +11,8 @@ import java.util.Map;
  * peak-to-peak, plus-minus full scale, or volts per division over a number of divisions) and,
  * optionally, the instrument's list of ranges in that unit;</li>
  * <li>{@link Scaling}: how trace codes become volts (four numbers from {@code scale_query}, fields
- * picked by position from a preamble, a fixed formula, or none when the data are volts already),
+ * picked by position from a preamble, one query per field, a fixed formula, or none when the data
+ * are volts already),
  * and which codes mean clipped;</li>
  * <li>{@link Timebase}: whether {@code {interval}} and its reply are a sample interval or a sample rate;</li>
  * <li>{@link Acquisition}: how the end of an acquisition is known ({@code *OPC?}, polling a status
@@ -21,7 +22,7 @@ import java.util.Map;
 public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timebase, Acquisition acquisition) {
 
     public static final DigitizerTraits GENERIC = new DigitizerTraits(new Vertical(VerticalSetting.PEAK_TO_PEAK, 1,
-            List.of()), new Scaling(ScaleSource.SCALE_QUERY, Map.of(), 0, 0, null, null),
+            List.of()), new Scaling(ScaleSource.SCALE_QUERY, Map.of(), Map.of(), 0, 0, null, null),
             new Timebase(false, List.of()), new Acquisition(Completion.OPC, null, null, Duration.ZERO));
 
     /** What the instrument's vertical number means. */
@@ -44,19 +45,20 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
     }
 
     /** Where the code-to-volts scaling comes from. */
-    public enum ScaleSource { SCALE_QUERY, PREAMBLE, FORMULA, NONE }
+    public enum ScaleSource { SCALE_QUERY, PREAMBLE, QUERIES, FORMULA, NONE }
 
     /**
      * @param fields         preamble: field name ({@code x_increment}, {@code x_origin},
      *                       {@code y_increment}, {@code y_origin}, {@code y_reference}) to its 1-based
      *                       position in the reply
+     * @param queries        queries: the same field names to the query that answers each one
      * @param zeroCode       formula: the code of 0 V relative to the channel offset
      * @param fullScaleCodes formula: how many codes span the full-scale (peak-to-peak) range
      * @param clipLow        the code at or below which a sample counts as clipped (null: the format's own)
      * @param clipHigh       the code at or above which a sample counts as clipped (null: the format's own)
      */
-    public record Scaling(ScaleSource source, Map<String, Integer> fields, double zeroCode, double fullScaleCodes,
-                          Double clipLow, Double clipHigh) {
+    public record Scaling(ScaleSource source, Map<String, Integer> fields, Map<String, CommandTemplate> queries,
+                          double zeroCode, double fullScaleCodes, Double clipLow, Double clipHigh) {
     }
 
     /**

@@ -44,11 +44,12 @@ final class DigitizerTraitsReader {
                     divisions == null ? 1 : divisions, List.copyOf(ranges));
         }
         DigitizerTraits.Scaling scaling = g.scaling();
-        YamlMap s = root.map("scaling", false, "source", "fields", "zero_code", "full_scale_codes", "clip_codes");
+        YamlMap s = root.map("scaling", false, "source", "fields", "queries", "zero_code", "full_scale_codes", "clip_codes");
         if (s != null) {
             DigitizerTraits.ScaleSource source = s.choice("source", true, Map.of(
                     "scale_query", DigitizerTraits.ScaleSource.SCALE_QUERY,
                     "preamble", DigitizerTraits.ScaleSource.PREAMBLE,
+                    "queries", DigitizerTraits.ScaleSource.QUERIES,
                     "formula", DigitizerTraits.ScaleSource.FORMULA,
                     "none", DigitizerTraits.ScaleSource.NONE));
             Map<String, Integer> fields = new LinkedHashMap<>();
@@ -63,6 +64,27 @@ final class DigitizerTraitsReader {
                 }
                 if (source != DigitizerTraits.ScaleSource.PREAMBLE) {
                     s.problem("fields", "only a preamble has fields");
+                }
+            }
+            Map<String, CommandTemplate> queries = new LinkedHashMap<>();
+            YamlMap q = s.map("queries", source == DigitizerTraits.ScaleSource.QUERIES,
+                    PREAMBLE_FIELDS.stream().sorted().toArray(String[]::new));
+            if (q != null) {
+                for (String name : PREAMBLE_FIELDS) {
+                    String text = q.text(name, name.equals("y_increment"));
+                    if (text != null) {
+                        try {
+                            queries.put(name, CommandTemplate.parse(text, Set.of("channel")));
+                            if (!text.startsWith(":") || !text.endsWith("?") && !text.contains("? ")) {
+                                q.problem(name, "must be an absolute query such as :WAVeform:YINCrement? CH{channel}");
+                            }
+                        } catch (IllegalArgumentException e) {
+                            q.problem(name, e.getMessage());
+                        }
+                    }
+                }
+                if (source != DigitizerTraits.ScaleSource.QUERIES) {
+                    s.problem("queries", "only source: queries has queries");
                 }
             }
             boolean formula = source == DigitizerTraits.ScaleSource.FORMULA;
@@ -92,7 +114,7 @@ final class DigitizerTraitsReader {
                 s.problem("source", "an integer trace format needs scaling: scale_query, preamble or formula");
             }
             scaling = new DigitizerTraits.Scaling(source == null ? DigitizerTraits.ScaleSource.SCALE_QUERY : source,
-                    Map.copyOf(fields), zero == null ? 0 : zero, full == null ? 0 : full, clipLow, clipHigh);
+                    Map.copyOf(fields), Map.copyOf(queries), zero == null ? 0 : zero, full == null ? 0 : full, clipLow, clipHigh);
         }
         DigitizerTraits.Timebase timebase = g.timebase();
         YamlMap t = root.map("timebase", false, "setting", "record_lengths");
@@ -152,7 +174,8 @@ final class DigitizerTraitsReader {
             out.add("range_max_query");
         }
         if (traits.scaling().source() == DigitizerTraits.ScaleSource.FORMULA
-                || traits.scaling().source() == DigitizerTraits.ScaleSource.NONE) {
+                || traits.scaling().source() == DigitizerTraits.ScaleSource.NONE
+                || traits.scaling().source() == DigitizerTraits.ScaleSource.QUERIES) {
             out.add("scale_query");
         }
         return out;

@@ -27,7 +27,7 @@ public enum DriverKind {
                 "range_max_query", Set.of("channel"),
                 "offset", Set.of("channel", "offset"),
                 "coupling", Set.of("channel", "coupling"),
-                "interval", Set.of("interval", "rate"),
+                "interval", Set.of("interval", "rate", "duration"),
                 "interval_query", Set.of(),
                 "points", Set.of("points"),
                 "points_query", Set.of(),

@@ -105,7 +105,8 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         String pointsQuery = driver.command("points_query").render(Map.of());
         boolean rate = traits.timebase().rate();
         String command = driver.command("interval").render(Map.of("interval", ScpiNumbers.nr3(sampleIntervalSecond),
-                        "rate", ScpiNumbers.nr3(1 / sampleIntervalSecond)))
+                        "rate", ScpiNumbers.nr3(1 / sampleIntervalSecond),
+                        "duration", ScpiNumbers.nr3(sampleIntervalSecond * requestedPoints)))
                 + ";" + driver.command("points").render(Map.of("points", ScpiNumbers.nr1(requestedPoints)))
                 + ";" + intervalQuery + ";" + pointsQuery;
         List<String> replies = session.configure(command, driver.errorQuery());
@@ -232,6 +233,12 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                 }
                 yield scales.get(channel);
             }
+            case QUERIES -> {
+                if (!scales.containsKey(channel)) {
+                    scales.put(channel, queryFields(channel));
+                }
+                yield scales.get(channel);
+            }
             case FORMULA -> new double[] {timebase(), 0, range / sc.fullScaleCodes(),
                 offset - sc.zeroCode() * range / sc.fullScaleCodes()};
             case NONE -> new double[] {timebase(), 0, 1, 0};
@@ -289,6 +296,26 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         return out;
     }
 
+    /** One query per scaling field, all in one message: volts = (code - y reference) * y increment + y origin. */
+    private double[] queryFields(int channel) {
+        Map<String, CommandTemplate> queries = traits.scaling().queries();
+        List<String> names = queries.keySet().stream().sorted().toList();
+        StringBuilder command = new StringBuilder();
+        for (String name : names) {
+            command.append(command.length() == 0 ? "" : ";").append(queries.get(name).render(channel(channel)));
+        }
+        List<String> replies = org.lrbench.scpi.ScpiReplies.split(session.query(command.toString()));
+        if (replies.size() != names.size()) {
+            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies.size()
+                    + " replies for " + names.size() + " queries");
+        }
+        Map<String, Double> v = new HashMap<>();
+        for (int i = 0; i < names.size(); i++) {
+            v.put(names.get(i), number(command.toString(), replies.get(i)));
+        }
+        return scaleFrom(v, command.toString());
+    }
+
     /** Fields picked by position from a preamble: volts = (code - y reference) * y increment + y origin. */
     private double[] parsePreamble(String command, String reply) {
         String[] parts = reply.split(",");
@@ -307,6 +334,11 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                         + f.getKey() + ") is '" + parts[pos - 1] + "', not a number");
             }
         }
+        return scaleFrom(v, command);
+    }
+
+    /** The scaling from named fields; without an x increment the read-back interval is used. */
+    private double[] scaleFrom(Map<String, Double> v, String command) {
         double xInc = v.containsKey("x_increment") ? v.get("x_increment") : timebase();
         if (!(xInc > 0)) {
             throw new InstrumentException(session.instrument() + ": sample interval " + xInc + " from '" + command

@@ -106,6 +106,13 @@ public final class SimDigitizer extends ScpiDevice {
     /** The record lengths of the {@code per-division-8} personality; a request is rounded up (or to the longest). */
     static final int[] RECORD_LENGTHS = {1000, 2000, 5000, 10_000, 20_000, 50_000, 100_000, 200_000, 500_000, 1_000_000};
 
+    private double timePerDivision;
+
+    /** The interval the per-division personality chooses to fill ten divisions with its record. */
+    private double chosenInterval() {
+        return Math.max(1, Math.floor(DIVISIONS * timePerDivision / points / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
+    }
+
     /** The {@code per-division-8} dialect. */
     private void registerPerDivision() {
         register("CHANnel#:SCALe", false, c -> {
@@ -142,6 +149,14 @@ public final class SimDigitizer extends ScpiDevice {
             return null;
         });
         register("ACQuire:SINTerval", true, c -> nr3(interval));
+        // or the time per division of a ten-division screen: the instrument then chooses the interval
+        register("TIMebase:SCALe", false, c -> {
+            c.expect(1, 1);
+            timePerDivision = c.number(0, 1e-9, 100, 1e-3);
+            interval = chosenInterval();
+            record = null;
+            return null;
+        });
         register("ACQuire:POINts", false, c -> {
             c.expect(1, 1);
             double wanted = c.number(0, 16, MAX_POINTS, 1000);
@@ -152,9 +167,15 @@ public final class SimDigitizer extends ScpiDevice {
                     break;
                 }
             }
+            if (timePerDivision > 0) {
+                interval = chosenInterval();
+            }
             record = null;
             return null;
         });
+        register("WAVeform:XINCrement", true, c -> nr3(interval));
+        register("WAVeform:YINCrement", true, c -> nr3(range[channelParameter(c)] / 256));
+        register("WAVeform:YORigin", true, c -> nr3(offset[channelParameter(c)]));
         register("ACQuire:POINts", true, c -> Integer.toString(points));
         register("TRIGger:EDGE:SOURce", false, c -> {
             c.expect(1, 1);
@@ -381,6 +402,7 @@ public final class SimDigitizer extends ScpiDevice {
     @Override
     protected void reset() {
         acquiring = false;
+        timePerDivision = 0;
         for (int ch = 1; ch <= CHANNELS; ch++) {
             range[ch] = 10.0;
             offset[ch] = 0;

@@ -109,4 +109,33 @@ class PersonalityTests {
             gen.outputOff();
         }
     }
+
+    /**
+     * The per-division digitizer driven the other way its dialect allows: time per division (the
+     * instrument picks the interval) and the scaling by one query per field. Same truth, same bounds.
+     */
+    @org.junit.jupiter.api.Test
+    void theSameDigitizerDrivenByTimePerDivisionAndSeparateScaleQueriesMeasuresTheTruth() throws Exception {
+        BenchConfig div8 = BenchLoader.load(HOME.resolve("simulator/bench-div8.yaml"));
+        BenchConfig b = new BenchConfig(div8.source(), div8.name(), div8.maxAmplitudeVolt(), div8.generator(),
+                new org.lrbench.bench.InstrumentLink("sim-div8-timebase-digitizer", div8.digitizer().address()),
+                div8.switchUnit(), div8.meter(), div8.simulation(), div8.accuracy());
+        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
+        PartModel truth = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+        SimBench sim = new SimBench(b.simulation(), plan.wiring(), truth);
+        DriverLoader drivers = new DriverLoader(HOME.resolve("drivers"));
+        Calibration corrections;
+        try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
+            ChannelMatch m = CalibrationRun.channels(plan, inst, sim::setPosition, Sleeper.NONE);
+            corrections = new Calibration(m, CalibrationRun.fixture(plan, inst, sim::setPosition, Sleeper.NONE, m));
+        }
+        try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
+            PartResult r = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "S", true, "test", corrections), inst,
+                    Sleeper.NONE, SweepListener.NONE);
+            assertThat(r.error()).isNull();
+            assertThat(r.inductanceH()).isCloseTo(truth.inductanceHenry(), within(1e-3 * truth.inductanceHenry()));
+            assertThat(r.seriesResistanceOhm()).isCloseTo(truth.seriesResistanceOhm(),
+                    within(1e-2 * truth.seriesResistanceOhm()));
+        }
+    }
 }
