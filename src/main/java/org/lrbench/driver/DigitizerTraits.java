@@ -16,14 +16,16 @@ import java.util.Map;
  * and which codes mean clipped;</li>
  * <li>{@link Timebase}: whether {@code {interval}} and its reply are a sample interval or a sample rate;</li>
  * <li>{@link Acquisition}: how the end of an acquisition is known ({@code *OPC?}, polling a status
- * query until it answers a value, or a fixed wait).</li>
+ * query until it answers a value, or a fixed wait);</li>
+ * <li>whether a definite-length trace block ends with the message terminator.</li>
  * </ul>
  */
-public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timebase, Acquisition acquisition) {
+public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timebase, Acquisition acquisition,
+                              boolean blockTerminated) {
 
     public static final DigitizerTraits GENERIC = new DigitizerTraits(new Vertical(VerticalSetting.PEAK_TO_PEAK, 1,
             List.of()), new Scaling(ScaleSource.SCALE_QUERY, Map.of(), Map.of(), 0, 0, null, null),
-            new Timebase(false, List.of()), new Acquisition(Completion.OPC, null, null, Duration.ZERO));
+            new Timebase(false, List.of()), new Acquisition(Completion.OPC, null, null, Duration.ZERO), true);
 
     /** What the instrument's vertical number means. */
     public enum VerticalSetting { PEAK_TO_PEAK, PLUS_MINUS, PER_DIVISION }

@@ -163,7 +163,9 @@ final class DigitizerTraitsReader {
             acquisition = new DigitizerTraits.Acquisition(complete == null ? DigitizerTraits.Completion.OPC : complete,
                     query, until, Duration.ofNanos(Math.round((wait == null ? (poll ? 0.01 : 0) : wait) * 1e9)));
         }
-        return new DigitizerTraits(vertical, scaling, timebase, acquisition);
+        Boolean terminated = root.has("block_terminator") ? root.choice("block_terminator", true,
+                Map.of("yes", true, "no", false)) : Boolean.TRUE;
+        return new DigitizerTraits(vertical, scaling, timebase, acquisition, terminated == null || terminated);
     }
 
     /** Digitizer operations a driver may leave out, given its traits. */

@@ -49,7 +49,7 @@ public final class DriverLoader {
         YamlMap root = YamlFile.read(file, problems,
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
-                "vertical", "scaling", "timebase", "acquisition", "levels", "limits");
+                "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -78,7 +78,8 @@ public final class DriverLoader {
             }
             traits = DigitizerTraitsReader.read(root, encoding);
         } else if (kind != null) {
-            for (String digitizerOnly : List.of("trace_format", "vertical", "scaling", "timebase", "acquisition")) {
+            for (String digitizerOnly : List.of("trace_format", "vertical", "scaling", "timebase", "acquisition",
+                    "block_terminator")) {
                 if (root.has(digitizerOnly)) {
                     root.problem(digitizerOnly, "only digitizer drivers have " + digitizerOnly);
                 }

@@ -192,7 +192,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         TraceEncoding encoding = driver.traceEncoding();
         double[] raw;
         try {
-            raw = encoding.isBinary() ? encoding.decode(session.queryBlock(fetchCommand))
+            raw = encoding.isBinary() ? encoding.decode(session.queryBlock(fetchCommand, traits.blockTerminated()))
                     : TraceEncoding.decodeAscii(session.query(fetchCommand));
         } catch (BlockFormatException e) {
             throw new InstrumentException(session.instrument() + ": trace from '" + fetchCommand + "': " + e.getMessage(), e);

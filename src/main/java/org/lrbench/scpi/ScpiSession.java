@@ -126,11 +126,19 @@ public final class ScpiSession implements AutoCloseable {
 
     /** Sends a query whose response is one arbitrary block (definite or indefinite length). */
     public synchronized byte[] queryBlock(String command) {
+        return queryBlock(command, true);
+    }
+
+    /**
+     * Sends a query whose response is one block; {@code terminated} says whether the instrument
+     * ends a definite-length block with the message terminator (most do; some send the bytes only).
+     */
+    public synchronized byte[] queryBlock(String command, boolean terminated) {
         write(command);
         queries++;
         long start = System.nanoTime();
         try {
-            byte[] block = readBlock();
+            byte[] block = readBlock(terminated);
             if (IO.isDebugEnabled()) {
                 IO.debug("{} < block of {} bytes: {}", instrument, block.length, firstBytes(block));
             }
@@ -271,7 +279,7 @@ public final class ScpiSession implements AutoCloseable {
         return last == '\n' && text.endsWith("\r") ? text.substring(0, text.length() - 1) : text;
     }
 
-    private byte[] readBlock() throws IOException {
+    private byte[] readBlock(boolean terminated) throws IOException {
         int hash = nextByte();
         if (hash != '#') {
             throw new BlockFormatException("expected '#' to start a block, got " + describe(hash));
@@ -312,7 +320,9 @@ public final class ScpiSession implements AutoCloseable {
             position += n;
             filled += n;
         }
-        expectTerminator("block of " + length + " bytes");
+        if (terminated) {
+            expectTerminator("block of " + length + " bytes");
+        }
         return data;
     }
 

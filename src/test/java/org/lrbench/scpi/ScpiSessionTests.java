@@ -180,4 +180,13 @@ class ScpiSessionTests {
             org.assertj.core.api.Assertions.assertThat(TraceEncoding.decodeAscii(reply)).as(reply).containsExactly(want);
         }
     }
+
+    @Test
+    void aDefiniteBlockWithoutTrailingTerminatorIsReadWhenTheDriverSaysSo() {
+        // IEEE Std 488.2-1992, 7.7.6.2: #<digit count><length digits><bytes>; some instruments send no terminator after it
+        byte[] block = session(3, "#14abcd").queryBlock(":DATA?", false);
+        org.assertj.core.api.Assertions.assertThat(new String(block, StandardCharsets.ISO_8859_1)).isEqualTo("abcd");
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> session(3, "#14abcd").queryBlock(":DATA?", true))
+                .isInstanceOf(org.lrbench.instrument.InstrumentException.class);
+    }
 }
