@@ -8,6 +8,7 @@ import org.lrbench.scpi.ScpiSession;
 
 /** What every driver-file instrument shares: its session, its driver, and a checked send. */
 abstract class DrivenInstrument {
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(DrivenInstrument.class);
     protected final ScpiSession session;
     protected final DriverFile driver;
     private Identity identity;
@@ -26,6 +27,7 @@ abstract class DrivenInstrument {
                         + driver.name() + " is written for (" + driver.source() + ", identity)");
             }
             identity = id;
+            LOG.info("{}: {} (driver {})", session.instrument(), id, driver.name());
         }
         return identity;
     }

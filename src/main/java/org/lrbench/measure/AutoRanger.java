@@ -27,6 +27,7 @@ import org.lrbench.instrument.Trace;
  * range asked for and granted.
  */
 public final class AutoRanger {
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(AutoRanger.class);
     static final double LOW_FILL = 0.5;
     static final double HIGH_FILL = 0.9;
     static final double TARGET_FILL = 0.75;
@@ -38,6 +39,8 @@ public final class AutoRanger {
     private final double[] request;
     private final double[] tooSmall = new double[3];
     private final double[] holds = new double[3];
+    private final double[] lastAsked = {Double.NaN, Double.NaN, Double.NaN};
+    private final double[] lastGranted = new double[3];
     private final List<List<String>> history = List.of(new ArrayList<>(), new ArrayList<>(), new ArrayList<>());
     private final List<Set<Double>> asked = List.of(new HashSet<>(), new HashSet<>(), new HashSet<>());
 
@@ -71,6 +74,10 @@ public final class AutoRanger {
             boolean ok1 = judge(1, t1, granted[1]);
             boolean ok2 = judge(2, t2, granted[2]);
             if (ok1 && ok2) {
+                if (LOG.isDebugEnabled()) {
+                    LOG.debug("ranged in {} acquisition(s): channel 1 {}; channel 2 {}", attempt,
+                            String.join(", ", history.get(1)), String.join(", ", history.get(2)));
+                }
                 return new Capture(t1, t2, attempt);
             }
         }
@@ -89,9 +96,14 @@ public final class AutoRanger {
     }
 
     private double ask(int ch, double r) {
+        if (r == lastAsked[ch]) {
+            return lastGranted[ch]; // the instrument is on it already
+        }
         asked.get(ch).add(r);
         double g = digitizer.setRange(ch, r);
         history.get(ch).add("asked " + volts(r) + " got " + volts(g));
+        lastAsked[ch] = r;
+        lastGranted[ch] = g;
         return g;
     }
 

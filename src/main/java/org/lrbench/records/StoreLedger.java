@@ -28,6 +28,7 @@ import org.lrbench.traces.TraceArchive;
  * for the same attempt removes its temporary files and leaves nothing under final names.
  */
 public final class StoreLedger implements LotLedger {
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(StoreLedger.class);
     private final ResultStore store;
     private final Path runs;
     private final boolean keepTraces;
@@ -103,6 +104,7 @@ public final class StoreLedger implements LotLedger {
             }
             ResultFiles.publish(tmpJson, jsonPath);
             temporary.clear();
+            LOG.debug("kept attempt {} of {} in lot {}: {}", a.number(), a.serial(), a.lot(), jsonPath);
             return a;
         } finally {
             for (Path p : temporary) {
