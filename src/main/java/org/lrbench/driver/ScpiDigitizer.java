@@ -192,8 +192,15 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         TraceEncoding encoding = driver.traceEncoding();
         double[] raw;
         try {
-            raw = encoding.isBinary() ? encoding.decode(session.queryBlock(fetchCommand, traits.blockTerminated()))
-                    : TraceEncoding.decodeAscii(session.query(fetchCommand));
+            if (encoding == TraceEncoding.ASCII_LINES) {
+                if (points < 1) {
+                    throw new IllegalStateException("the record length was never set");
+                }
+                raw = TraceEncoding.decodeAscii(String.join(",", session.queryLines(fetchCommand, points)));
+            } else {
+                raw = encoding.isBinary() ? encoding.decode(session.queryBlock(fetchCommand, traits.blockTerminated()))
+                        : TraceEncoding.decodeAscii(session.query(fetchCommand));
+            }
         } catch (BlockFormatException e) {
             throw new InstrumentException(session.instrument() + ": trace from '" + fetchCommand + "': " + e.getMessage(), e);
         }

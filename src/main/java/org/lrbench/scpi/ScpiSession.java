@@ -124,6 +124,35 @@ public final class ScpiSession implements AutoCloseable {
         }
     }
 
+    /** Sends a query whose response is {@code lines} lines (an ASCII list one value per line). */
+    public synchronized List<String> queryLines(String command, int lines) {
+        write(command);
+        queries++;
+        long start = System.nanoTime();
+        List<String> out = new java.util.ArrayList<>(lines);
+        try {
+            for (int i = 0; i < lines; i++) {
+                out.add(readLine(command));
+            }
+            if (IO.isDebugEnabled()) {
+                IO.debug("{} < {} lines, first '{}'", instrument, out.size(), out.isEmpty() ? "" : out.get(0));
+            }
+            return out;
+        } catch (TransportTimeoutException e) {
+            stale = true;
+            flushLateReplies();
+            throw new InstrumentException(instrument + " (" + transport.address() + "): " + out.size() + " of " + lines
+                    + " lines of the reply to '" + command + "' after " + elapsedMillis(start) + " ms (timeout "
+                    + timeout.toMillis() + " ms)", e);
+        } catch (IOException e) {
+            stale = true;
+            throw new InstrumentException(instrument + " (" + transport.address() + "): reading the reply to '"
+                    + command + "' failed after " + elapsedMillis(start) + " ms: " + e.getMessage(), e);
+        } finally {
+            ioNanos += System.nanoTime() - start;
+        }
+    }
+
     /** Sends a query whose response is one arbitrary block (definite or indefinite length). */
     public synchronized byte[] queryBlock(String command) {
         return queryBlock(command, true);

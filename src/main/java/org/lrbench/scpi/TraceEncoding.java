@@ -6,7 +6,8 @@ import java.util.Locale;
 
 /**
  * How a digitizer encodes trace samples in a block: signed integers of 8 or 16 bits (16 in either
- * byte order), IEEE 754 floats of 32 or 64 bits, or ASCII numbers separated by commas.
+ * byte order), IEEE 754 floats of 32 or 64 bits, ASCII numbers separated by commas or blanks on
+ * one line, or ASCII numbers one per line.
  */
 public enum TraceEncoding {
     INT8("int8", 1, true),
@@ -15,7 +16,9 @@ public enum TraceEncoding {
     REAL32_BIG("real32-big", 4, false),
     REAL32_LITTLE("real32-little", 4, false),
     REAL64_BIG("real64-big", 8, false),
-    ASCII("ascii", 0, false);
+    ASCII("ascii", 0, false),
+    /** ASCII numbers one per line: the reply is as many lines as the record has samples. */
+    ASCII_LINES("ascii-lines", 0, false);
 
     private final String key;
     private final int bytesPerSample;
@@ -76,7 +79,7 @@ public enum TraceEncoding {
                 case INT16_BIG, INT16_LITTLE -> bb.getShort();
                 case REAL32_BIG, REAL32_LITTLE -> bb.getFloat();
                 case REAL64_BIG -> bb.getDouble();
-                case ASCII -> throw new IllegalStateException();
+                case ASCII, ASCII_LINES -> throw new IllegalStateException();
             };
         }
         return out;

@@ -189,4 +189,15 @@ class ScpiSessionTests {
         org.assertj.core.api.Assertions.assertThatThrownBy(() -> session(3, "#14abcd").queryBlock(":DATA?", true))
                 .isInstanceOf(org.lrbench.instrument.InstrumentException.class);
     }
+
+    @Test
+    void anAsciiListOneValuePerLineIsReadLineByLine() {
+        ScpiSession s = session(2, "1.5\n-2\n3E-1\n");
+        java.util.List<String> lines = s.queryLines(":DATA?", 3);
+        org.assertj.core.api.Assertions.assertThat(TraceEncoding.decodeAscii(String.join(",", lines)))
+                .containsExactly(1.5, -2, 0.3);
+        // a reply with fewer lines than the record times out and says how many came
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> session(2, "1\n2\n").queryLines(":DATA?", 3))
+                .hasMessageContaining("2 of 3 lines");
+    }
 }
