@@ -25,6 +25,7 @@ public enum DriverKind {
                 "range_query", Set.of("channel"),
                 "range_min_query", Set.of("channel"),
                 "range_max_query", Set.of("channel"),
+                "range_list_query", Set.of("channel"),
                 "offset", Set.of("channel", "offset"),
                 "coupling", Set.of("channel", "coupling"),
                 "interval", Set.of("interval", "rate", "duration"),

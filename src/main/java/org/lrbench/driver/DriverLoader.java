@@ -93,8 +93,16 @@ public final class DriverLoader {
             root.problem("levels", "only source drivers have levels");
         }
         if (kind != null) {
-            Set<String> optional = traits == null ? Set.of() : DigitizerTraitsReader.optional(traits);
+            Set<String> optional = new java.util.HashSet<>(traits == null ? Set.of() : DigitizerTraitsReader.optional(traits));
             YamlMap cmds = root.map("commands", true, kind.operations().keySet().toArray(String[]::new));
+            if (kind == DriverKind.DIGITIZER) {
+                // the instrument's list of ranges, when it can tell it, stands for its limits
+                optional.add("range_list_query");
+                if (cmds != null && cmds.has("range_list_query")) {
+                    optional.add("range_min_query");
+                    optional.add("range_max_query");
+                }
+            }
             if (cmds != null) {
                 for (Map.Entry<String, Set<String>> op : kind.operations().entrySet()) {
                     String text = cmds.text(op.getKey(), !optional.contains(op.getKey()));

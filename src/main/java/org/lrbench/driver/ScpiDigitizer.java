@@ -52,6 +52,19 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             return new RangeLimits(declared.get(0) / perPeakToPeak(), declared.get(declared.size() - 1) / perPeakToPeak());
         }
         Map<String, String> ch = channel(channel);
+        if (driver.has("range_list_query")) {
+            String query = driver.command("range_list_query").render(ch);
+            double[] list = TraceEncoding.decodeAscii(session.query(query));
+            if (list.length == 0) {
+                throw new InstrumentException(session.instrument() + ": '" + query + "' answered no ranges");
+            }
+            double min = java.util.Arrays.stream(list).min().orElseThrow();
+            double max = java.util.Arrays.stream(list).max().orElseThrow();
+            if (!(min > 0)) {
+                throw new InstrumentException(session.instrument() + ": '" + query + "' answered a range of " + min);
+            }
+            return new RangeLimits(min / perPeakToPeak(), max / perPeakToPeak());
+        }
         return new RangeLimits(queryNumber("range_min_query", ch) / perPeakToPeak(),
                 queryNumber("range_max_query", ch) / perPeakToPeak());
     }

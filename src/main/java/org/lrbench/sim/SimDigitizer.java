@@ -229,6 +229,14 @@ public final class SimDigitizer extends ScpiDevice {
             return null;
         });
         register("CHANnel#:RANGe", true, c -> nr3(range[c.suffixUpTo(CHANNELS)] / 2));
+        register("CHANnel#:RANGe:LIST", true, c -> {
+            c.suffixUpTo(CHANNELS);
+            StringBuilder sb = new StringBuilder();
+            for (double r : PLUS_MINUS_RANGES) {
+                sb.append(sb.length() == 0 ? "" : ",").append(nr3(r));
+            }
+            return sb.toString();
+        });
         register("CHANnel#:OFFSet", false, c -> {
             c.expect(1, 1);
             offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);

@@ -138,4 +138,25 @@ class PersonalityTests {
                     within(1e-2 * truth.seriesResistanceOhm()));
         }
     }
+
+    /** A range list the instrument answers stands for declared limits: the same personality, ranges queried. */
+    @org.junit.jupiter.api.Test
+    void aQueriedRangeListGivesTheRangeLimits(@TempDir Path dir) throws Exception {
+        String text = Files.readString(HOME.resolve("drivers/sim-pm12-digitizer.yaml"))
+                .replaceAll("(?m)^  ranges: .*\\n", "")
+                .replace("  range_query: \":CHANnel{channel}:RANGe?\"", "  range_query: \":CHANnel{channel}:RANGe?\"\n"
+                        + "  range_list_query: \":CHANnel{channel}:RANGe:LIST?\"");
+        Files.writeString(dir.resolve("pm12-listed.yaml"), text);
+        DriverFile d = new DriverLoader(dir).load("pm12-listed", DriverKind.DIGITIZER);
+        assertThat(d.digitizer().vertical().ranges()).isEmpty();
+        BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench-pm12.yaml"));
+        SimBench sim = new SimBench(b.simulation(), 100, PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")));
+        ScpiDigitizer dig = new ScpiDigitizer(new org.lrbench.scpi.ScpiSession("digitizer",
+                new org.lrbench.transport.inproc.InProcessTransport("sim://digitizer", sim.digitizer()),
+                java.time.Duration.ofSeconds(1)), d);
+        dig.prepare();
+        // plus-minus 5 mV to 50 V is 10 mV to 100 V peak-to-peak
+        assertThat(dig.rangeLimits(1).minVolt()).isCloseTo(0.01, within(1e-12));
+        assertThat(dig.rangeLimits(2).maxVolt()).isCloseTo(100, within(1e-9));
+    }
 }
