@@ -16,6 +16,27 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
         return points.stream().map(this::apply).toList();
     }
 
+    /**
+     * A series resistance and inductance measured directly at {@code frequencyHz} (the triangle
+     * check), corrected like the sweep: divided by channel 2's response at that frequency, then the
+     * leads of the short reading nearest in frequency subtracted. Returns {R, L}.
+     */
+    public double[] correctSeries(double frequencyHz, double resistanceOhm, double inductanceHenry) {
+        double omega = 2 * Math.PI * frequencyHz;
+        var z = new org.apache.commons.math3.complex.Complex(resistanceOhm, omega * inductanceHenry);
+        if (channels != null) {
+            z = z.divide(channels.ratio(frequencyHz));
+        }
+        double r = z.getReal();
+        double l = z.getImaginary() / omega;
+        if (fixture != null) {
+            double[] lead = fixture.shortSeriesNear(frequencyHz);
+            r -= lead[0];
+            l -= lead[1];
+        }
+        return new double[] {r, l};
+    }
+
     public ImpedancePoint apply(ImpedancePoint p) {
         var z = p.impedanceOhm();
         if (channels != null) {

@@ -34,6 +34,20 @@ public record FixtureCompensation(String measuredAt, List<Point> points) {
         return d.divide(Complex.ONE.subtract(d.multiply(p.openAdmittance())));
     }
 
+    /**
+     * The short reading nearest in frequency as a series resistance and inductance {R, L}: the
+     * leads, for a method that measures R and L directly (the triangle check) at a frequency of its own.
+     */
+    public double[] shortSeriesNear(double frequencyHz) {
+        Point best = points.get(0);
+        for (Point p : points) {
+            if (Math.abs(Math.log(p.frequencyHz() / frequencyHz)) < Math.abs(Math.log(best.frequencyHz() / frequencyHz))) {
+                best = p;
+            }
+        }
+        return new double[] {best.shortReal(), best.shortImag() / (2 * Math.PI * best.frequencyHz())};
+    }
+
     public boolean covers(double frequencyHz) {
         return points.stream().anyMatch(p -> Math.abs(p.frequencyHz() - frequencyHz) <= 1e-9 * frequencyHz);
     }

@@ -195,7 +195,7 @@ public final class PartRun {
         }
         warnings.addAll(crossChecks(z, sweep));
         if (triangle != null) {
-            warnings.addAll(triangleCheck(triangle, sweep));
+            warnings.addAll(triangleCheck(triangle, sweep, calibration));
         }
         if (sweep.fit().reducedChiSquare() > 4) {
             warnings.add(String.format(Locale.ROOT, "the model leaves residuals %.1f times their expected variance:"
@@ -208,14 +208,18 @@ public final class PartRun {
      * The triangle method against the sweep model. Both share the sense resistor, the digitizer
      * gains and the frequency, so only their own (type A) uncertainties enter the comparison.
      */
-    private static List<String> triangleCheck(TriangleExtraction.Result t, SweepAnalysis.Result sweep) {
+    private static List<String> triangleCheck(TriangleExtraction.Result t, SweepAnalysis.Result sweep,
+                                              Calibration calibration) {
         List<String> out = new ArrayList<>();
+        // the triangle's R and L corrected like the sweep (channel match, leads), so that only a real
+        // disagreement warns
+        double[] corrected = calibration.correctSeries(t.frequencyHz(), t.resistanceOhm(), t.inductanceHenry());
         double[] p = sweep.fit().parameters();
         String[][] pairs = {{Readings.INDUCTANCE, "inductance"}, {Readings.RESISTANCE, "resistance"}};
         for (String[] pair : pairs) {
             boolean inductance = pair[1].equals("inductance");
             double model = inductance ? p[1] : p[0];
-            double tri = inductance ? t.inductanceHenry() : t.resistanceOhm();
+            double tri = inductance ? corrected[1] : corrected[0];
             double uTri = inductance ? t.inductanceUncertainty() : t.resistanceUncertainty();
             double uModel = sweep.budgets().get(pair[0]).contributions().get(0).contribution();
             double limit = Budget.K * Math.hypot(uTri, uModel);
