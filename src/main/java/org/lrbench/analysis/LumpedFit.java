@@ -13,13 +13,19 @@ import org.lrbench.analysis.fit.LeastSquares;
 
 /**
  * Fits the {@link LumpedModel} to a sweep by weighted Levenberg-Marquardt (real and imaginary parts
- * of each point, weighted by the inverse variance of its components), starting from the series
- * model. An optional parameter that the data cannot identify, because its estimate is not
+ * of each point, weighted by the inverse variance of its components), from every start the data
+ * suggest, keeping the fit with the least chi-square: the series model, and, when the parallel
+ * capacitance is wanted, the admittance: for a winding well above its R/L corner,
+ * omega Im(1/Z) = -1/L + omega^2 C_p, a straight line in omega^2 whose intercept and slope give
+ * L and C_p in closed form, through self-resonance as below it. A fit whose L is not positive, or
+ * whose reduced chi-square stays above {@value #CHI_LIMIT} (no model describes the data), is refused. An optional parameter that the data cannot identify, because its estimate is not
  * significantly different from its null value (less than twice its standard uncertainty), has an
  * unphysical sign, or leaves the covariance singular, is fixed at its null value and the fit is
  * repeated; the result says which parameters were dropped and why.
  */
 public final class LumpedFit {
+    /** Reduced chi-square above which the model does not describe the data and no value is reported. */
+    public static final double CHI_LIMIT = 1000;
 
     private LumpedFit() {
     }
@@ -50,10 +56,7 @@ public final class LumpedFit {
         Set<LumpedParameter> free = EnumSet.of(LumpedParameter.R_DC, LumpedParameter.L);
         free.addAll(wanted);
         List<String> dropped = new ArrayList<>();
-        double fMax = points.stream().mapToDouble(ImpedancePoint::frequencyHz).max().orElseThrow();
-        double[] scale = {Math.max(series.resistanceOhm(), 1e-6), series.inductanceHenry(),
-            1 / (Math.pow(2 * Math.PI * fMax, 2) * series.inductanceHenry()), 1 / fMax,
-            1 / points.stream().mapToDouble(p -> p.impedanceOhm().abs()).max().orElseThrow()};
+        double[] scale = scales(points, series);
         double cUpper = Double.NaN;
         while (true) {
             if (2 * points.size() <= free.size()) {
@@ -68,7 +71,7 @@ public final class LumpedFit {
             }
             FitResult r;
             try {
-                r = fitOnce(points, free, series, scale);
+                r = best(points, free, starts(points, series), scale);
             } catch (FitException e) {
                 LumpedParameter last = lastOptional(free);
                 if (last == null) {
@@ -111,21 +114,112 @@ public final class LumpedFit {
                 double v = full[LumpedParameter.C_P.ordinal()];
                 cUpper = v + 2 * Math.sqrt(cov[LumpedParameter.C_P.ordinal()][LumpedParameter.C_P.ordinal()] * inflate);
             }
+            refuseUnphysical(full, chi, free);
             return new Result(full, cov, EnumSet.copyOf(free), List.copyOf(dropped), chi, r.degreesOfFreedom(), cUpper);
         }
     }
 
     /**
-     * Fits with exactly these free parameters, dropping none: for re-fitting perturbed data in an
-     * uncertainty budget, where the model must stay the same.
+     * Fits with exactly these free parameters, dropping none, starting from {@code from} (the
+     * unperturbed fit): for re-fitting perturbed data in an uncertainty budget, where the model must
+     * stay the same.
      */
-    public static double[] refit(List<ImpedancePoint> points, Set<LumpedParameter> free) {
+    public static double[] refit(List<ImpedancePoint> points, Set<LumpedParameter> free, double[] from) {
         SeriesModel series = SeriesModelFit.fit(points);
+        double[] scale = scales(points, series);
+        return expand(fitOnce(points, free, from, scale).parameters(), free, scale);
+    }
+
+    private static double[] scales(List<ImpedancePoint> points, SeriesModel series) {
         double fMax = points.stream().mapToDouble(ImpedancePoint::frequencyHz).max().orElseThrow();
-        double[] scale = {Math.max(series.resistanceOhm(), 1e-6), series.inductanceHenry(),
-            1 / (Math.pow(2 * Math.PI * fMax, 2) * series.inductanceHenry()), 1 / fMax,
+        double l = series.inductanceHenry() > 0 ? series.inductanceHenry() : 1e-6;
+        return new double[] {Math.max(Math.abs(series.resistanceOhm()), 1e-6), l,
+            1 / (Math.pow(2 * Math.PI * fMax, 2) * l), 1 / fMax,
             1 / points.stream().mapToDouble(p -> p.impedanceOhm().abs()).max().orElseThrow()};
-        return expand(fitOnce(points, free, series, scale).parameters(), free, scale);
+    }
+
+    /**
+     * Start values the data suggest, as full parameter vectors: the series model, and the
+     * admittance line omega Im(1/Z) = -1/L + omega^2 C_p through the points well above the
+     * winding's R/L corner (|X| over three times the lowest frequency's R), with R from the lowest
+     * frequency.
+     */
+    static List<double[]> starts(List<ImpedancePoint> points, SeriesModel series) {
+        int n = LumpedParameter.values().length;
+        List<double[]> out = new ArrayList<>();
+        double[] s = new double[n];
+        s[LumpedParameter.R_DC.ordinal()] = series.resistanceOhm();
+        s[LumpedParameter.L.ordinal()] = series.inductanceHenry();
+        out.add(s);
+        ImpedancePoint lowest = points.stream().min(java.util.Comparator.comparingDouble(ImpedancePoint::frequencyHz))
+                .orElseThrow();
+        double r0 = Math.max(lowest.resistanceOhm(), 0);
+        double sx = 0, sy = 0, sxx = 0, sxy = 0;
+        int m = 0;
+        for (ImpedancePoint p : points) {
+            if (Math.abs(p.reactanceOhm()) <= 3 * r0) {
+                continue;
+            }
+            double omega = 2 * Math.PI * p.frequencyHz();
+            double x = omega * omega;
+            double y = omega * p.impedanceOhm().reciprocal().getImaginary();
+            sx += x;
+            sy += y;
+            sxx += x * x;
+            sxy += x * y;
+            m++;
+        }
+        double det = m * sxx - sx * sx;
+        if (m >= 2 && det != 0) {
+            double c = (m * sxy - sx * sy) / det;
+            double a = (sy - c * sx) / m;
+            if (a < 0 && c > 0) {
+                double[] y = new double[n];
+                y[LumpedParameter.R_DC.ordinal()] = r0;
+                y[LumpedParameter.L.ordinal()] = -1 / a;
+                y[LumpedParameter.C_P.ordinal()] = c;
+                out.add(y);
+            }
+        }
+        return out;
+    }
+
+    /** The converged fit with the least chi-square over the starts. */
+    private static FitResult best(List<ImpedancePoint> points, Set<LumpedParameter> free, List<double[]> starts,
+                                  double[] scale) {
+        FitResult best = null;
+        FitException last = null;
+        for (double[] start : starts) {
+            try {
+                FitResult r = fitOnce(points, free, start, scale);
+                if (best == null || r.reducedChiSquare() < best.reducedChiSquare()) {
+                    best = r;
+                }
+            } catch (FitException e) {
+                last = e;
+            }
+        }
+        if (best == null) {
+            throw last != null ? last : new FitException("no start value", null);
+        }
+        return best;
+    }
+
+    private static void refuseUnphysical(double[] full, double chi, Set<LumpedParameter> free) {
+        for (double v : full) {
+            if (!Double.isFinite(v)) {
+                throw new FitException("the model fit gave a value that is not a number", null);
+            }
+        }
+        if (!(full[LumpedParameter.L.ordinal()] > 0)) {
+            throw new FitException(String.format(Locale.ROOT, "the model fit gave L = %.4g H, not positive: the"
+                    + " sweep does not show an inductor this model describes", full[LumpedParameter.L.ordinal()]), null);
+        }
+        if (chi > CHI_LIMIT) {
+            throw new FitException(String.format(Locale.ROOT, "the lumped model does not describe the data:"
+                    + " reduced chi-square %.3g after fitting %s (limit %.0f)", chi,
+                    free.stream().map(LumpedParameter::key).toList(), CHI_LIMIT), null);
+        }
     }
 
     private static LumpedParameter lastOptional(Set<LumpedParameter> free) {
@@ -138,7 +232,7 @@ public final class LumpedFit {
         return last;
     }
 
-    private static FitResult fitOnce(List<ImpedancePoint> points, Set<LumpedParameter> free, SeriesModel series,
+    private static FitResult fitOnce(List<ImpedancePoint> points, Set<LumpedParameter> free, double[] startFull,
                                      double[] scale) {
         List<LumpedParameter> order = new ArrayList<>(free);
         int n = points.size();
@@ -182,11 +276,8 @@ public final class LumpedFit {
         };
         double[] start = new double[order.size()];
         for (int c = 0; c < order.size(); c++) {
-            start[c] = switch (order.get(c)) {
-                case R_DC -> series.resistanceOhm() / scale[0];
-                case L -> 1.0;
-                default -> 0.0;
-            };
+            int k = order.get(c).ordinal();
+            start[c] = startFull[k] / scale[k];
         }
         return LeastSquares.fit(model, observed, weights, start);
     }

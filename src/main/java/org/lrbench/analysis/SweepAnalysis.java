@@ -51,7 +51,7 @@ public final class SweepAnalysis {
         for (Perturbation e : effects) {
             double step = e.unit.equals("s") ? 1e-12 : STEP;
             perturbed.add(new double[] {step});
-            perturbed.add(LumpedFit.refit(e.apply.apply(step), free));
+            perturbed.add(LumpedFit.refit(e.apply.apply(step), free, p));
         }
         Map<String, Budget> budgets = new LinkedHashMap<>();
         double dof = fit.degreesOfFreedom();
