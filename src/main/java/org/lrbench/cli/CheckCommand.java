@@ -58,6 +58,9 @@ final class CheckCommand implements Callable<Integer> {
                 org.lrbench.units.Units.format(p.sweep().highestHz(), org.lrbench.units.Dimension.FREQUENCY),
                 p.limits().size(), b.name());
         System.out.println("drivers: " + String.join("; ", loaded));
+        for (String w : org.lrbench.plan.PlanAdvice.warnings(p)) {
+            System.out.println("warning: " + plan + ": " + w);
+        }
         return ExitCodes.PASS;
     }
 

@@ -65,8 +65,9 @@ public final class PlanLoader {
         YamlMap fixture = root.map("fixture", true, "sense_resistor", "wiring", "probes");
         if (fixture != null) {
             sense = fixture.quantity("sense_resistor", Dimension.RESISTANCE, true);
-            if (sense != null && !(sense > 0)) {
-                fixture.problem("sense_resistor", "must be greater than 0 ohm");
+            if (sense != null && !(sense >= 1e-3 && sense <= 1e7)) {
+                fixture.problem("sense_resistor", "'" + Units.format(sense, Dimension.RESISTANCE) + "' is no sense"
+                        + " resistor a fixture has; allowed 1 mohm to 10 Mohm");
             }
             wiring = readWiring(fixture, sense);
         }
@@ -74,9 +75,10 @@ public final class PlanLoader {
         TriangleCheck triangle = readTriangle(root, maxAmplitudeVolt);
         List<Limit> limits = readLimits(root, sweep);
         SamplingScheme sampling = readSampling(root, limits);
+        DcResistanceStep dc = readDcResistance(root);
         root.problems().throwIfAny();
         return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, triangle,
-                List.copyOf(limits), sampling, wiring, readDcResistance(root));
+                List.copyOf(limits), sampling, wiring, dc);
     }
 
     private static DcResistanceStep readDcResistance(YamlMap root) {
@@ -89,6 +91,15 @@ public final class PlanLoader {
         Double t = m.quantity("temperature", Dimension.TEMPERATURE, true);
         Double ref = m.has("reference_temperature") ? m.quantity("reference_temperature", Dimension.TEMPERATURE, true)
                 : Double.valueOf(20);
+        for (String key : List.of("temperature", "reference_temperature")) {
+            Double v = key.equals("temperature") ? t : ref;
+            if (v != null && !(v >= -273.15)) {
+                m.problem(key, Units.format(v, Dimension.TEMPERATURE) + " is below absolute zero (-273.15 C)");
+            } else if (v != null && v > 300) {
+                m.problem(key, Units.format(v, Dimension.TEMPERATURE) + " is no temperature a winding is measured at"
+                        + " (above 300 C)");
+            }
+        }
         if (four == null || t == null || ref == null) {
             return null;
         }
@@ -232,15 +243,15 @@ public final class PlanLoader {
         Integer cycles = s.integer("cycles", true, 1, 10_000);
         Integer spc = s.integer("samples_per_cycle", false, MIN_SAMPLES_PER_CYCLE, 100_000);
         Double settle = s.quantity("settle", Dimension.TIME, true);
-        if (settle != null && settle < 0) {
-            s.problem("settle", "must not be negative");
+        if (settle != null && (settle < 0 || settle > 600)) {
+            s.problem("settle", "must be 0 s to 600 s");
         }
         Set<LumpedParameter> terms = readTerms(s);
         Double distortion = 0.03;
         if (s.has("distortion_limit")) {
             var q = s.anyQuantity("distortion_limit", true);
-            if (q != null && (!q.relative() || !(q.value() > 0))) {
-                s.problem("distortion_limit", "must be a percentage greater than 0, such as 3 %");
+            if (q != null && (!q.relative() || !(q.value() > 0) || q.value() > 1)) {
+                s.problem("distortion_limit", "must be a percentage above 0 % and at most 100 %, such as 3 %");
             }
             distortion = q == null || !q.relative() ? null : q.value();
         }
@@ -407,8 +418,18 @@ public final class PlanLoader {
                         + d.describe());
                 return null;
             }
+            if (!(nominal > 0)) {
+                m.problem("nominal", Units.format(nominal, d) + ": " + c.key().replace('_', ' ')
+                        + " is a positive quantity");
+                return null;
+            }
             if (!(halfWidth > 0)) {
                 m.problem("tolerance", "must be greater than 0");
+                return null;
+            }
+            if (halfWidth >= nominal) {
+                m.problem("tolerance", "a tolerance of " + Units.format(halfWidth, d) + " on " + Units.format(nominal, d)
+                        + " puts the lower limit at or below zero, where no part can be; give less than 100 %");
                 return null;
             }
             lower = nominal - halfWidth;
@@ -421,6 +442,16 @@ public final class PlanLoader {
             }
             if (min != null && max != null && !(max > min)) {
                 m.problem("max", "must be above min (" + Units.format(min, d) + ")");
+                return null;
+            }
+            if (min != null && !(min > 0)) {
+                m.problem("min", "min " + Units.format(min, d) + " can never fail: " + c.key().replace('_', ' ')
+                        + " is a positive quantity; give a minimum above 0 or leave it out");
+                return null;
+            }
+            if (max != null && !(max > 0)) {
+                m.problem("max", "max " + Units.format(max, d) + " can never pass: " + c.key().replace('_', ' ')
+                        + " is a positive quantity");
                 return null;
             }
             lower = min == null ? Double.NEGATIVE_INFINITY : min;
@@ -438,6 +469,11 @@ public final class PlanLoader {
         }
         if (guard != null && !(guard >= 0)) {
             m.problem("guard_band", "must not be negative");
+        }
+        double span = upper - lower;
+        if (guard != null && Double.isFinite(span) && 2 * guard >= span) {
+            m.problem("guard_band", "a guard band of " + Units.format(guard, d) + " on each side leaves no acceptance"
+                    + " zone in a tolerance zone " + Units.format(span, d) + " wide: every part would fail");
         }
         CharacteristicClass cls = m.has("class") ? m.choice("class", true, CLASSES) : CharacteristicClass.MAJOR;
         if (rule == null || cls == null) {

@@ -64,6 +64,10 @@ public final class Units {
             if (unit.endsWith(symbol.getKey())) {
                 String prefix = unit.substring(0, unit.length() - symbol.getKey().length());
                 Double scale = prefix.isEmpty() ? Double.valueOf(1.0) : PREFIXES.get(prefix);
+                if (scale != null && !prefix.isEmpty() && symbol.getValue() == Dimension.TEMPERATURE) {
+                    throw new UnitException("'" + trimmed + "': a temperature takes no prefix; give degrees Celsius,"
+                            + " such as 23 C");
+                }
                 if (scale != null) {
                     return Quantity.of(number * scale, symbol.getValue());
                 }

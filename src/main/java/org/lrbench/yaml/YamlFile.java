@@ -24,10 +24,20 @@ public final class YamlFile {
     private YamlFile() {
     }
 
+    /** The largest YAML file read: far above any plan, bench, driver or lot file. */
+    public static final long MAX_BYTES = 1024 * 1024;
+
     /** Composes the file's single document; the top level must be a mapping. */
     public static YamlMap read(Path path, Problems problems, String... allowedKeys) throws ProblemsException {
         String text;
         try {
+            long size = Files.size(path);
+            if (size > MAX_BYTES) {
+                // refused before it is read: plans, benches, drivers and lots are small files
+                problems.add((Node) null, "(file)", "is " + size + " bytes; a file lrbench reads is at most " + MAX_BYTES
+                        + " bytes (1 MiB)");
+                problems.throwIfAny();
+            }
             text = Files.readString(path, StandardCharsets.UTF_8);
         } catch (IOException e) {
             problems.add((Node) null, "(file)", "cannot read: " + e.getMessage());

@@ -127,4 +127,52 @@ class PlanLoaderTests {
         List<Problem> dup = problems(GOOD.replace("part_number: P-1", "part_number: P-1\npart_number: P-2"));
         assertThat(dup).extracting(Problem::toString).containsExactly("p.yaml:3:1: part_number: duplicate key");
     }
+
+    /** Plans that cannot work or make no sense, each refused with its own positioned problem. */
+    @Test
+    void plansThatCannotWorkAreRefusedEachWithItsOwnProblem() {
+        String dc = GOOD + "dc_resistance:\n  wiring: four_wire\n  temperature: TEMP\n";
+        java.util.Map<String, String> cases = new java.util.LinkedHashMap<>();
+        // temperatures in degrees Celsius only, never read past: F is farad, K no unit here, a bare number
+        // has no unit, and a prefix makes 23 mC a millidegree
+        cases.put(dc.replace("TEMP", "73 F"), "dc_resistance.temperature");
+        cases.put(dc.replace("TEMP", "296 K"), "dc_resistance.temperature");
+        cases.put(dc.replace("TEMP", "23"), "dc_resistance.temperature");
+        cases.put(dc.replace("TEMP", "23 mC"), "dc_resistance.temperature");
+        // below absolute zero, -273.15 C (SI Brochure, from memory)
+        cases.put(dc.replace("TEMP", "-300 C"), "dc_resistance.temperature");
+        cases.put(dc.replace("TEMP", "23 C").replace("  wiring: four_wire", "  wirring: four_wire"), "dc_resistance.wirring");
+        cases.put(GOOD.replace("tolerance: 10 %", "tolerance: 150 %"), "limits[0].tolerance");
+        cases.put(GOOD.replace("nominal: 1 mH", "nominal: -1 mH"), "limits[0].nominal");
+        cases.put(GOOD.replace("min: 5", "min: -20"), "limits[1].min");
+        cases.put(GOOD.replace("tolerance: 10 %", "tolerance: 10 %\n    decision: guarded\n    guard_band: 0.2 mH"),
+                "limits[0].guard_band");
+        cases.put(GOOD.replace("settle: 20 ms", "settle: 1e6 s"), "sine_sweep.settle");
+        cases.put(GOOD.replace("sense_resistor: 100 ohm", "sense_resistor: 1e-30 ohm"), "fixture.sense_resistor");
+        cases.put(GOOD.replace("settle: 20 ms", "settle: 20 ms\n  distortion_limit: 200 %"), "sine_sweep.distortion_limit");
+        for (var e : cases.entrySet()) {
+            List<Problem> found = problems(e.getKey());
+            assertThat(found).as(e.getValue()).anySatisfy(p -> {
+                assertThat(p.key()).isEqualTo(e.getValue());
+                assertThat(p.line()).isPositive();
+            });
+        }
+    }
+
+    @Test
+    void anOversizedFileIsRefusedBeforeItIsRead(@org.junit.jupiter.api.io.TempDir Path dir) throws Exception {
+        Path big = dir.resolve("big.yaml");
+        java.nio.file.Files.writeString(big, GOOD.replace("part_number: P-1", "part_number: P-1\ndescription: "
+                + "x".repeat(2 * 1024 * 1024)));
+        ProblemsException e = catchThrowableOfType(ProblemsException.class, () -> PlanLoader.load(big, 5.0));
+        assertThat(e.problems().get(0).message()).contains("at most 1048576 bytes");
+    }
+
+    @Test
+    void questionablePlansGetWarnings() throws Exception {
+        Plan p = PlanLoader.parse(GOOD.replace("tolerance: 10 %", "tolerance: 60 %").replace("settle: 20 ms", "settle: 30 s"),
+                "p.yaml", 5.0);
+        assertThat(PlanAdvice.warnings(p)).hasSize(2);
+        assertThat(PlanAdvice.warnings(PlanLoader.parse(GOOD, "p.yaml", 5.0))).isEmpty();
+    }
 }
