@@ -180,6 +180,16 @@ public final class PartRun {
                 String note = "above " + Units.format(srfAbove, Dimension.FREQUENCY) + " (not reached by the sweep)";
                 reading = new Judge.Reading(Double.isFinite(limit.upper()) ? Double.POSITIVE_INFINITY : srfAbove, 0, 0,
                         note);
+            } else if (limit.characteristic() == Characteristic.SERIES_RESISTANCE && plan.dcResistance() != null) {
+                // a winding-resistance specification means the reference temperature: the sweep's R_dc,
+                // measured at the entered bench temperature, is corrected like the meter's reading
+                var step = plan.dcResistance();
+                double factor = org.lrbench.analysis.CopperResistance.toReference(1.0, step.temperatureC(),
+                        step.referenceTemperatureC());
+                reading = new Judge.Reading(b.value() * factor, b.standardUncertainty() * factor,
+                        b.expandedUncertainty() * factor, String.format(Locale.ROOT, "at %s (copper, from %s)",
+                        Units.format(step.referenceTemperatureC(), Dimension.TEMPERATURE),
+                        Units.format(step.temperatureC(), Dimension.TEMPERATURE)));
             } else {
                 reading = new Judge.Reading(b.value(), b.standardUncertainty(), b.expandedUncertainty());
             }

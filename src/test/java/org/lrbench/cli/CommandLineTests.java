@@ -379,4 +379,29 @@ class CommandLineTests {
                 .contains("between samples; the digitizer driver generic-digitizer").contains("declares 10.00 us at the shortest");
         assertThat(run("check", PLAN).code()).isZero();
     }
+
+    @Test
+    void theWindingResistanceLimitIsJudgedAtTheReferenceTemperature(@TempDir Path dir) throws Exception {
+        // R at the plan's bench temperature of 23 C is R / (1 + 0.00393 x 3) at the specification's 20 C
+        // (copper, IACS alpha at 20 C, NBS Handbook 100): 2.62 ohm there is 2.5898 ohm here
+        Path part = dir.resolve("warm.yaml");
+        Files.writeString(part, Files.readString(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"))
+                .replace("series_resistance: 2.3 ohm", "series_resistance: 2.62 ohm"));
+        Outcome o = run("run", PLAN, "--lot", "L-T", "--serial", "S-1", "--sim", part.toString(), "--runs",
+                dir.resolve("runs").toString(), "--calibration", dir.resolve("none").toString());
+        JsonNode r = new ObjectMapper().readTree(dir.resolve("runs/L-T/S-1.json").toFile());
+        JsonNode winding = null;
+        for (JsonNode l : r.get("limits")) {
+            if (l.get("characteristic").asText().equals("series_resistance")) {
+                winding = l;
+            }
+        }
+        assertThat(winding).as(o.out()).isNotNull();
+        // the limit reads the sweep's R_dc carried to 20 C; the reported R_dc stays as measured at 23 C
+        assertThat(winding.get("value").asDouble()).isCloseTo(r.get("series_resistance_ohm").asDouble() / (1 + 0.00393 * 3),
+                org.assertj.core.api.Assertions.within(1e-9));
+        assertThat(winding.get("reason").asText()).contains("at 20.00 C (copper, from 23.00 C)");
+        assertThat(r.get("dc_resistance").get("at_reference_ohm").asDouble())
+                .isCloseTo(2.62 / (1 + 0.00393 * 3), org.assertj.core.api.Assertions.within(1e-9));
+    }
 }
