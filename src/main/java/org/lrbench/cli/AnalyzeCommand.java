@@ -30,6 +30,9 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--frequency", paramLabel = "F", description = "the drive frequency (default: estimated from the data)")
     String frequency;
 
+    @Option(names = "--json", paramLabel = "OUT.json", description = "with --csv: also write the figures as JSON")
+    Path json;
+
     @Override
     public Integer call() throws Exception {
         if ((csv == null) == (archive == null)) {
@@ -58,13 +61,35 @@ final class AnalyzeCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new BadInputException(e.getMessage());
         }
-        ImpedancePoint z = TraceAnalysis.analyse(t, rs, f);
+        ImpedancePoint z;
+        try {
+            z = TraceAnalysis.analyse(t, rs, f);
+        } catch (RuntimeException e) {
+            throw new BadInputException(csv + ": the traces cannot be analysed: " + e.getMessage());
+        }
         System.out.printf(Locale.ROOT, "%s: %d samples at %s, frequency %s%n", csv, t.sense().length,
                 Units.format(t.intervalSecond(), Dimension.TIME), Units.format(z.frequencyHz(), Dimension.FREQUENCY));
-        System.out.printf(Locale.ROOT, "  R = %s, X = %s, L = %s, Q = %.3f (component uncertainty %s)%n",
-                Units.format(z.resistanceOhm(), Dimension.RESISTANCE), Units.format(z.reactanceOhm(), Dimension.RESISTANCE),
-                Units.format(z.inductanceHenry(), Dimension.INDUCTANCE), z.qualityFactor(),
-                Units.format(z.componentUncertaintyOhm(), Dimension.RESISTANCE));
+        // full precision: these numbers are compared with other instruments' and re-used
+        System.out.printf(Locale.ROOT, "  frequency_hz %.17g%n  resistance_ohm %.17g%n  reactance_ohm %.17g%n"
+                        + "  inductance_h %.17g%n  quality_factor %.17g%n  component_uncertainty_ohm %.17g%n",
+                z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm(), z.inductanceHenry(), z.qualityFactor(),
+                z.componentUncertaintyOhm());
+        if (json != null) {
+            java.util.Map<String, Object> out = new java.util.LinkedHashMap<>();
+            out.put("schema", "lrbench.trace-analysis.v1");
+            out.put("file", csv.toString());
+            out.put("samples", t.sense().length);
+            out.put("sample_interval_s", t.intervalSecond());
+            out.put("sense_resistor_ohm", rs);
+            out.put("frequency_hz", z.frequencyHz());
+            out.put("resistance_ohm", z.resistanceOhm());
+            out.put("reactance_ohm", z.reactanceOhm());
+            out.put("inductance_h", z.inductanceHenry());
+            out.put("quality_factor", z.qualityFactor());
+            out.put("component_uncertainty_ohm", z.componentUncertaintyOhm());
+            org.lrbench.results.ResultFiles.writeJson(json, out);
+            System.out.println("written: " + json);
+        }
         return ExitCodes.PASS;
     }
 

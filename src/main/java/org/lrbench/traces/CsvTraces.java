@@ -9,8 +9,9 @@ import java.util.List;
 /**
  * Two-channel traces from a plain text file, as any scope or simulator can write them: a header
  * line naming the columns, then one sample per line with time (s), the sense-resistor voltage (V)
- * and the part's voltage (V), separated by commas, semicolons or blanks. Sampling must be uniform.
- * A file that is not gives an error naming the line.
+ * and the part's voltage (V). The separator is taken from the first data line: a semicolon or a tab
+ * (then a decimal comma is read as a decimal point, as many scopes write in such locales), else a
+ * comma, else blanks. Sampling must be uniform. A file that is not gives an error naming the line.
  */
 public record CsvTraces(String file, double intervalSecond, double[] sense, double[] part) {
 
@@ -26,7 +27,12 @@ public record CsvTraces(String file, double intervalSecond, double[] sense, doub
         if (first < 0) {
             throw new IllegalArgumentException(file + ": empty file");
         }
-        String[] header = split(lines.get(first));
+        String head = lines.get(first);
+        // the separator from the first data line (a header may hold commas in its names, as v(n1,n2))
+        String data = lines.stream().skip(first + 1).filter(l -> !l.isBlank()).findFirst().orElse(head);
+        String separator = data.contains(";") ? ";" : data.contains("\t") ? "\t" : data.contains(",") ? "," : "\\s+";
+        boolean decimalComma = separator.equals(";") || separator.equals("\t");
+        String[] header = split(head, separator);
         if (header.length < 3 || isNumber(header[0])) {
             throw new IllegalArgumentException(file + ":" + (first + 1) + ":1: expected a header naming the columns"
                     + " time (s), sense-resistor voltage (V), part voltage (V)");
@@ -39,14 +45,14 @@ public record CsvTraces(String file, double intervalSecond, double[] sense, doub
             if (lines.get(i).isBlank()) {
                 continue;
             }
-            String[] f = split(lines.get(i));
+            String[] f = split(lines.get(i), separator);
             if (f.length < 3) {
                 throw new IllegalArgumentException(file + ":" + (i + 1) + ":1: expected 3 numbers, found " + f.length);
             }
             try {
-                t[n] = Double.parseDouble(f[0]);
-                a[n] = Double.parseDouble(f[1]);
-                b[n] = Double.parseDouble(f[2]);
+                t[n] = number(f[0], decimalComma);
+                a[n] = number(f[1], decimalComma);
+                b[n] = number(f[2], decimalComma);
             } catch (NumberFormatException e) {
                 throw new IllegalArgumentException(file + ":" + (i + 1) + ":1: not a number: " + e.getMessage());
             }
@@ -65,8 +71,14 @@ public record CsvTraces(String file, double intervalSecond, double[] sense, doub
         return new CsvTraces(file.toString(), dt, java.util.Arrays.copyOf(a, n), java.util.Arrays.copyOf(b, n));
     }
 
-    private static String[] split(String line) {
-        return line.trim().split("[,;\\s]+");
+    private static String[] split(String line, String separator) {
+        String[] parts = line.trim().split(separator.equals("\\s+") ? "\\s+" : "\\s*" + java.util.regex.Pattern.quote(separator) + "\\s*");
+        return parts;
+    }
+
+    private static double number(String field, boolean decimalComma) {
+        String f = field.trim();
+        return Double.parseDouble(decimalComma ? f.replace(',', '.') : f);
     }
 
     private static boolean isNumber(String s) {

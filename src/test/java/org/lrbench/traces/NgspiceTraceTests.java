@@ -67,4 +67,39 @@ class NgspiceTraceTests {
         Files.writeString(gap, sb.toString());
         assertThatThrownBy(() -> CsvTraces.read(gap)).hasMessageContaining("breaks the uniform interval");
     }
+
+    /**
+     * The same traces written the two ways scopes write them: commas between fields and decimal
+     * points, or semicolons between fields and decimal commas (common practice, no source: scopes in
+     * locales with a decimal comma). Both read alike, to the phasor Z = Rs V2 / V1 of the two sines.
+     */
+    @Test
+    void decimalCommaFilesWithSemicolonsReadLikeCommaFiles(@TempDir Path dir) throws Exception {
+        StringBuilder points = new StringBuilder("time_s,sense_v,part_v\n");
+        StringBuilder commas = new StringBuilder("Zeit (s);Kanal 1 (V);Kanal 2 (V)\n");
+        double f = 1000;
+        double phi = 0.6;
+        for (int i = 0; i < 2000; i++) {
+            double t = i * 5e-6;
+            double v1 = 1.2 * Math.sin(2 * Math.PI * f * t);
+            double v2 = 0.3 * Math.sin(2 * Math.PI * f * t + phi);
+            points.append(String.format(java.util.Locale.ROOT, "%.9e,%.9e,%.9e%n", t, v1, v2));
+            commas.append(String.format(java.util.Locale.GERMANY, "%.9e;%.9e;%.9e%n", t, v1, v2));
+        }
+        Path a1 = dir.resolve("points.csv");
+        Path a2 = dir.resolve("commas.csv");
+        Files.writeString(a1, points);
+        Files.writeString(a2, commas);
+        ImpedancePoint z1 = TraceAnalysis.analyse(CsvTraces.read(a1), 100, null);
+        ImpedancePoint z2 = TraceAnalysis.analyse(CsvTraces.read(a2), 100, null);
+        assertThat(z2.resistanceOhm()).isCloseTo(z1.resistanceOhm(), within(1e-9));
+        assertThat(z2.reactanceOhm()).isCloseTo(z1.reactanceOhm(), within(1e-9));
+        // Z = 100 ohm x 0.3 / 1.2 at +0.6 rad
+        assertThat(z1.resistanceOhm()).isCloseTo(25 * Math.cos(phi), within(1e-4));
+        assertThat(z1.reactanceOhm()).isCloseTo(25 * Math.sin(phi), within(1e-4));
+        // a file that cannot be analysed is bad input (exit 2), not an internal error
+        Path junk = dir.resolve("junk.csv");
+        Files.writeString(junk, "a;b;c\n" + "1;x;2\n".repeat(20));
+        assertThat(org.lrbench.cli.Main.execute("analyze", "--csv", junk.toString(), "--sense-resistor", "100 ohm")).isEqualTo(2);
+    }
 }
