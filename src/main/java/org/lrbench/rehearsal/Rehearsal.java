@@ -73,6 +73,7 @@ public final class Rehearsal {
             uncertainty.put(l.name(), new ArrayList<>());
         });
         double lowestPartVoltage = Double.POSITIVE_INFINITY;
+        double lowestPartImpedance = Double.NaN;
         boolean resonanceInside = false;
         int seed = 0;
         for (RehearsalCase c : cases) {
@@ -100,8 +101,11 @@ public final class Rehearsal {
                 });
                 if (!r.points().isEmpty()) {
                     var low = r.points().get(0);
-                    lowestPartVoltage = Math.min(lowestPartVoltage, low.currentPeakA()
-                            * Math.hypot(low.resistanceOhm(), low.reactanceOhm()));
+                    double v = low.currentPeakA() * Math.hypot(low.resistanceOhm(), low.reactanceOhm());
+                    if (v < lowestPartVoltage) {
+                        lowestPartVoltage = v;
+                        lowestPartImpedance = Math.hypot(low.resistanceOhm(), low.reactanceOhm());
+                    }
                 }
                 resonanceInside |= r.selfResonanceHz() != null;
             }
@@ -125,14 +129,41 @@ public final class Rehearsal {
         double noise = bench.simulation().noiseVoltRms();
         if (noise > 0 && lowestPartVoltage / noise < 20) {
             warnings.add(String.format(Locale.ROOT, "at the lowest frequency the part's voltage is %s peak, only %.0f"
-                    + " times the digitizer noise: the sense resistor (%s) is too large for this part, or the amplitude"
-                    + " too small", Units.format(lowestPartVoltage, Dimension.VOLTAGE), lowestPartVoltage / noise,
-                    Units.format(plan.senseResistanceOhm(), Dimension.RESISTANCE)));
+                    + " times the digitizer noise: %s", Units.format(lowestPartVoltage, Dimension.VOLTAGE),
+                    lowestPartVoltage / noise, limitingElement(plan, bench, lowestPartImpedance)));
         }
         if (resonanceInside) {
             warnings.add("the self-resonance lies inside the sweep: readings near it are not an inductor's");
         }
         return new Result(outcomes, warnings);
+    }
+
+    /**
+     * What limits the part's voltage, named so the advice helps: the loop is the generator's EMF
+     * behind its output impedance, the sense resistor and the part in series (circuit theory), so
+     * the part's voltage is E |Z_part| / |R_source + R_sense + Z_part|. A smaller sense resistor helps
+     * only when it is the largest of the three; otherwise the source impedance or the amplitude is
+     * what to change.
+     */
+    static String limitingElement(Plan plan, BenchConfig bench, double partOhm) {
+        double source = bench.simulation().sourceImpedanceOhm();
+        double sense = plan.senseResistanceOhm();
+        double amplitude = plan.sweep().amplitudeVolt();
+        boolean atCeiling = amplitude + Math.abs(plan.sweep().offsetVolt()) >= bench.maxAmplitudeVolt() * 0.999;
+        String raise = atCeiling ? "the amplitude is already at the bench's ceiling ("
+                + Units.format(bench.maxAmplitudeVolt(), Dimension.VOLTAGE) + ")"
+                : "raise the amplitude (the bench allows up to " + Units.format(bench.maxAmplitudeVolt(), Dimension.VOLTAGE) + ")";
+        if (sense >= source && sense >= partOhm) {
+            return "the sense resistor (" + Units.format(sense, Dimension.RESISTANCE) + ") is the largest impedance in the"
+                    + " loop and limits the current: a smaller one raises the part's voltage; or " + raise;
+        }
+        if (source >= partOhm) {
+            return "the generator's output impedance (" + Units.format(source, Dimension.RESISTANCE) + ") limits the"
+                    + " current, so a smaller sense resistor changes little; " + raise + ", or drive the fixture"
+                    + " from a lower-impedance source (a power amplifier)";
+        }
+        return "the part's own impedance (" + Units.format(partOhm, Dimension.RESISTANCE) + ") takes most of the drive"
+                + " already; " + raise + ", or use a digitizer with more resolution or less noise";
     }
 
     /** The part the cases start from: every limit at its centre (one-sided: 15 % inside the bound). */

@@ -42,7 +42,22 @@ class RehearsalTests {
     void aSenseResistorFarTooLargeIsFlagged() throws Exception {
         Rehearsal.Result r = Rehearsal.rehearse(plan("sense_resistor: 100 ohm", "sense_resistor: 20 kohm"), BENCH,
                 new DriverLoader(TestBench.home().resolve("drivers")), 1);
-        assertThat(r.warnings()).anyMatch(w -> w.contains("sense resistor") && w.contains("too large"));
+        assertThat(r.warnings()).anyMatch(w -> w.contains("the sense resistor (20.00 kohm) is the largest impedance"));
         assertThat(r.warnings()).anyMatch(w -> w.contains("test uncertainty ratio"));
+    }
+
+    @Test
+    void theAdviceNamesWhatLimitsTheCurrent() throws Exception {
+        // a 10 uH part behind 1 ohm and a 50 ohm source: the loop impedance is mostly the source's
+        // (series circuit, circuit theory), so a smaller sense resistor would change little
+        var p = org.lrbench.plan.PlanLoader.load(TestBench.home().resolve("plans/qfd-ind-1m0.yaml"), BENCH.maxAmplitudeVolt());
+        var small = new org.lrbench.plan.Plan(p.source(), p.partNumber(), p.description(), 1.0, p.sweep(), p.triangle(),
+                p.limits(), p.sampling(), p.wiring(), p.dcResistance());
+        assertThat(Rehearsal.limitingElement(small, BENCH, 0.05)).contains("generator's output impedance (50.00 ohm)")
+                .contains("changes little");
+        var big = new org.lrbench.plan.Plan(p.source(), p.partNumber(), p.description(), 20e3, p.sweep(), p.triangle(),
+                p.limits(), p.sampling(), p.wiring(), p.dcResistance());
+        assertThat(Rehearsal.limitingElement(big, BENCH, 5)).contains("the sense resistor (20.00 kohm) is the largest");
+        assertThat(Rehearsal.limitingElement(p, BENCH, 5e3)).contains("the part's own impedance");
     }
 }
