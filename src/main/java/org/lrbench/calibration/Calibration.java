@@ -6,7 +6,8 @@ import org.lrbench.analysis.ImpedancePoint;
 /**
  * The corrections in force on a bench: the channel match (or null) and the fixture compensation
  * (or null). Applied to every measured point before the model fit: Z / H(f) first, then the
- * open/short correction. Channel 2's phasor uncertainty is carried over unchanged in relative terms.
+ * open/short correction. A point's uncertainty is carried through both, with the short reading's
+ * own uncertainty added where the short is subtracted.
  */
 public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
 
@@ -39,13 +40,17 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
 
     public ImpedancePoint apply(ImpedancePoint p) {
         var z = p.impedanceOhm();
+        double u = p.componentUncertaintyOhm();
         if (channels != null) {
-            z = z.divide(channels.ratio(p.frequencyHz()));
+            var ratio = channels.ratio(p.frequencyHz());
+            z = z.divide(ratio);
+            u = u / ratio.abs();
         }
         if (fixture != null) {
+            double carried = fixture.uncertainty(p.frequencyHz(), z, u);
             z = fixture.correct(p.frequencyHz(), z);
+            u = carried;
         }
-        double scale = z.abs() / p.impedanceOhm().abs();
-        return new ImpedancePoint(p.frequencyHz(), z, p.componentUncertaintyOhm() * scale, p.currentAmpere());
+        return new ImpedancePoint(p.frequencyHz(), z, u, p.currentAmpere());
     }
 }

@@ -12,8 +12,17 @@ import org.apache.commons.math3.complex.Complex;
  */
 public record FixtureCompensation(String measuredAt, List<Point> points) {
 
-    /** The short and open readings at one frequency; {@code openReal}/{@code openImag} NaN when lost in noise. */
-    public record Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag) {
+    /**
+     * The short and open readings at one frequency; {@code openReal}/{@code openImag} NaN when lost in
+     * noise; {@code shortUncertaintyOhm} the short reading's own standard uncertainty per component
+     * (null in corrections kept before it was recorded: then taken as 0).
+     */
+    public record Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag,
+                        Double shortUncertaintyOhm) {
+
+        public Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag) {
+            this(frequencyHz, shortReal, shortImag, openReal, openImag, null);
+        }
 
         Complex shortZ() {
             return new Complex(shortReal, shortImag);
@@ -32,6 +41,21 @@ public record FixtureCompensation(String measuredAt, List<Point> points) {
         Point p = at(frequencyHz);
         Complex d = measured.subtract(p.shortZ());
         return d.divide(Complex.ONE.subtract(d.multiply(p.openAdmittance())));
+    }
+
+    /**
+     * The standard uncertainty per component of the compensated impedance: the measured point's
+     * and the short reading's (it is subtracted, so the two add in quadrature), carried through the
+     * correction's derivative dZ/dZ_m = 1 / (1 - (Z_m - Z_s) Y_o)^2 (first-order propagation,
+     * JCGM 100:2008 5.1.2). The open reading's own noise is not carried.
+     */
+    public double uncertainty(double frequencyHz, Complex measured, double measuredUncertainty) {
+        Point p = at(frequencyHz);
+        double us = p.shortUncertaintyOhm() == null ? 0 : p.shortUncertaintyOhm();
+        Complex d = measured.subtract(p.shortZ());
+        Complex den = Complex.ONE.subtract(d.multiply(p.openAdmittance()));
+        double gain = 1 / (den.abs() * den.abs());
+        return Math.hypot(measuredUncertainty, us) * gain;
     }
 
     /**

@@ -12,12 +12,12 @@ import picocli.CommandLine.Option;
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
 @Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
         subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class,
-            BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class})
+            BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class, BenchmarkCommand.Coverage.class})
 final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills");
+        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage");
     }
 
     @Command(name = "fits", description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
@@ -105,6 +105,23 @@ final class BenchmarkCommand implements Runnable {
             int violations = org.lrbench.benchmark.KillSoak.run(System.out, Home.root(),
                     Home.root().resolve("plans/qfd-ind-1m0.yaml"), Home.demoLot(), kills, seed);
             return violations == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
+        }
+    }
+
+    @Command(name = "coverage", description = {"Coverage of the expanded uncertainty over a matrix of simulated parts,",
+            "each calibrated and measured on independent seeds; every miss of a goal is marked."})
+    static final class Coverage implements Callable<Integer> {
+        @Option(names = "--seeds", defaultValue = "50", description = "seeds per part (default: ${DEFAULT-VALUE})")
+        int seeds;
+
+        @Override
+        public Integer call() throws Exception {
+            if (seeds < 5 || seeds > 10_000) {
+                throw new BadInputException("--seeds 5..10000");
+            }
+            int misses = org.lrbench.benchmark.CoverageBenchmark.run(System.out, Inputs.bench(Home.defaultBench()),
+                    Home.drivers(), seeds);
+            return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }
 }

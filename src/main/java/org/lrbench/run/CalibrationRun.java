@@ -51,7 +51,7 @@ public final class CalibrationRun {
             Complex open = Double.isNaN(o.impedanceOhm().getReal()) ? new Complex(Double.NaN, Double.NaN)
                     : match.apply(o).impedanceOhm();
             out.add(new FixtureCompensation.Point(s.frequencyHz(), s.resistanceOhm(), s.reactanceOhm(),
-                    open.getReal(), open.getImaginary()));
+                    open.getReal(), open.getImaginary(), s.componentUncertaintyOhm()));
         }
         change.moveTo(FixturePosition.PART);
         return new FixtureCompensation(now(), List.copyOf(out));

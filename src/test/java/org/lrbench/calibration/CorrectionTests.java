@@ -59,6 +59,26 @@ class CorrectionTests {
     }
 
     @Test
+    void theShortReadingsUncertaintyIsCarriedThroughTheCompensation() {
+        // first-order propagation (JCGM 100:2008 5.1.2): subtracting the short adds its variance; the
+        // open correction multiplies by |dZ/dZ_m| = 1 / |1 - (Z_m - Z_s) Y_o|^2, checked by finite differences
+        double f = 1e5;
+        double w = 2 * Math.PI * f;
+        Complex zs = new Complex(0.025, w * 40e-9);
+        Complex yo = new Complex(1e-7, w * 3e-12);
+        Complex open = zs.add(yo.reciprocal());
+        Complex zm = new Complex(2.4, w * 1.02e-3);
+        FixtureCompensation c = new FixtureCompensation("t", List.of(new FixtureCompensation.Point(f, zs.getReal(),
+                zs.getImaginary(), open.getReal(), open.getImaginary(), 3e-3)));
+        double h = 1e-6;
+        double slope = c.correct(f, zm.add(new Complex(h, 0))).subtract(c.correct(f, zm)).abs() / h;
+        assertThat(c.uncertainty(f, zm, 4e-3)).isCloseTo(Math.hypot(4e-3, 3e-3) * slope, within(1e-9));
+        FixtureCompensation noOpen = new FixtureCompensation("t", List.of(new FixtureCompensation.Point(f, zs.getReal(),
+                zs.getImaginary(), Double.NaN, Double.NaN, 3e-3)));
+        assertThat(noOpen.uncertainty(f, zm, 4e-3)).isCloseTo(5e-3, within(1e-15));
+    }
+
+    @Test
     void calibrationOnTheSimulatedBenchRemovesLeadsGainAndSkew(@TempDir Path dir) throws Exception {
         // known truth: a 100 uH, 0.5 ohm part behind 25 mohm + 40 nH leads, channel 2 reading 1 % high
         // and 2 ns late; measured up to 200 kHz where skew matters (Q about 250 at the top)
