@@ -15,13 +15,24 @@ public record FixtureCompensation(String measuredAt, List<Point> points) {
     /**
      * The short and open readings at one frequency; {@code openReal}/{@code openImag} NaN when lost in
      * noise; {@code shortUncertaintyOhm} the short reading's own standard uncertainty per component
-     * (null in corrections kept before it was recorded: then taken as 0).
+     * (null in corrections kept before it was recorded: then taken as 0); {@code openModelled} true where
+ * the open was lost in noise and is the stray modelled from the frequencies where it was read.
      */
     public record Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag,
-                        Double shortUncertaintyOhm) {
+                        Double shortUncertaintyOhm, Boolean openModelled) {
 
         public Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag) {
-            this(frequencyHz, shortReal, shortImag, openReal, openImag, null);
+            this(frequencyHz, shortReal, shortImag, openReal, openImag, null, null);
+        }
+
+        public Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag,
+                     Double shortUncertaintyOhm) {
+            this(frequencyHz, shortReal, shortImag, openReal, openImag, shortUncertaintyOhm, null);
+        }
+
+        /** Whether the open was modelled from the stray seen at other frequencies (lost in noise here). */
+        public boolean modelled() {
+            return Boolean.TRUE.equals(openModelled);
         }
 
         Complex shortZ() {

@@ -74,9 +74,11 @@ final class CalibrateCommand implements Callable<Integer> {
             FixtureCompensation f = CalibrationRun.fixture(p, inst, change, sleeper, m);
             store.save(f);
             FixtureCompensation.Point first = f.points().get(0);
-            long opens = f.points().stream().filter(x -> !Double.isNaN(x.openReal())).count();
-            System.out.printf(Locale.ROOT, "fixture: short %.2f mohm at %.6g Hz; open readable at %d of %d frequencies%n",
-                    first.shortReal() * 1e3, first.frequencyHz(), opens, f.points().size());
+            long opens = f.points().stream().filter(x -> !Double.isNaN(x.openReal()) && !x.modelled()).count();
+            long modelled = f.points().stream().filter(FixtureCompensation.Point::modelled).count();
+            System.out.printf(Locale.ROOT, "fixture: short %.2f mohm at %.6g Hz; open readable at %d of %d frequencies%s%n",
+                    first.shortReal() * 1e3, first.frequencyHz(), opens, f.points().size(),
+                    modelled > 0 ? "; the stray it shows is applied at the other " + modelled : "");
         }
         return dir.resolve(b.name());
     }

@@ -54,7 +54,54 @@ public final class CalibrationRun {
                     open.getReal(), open.getImaginary(), s.componentUncertaintyOhm()));
         }
         change.moveTo(FixturePosition.PART);
-        return new FixtureCompensation(now(), List.copyOf(out));
+        return new FixtureCompensation(now(), strayEverywhere(out));
+    }
+
+    /**
+     * The open reading is lost in noise where the fixture's stray admittance is tiny (low
+     * frequencies), which is where it matters least, but a stray that is removed at some frequencies
+     * and kept at others would be taken for the part's own capacitance. So the stray is modelled as
+     * a conductance and a capacitance, Y_o = G + j w C (least squares over the readable opens,
+     * weighting each by its frequency's square for C), and used at every frequency whose open was lost.
+     */
+    static List<FixtureCompensation.Point> strayEverywhere(List<FixtureCompensation.Point> points) {
+        double sc = 0;
+        double sw = 0;
+        double sg = 0;
+        int readable = 0;
+        for (FixtureCompensation.Point p : points) {
+            if (Double.isNaN(p.openReal())) {
+                continue;
+            }
+            double omega = 2 * Math.PI * p.frequencyHz();
+            Complex y = new Complex(p.openReal(), p.openImag()).subtract(new Complex(p.shortReal(), p.shortImag()))
+                    .reciprocal();
+            // Im(Y) = w C: least squares with equal weights on Im(Y) gives C = sum(w Im Y) / sum(w^2)
+            sc += omega * y.getImaginary();
+            sw += omega * omega;
+            sg += y.getReal();
+            readable++;
+        }
+        if (readable == 0 || readable == points.size()) {
+            return List.copyOf(points);
+        }
+        double c = sc / sw;
+        double g = Math.max(0, sg / readable);
+        if (!(c > 0)) {
+            return List.copyOf(points);
+        }
+        List<FixtureCompensation.Point> out = new ArrayList<>();
+        for (FixtureCompensation.Point p : points) {
+            if (!Double.isNaN(p.openReal())) {
+                out.add(p);
+                continue;
+            }
+            double omega = 2 * Math.PI * p.frequencyHz();
+            Complex open = new Complex(p.shortReal(), p.shortImag()).add(new Complex(g, omega * c).reciprocal());
+            out.add(new FixtureCompensation.Point(p.frequencyHz(), p.shortReal(), p.shortImag(), open.getReal(),
+                    open.getImaginary(), p.shortUncertaintyOhm(), true));
+        }
+        return List.copyOf(out);
     }
 
     private static List<PointResult> sweep(Plan plan, BenchInstruments inst, FixtureChange change,
