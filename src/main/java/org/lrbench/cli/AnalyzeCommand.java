@@ -33,6 +33,17 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--json", paramLabel = "OUT.json", description = "with --csv: also write the figures as JSON")
     Path json;
 
+    @Option(names = "--plan", paramLabel = "PLAN", description = "with --archive: the plan the part was measured with"
+            + " (default: the one its result names; its content must be the same)")
+    Path planFile;
+
+    @Option(names = "--bench", paramLabel = "BENCH", description = "with --archive: the bench file (default: simulator/bench.yaml)")
+    Path benchFile;
+
+    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
+            description = "with --archive: the bench corrections to apply (default: ${DEFAULT-VALUE})")
+    Path calibrationDir;
+
     @Override
     public Integer call() throws Exception {
         if ((csv == null) == (archive == null)) {
@@ -93,6 +104,66 @@ final class AnalyzeCommand implements Callable<Integer> {
         return ExitCodes.PASS;
     }
 
+    /**
+     * Re-fits the model and re-judges the limits with the plan the part was measured with (its
+     * content checked against the stored hash), the bench and its corrections; prints the stored
+     * verdict beside the new one and each limit's stored and new value.
+     */
+    private java.util.Map<String, Object> rejudge(Path original, java.util.List<org.lrbench.measure.PointResult> points)
+            throws Exception {
+        java.util.Map<String, Object> out = new java.util.LinkedHashMap<>();
+        if (!java.nio.file.Files.isRegularFile(original)) {
+            System.out.println("no stored result " + original + ": the limits are not judged again");
+            return out;
+        }
+        var stored = org.lrbench.results.ResultFiles.JSON.readTree(original.toFile());
+        Path planPath = planFile != null ? planFile : Path.of(stored.get("plan_path").asText());
+        Inputs.requireFile(planPath, "plan (give it with --plan)");
+        if (!Inputs.sha256(planPath).equals(stored.get("plan_sha256").asText())) {
+            throw new BadInputException(planPath + " is not the plan the part was measured with (its content differs"
+                    + " from the stored SHA-256); give the original with --plan");
+        }
+        org.lrbench.bench.BenchConfig b = Inputs.bench(benchFile != null ? benchFile : Home.defaultBench());
+        org.lrbench.plan.Plan plan = Inputs.plan(planPath, b);
+        var calibration = new org.lrbench.calibration.CalibrationStore(calibrationDir, b.name()).load();
+        String thenMatch = stored.path("corrections").path("channel_match_measured_at").asText(null);
+        String nowMatch = calibration.channels() == null ? null : calibration.channels().measuredAt();
+        if (!java.util.Objects.equals(thenMatch, nowMatch)) {
+            System.out.println("note: the channel match in force now (" + nowMatch + ") is not the one of the"
+                    + " measurement (" + thenMatch + ")");
+        }
+        var r = org.lrbench.run.PartRun.reassess(plan, b, calibration, points);
+        String before = stored.get("verdict").asText();
+        String now = r.verdict().word();
+        System.out.printf("verdict: stored %s, re-judged %s%s%n", before, now, before.equals(now) ? " (it stands)" : " (CHANGED)");
+        java.util.Map<String, Double> storedValues = new java.util.HashMap<>();
+        for (var l : stored.path("limits")) {
+            storedValues.put(l.get("name").asText(), l.get("value").isNumber() ? l.get("value").asDouble() : null);
+        }
+        java.util.List<java.util.Map<String, Object>> limits = new java.util.ArrayList<>();
+        for (var l : r.limits()) {
+            System.out.printf(Locale.ROOT, "  %-28s stored %-14s now %-14s %s%n", l.limit().name(),
+                    storedValues.get(l.limit().name()) == null ? "-" : String.format(Locale.ROOT, "%.6g", storedValues.get(l.limit().name())),
+                    String.format(Locale.ROOT, "%.6g", l.value()), l.pass() ? "pass" : "fail");
+            java.util.Map<String, Object> m = new java.util.LinkedHashMap<>();
+            m.put("name", l.limit().name());
+            m.put("value", l.value());
+            m.put("expanded_uncertainty", l.expandedUncertainty());
+            m.put("pass", l.pass());
+            m.put("stored_value", storedValues.get(l.limit().name()));
+            limits.add(m);
+        }
+        if (r.error() != null) {
+            System.out.println("  error: " + r.error());
+        }
+        out.put("stored_verdict", before);
+        out.put("verdict", now);
+        out.put("error", r.error());
+        out.put("limits", limits);
+        out.put("warnings", r.warnings());
+        return out;
+    }
+
     /** Re-runs the phasor extraction on archived traces; the original result is never touched. */
     private int reanalyse() throws Exception {
         Inputs.requireFile(archive, "trace archive");
@@ -108,6 +179,7 @@ final class AnalyzeCommand implements Callable<Integer> {
         com.fasterxml.jackson.databind.JsonNode old = java.nio.file.Files.isRegularFile(original)
                 ? org.lrbench.results.ResultFiles.JSON.readTree(original.toFile()).get("points") : null;
         java.util.List<java.util.Map<String, Object>> rows = new java.util.ArrayList<>();
+        java.util.List<org.lrbench.measure.PointResult> points = new java.util.ArrayList<>();
         System.out.printf("re-analysis of %s (lot %s, serial %s), sense resistor %s%n", archive,
                 c.header().get("lot").asText(), c.header().get("serial").asText(), Units.format(rs, Dimension.RESISTANCE));
         System.out.printf("  %12s %14s %14s %14s %14s%n", "frequency", "R before", "R now", "L before", "L now");
@@ -129,7 +201,12 @@ final class AnalyzeCommand implements Callable<Integer> {
             row.put("previous_resistance_ohm", oldR);
             row.put("previous_inductance_h", oldL);
             rows.add(row);
+            var senseFit = org.lrbench.analysis.SineFit.fit(p.sense(), p.intervalSecond(), p.frequencyHz());
+            var partFit = org.lrbench.analysis.SineFit.fit(p.part(), p.intervalSecond(), p.frequencyHz());
+            points.add(new org.lrbench.measure.PointResult(z, senseFit, partFit, p.senseRange(), p.partRange(),
+                    p.intervalSecond(), p.sense().length, 1, 0.0, null, null));
         }
+        java.util.Map<String, Object> judged = rejudge(original, points);
         String stamp = java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS).toString().replace(":", "");
         Path record = archive.resolveSibling(name + ".analysis-" + stamp + ".json");
         for (int k = 2; java.nio.file.Files.exists(record); k++) {
@@ -142,6 +219,7 @@ final class AnalyzeCommand implements Callable<Integer> {
         analysis.put("analysed_at", java.time.Instant.now().toString());
         analysis.put("method", "three-parameter sine fits, Z = Rs V2 / V1 per point (before bench corrections)");
         analysis.put("points", rows);
+        analysis.putAll(judged);
         org.lrbench.results.ResultFiles.writeNew(record, org.lrbench.results.ResultFiles.JSON.writeValueAsBytes(analysis));
         System.out.println("analysis record added: " + record + " (the original result is unchanged)");
         return ExitCodes.PASS;

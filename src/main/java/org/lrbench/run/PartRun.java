@@ -133,6 +133,25 @@ public final class PartRun {
         return ResultRecord.of(request, started, Instant.now(), verdict, error, analysis, points, identities, dc);
     }
 
+    /** A sweep judged again from archived points: the verdict, each limit's result, the warnings. */
+    public record Reassessment(Verdict verdict, List<LimitResult> limits, List<String> warnings, String error) {
+    }
+
+    /**
+     * Re-fits the model, recomputes the budgets and re-judges every limit from the sweep points of
+     * an archive, as the measurement did (the triangle check is not repeated); a fit that fails is
+     * an {@code error} with its reason.
+     */
+    public static Reassessment reassess(Plan plan, BenchConfig bench, Calibration calibration, List<PointResult> points) {
+        try {
+            Analysis a = analyse(plan, bench, calibration, points, null);
+            return new Reassessment(Judge.verdict(a.judged()), List.copyOf(a.judged()), List.copyOf(a.warnings()), null);
+        } catch (IllegalArgumentException e) {
+            // FitException is one: the fit failed, or the corrections do not cover the archived frequencies
+            return new Reassessment(Verdict.ERROR, List.of(), List.of(), e.getMessage());
+        }
+    }
+
     /** The model fit, budgets, judged limits and warnings of a completed sweep. */
     record Analysis(SweepAnalysis.Result sweep, List<LimitResult> judged, Double srfHz, Double srfAboveHz,
                     TriangleExtraction.Result triangle, List<String> warnings) {

@@ -77,7 +77,8 @@ public class TraceArchiveTests {
         assertThat(code).isZero();
         Path original = dir.resolve("L/S.json");
         String before = Files.readString(original);
-        assertThat(Main.execute("analyze", "--archive", dir.resolve("L/S.lrtraces").toString())).isZero();
+        assertThat(Main.execute("analyze", "--archive", dir.resolve("L/S.lrtraces").toString(), "--calibration",
+                dir.resolve("none").toString())).isZero();
         assertThat(Files.readString(original)).isEqualTo(before);
         Path record;
         try (var files = Files.list(dir.resolve("L"))) {
@@ -91,5 +92,20 @@ public class TraceArchiveTests {
             assertThat(points.get(i).get("resistance_ohm").asDouble()).isEqualTo(measured.get(i).get("resistance_ohm").asDouble());
             assertThat(points.get(i).get("inductance_h").asDouble()).isEqualTo(measured.get(i).get("inductance_h").asDouble());
         }
+        // the model re-fitted and the limits re-judged from the archive: the stored verdict stands, every value equal
+        JsonNode again = new ObjectMapper().readTree(record.toFile());
+        assertThat(again.get("stored_verdict").asText()).isEqualTo("pass");
+        assertThat(again.get("verdict").asText()).isEqualTo("pass");
+        JsonNode storedLimits = new ObjectMapper().readTree(before).get("limits");
+        for (int i = 0; i < storedLimits.size(); i++) {
+            assertThat(again.get("limits").get(i).get("value").asDouble())
+                    .isCloseTo(storedLimits.get(i).get("value").asDouble(), org.assertj.core.api.Assertions.within(
+                            1e-9 * Math.abs(storedLimits.get(i).get("value").asDouble())));
+        }
+        // a plan whose content changed since is refused: the verdict must be judged on the original
+        Path edited = dir.resolve("edited.yaml");
+        Files.writeString(edited, Files.readString(home.resolve("plans/qfd-ind-1m0.yaml")).replace("min: 20", "min: 21"));
+        assertThat(Main.execute("analyze", "--archive", dir.resolve("L/S.lrtraces").toString(), "--plan", edited.toString(),
+                "--calibration", dir.resolve("none").toString())).isEqualTo(2);
     }
 }
