@@ -76,7 +76,7 @@ final class DigitizerTraitsReader {
                         try {
                             queries.put(name, CommandTemplate.parse(text, Set.of("channel")));
                             if (!text.startsWith(":") || !text.endsWith("?") && !text.contains("? ")) {
-                                q.problem(name, "must be an absolute query such as :WAVeform:YINCrement? CH{channel}");
+                                q.problem(name, "must be an absolute query such as :DATA:YSTep? CH{channel}");
                             }
                         } catch (IllegalArgumentException e) {
                             q.problem(name, e.getMessage());

@@ -21,12 +21,12 @@ public final class SimDigitizer extends ScpiDevice {
     /**
      * Which instrument the simulated digitizer plays. {@code generic}: SCPI-1999 SENSe/TRACe
      * subsystems, any range from 10 mV to 100 V peak-to-peak, a scale query, the bench's
-     * resolution. {@code plus-minus-12}: CHANnel/ACQuire/WAVeform subsystems, plus-minus ranges in
+     * resolution. {@code plus-minus-12}: CHANnel/ACQuire/DATA subsystems, plus-minus ranges in
      * 1-2-5 steps from 5 mV to 50 V that round a request up, a sample-rate setting, 12-bit codes in
      * 16-bit words with a fixed scaling and no scale query, a trigger with a source only, and an
      * acquisition whose end is polled. {@code per-division-8}: volts per division over 10
      * divisions in 1-2-5 steps from 1 mV to 10 V per division, a request rounded to the nearest step,
-     * a ten-field preamble giving the scaling, 8-bit codes, a sample interval, an edge trigger in its
+     * a seven-field layout reply (or one query per field) giving the scaling, 8-bit codes, a sample interval, an edge trigger in its
      * own subtree, and an acquisition that completes with {@code *OPC?}.
      */
     public enum Personality {
@@ -173,9 +173,9 @@ public final class SimDigitizer extends ScpiDevice {
             record = null;
             return null;
         });
-        register("WAVeform:XINCrement", true, c -> nr3(interval));
-        register("WAVeform:YINCrement", true, c -> nr3(range[channelParameter(c)] / 256));
-        register("WAVeform:YORigin", true, c -> nr3(offset[channelParameter(c)]));
+        register("DATA:XSTep", true, c -> nr3(interval));
+        register("DATA:YSTep", true, c -> nr3(range[channelParameter(c)] / 256));
+        register("DATA:YZERo", true, c -> nr3(offset[channelParameter(c)]));
         register("ACQuire:POINts", true, c -> Integer.toString(points));
         register("TRIGger:EDGE:SOURce", false, c -> {
             c.expect(1, 1);
@@ -192,18 +192,18 @@ public final class SimDigitizer extends ScpiDevice {
             triggerRising = c.word(0, "POSitive", "NEGative").equals("POS");
             return null;
         });
-        register("SINGle", false, c -> {
+        register("ACQuire:ONCE", false, c -> {
             c.expect(0, 0);
             acquire();
             return null;
         });
-        // format, type, points, count, x increment, x origin, x reference, y increment, y origin, y reference
-        register("WAVeform:PREamble", true, c -> {
+        // our own layout reply: points, x step, x zero, y step, y zero, y reference code, bits
+        register("DATA:LAYout", true, c -> {
             int ch = channelParameter(c);
-            return "0,2," + points + ",1," + nr3(interval) + "," + nr3(firstSampleAfterTrigger) + ",0,"
-                    + nr3(range[ch] / 256) + "," + nr3(offset[ch]) + ",0";
+            return points + "," + nr3(interval) + "," + nr3(firstSampleAfterTrigger) + "," + nr3(range[ch] / 256) + ","
+                    + nr3(offset[ch]) + ",0,8";
         });
-        register("WAVeform:DATA", true, c -> {
+        register("DATA:FETCh", true, c -> {
             int ch = channelParameter(c);
             if (encoded[ch] == null) {
                 encoded[ch] = encode(ch);
@@ -271,13 +271,13 @@ public final class SimDigitizer extends ScpiDevice {
             triggerRising = true;
             return null;
         });
-        register("DIGitize", false, c -> {
+        register("ACQuire:ARM", false, c -> {
             c.expect(0, 0);
             acquire();
             acquiring = true;
             return null;
         });
-        // the first status query after DIGitize still finds the acquisition running
+        // the first status query after ACQuire:ARM still finds the acquisition running
         register("ACQuire:STATe", true, c -> {
             if (acquiring) {
                 acquiring = false;
@@ -285,14 +285,14 @@ public final class SimDigitizer extends ScpiDevice {
             }
             return "STOP";
         });
-        register("WAVeform:FORMat", false, c -> {
+        register("DATA:ENCoding", false, c -> {
             c.expect(1, 1);
             format = c.word(0, "WORD", "ASCii").equals("WORD") ? Format.INT16 : Format.ASCII;
             littleEndian = false;
             java.util.Arrays.fill(encoded, null);
             return null;
         });
-        register("WAVeform:DATA", true, c -> {
+        register("DATA:FETCh", true, c -> {
             int ch = channelParameter(c);
             if (encoded[ch] == null) {
                 encoded[ch] = encode(ch);

@@ -74,7 +74,7 @@ class DriverLoaderTests {
         assertThat(pm.acquisition().complete()).isEqualTo(DigitizerTraits.Completion.POLL);
         DigitizerTraits div = loader.load("sim-div8-digitizer", DriverKind.DIGITIZER).digitizer();
         assertThat(div.vertical().perPeakToPeak()).isEqualTo(0.1);
-        assertThat(div.scaling().fields()).containsEntry("y_increment", 8).containsEntry("y_reference", 10);
+        assertThat(div.scaling().fields()).containsEntry("y_increment", 4).containsEntry("y_reference", 6);
         assertThat(loader.load("sim-source-matched", DriverKind.SOURCE).levelPerEmf()).isEqualTo(0.5);
     }
 
