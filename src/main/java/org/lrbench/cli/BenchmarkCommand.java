@@ -114,12 +114,16 @@ final class BenchmarkCommand implements Runnable {
         @Option(names = "--seeds", defaultValue = "50", description = "seeds per part (default: ${DEFAULT-VALUE})")
         int seeds;
 
+        @Option(names = "--bench", paramLabel = "BENCH", description = "simulated bench (default: simulator/bench.yaml)")
+        java.nio.file.Path bench;
+
         @Override
         public Integer call() throws Exception {
             if (seeds < 5 || seeds > 10_000) {
                 throw new BadInputException("--seeds 5..10000");
             }
-            int misses = org.lrbench.benchmark.CoverageBenchmark.run(System.out, Inputs.bench(Home.defaultBench()),
+            int misses = org.lrbench.benchmark.CoverageBenchmark.run(System.out,
+                    Inputs.bench(bench != null ? bench : Home.defaultBench()),
                     Home.drivers(), seeds);
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
