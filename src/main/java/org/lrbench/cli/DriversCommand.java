@@ -11,8 +11,8 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench drivers}: the installed driver files with their kind and description, and any problems. */
-@Command(name = "drivers", description = {"List the driver files: name, kind, description; a file with problems is",
-        "listed with them. Exit 0 when every driver file is sound, 2 otherwise."})
+@Command(name = "drivers", description = {"List the driver files with their kind and description, and their problems.",
+        "Exit 0 when every driver file is sound, 2 otherwise."})
 final class DriversCommand implements Callable<Integer> {
 
     @Option(names = "--drivers", paramLabel = "DIR", description = "folder of driver files (default: the installed drivers/)")

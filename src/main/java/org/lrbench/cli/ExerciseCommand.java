@@ -14,8 +14,8 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench exercise}: the driver self-test on a bench's instruments. */
-@Command(name = "exercise", description = {"Driver self-test: connect to the bench's instruments, identify them and",
-        "exercise every operation of their drivers once with the generator output off; ok or failed per operation.",
+@Command(name = "exercise", description = {"Driver self-test: every operation of the bench's drivers once, output off.",
+        "Connects to the bench's instruments, identifies them, and prints ok or failed (with the exchange) per operation.",
         "Exit 0 when every operation worked, 3 otherwise, 2 for bad input."})
 final class ExerciseCommand implements Callable<Integer> {
 

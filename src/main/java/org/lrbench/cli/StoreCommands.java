@@ -83,7 +83,7 @@ final class StoreCommands {
         return v == null ? "" : String.format(Locale.ROOT, fmt, v);
     }
 
-    @Command(name = "lots", description = "List the lots in the results store.")
+    @Command(name = "lots", description = "List every inspection of every lot in the results store, with its counts.")
     static final class Lots extends StoreOptions implements Callable<Integer> {
         @Override
         public Integer call() throws Exception {
