@@ -127,6 +127,10 @@ public final class BenchService implements AutoCloseable {
         if (plan.sampling() == null) {
             throw new ServiceException(400, "plan: " + q.plan() + " has no sampling section; a lot run needs one");
         }
+        if (q.tray() == null && "sim".equals(bench.generator().address().scheme())) {
+            throw new ServiceException(400, "tray: this bench is the simulated one; choose a simulated tray (the"
+                    + " parts the scanner picks from), such as demo-lot.yaml");
+        }
         SimLot tray = null;
         if (q.tray() != null) {
             try {

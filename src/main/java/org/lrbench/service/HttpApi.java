@@ -162,7 +162,16 @@ public final class HttpApi implements AutoCloseable {
             } else if (m == HttpMethod.GET && path.equals("/api/runs/current")) {
                 json(ctx, HttpResponseStatus.OK, service.currentOr404().status());
             } else if (m == HttpMethod.GET && path.equals("/api/runs/current/events")) {
-                events(ctx, service.currentOr404().events);
+                long after = 0;
+                String last = req.headers().get("Last-Event-ID");
+                if (last != null) {
+                    try {
+                        after = Long.parseLong(last.trim());
+                    } catch (NumberFormatException e) {
+                        throw new ServiceException(400, "Last-Event-ID: '" + last + "' is not an event number");
+                    }
+                }
+                events(ctx, service.currentOr404().events, after);
             } else if (m == HttpMethod.POST && path.equals("/api/runs/current/answer")) {
                 JsonNode b = body(req);
                 JsonNode prompt = b.get("prompt");
@@ -263,7 +272,7 @@ public final class HttpApi implements AutoCloseable {
             return lot;
         }
 
-        private void events(ChannelHandlerContext ctx, RunEvents events) {
+        private void events(ChannelHandlerContext ctx, RunEvents events, long after) {
             DefaultHttpResponse head = new DefaultHttpResponse(HttpVersion.HTTP_1_1, HttpResponseStatus.OK);
             head.headers().set(HttpHeaderNames.CONTENT_TYPE, "text/event-stream");
             head.headers().set(HttpHeaderNames.CACHE_CONTROL, "no-cache");
@@ -286,7 +295,7 @@ public final class HttpApi implements AutoCloseable {
                 }
             };
             ch.closeFuture().addListener(f -> events.unsubscribe(subscriber));
-            events.subscribe(subscriber);
+            events.subscribe(subscriber, after);
         }
 
         private JsonNode body(FullHttpRequest req) {

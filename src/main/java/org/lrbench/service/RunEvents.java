@@ -33,8 +33,18 @@ public final class RunEvents {
 
     /** Replays every event so far to the subscriber, then keeps it informed. */
     public synchronized void subscribe(Consumer<Map<String, Object>> subscriber) {
+        subscribe(subscriber, 0);
+    }
+
+    /**
+     * Replays the events after number {@code afterSeq} (a reconnecting client's Last-Event-ID), then
+     * keeps the subscriber informed: a client that reconnects sees no event twice.
+     */
+    public synchronized void subscribe(Consumer<Map<String, Object>> subscriber, long afterSeq) {
         for (Map<String, Object> e : events) {
-            subscriber.accept(e);
+            if (((Number) e.get("seq")).longValue() > afterSeq) {
+                subscriber.accept(e);
+            }
         }
         subscribers.add(subscriber);
     }

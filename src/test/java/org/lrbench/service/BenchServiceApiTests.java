@@ -123,6 +123,24 @@ class BenchServiceApiTests {
                 }
             }
             assertThat(types.get(0)).isEqualTo("run_started");
+            // a client that reconnects with Last-Event-ID (the SSE standard's resume) gets only what it missed
+            int total = json(call(port, "GET", "/api/runs/current", null, null)).get("events").asInt();
+            HttpResponse<java.io.InputStream> resumed = http.send(HttpRequest.newBuilder(
+                    URI.create("http://127.0.0.1:" + port + "/api/runs/current/events"))
+                    .header("Last-Event-ID", String.valueOf(total - 2)).build(), HttpResponse.BodyHandlers.ofInputStream());
+            List<String> ids = new ArrayList<>();
+            try (BufferedReader r = new BufferedReader(new InputStreamReader(resumed.body(), StandardCharsets.UTF_8))) {
+                String line;
+                while ((line = r.readLine()) != null) {
+                    if (line.startsWith("id: ")) {
+                        ids.add(line.substring(4));
+                    }
+                    if (line.equals("event: lot_done")) {
+                        break;
+                    }
+                }
+            }
+            assertThat(ids).containsExactly(String.valueOf(total - 1), String.valueOf(total));
             assertThat(types).filteredOn("part_done"::equals).hasSize(5);
             assertThat(types).filteredOn("point"::equals).hasSize(5 * 7);
             assertThat(types.get(types.size() - 1)).isEqualTo("lot_done");
@@ -269,6 +287,11 @@ class BenchServiceApiTests {
             HttpResponse<String> noOperator = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
                     + "\"lot\":\"L\",\"lot_size\":40}", null);
             assertThat(json(noOperator).get("error").asText()).startsWith("operator:");
+            // the simulated bench measures only parts of a simulated tray: refused at start, in the page's terms
+            HttpResponse<String> noTray = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\"}", null);
+            assertThat(noTray.statusCode()).isEqualTo(400);
+            assertThat(json(noTray).get("error").asText()).startsWith("tray:").contains("simulated tray");
             HttpResponse<String> big = call(port, "POST", "/api/runs", "{\"x\":\"" + "a".repeat(100_000) + "\"}", null);
             assertThat(big.statusCode()).isEqualTo(413);
             assertThat(json(big).get("error").asText()).contains("larger than");
