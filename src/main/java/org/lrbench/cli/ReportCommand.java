@@ -28,10 +28,47 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
                 throw new BadInputException("no lot " + lot + " in " + data.resolve("lrbench.db"));
             }
             html = LotReport.html(s, lot);
+            if (csv != null) {
+                writeCsv(s);
+            }
         }
         Path file = out != null ? out : Path.of("runs", lot, "report.html");
         ResultFiles.writeAtomically(file, html.getBytes(StandardCharsets.UTF_8));
         System.out.println("report: " + file);
         return ExitCodes.PASS;
+    }
+
+    /**
+     * Every attempt of every part with every limit: value, expanded uncertainty, zone, pass and the
+     * part's verdict, one row per attempt and limit (numbers in SI base units, full precision).
+     */
+    private void writeCsv(ResultStore s) throws java.io.IOException {
+        StringBuilder sb = new StringBuilder("lot,inspection,position,serial,attempt,counts,verdict,limit,value,"
+                + "expanded_uncertainty,zone,pass\n");
+        var all = s.attempts(lot);
+        for (var i : s.lot(lot)) {
+            var round = all.stream().filter(a -> a.round() == i.round()).toList();
+            var counting = org.lrbench.results.Attempt.counting(round);
+            for (var a : round) {
+                var limits = ResultFiles.JSON.readTree(a.resultJson()).path("limits");
+                if (limits.isEmpty()) {
+                    sb.append(row(a, counting.contains(a), "", "", "", "", "")).append('\n');
+                }
+                for (var l : limits) {
+                    sb.append(row(a, counting.contains(a), l.path("name").asText(), l.path("value").asText(""),
+                            l.path("expanded_uncertainty").asText(""), l.path("zone").asText(""),
+                            l.path("pass").asText(""))).append('\n');
+                }
+            }
+        }
+        ResultFiles.writeAtomically(csv, sb.toString().getBytes(StandardCharsets.UTF_8));
+        System.out.println("written: " + csv);
+    }
+
+    private static String row(org.lrbench.results.Attempt a, boolean counts, String limit, String value, String u,
+                              String zone, String pass) {
+        return String.join(",", java.util.List.of(a.lot(), String.valueOf(a.round()), String.valueOf(a.position()),
+                a.serial(), String.valueOf(a.number()), String.valueOf(counts), a.verdict(), StoreCommands.csv(limit),
+                value, u, zone, pass));
     }
 }

@@ -193,7 +193,7 @@ class CommandLineTests {
     }
 
     @Test
-    void aRejectedLotCannotBeTurnedIntoAnAcceptedOne(@TempDir Path dir) {
+    void aRejectedLotCannotBeTurnedIntoAnAcceptedOne(@TempDir Path dir) throws Exception {
         Outcome first = lotRun(dir, "X1", "40");
         assertThat(first.code()).as(first.out() + first.err()).isEqualTo(1);
         assertThat(first.out()).contains("disposition: REJECT");
@@ -211,6 +211,13 @@ class CommandLineTests {
         assertThat(lot.out().lines().filter(l -> l.startsWith("2 ")).count()).isEqualTo(8);
         Outcome verify = run("verify", "--data", dir.resolve("data").toString(), "--runs", dir.resolve("runs").toString());
         assertThat(verify.code()).as(verify.out()).isZero();
+        // report --csv: one row per attempt and limit, 16 attempts of 3 limits
+        Path csv = dir.resolve("x1.csv");
+        assertThat(run("report", "--lot", "X1", "--data", dir.resolve("data").toString(), "--out",
+                dir.resolve("r.html").toString(), "--csv", csv.toString()).code()).isZero();
+        java.util.List<String> rows = Files.readAllLines(csv);
+        assertThat(rows.get(0)).startsWith("lot,inspection,position,serial,attempt,counts,verdict,limit,value");
+        assertThat(rows).hasSize(1 + 16 * 3);
         // a single part measured into the sampled lot would take a record name the lot needs: refused
         Outcome single = run("run", PLAN, "--lot", "X1", "--serial", "HC0417-0009", "--sim",
                 HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.resolve("runs").toString(),
