@@ -39,7 +39,8 @@ final class RehearseCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new BadInputException(e.getMessage());
         }
-        System.out.printf("rehearsal of %s on the simulated bench %s, %d seeds per part%n", plan, b.name(), seeds);
+        System.out.printf("rehearsal of %s on the simulated bench %s, %d %s per part%n", plan, b.name(), seeds,
+                seeds == 1 ? "seed" : "seeds");
         System.out.printf("%-24s %8s %8s  %s%n", "limit", "right", "TUR", "wrong verdicts");
         for (Rehearsal.LimitOutcome o : r.limits()) {
             System.out.printf(Locale.ROOT, "%-24s %4d/%-3d %8s  %s%n", o.limit(), o.right(), o.runs(),

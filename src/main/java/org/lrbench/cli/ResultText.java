@@ -113,11 +113,12 @@ final class ResultText {
     static void samplingPlans(PrintStream out, int lotSize, org.lrbench.sampling.SamplingScheme scheme) {
         StringBuilder sb = new StringBuilder(String.format(Locale.ROOT, "lot size %d, inspection level %s (ISO 2859-1,"
                 + " normal, single):", lotSize, scheme.level()));
-        org.lrbench.sampling.LotDisposition.plans(lotSize, scheme).forEach((c, p) -> sb.append(String.format(Locale.ROOT,
-                " %s AQL %s: letter %c%s, n = %d, Ac %d, Re %d%s;", c.name().toLowerCase(Locale.ROOT), p.aql(),
+        java.util.List<String> parts = new java.util.ArrayList<>();
+        org.lrbench.sampling.LotDisposition.plans(lotSize, scheme).forEach((c, p) -> parts.add(String.format(Locale.ROOT,
+                "%s AQL %s: letter %c%s, n = %d, Ac %d, Re %d%s", c.name().toLowerCase(Locale.ROOT), p.aql(),
                 p.codeLetter(), p.planLetter() != p.codeLetter() ? " -> " + p.planLetter() : "", p.sampleSize(),
                 p.acceptance(), p.rejection(), p.fullInspection() ? " (100 % inspection)" : "")));
-        out.println(sb);
+        out.println(sb.append(' ').append(String.join("; ", parts)));
     }
 
     static void problems(java.io.PrintWriter err, List<?> problems) {

@@ -48,6 +48,26 @@ final class StoreCommands {
         }
 
         void print(List<String> header, List<List<String>> rows) throws IOException {
+            print(header, rows, java.util.Map.of());
+        }
+
+        /**
+         * Prints a table and, with --csv, writes the rows. Columns named in {@code units} hold SI
+         * base-unit numbers: the table shows them with a prefix and four figures (as every command
+         * prints them), the CSV keeps them at full precision for other programs.
+         */
+        void print(List<String> header, List<List<String>> raw, java.util.Map<String, org.lrbench.units.Dimension> units)
+                throws IOException {
+            List<List<String>> rows = new ArrayList<>();
+            for (List<String> r : raw) {
+                List<String> shown = new ArrayList<>();
+                for (int i = 0; i < r.size(); i++) {
+                    var d = units.get(header.get(i));
+                    String v = r.get(i);
+                    shown.add(d == null || v.isEmpty() ? v : org.lrbench.units.Units.format(Double.parseDouble(v), d));
+                }
+                rows.add(shown);
+            }
             int[] w = new int[header.size()];
             for (int i = 0; i < w.length; i++) {
                 w[i] = header.get(i).length();
@@ -66,7 +86,7 @@ final class StoreCommands {
             }
             if (csv != null) {
                 StringBuilder sb = new StringBuilder(String.join(",", header.stream().map(StoreCommands::csv).toList())).append('\n');
-                for (List<String> r : rows) {
+                for (List<String> r : raw) {
                     sb.append(String.join(",", r.stream().map(StoreCommands::csv).toList())).append('\n');
                 }
                 ResultFiles.writeAtomically(csv, sb.toString().getBytes(StandardCharsets.UTF_8));
@@ -81,6 +101,11 @@ final class StoreCommands {
 
     static String num(Double v, String fmt) {
         return v == null ? "" : String.format(Locale.ROOT, fmt, v);
+    }
+
+    /** A number at full precision (the table formats it with a prefix; the CSV keeps it). */
+    static String full(Double v) {
+        return v == null || !Double.isFinite(v) ? "" : Double.toString(v);
     }
 
     @Command(name = "lots", description = "List every inspection of every lot in the results store, with its counts.")
@@ -121,7 +146,7 @@ final class StoreCommands {
                         }
                         rows.add(List.of(String.valueOf(p.round()), String.valueOf(p.position()), p.serial(),
                                 String.valueOf(p.number()), counting.contains(p) ? "yes" : "no", p.verdict(),
-                                num(p.inductanceH(), "%.6e"), num(p.seriesResistanceOhm(), "%.6f"), p.measuredAt(),
+                                full(p.inductanceH()), full(p.seriesResistanceOhm()), p.measuredAt(),
                                 p.operator() == null ? "-" : p.operator(), p.reason() == null ? "" : p.reason()));
                     }
                 }
@@ -129,7 +154,9 @@ final class StoreCommands {
                     throw new BadInputException("lot " + lot + " has no stored parts");
                 }
                 print(List.of("inspection", "position", "serial", "attempt", "counts", "verdict", "inductance_h",
-                        "series_resistance_ohm", "measured_at", "operator", "reason"), rows);
+                        "series_resistance_ohm", "measured_at", "operator", "reason"), rows, java.util.Map.of(
+                        "inductance_h", org.lrbench.units.Dimension.INDUCTANCE,
+                        "series_resistance_ohm", org.lrbench.units.Dimension.RESISTANCE));
             }
             return ExitCodes.PASS;
         }
@@ -147,14 +174,18 @@ final class StoreCommands {
                 for (LotStatistics l : s.history(partNumber)) {
                     rows.add(List.of(l.lot(), String.valueOf(l.round()), l.createdAt(), l.disposition() == null ? "open" : l.disposition(),
                             String.valueOf(l.measured()), num(Double.isNaN(l.yield()) ? null : 100 * l.yield(), "%.1f"),
-                            num(l.meanInductanceH(), "%.6e"), num(l.sdInductanceH(), "%.3e"),
-                            num(l.meanResistanceOhm(), "%.5f"), num(l.sdResistanceOhm(), "%.3e")));
+                            full(l.meanInductanceH()), full(l.sdInductanceH()),
+                            full(l.meanResistanceOhm()), full(l.sdResistanceOhm())));
                 }
                 if (rows.isEmpty()) {
                     throw new BadInputException("no lots of part number " + partNumber + " in the store");
                 }
                 print(List.of("lot", "inspection", "started", "disposition", "measured", "yield_percent", "mean_inductance_h",
-                        "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows);
+                        "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows, java.util.Map.of(
+                        "mean_inductance_h", org.lrbench.units.Dimension.INDUCTANCE,
+                        "sd_inductance_h", org.lrbench.units.Dimension.INDUCTANCE,
+                        "mean_series_resistance_ohm", org.lrbench.units.Dimension.RESISTANCE,
+                        "sd_series_resistance_ohm", org.lrbench.units.Dimension.RESISTANCE));
             }
             return ExitCodes.PASS;
         }

@@ -128,9 +128,11 @@ public final class Rehearsal {
         }
         double noise = bench.simulation().noiseVoltRms();
         if (noise > 0 && lowestPartVoltage / noise < 20) {
-            warnings.add(String.format(Locale.ROOT, "at the lowest frequency the part's voltage is %s peak, only %.0f"
-                    + " times the digitizer noise: %s", Units.format(lowestPartVoltage, Dimension.VOLTAGE),
-                    lowestPartVoltage / noise, limitingElement(plan, bench, lowestPartImpedance)));
+            double ratio = lowestPartVoltage / noise;
+            warnings.add(String.format(Locale.ROOT, "at the lowest frequency the part's voltage is %s peak, %s the"
+                    + " digitizer noise: %s", Units.format(lowestPartVoltage, Dimension.VOLTAGE),
+                    ratio < 1 ? "below" : String.format(Locale.ROOT, "only %.0f times", ratio),
+                    limitingElement(plan, bench, lowestPartImpedance)));
         }
         if (resonanceInside) {
             warnings.add("the self-resonance lies inside the sweep: readings near it are not an inductor's");
