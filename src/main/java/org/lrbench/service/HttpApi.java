@@ -57,6 +57,12 @@ public final class HttpApi implements AutoCloseable {
     private final EventLoopGroup loop = new MultiThreadIoEventLoopGroup(2, new DefaultThreadFactory("lrbench-http", true),
             NioIoHandler.newFactory());
     private final Channel listener;
+    /** The open connections, closed before the threads stop. */
+    private final io.netty.channel.group.ChannelGroup connections = new io.netty.channel.group.DefaultChannelGroup(
+            io.netty.util.concurrent.GlobalEventExecutor.INSTANCE);
+    /** Threads for the handlers' blocking work, so the I/O loop only moves bytes. */
+    private final io.netty.util.concurrent.EventExecutorGroup work = new io.netty.util.concurrent.DefaultEventExecutorGroup(4,
+            new DefaultThreadFactory("lrbench-api", true));
 
     /** @param token required on every call, or null when listening on loopback only */
     public HttpApi(BenchService service, InetAddress address, int port, String token) throws IOException {
@@ -66,11 +72,15 @@ public final class HttpApi implements AutoCloseable {
                 .childHandler(new ChannelInitializer<SocketChannel>() {
                     @Override
                     protected void initChannel(SocketChannel ch) {
-                        ch.pipeline().addLast(new HttpServerCodec(), new BodyLimit(), new Handler());
+                        connections.add(ch);
+                        ch.pipeline().addLast(new HttpServerCodec(), new BodyLimit());
+                        // the API's work (store queries, reports with charts, files) runs off the I/O loop
+                        ch.pipeline().addLast(work, new Handler());
                     }
                 }).bind(address, port).awaitUninterruptibly();
         if (!f.isSuccess()) {
             loop.shutdownGracefully();
+            work.shutdownGracefully();
             throw new IOException("cannot listen on " + address.getHostAddress() + ":" + port + ": " + f.cause().getMessage());
         }
         listener = f.channel();
@@ -83,7 +93,13 @@ public final class HttpApi implements AutoCloseable {
     @Override
     public void close() {
         listener.close().awaitUninterruptibly();
-        loop.shutdownGracefully(0, 1, java.util.concurrent.TimeUnit.SECONDS).awaitUninterruptibly();
+        connections.close().awaitUninterruptibly();
+        // both together, each with a short quiet period: closing a connection passes tasks between the
+        // I/O loop and the work threads, which must both still accept them
+        var a = loop.shutdownGracefully(100, 2000, java.util.concurrent.TimeUnit.MILLISECONDS);
+        var b = work.shutdownGracefully(100, 2000, java.util.concurrent.TimeUnit.MILLISECONDS);
+        a.awaitUninterruptibly();
+        b.awaitUninterruptibly();
     }
 
     /** A request body over the limit is answered like every refusal: a JSON error (413), then the connection closes. */
