@@ -16,6 +16,8 @@ import org.lrbench.results.PartResult;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
 import org.lrbench.results.Attempt;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
 import org.lrbench.store.ResultStore;
 
 /**
@@ -73,14 +75,16 @@ public final class LotReport {
         limits(h, parts);
         impedance(h, parts);
         history(h, store.history(l.partNumber()), l.partNumber());
-        h.append("<h2>Parts</h2><table><tr><th>#</th><th>serial</th><th>verdict</th><th>L</th><th>R_dc</th>"
-                + "<th>reason</th></tr>");
+        h.append("<h2>Parts</h2><table><tr><th>#</th><th>serial</th><th>verdict</th><th>L &plusmn; U (k = 2)</th>"
+                + "<th>R_dc &plusmn; U (k = 2)</th><th>reason</th></tr>");
         int i = 1;
         for (PartResult p : parts) {
             h.append("<tr><td>").append(i++).append("</td><td>").append(esc(p.serial())).append("</td><td class=\"")
-                    .append(esc(p.verdict())).append("\">").append(esc(p.verdict())).append("</td><td>")
-                    .append(fmt(p.inductanceH())).append("</td><td>").append(fmt(p.seriesResistanceOhm())).append("</td><td>")
-                    .append(esc(p.error() != null ? p.error() : String.join("; ", p.failedLimits()))).append("</td></tr>");
+                    .append(esc(p.verdict())).append("\">").append(esc(p.verdict())).append("</td>")
+                    .append(withU(p.inductanceH(), p.inductanceExpandedUncertaintyH(), Dimension.INDUCTANCE))
+                    .append(withU(p.seriesResistanceOhm(), p.seriesResistanceExpandedUncertaintyOhm(), Dimension.RESISTANCE))
+                    .append("<td>").append(esc(p.error() != null ? p.error() : String.join("; ", p.failedLimits())))
+                    .append("</td></tr>");
         }
         h.append("</table>\n");
         attempts(h, inspections, attempts);
@@ -114,7 +118,8 @@ public final class LotReport {
                         .append(esc(a.serial())).append("</td><td>").append(a.number()).append("</td><td>")
                         .append(counting.contains(a) ? "yes" : "no (superseded)").append("</td><td class=\"")
                         .append(esc(a.verdict())).append("\">").append(esc(a.verdict())).append("</td><td>")
-                        .append(fmt(a.inductanceH())).append("</td><td>").append(fmt(a.seriesResistanceOhm()))
+                        .append(si(a.inductanceH(), Dimension.INDUCTANCE)).append("</td><td>")
+                        .append(si(a.seriesResistanceOhm(), Dimension.RESISTANCE))
                         .append("</td><td>").append(esc(a.measuredAt())).append("</td><td>")
                         .append(esc(String.valueOf(a.operator()))).append("</td><td>")
                         .append(esc(a.reason() == null ? "" : a.reason())).append("</td></tr>");
@@ -208,9 +213,10 @@ public final class LotReport {
             h.append("<tr><td>").append(esc(s.lot())).append("</td><td>").append(esc(s.createdAt())).append("</td><td>")
                     .append(esc(s.disposition() == null ? "open" : s.disposition())).append("</td><td>").append(s.measured())
                     .append("</td><td>").append(Double.isNaN(s.yield()) ? "-" : String.format(Locale.ROOT, "%.1f %%",
-                            100 * s.yield())).append("</td><td>").append(fmt(s.meanInductanceH())).append("</td><td>")
-                    .append(fmt(s.sdInductanceH())).append("</td><td>").append(fmt(s.meanResistanceOhm())).append("</td><td>")
-                    .append(fmt(s.sdResistanceOhm())).append("</td></tr>");
+                            100 * s.yield())).append("</td><td>").append(si(s.meanInductanceH(), Dimension.INDUCTANCE))
+                    .append("</td><td>").append(si(s.sdInductanceH(), Dimension.INDUCTANCE)).append("</td><td>")
+                    .append(si(s.meanResistanceOhm(), Dimension.RESISTANCE)).append("</td><td>")
+                    .append(si(s.sdResistanceOhm(), Dimension.RESISTANCE)).append("</td></tr>");
         }
         h.append("</table>\n<img alt=\"inductance per lot\" src=\"")
                 .append(Charts.history(partNumber + ": inductance per lot", "H", names, mean, sd)).append("\">\n");
@@ -227,6 +233,20 @@ public final class LotReport {
 
     private static void row(StringBuilder h, String key, String valueHtml) {
         h.append("<tr><th>").append(esc(key)).append("</th><td>").append(valueHtml).append("</td></tr>");
+    }
+
+    /** A value with an SI prefix and its unit (the number every command prints), or "-". */
+    private static String si(Double v, Dimension d) {
+        return v == null || !Double.isFinite(v) ? "-" : esc(Units.format(v, d));
+    }
+
+    /** A table cell "value +/- U" with the full-precision value kept in data-value for readers and tests. */
+    private static String withU(Double v, Double u, Dimension d) {
+        if (v == null || !Double.isFinite(v)) {
+            return "<td>-</td>";
+        }
+        return "<td data-value=\"" + v + "\">" + si(v, d) + (u == null || !Double.isFinite(u) ? "" : " &plusmn; " + si(u, d))
+                + "</td>";
     }
 
     private static String fmt(Double v) {

@@ -61,7 +61,9 @@ class LotReportTests {
                 var cells = rows.get(i + 1).select("td");
                 assertThat(cells.get(1).text()).isEqualTo(p.serial());
                 assertThat(cells.get(2).text()).isEqualTo(p.verdict());
-                assertThat(Double.parseDouble(cells.get(3).text())).isCloseTo(p.inductanceH(), within(1e-4 * p.inductanceH()));
+                assertThat(Double.parseDouble(cells.get(3).attr("data-value"))).isCloseTo(p.inductanceH(), within(1e-12 * p.inductanceH()));
+                // shown with its prefix, unit and expanded uncertainty
+                assertThat(cells.get(3).text()).matches("[0-9.]+ [mu]H ± [0-9.]+ [mun]H");
             }
         }
     }
