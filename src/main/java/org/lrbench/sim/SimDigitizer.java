@@ -129,18 +129,7 @@ public final class SimDigitizer extends ScpiDevice {
             return null;
         });
         register("CHANnel#:SCALe", true, c -> nr3(range[c.suffixUpTo(CHANNELS)] / DIVISIONS));
-        register("CHANnel#:OFFSet", false, c -> {
-            c.expect(1, 1);
-            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
-            record = null;
-            return null;
-        });
-        register("CHANnel#:COUPling", false, c -> {
-            c.expect(1, 1);
-            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
-            record = null;
-            return null;
-        });
+        registerChannelOffsetAndCoupling();
         register("ACQuire:SINTerval", false, c -> {
             c.expect(1, 1);
             double requested = c.number(0, CLOCK_INTERVAL, 1.0, 1e-6);
@@ -212,6 +201,22 @@ public final class SimDigitizer extends ScpiDevice {
         });
     }
 
+    /** CHANnel subsystem offset and coupling, shared by the personalities with that subsystem. */
+    private void registerChannelOffsetAndCoupling() {
+        register("CHANnel#:OFFSet", false, c -> {
+            c.expect(1, 1);
+            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
+            record = null;
+            return null;
+        });
+        register("CHANnel#:COUPling", false, c -> {
+            c.expect(1, 1);
+            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
+            record = null;
+            return null;
+        });
+    }
+
     /** The {@code plus-minus-12} dialect. */
     private void registerPlusMinus() {
         register("CHANnel#:RANGe", false, c -> {
@@ -237,18 +242,7 @@ public final class SimDigitizer extends ScpiDevice {
             }
             return sb.toString();
         });
-        register("CHANnel#:OFFSet", false, c -> {
-            c.expect(1, 1);
-            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
-            record = null;
-            return null;
-        });
-        register("CHANnel#:COUPling", false, c -> {
-            c.expect(1, 1);
-            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
-            record = null;
-            return null;
-        });
+        registerChannelOffsetAndCoupling();
         register("ACQuire:SRATe", false, c -> {
             c.expect(1, 1);
             double rate = c.number(0, 1, 1 / CLOCK_INTERVAL, 1e6);

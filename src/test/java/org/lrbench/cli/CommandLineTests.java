@@ -299,13 +299,7 @@ class CommandLineTests {
         assertThat(ok.code()).as(ok.err()).isZero();
         assertThat(ok.out()).contains("drivers: generator generic-source").contains("digitizer generic-digitizer");
         // a driver folder with a zero timeout and an unknown placeholder, and a bench naming a missing driver
-        Path drivers = dir.resolve("drivers");
-        Files.createDirectories(drivers);
-        try (var files = Files.list(HOME.resolve("drivers"))) {
-            for (Path f : files.toList()) {
-                Files.copy(f, drivers.resolve(f.getFileName()));
-            }
-        }
+        Path drivers = copyOfDrivers(dir);
         Path digitizer = drivers.resolve("generic-digitizer.yaml");
         Files.writeString(digitizer, Files.readString(digitizer).replace("timeout: 10 s", "timeout: 0 s")
                 .replace(":SENSe:SWEep:TINTerval {interval}", ":SENSe:SWEep:TINTerval {intervall}"));
@@ -347,13 +341,7 @@ class CommandLineTests {
         Outcome ok = run("exercise", "--sim", part);
         assertThat(ok.code()).as(ok.out() + ok.err()).isZero();
         assertThat(ok.out()).contains("ok     digitizer fetch and decode, channel 2").contains("20 of 20 operations worked");
-        Path drivers = dir.resolve("drivers");
-        Files.createDirectories(drivers);
-        try (var files = Files.list(HOME.resolve("drivers"))) {
-            for (Path f : files.toList()) {
-                Files.copy(f, drivers.resolve(f.getFileName()));
-            }
-        }
+        Path drivers = copyOfDrivers(dir);
         Path digitizer = drivers.resolve("generic-digitizer.yaml");
         Files.writeString(digitizer, Files.readString(digitizer).replace(":SENSe{channel}:VOLTage:RANGe {range}",
                 ":SENSe{channel}:VOLTage:RANGe:BOGus {range}"));
@@ -366,13 +354,7 @@ class CommandLineTests {
 
     @Test
     void aPlanAskingMoreThanTheDriversDeclareIsRefusedBeforeAnyInstrumentIsTouched(@TempDir Path dir) throws Exception {
-        Path drivers = dir.resolve("drivers");
-        Files.createDirectories(drivers);
-        try (var files = Files.list(HOME.resolve("drivers"))) {
-            for (Path f : files.toList()) {
-                Files.copy(f, drivers.resolve(f.getFileName()));
-            }
-        }
+        Path drivers = copyOfDrivers(dir);
         Path source = drivers.resolve("generic-source.yaml");
         Files.writeString(source, Files.readString(source).replace("frequency: [1 mHz, 20 MHz]", "frequency: [1 mHz, 10 kHz]")
                 .replace("amplitude: 10 V ", "amplitude: 2 V "));
@@ -410,5 +392,17 @@ class CommandLineTests {
         assertThat(winding.get("reason").asText()).contains("at 20.00 C (copper, from 23.00 C)");
         assertThat(r.get("dc_resistance").get("at_reference_ohm").asDouble())
                 .isCloseTo(2.62 / (1 + 0.00393 * 3), org.assertj.core.api.Assertions.within(1e-9));
+    }
+
+    /** A copy of the shipped driver files to edit in a test. */
+    static Path copyOfDrivers(Path dir) throws java.io.IOException {
+        Path drivers = dir.resolve("drivers");
+        Files.createDirectories(drivers);
+        try (var files = Files.list(HOME.resolve("drivers"))) {
+            for (Path f : files.toList()) {
+                Files.copy(f, drivers.resolve(f.getFileName()));
+            }
+        }
+        return drivers;
     }
 }
