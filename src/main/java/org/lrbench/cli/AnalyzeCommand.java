@@ -13,7 +13,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench analyze --csv FILE --sense-resistor R}: the metrology on traces from any scope. */
-@Command(name = "analyze", description = {"Extract R, X, L and Q from a two-channel trace file.",
+@Command(name = "analyze", mixinStandardHelpOptions = true, description = {"Extract R, X, L and Q from a two-channel trace file.",
         "Time, sense-resistor voltage and part voltage with a header, as any scope or simulator writes them."})
 final class AnalyzeCommand implements Callable<Integer> {
 

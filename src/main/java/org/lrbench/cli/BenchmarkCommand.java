@@ -10,7 +10,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
-@Command(name = "benchmark", description = "Print measured speed figures and their ratios to a baseline.",
+@Command(name = "benchmark", mixinStandardHelpOptions = true, description = "Print measured speed figures and their ratios to a baseline.",
         subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class,
             BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class, BenchmarkCommand.Coverage.class})
 final class BenchmarkCommand implements Runnable {
@@ -20,7 +20,7 @@ final class BenchmarkCommand implements Runnable {
         System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage");
     }
 
-    @Command(name = "fits", description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
+    @Command(name = "fits", mixinStandardHelpOptions = true, description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
     static final class Fits implements Callable<Integer> {
         @Option(names = "--repeats", defaultValue = "7", description = "runs per size (default: ${DEFAULT-VALUE})")
         int repeats;
@@ -35,7 +35,7 @@ final class BenchmarkCommand implements Runnable {
         }
     }
 
-    @Command(name = "accuracy", description = "Bias and spread of R and L over many seeds against the Cramer-Rao bound.")
+    @Command(name = "accuracy", mixinStandardHelpOptions = true, description = "Bias and spread of R and L over many seeds against the Cramer-Rao bound.")
     static final class Accuracy implements Callable<Integer> {
         @Option(names = "--repeats", defaultValue = "300", description = "seeds (default: ${DEFAULT-VALUE})")
         int repeats;
@@ -51,7 +51,7 @@ final class BenchmarkCommand implements Runnable {
         }
     }
 
-    @Command(name = "service", description = "Event-stream clients and status latency of the bench service on loopback.")
+    @Command(name = "service", mixinStandardHelpOptions = true, description = "Event-stream clients and status latency of the bench service on loopback.")
     static final class Service implements Callable<Integer> {
         @Option(names = "--clients", defaultValue = "50", description = "event-stream clients (default: ${DEFAULT-VALUE})")
         int clients;
@@ -66,7 +66,7 @@ final class BenchmarkCommand implements Runnable {
         }
     }
 
-    @Command(name = "links", description = {"Trace transfer over loopback TCP against a plain socket;",
+    @Command(name = "links", mixinStandardHelpOptions = true, description = {"Trace transfer over loopback TCP against a plain socket;",
             "round trips per sweep point and the time share outside the instruments."})
     static final class Links implements Callable<Integer> {
         @Option(names = "--points", defaultValue = "10000000", description = "trace samples (default: ${DEFAULT-VALUE})")
@@ -88,7 +88,7 @@ final class BenchmarkCommand implements Runnable {
         }
     }
 
-    @Command(name = "kills", description = {"The kill soak: a simulated lot run in a child process killed with SIGKILL at",
+    @Command(name = "kills", mixinStandardHelpOptions = true, description = {"The kill soak: a simulated lot run in a child process killed with SIGKILL at",
             "random moments and resumed each time; then every invariant of the records is checked."})
     static final class Kills implements Callable<Integer> {
         @Option(names = "--kills", defaultValue = "30", description = "SIGKILLs in all (default: ${DEFAULT-VALUE})")
@@ -108,7 +108,7 @@ final class BenchmarkCommand implements Runnable {
         }
     }
 
-    @Command(name = "coverage", description = {"Coverage of the expanded uncertainty over a matrix of simulated parts,",
+    @Command(name = "coverage", mixinStandardHelpOptions = true, description = {"Coverage of the expanded uncertainty over a matrix of simulated parts,",
             "each calibrated and measured on independent seeds; every miss of a goal is marked."})
     static final class Coverage implements Callable<Integer> {
         @Option(names = "--seeds", defaultValue = "50", description = "seeds per part (default: ${DEFAULT-VALUE})")

@@ -23,7 +23,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code lrbench calibrate PLAN}: measures the channel match and the fixture's open and short. */
-@Command(name = "calibrate", description = {"Measure the bench's channel match and fixture short and open.",
+@Command(name = "calibrate", mixinStandardHelpOptions = true, description = {"Measure the bench's channel match and fixture short and open.",
         "At the plan's frequencies; kept under DIR/BENCH/ and applied to later runs."})
 final class CalibrateCommand implements Callable<Integer> {
 

@@ -16,7 +16,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code lrbench check PLAN}: validates a plan against a bench, the bench's addresses and its driver files. */
-@Command(name = "check", description = "Validate a plan, its bench and the bench's driver files; print every problem"
+@Command(name = "check", mixinStandardHelpOptions = true, description = "Validate a plan, its bench and the bench's driver files; print every problem"
         + " as file:line:column: key: message.")
 final class CheckCommand implements Callable<Integer> {
 

@@ -20,7 +20,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench demo}: measures the simulated demo lot with its plan. */
-@Command(name = "demo", description = "Calibrate the simulated bench and inspect the demo lot: sample, disposition, store, report.")
+@Command(name = "demo", mixinStandardHelpOptions = true, description = "Calibrate the simulated bench and inspect the demo lot: sample, disposition, store, report.")
 final class DemoCommand implements Callable<Integer> {
 
     @Option(names = "--lot-file", paramLabel = "LOT.yaml", description = "simulated lot (default: simulator/demo-lot.yaml)")

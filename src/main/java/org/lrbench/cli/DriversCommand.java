@@ -11,7 +11,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench drivers}: the installed driver files with their kind and description, and any problems. */
-@Command(name = "drivers", description = {"List the driver files with their kind and description, and their problems.",
+@Command(name = "drivers", mixinStandardHelpOptions = true, description = {"List the driver files with their kind and description, and their problems.",
         "Exit 0 when every driver file is sound, 2 otherwise."})
 final class DriversCommand implements Callable<Integer> {
 

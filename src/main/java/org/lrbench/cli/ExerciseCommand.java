@@ -14,7 +14,7 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench exercise}: the driver self-test on a bench's instruments. */
-@Command(name = "exercise", description = {"Driver self-test: every operation of the bench's drivers once, output off.",
+@Command(name = "exercise", mixinStandardHelpOptions = true, description = {"Driver self-test: every operation of the bench's drivers once, output off.",
         "Connects to the bench's instruments, identifies them, and prints ok or failed (with the exchange) per operation.",
         "Exit 0 when every operation worked, 3 otherwise, 2 for bad input."})
 final class ExerciseCommand implements Callable<Integer> {

@@ -12,7 +12,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code lrbench rehearse PLAN}: proves on the simulated bench that a plan decides its limits right. */
-@Command(name = "rehearse", description = {"Prove on the simulated bench that a plan decides its limits right.",
+@Command(name = "rehearse", mixinStandardHelpOptions = true, description = {"Prove on the simulated bench that a plan decides its limits right.",
         "Parts at the nominal and just inside and outside every limit, several seeds each.",
         "Exit 0 only when every verdict is right."})
 final class RehearseCommand implements Callable<Integer> {

@@ -10,7 +10,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench report --lot LOT}: one self-contained HTML file from the results store. */
-@Command(name = "report", description = "Write a lot's report: one HTML file with its plots embedded, readable offline.")
+@Command(name = "report", mixinStandardHelpOptions = true, description = "Write a lot's report: one HTML file with its plots embedded, readable offline.")
 final class ReportCommand extends StoreCommands.StoreOptions implements Callable<Integer> {
 
     @Option(names = "--lot", required = true, paramLabel = "LOT", description = "the lot")

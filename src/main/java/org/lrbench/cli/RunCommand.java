@@ -34,7 +34,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code lrbench run PLAN --lot L --serial S}: measures one part. */
-@Command(name = "run", description = {"Measure one part with a plan and judge it, or (--lot-size) a lot's sample.",
+@Command(name = "run", mixinStandardHelpOptions = true, description = {"Measure one part with a plan and judge it, or (--lot-size) a lot's sample.",
         "Exit codes: 0 pass, 1 fail, 2 bad input, 3 instrument or communication error;",
         "with --lot-size: 0 lot accepted, 1 rejected, 5 still open (stopped early: run again to resume)."})
 final class RunCommand implements Callable<Integer> {

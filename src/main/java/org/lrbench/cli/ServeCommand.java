@@ -15,7 +15,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench serve}: the bench service with its HTTP API and operator page. */
-@Command(name = "serve", description = {"Run the bench service: HTTP API and operator page for one bench, until Ctrl-C.",
+@Command(name = "serve", mixinStandardHelpOptions = true, description = {"Run the bench service: HTTP API and operator page for one bench, until Ctrl-C.",
         "Listens on 127.0.0.1 unless --listen says otherwise; then every call needs the access token."})
 final class ServeCommand implements Callable<Integer> {
 

@@ -15,7 +15,7 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench sim --dut PART.yaml}: serves the simulated bench over TCP (and a terminal). */
-@Command(name = "sim", description = {"Serve the simulated generator and digitizer over TCP on 127.0.0.1 until Ctrl-C.",
+@Command(name = "sim", mixinStandardHelpOptions = true, description = {"Serve the simulated generator and digitizer over TCP on 127.0.0.1 until Ctrl-C.",
         "Point `run --generator tcp://127.0.0.1:PORT --digitizer tcp://127.0.0.1:PORT+1` at it."})
 final class SimCommand implements Callable<Integer> {
 

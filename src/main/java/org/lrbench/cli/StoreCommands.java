@@ -108,7 +108,7 @@ final class StoreCommands {
         return v == null || !Double.isFinite(v) ? "" : Double.toString(v);
     }
 
-    @Command(name = "lots", description = "List every inspection of every lot in the results store, with its counts.")
+    @Command(name = "lots", mixinStandardHelpOptions = true, description = "List every inspection of every lot in the results store, with its counts.")
     static final class Lots extends StoreOptions implements Callable<Integer> {
         @Override
         public Integer call() throws Exception {
@@ -128,7 +128,7 @@ final class StoreCommands {
         }
     }
 
-    @Command(name = "lot", description = "Every attempt of a lot's parts from the results store, and which one counts.")
+    @Command(name = "lot", mixinStandardHelpOptions = true, description = "Every attempt of a lot's parts from the results store, and which one counts.")
     static final class Lot extends StoreOptions implements Callable<Integer> {
         @Parameters(index = "0", paramLabel = "LOT")
         String lot;
@@ -162,7 +162,7 @@ final class StoreCommands {
         }
     }
 
-    @Command(name = "history", description = "A part number's lots over time: yield, mean and spread of L and R.")
+    @Command(name = "history", mixinStandardHelpOptions = true, description = "A part number's lots over time: yield, mean and spread of L and R.")
     static final class History extends StoreOptions implements Callable<Integer> {
         @Parameters(index = "0", paramLabel = "PART_NUMBER")
         String partNumber;

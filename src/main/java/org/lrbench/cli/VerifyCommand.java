@@ -11,7 +11,7 @@ import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench verify}: re-reads the store, the result files and the trace archives and names what is not whole. */
-@Command(name = "verify", description = {"Check that a lot's records are as they were written: the store's hash chain,"
+@Command(name = "verify", mixinStandardHelpOptions = true, description = {"Check that a lot's records are as they were written: the store's hash chain,"
         + " every result file and every trace archive.", "Exit codes: 0 every record whole, 1 something altered,"
         + " truncated or missing (each named), 2 bad input."})
 final class VerifyCommand implements Callable<Integer> {

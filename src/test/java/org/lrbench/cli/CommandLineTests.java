@@ -394,6 +394,25 @@ class CommandLineTests {
                 .isCloseTo(2.62 / (1 + 0.00393 * 3), org.assertj.core.api.Assertions.within(1e-9));
     }
 
+    @Test
+    void everyCommandAnswersHelpAndTheCompletionScriptKnowsThem() {
+        for (String[] command : new String[][] {{"run"}, {"check"}, {"lots"}, {"lot"}, {"demo"}, {"serve"}, {"analyze"},
+            {"benchmark"}, {"benchmark", "coverage"}, {"verify"}, {"exercise"}, {"drivers"}, {"report"}, {"calibrate"},
+            {"rehearse"}, {"history"}, {"sim"}}) {
+            String[] args = java.util.Arrays.copyOf(command, command.length + 1);
+            args[command.length] = "--help";
+            Outcome o = run(args);
+            assertThat(o.code()).as(String.join(" ", args) + o.err()).isZero();
+            assertThat(o.out()).as(String.join(" ", args)).contains("Usage: lrbench " + String.join(" ", command));
+        }
+        Outcome help = run("help", "run");
+        assertThat(help.code()).isZero();
+        assertThat(help.out()).contains("Usage: lrbench run").contains("--lot-size");
+        Outcome completion = run("completion");
+        assertThat(completion.code()).isZero();
+        assertThat(completion.out()).contains("complete").contains("--reinspect").contains("verify");
+    }
+
     /** A copy of the shipped driver files to edit in a test. */
     static Path copyOfDrivers(Path dir) throws java.io.IOException {
         Path drivers = dir.resolve("drivers");
