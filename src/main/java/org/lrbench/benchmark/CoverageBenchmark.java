@@ -10,7 +10,6 @@ import java.util.Map;
 import org.lrbench.analysis.LumpedModel;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
-import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
@@ -146,8 +145,7 @@ public final class CoverageBenchmark {
         SimBench calBench = new SimBench(cal.simulation(), plan.wiring(), part);
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(cal, loader, calBench)) {
-            ChannelMatch m = CalibrationRun.channels(plan, inst, calBench::setPosition, Sleeper.NONE);
-            corrections = new Calibration(m, CalibrationRun.fixture(plan, inst, calBench::setPosition, Sleeper.NONE, m));
+            corrections = CalibrationRun.calibrate(plan, inst, calBench::setPosition, Sleeper.NONE);
         }
         BenchConfig meas = b.withSimulation(b.simulation().withSeed(seed + 1));
         SimBench sim = new SimBench(meas.simulation(), plan.wiring(), part);

@@ -38,6 +38,12 @@ public final class CalibrationRun {
         return ChannelMatch.fit(now(), f, ratio);
     }
 
+    /** Both corrections in turn: the channel match, then the fixture measured with it in force. */
+    public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper) {
+        ChannelMatch m = channels(plan, inst, change, sleeper);
+        return new Calibration(m, fixture(plan, inst, change, sleeper, m));
+    }
+
     /** Short and open of the fixture, each corrected by the channel match when there is one. */
     public static FixtureCompensation fixture(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper,
                                               ChannelMatch channels) {

@@ -152,7 +152,7 @@ public final class LotRunner {
         String lot = t.lot();
         Inspection inspection = s.ledger().open(s.terms(), s.reinspectReason());
         if (inspection.decided()) {
-            List<Attempt> counting = counting(s.ledger().attempts(lot, inspection.round()));
+            List<Attempt> counting = Attempt.counting(s.ledger().attempts(lot, inspection.round()));
             return new Outcome(inspection, List.of(), counting, disposition(s, inspection.terms().lotSize(), counting),
                     true, false);
         }
@@ -162,7 +162,7 @@ public final class LotRunner {
         boolean stopped = false;
         LotStop stop = s.stop();
         while (!stopped) {
-            List<Attempt> counting = counting(s.ledger().attempts(lot, round));
+            List<Attempt> counting = Attempt.counting(s.ledger().attempts(lot, round));
             Map<String, Attempt> bySerial = counting.stream()
                     .collect(Collectors.toMap(Attempt::serial, a -> a, (a, b) -> b, LinkedHashMap::new));
             int judged = (int) counting.stream().filter(Attempt::judged).count();
@@ -221,7 +221,7 @@ public final class LotRunner {
                 }
                 kept.add(a);
                 onPart.accept(r);
-                stop.waiting((int) counting(s.ledger().attempts(lot, round)).stream().filter(Attempt::judged).count(), n);
+                stop.waiting((int) Attempt.counting(s.ledger().attempts(lot, round)).stream().filter(Attempt::judged).count(), n);
                 reason = feeder.again(r.serial(), r.verdict());
                 stop.working();
                 if (stop.requested()) {
@@ -233,7 +233,7 @@ public final class LotRunner {
                 }
             }
         }
-        List<Attempt> counting = counting(s.ledger().attempts(lot, round));
+        List<Attempt> counting = Attempt.counting(s.ledger().attempts(lot, round));
         LotDisposition.Result d = disposition(s, s.lotSize(), counting);
         if (stopped) {
             // a stop request leaves the inspection open whatever the parts so far say: it is resumed, not decided
@@ -245,10 +245,6 @@ public final class LotRunner {
                     Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
         }
         return new Outcome(inspection, List.copyOf(kept), counting, d, false, stopped);
-    }
-
-    private static List<Attempt> counting(List<Attempt> roundAttempts) {
-        return Attempt.counting(roundAttempts);
     }
 
     private record Measured(PartResult result, List<PointResult> points) {

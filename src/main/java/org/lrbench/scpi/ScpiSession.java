@@ -99,29 +99,7 @@ public final class ScpiSession implements AutoCloseable {
 
     /** Sends a query and returns its response message without the terminator. */
     public synchronized String query(String command) {
-        write(command);
-        queries++;
-        long start = System.nanoTime();
-        try {
-            String reply = readLine(command);
-            if (IO.isDebugEnabled()) {
-                IO.debug("{} < {}", instrument, reply.length() > 240 ? reply.substring(0, 240) + "... ("
-                        + reply.length() + " characters)" : reply);
-            }
-            return reply;
-        } catch (TransportTimeoutException e) {
-            IO.debug("{} ! no reply after {} ms", instrument, elapsedMillis(start));
-            stale = true;
-            flushLateReplies();
-            throw new InstrumentException(instrument + " (" + transport.address() + "): no reply to '" + command
-                    + "' after " + elapsedMillis(start) + " ms (timeout " + timeout.toMillis() + " ms)", e);
-        } catch (IOException e) {
-            stale = true;
-            throw new InstrumentException(instrument + " (" + transport.address() + "): reading the reply to '"
-                    + command + "' failed after " + elapsedMillis(start) + " ms: " + e.getMessage(), e);
-        } finally {
-            ioNanos += System.nanoTime() - start;
-        }
+        return queryLines(command, 1).get(0);
     }
 
     /** Sends a query whose response is {@code lines} lines (an ASCII list one value per line). */
@@ -135,15 +113,18 @@ public final class ScpiSession implements AutoCloseable {
                 out.add(readLine(command));
             }
             if (IO.isDebugEnabled()) {
-                IO.debug("{} < {} lines, first '{}'", instrument, out.size(), out.isEmpty() ? "" : out.get(0));
+                String first = out.get(0);
+                IO.debug("{} < {}{}", instrument, first.length() > 240 ? first.substring(0, 240) + "... ("
+                        + first.length() + " characters)" : first, lines > 1 ? " (and " + (lines - 1) + " more lines)" : "");
             }
             return out;
         } catch (TransportTimeoutException e) {
+            IO.debug("{} ! no reply after {} ms", instrument, elapsedMillis(start));
             stale = true;
             flushLateReplies();
-            throw new InstrumentException(instrument + " (" + transport.address() + "): " + out.size() + " of " + lines
-                    + " lines of the reply to '" + command + "' after " + elapsedMillis(start) + " ms (timeout "
-                    + timeout.toMillis() + " ms)", e);
+            throw new InstrumentException(instrument + " (" + transport.address() + "): " + (lines == 1 ? "no reply"
+                    : out.size() + " of " + lines + " lines of the reply") + " to '" + command + "' after "
+                    + elapsedMillis(start) + " ms (timeout " + timeout.toMillis() + " ms)", e);
         } catch (IOException e) {
             stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the reply to '"

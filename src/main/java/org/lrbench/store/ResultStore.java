@@ -677,11 +677,7 @@ public final class ResultStore implements AutoCloseable {
     /** Every inspection of every lot, in the order they were started, with counts of their counting attempts. */
     public List<LotRecord> lots() {
         try {
-            List<LotRecord> out = new ArrayList<>();
-            for (Inspection i : inspections(null)) {
-                out.add(record(i, attempts(i.lot(), i.round())));
-            }
-            return out;
+            return records(inspections(null), summaries(null));
         } catch (SQLException e) {
             throw new StoreException("listing lots failed: " + StoreErrors.describe(e), e);
         }
@@ -690,15 +686,41 @@ public final class ResultStore implements AutoCloseable {
     /** Every inspection of one lot, first to latest. */
     public List<LotRecord> lot(String lot) {
         try {
-            List<Attempt> all = attempts(lot);
-            List<LotRecord> out = new ArrayList<>();
-            for (Inspection i : inspections(lot)) {
-                out.add(record(i, all.stream().filter(a -> a.round() == i.round()).toList()));
-            }
-            return out;
+            return records(inspections(lot), summaries(lot));
         } catch (SQLException e) {
             throw new StoreException("reading lot " + lot + " failed: " + StoreErrors.describe(e), e);
         }
+    }
+
+    private static List<LotRecord> records(List<Inspection> inspections, Map<String, List<Attempt>> byRound) {
+        List<LotRecord> out = new ArrayList<>();
+        for (Inspection i : inspections) {
+            out.add(record(i, byRound.getOrDefault(i.lot() + "\n" + i.round(), List.of())));
+        }
+        return out;
+    }
+
+    /**
+     * The attempts of one lot (or of every lot) without their JSON records, in one query, grouped by
+     * lot and round ("LOT\nROUND"): what listings and histories count, without reading every record.
+     */
+    private Map<String, List<Attempt>> summaries(String lot) throws SQLException {
+        Map<String, List<Attempt>> out = new LinkedHashMap<>();
+        String sql = "SELECT lot, serial, attempt, round, position, verdict, inductance_h, series_resistance_ohm, measured_at"
+                + " FROM attempt" + (lot == null ? "" : " WHERE lot = ?") + " ORDER BY lot, round, position, attempt";
+        try (PreparedStatement q = db.prepareStatement(sql)) {
+            if (lot != null) {
+                q.setString(1, lot);
+            }
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    Attempt a = new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5),
+                            r.getString(6), real(r, 7), real(r, 8), r.getString(9), null, null, null, null, null, null);
+                    out.computeIfAbsent(a.lot() + "\n" + a.round(), k -> new ArrayList<>()).add(a);
+                }
+            }
+        }
+        return out;
     }
 
     private static LotRecord record(Inspection i, List<Attempt> all) {
@@ -725,11 +747,13 @@ public final class ResultStore implements AutoCloseable {
     public List<LotStatistics> history(String partNumber) {
         List<LotStatistics> out = new ArrayList<>();
         try {
+            Map<String, List<Attempt>> byRound = summaries(null);
             for (Inspection i : inspections(null)) {
                 if (!i.terms().partNumber().equals(partNumber)) {
                     continue;
                 }
-                List<Attempt> judged = Attempt.counting(attempts(i.lot(), i.round())).stream().filter(Attempt::judged).toList();
+                List<Attempt> judged = Attempt.counting(byRound.getOrDefault(i.lot() + "\n" + i.round(), List.of()))
+                        .stream().filter(Attempt::judged).toList();
                 int passed = count(judged, "pass");
                 out.add(stats(i, judged, passed));
             }

@@ -15,8 +15,6 @@ import org.lrbench.TestBench;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.calibration.Calibration;
-import org.lrbench.calibration.ChannelMatch;
-import org.lrbench.calibration.FixtureCompensation;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
@@ -60,9 +58,7 @@ class PersonalityTests {
         DriverLoader drivers = new DriverLoader(HOME.resolve("drivers"));
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            ChannelMatch m = CalibrationRun.channels(plan, inst, sim::setPosition, Sleeper.NONE);
-            FixtureCompensation f = CalibrationRun.fixture(plan, inst, sim::setPosition, Sleeper.NONE, m);
-            corrections = new Calibration(m, f);
+            corrections = CalibrationRun.calibrate(plan, inst, sim::setPosition, Sleeper.NONE);
         }
         PartRun.Request request = new PartRun.Request(plan, "0", b, "L", "S", true, "test", corrections);
         PartResult local;
@@ -126,8 +122,7 @@ class PersonalityTests {
         DriverLoader drivers = new DriverLoader(HOME.resolve("drivers"));
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            ChannelMatch m = CalibrationRun.channels(plan, inst, sim::setPosition, Sleeper.NONE);
-            corrections = new Calibration(m, CalibrationRun.fixture(plan, inst, sim::setPosition, Sleeper.NONE, m));
+            corrections = CalibrationRun.calibrate(plan, inst, sim::setPosition, Sleeper.NONE);
         }
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
             PartResult r = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "S", true, "test", corrections), inst,
