@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Set;
 import org.apache.commons.math3.complex.Complex;
+import org.apache.commons.math3.distribution.FDistribution;
 import org.lrbench.analysis.fit.FitException;
 import org.lrbench.analysis.fit.FitModel;
 import org.lrbench.analysis.fit.FitResult;
@@ -18,10 +19,14 @@ import org.lrbench.analysis.fit.LeastSquares;
  * capacitance is wanted, the admittance: for a winding well above its R/L corner,
  * omega Im(1/Z) = -1/L + omega^2 C_p, a straight line in omega^2 whose intercept and slope give
  * L and C_p in closed form, through self-resonance as below it. A fit whose L is not positive, or
- * whose reduced chi-square stays above {@value #CHI_LIMIT} (no model describes the data), is refused. An optional parameter that the data cannot identify, because its estimate is not
- * significantly different from its null value (less than twice its standard uncertainty), has an
- * unphysical sign, or leaves the covariance singular, is fixed at its null value and the fit is
- * repeated; the result says which parameters were dropped and why.
+ * whose reduced chi-square stays above {@value #CHI_LIMIT} (no model describes the data), is refused.
+ * <p>
+ * An optional term is kept only when it improves the fit significantly: the extra-sum-of-squares
+ * F test at the 5 % level (one added parameter against the residual variance of the fit with it).
+ * A term with an unphysical (negative) estimate, one that leaves the covariance singular, and the
+ * weakest term that fails the test are fixed at their null value in turn and the fit repeated; the
+ * result says which were dropped and why, and keeps the fit that still had each one, so that the
+ * budget can carry what leaving it out may cost ({@link SweepAnalysis}).
  */
 public final class LumpedFit {
     /** Reduced chi-square above which the model does not describe the data and no value is reported. */
@@ -33,7 +38,7 @@ public final class LumpedFit {
     /** The fit: full parameter vector, its covariance (zero rows for fixed ones), dropped parameters. */
     public record Result(double[] parameters, double[][] covariance, Set<LumpedParameter> free,
                          List<String> dropped, double reducedChiSquare, int degreesOfFreedom,
-                         double capacitanceUpperBound) {
+                         double capacitanceUpperBound, List<Omitted> omitted) {
 
         public double value(LumpedParameter p) {
             return parameters[p.ordinal()];
@@ -51,13 +56,22 @@ public final class LumpedFit {
         }
     }
 
+    /**
+     * A model term the fit left out, with the parameters of the fit that still had it: what each
+     * reported quantity would have been with the term is what leaving it out may cost.
+     */
+    public record Omitted(LumpedParameter term, double[] parametersWith) {
+    }
+
     public static Result fit(List<ImpedancePoint> points, Set<LumpedParameter> wanted) {
         SeriesModel series = SeriesModelFit.fit(points);
         Set<LumpedParameter> free = EnumSet.of(LumpedParameter.R_DC, LumpedParameter.L);
         free.addAll(wanted);
         List<String> dropped = new ArrayList<>();
+        List<Omitted> omitted = new ArrayList<>();
         double[] scale = scales(points, series);
         double cUpper = Double.NaN;
+        List<double[]> starts = starts(points, series);
         while (true) {
             if (2 * points.size() <= free.size()) {
                 // too few points for this many parameters: drop optional ones first
@@ -71,7 +85,7 @@ public final class LumpedFit {
             }
             FitResult r;
             try {
-                r = best(points, free, starts(points, series), scale);
+                r = best(points, free, starts, scale);
             } catch (FitException e) {
                 LumpedParameter last = lastOptional(free);
                 if (last == null) {
@@ -85,38 +99,74 @@ public final class LumpedFit {
             double[][] cov = expandCovariance(r.covariance(), free, scale);
             double chi = r.reducedChiSquare();
             double inflate = chi > 1 ? chi : 1;
-            LumpedParameter worst = null;
-            double worstRatio = Double.POSITIVE_INFINITY;
-            for (LumpedParameter p : free) {
-                if (!p.optional()) {
-                    continue;
-                }
-                double v = full[p.ordinal()];
-                double u = Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate);
-                double ratio = v < 0 ? -1 : v / u;
-                if (p == LumpedParameter.C_P) {
-                    cUpper = Math.max(v, 0) + 2 * u;
-                }
-                if (ratio < 2 && ratio < worstRatio) {
-                    worst = p;
-                    worstRatio = ratio;
-                }
-            }
-            if (worst != null) {
-                double v = full[worst.ordinal()];
-                double u = Math.sqrt(cov[worst.ordinal()][worst.ordinal()] * inflate);
-                free.remove(worst);
-                dropped.add(String.format(Locale.ROOT, "%s: %.4g +/- %.2g is %s; fixed at 0", worst.key(), v, u,
-                        v < 0 ? "unphysical (negative)" : "not significant (under 2 standard uncertainties)"));
-                continue;
-            }
             if (free.contains(LumpedParameter.C_P)) {
                 double v = full[LumpedParameter.C_P.ordinal()];
-                cUpper = v + 2 * Math.sqrt(cov[LumpedParameter.C_P.ordinal()][LumpedParameter.C_P.ordinal()] * inflate);
+                cUpper = Math.max(v, 0) + 2 * Math.sqrt(cov[LumpedParameter.C_P.ordinal()][LumpedParameter.C_P.ordinal()] * inflate);
+            }
+            String reason = null;
+            LumpedParameter drop = null;
+            double weakest = Double.POSITIVE_INFINITY;
+            for (LumpedParameter p : free) {
+                if (p.optional() && full[p.ordinal()] < 0) {
+                    drop = p;
+                    reason = String.format(Locale.ROOT, "%s: %.4g +/- %.2g is unphysical (negative); fixed at 0",
+                            p.key(), full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate));
+                    break;
+                }
+            }
+            if (drop == null) {
+                for (LumpedParameter p : free) {
+                    if (!p.optional()) {
+                        continue;
+                    }
+                    Set<LumpedParameter> without = EnumSet.copyOf(free);
+                    without.remove(p);
+                    double f = fStatistic(points, without, full, scale, r);
+                    double critical = critical(r.degreesOfFreedom());
+                    if (f < critical && f < weakest) {
+                        weakest = f;
+                        drop = p;
+                        reason = String.format(Locale.ROOT, "%s: %.4g +/- %.2g does not improve the fit significantly"
+                                + " (F = %.3g < %.3g, extra-sum-of-squares test at 5 %%); fixed at 0", p.key(),
+                                full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate), f, critical);
+                    }
+                }
+            }
+            if (drop != null) {
+                if (weakest < Double.POSITIVE_INFINITY) {
+                    // left out by the test, not for an unphysical sign: it may still be there
+                    omitted.add(new Omitted(drop, full.clone()));
+                }
+                free.remove(drop);
+                dropped.add(reason);
+                continue;
             }
             refuseUnphysical(full, chi, free);
-            return new Result(full, cov, EnumSet.copyOf(free), List.copyOf(dropped), chi, r.degreesOfFreedom(), cUpper);
+            return new Result(full, cov, EnumSet.copyOf(free), List.copyOf(dropped), chi, r.degreesOfFreedom(), cUpper,
+                    List.copyOf(omitted));
         }
+    }
+
+    /**
+     * The extra-sum-of-squares F statistic of one term: the chi-square of the fit without it less
+     * that of the fit with it, over the reduced chi-square with it (one added parameter; Bevington
+     * and Robinson, Data Reduction and Error Analysis, 3rd ed., section 11.4, from memory).
+     */
+    private static double fStatistic(List<ImpedancePoint> points, Set<LumpedParameter> without, double[] from,
+                                     double[] scale, FitResult with) {
+        double chiWith = with.reducedChiSquare() * with.degreesOfFreedom();
+        double chiWithout;
+        try {
+            chiWithout = best(points, without, List.of(from), scale).reducedChiSquare() * (with.degreesOfFreedom() + 1);
+        } catch (FitException e) {
+            return Double.POSITIVE_INFINITY; // the reduced model cannot be fitted: keep the term
+        }
+        return (chiWithout - chiWith) / (chiWith / with.degreesOfFreedom());
+    }
+
+    /** The 95th percentile of F(1, dof): a term is kept when it explains this much more than noise. */
+    private static double critical(int dof) {
+        return new FDistribution(1, Math.max(1, dof)).inverseCumulativeProbability(0.95);
     }
 
     /**

@@ -22,4 +22,17 @@ public record SineFitResult(double frequencyHz, double cosineCoefficient, double
     public double componentVariance() {
         return 0.5 * (varianceCosine + varianceSine);
     }
+
+    /** The same fit with its sine multiplied by {@code k} (a gain correction): variances by k^2. */
+    public SineFitResult scaled(double k) {
+        return new SineFitResult(frequencyHz, k * cosineCoefficient, k * sineCoefficient, offset, residualRms,
+                k * k * varianceCosine, k * k * varianceSine, k * k * covarianceCosineSine, samples);
+    }
+
+    /** This fit's sine plus {@code k} times another's (same frequency), with this fit's variances. */
+    public SineFitResult plus(SineFitResult other, double k) {
+        return new SineFitResult(frequencyHz, cosineCoefficient + k * other.cosineCoefficient,
+                sineCoefficient + k * other.sineCoefficient, offset + k * other.offset, residualRms,
+                varianceCosine, varianceSine, covarianceCosineSine, samples);
+    }
 }

@@ -51,7 +51,8 @@ public final class BenchLoader {
 
     private static BenchAccuracy accuracy(YamlMap root) {
         BenchAccuracy d = BenchAccuracy.defaults();
-        YamlMap m = root.map("accuracy", false, "sense_resistor_tolerance", "gain_accuracy", "skew", "frequency_accuracy");
+        YamlMap m = root.map("accuracy", false, "sense_resistor_tolerance", "gain_accuracy", "skew", "frequency_accuracy",
+                "range_gain_match");
         if (m == null) {
             return d;
         }
@@ -62,8 +63,10 @@ public final class BenchLoader {
             m.problem("skew", "must not be negative");
         }
         Double freq = relative(m, "frequency_accuracy");
+        Double ranges = relative(m, "range_gain_match");
         return new BenchAccuracy(sense == null ? d.senseTolerance() : sense, gain == null ? d.gainAccuracy() : gain,
-                skew == null ? d.skewSecond() : skew, freq == null ? d.frequencyAccuracy() : freq);
+                skew == null ? d.skewSecond() : skew, freq == null ? d.frequencyAccuracy() : freq,
+                ranges == null ? d.rangeGainMatch() : ranges, Double.POSITIVE_INFINITY);
     }
 
     private static Double relative(YamlMap m, String key) {

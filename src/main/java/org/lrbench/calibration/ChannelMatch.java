@@ -11,7 +11,25 @@ import org.apache.commons.math3.complex.Complex;
  * standard uncertainties come from the scatter of the points about these two numbers.
  */
 public record ChannelMatch(String measuredAt, double gainRatio, double gainUncertainty, double skewSecond,
-                           double skewUncertaintySecond, int points) {
+                           double skewUncertaintySecond, int points, List<double[]> rangePairs) {
+
+    /** A match whose ranges were not recorded (kept before they were): every range pair counts as other. */
+    public ChannelMatch(String measuredAt, double gainRatio, double gainUncertainty, double skewSecond,
+                        double skewUncertaintySecond, int points) {
+        this(measuredAt, gainRatio, gainUncertainty, skewSecond, skewUncertaintySecond, points, List.of());
+    }
+
+    /** The same match with the {channel 1, channel 2} full-scale ranges (volts at the fixture) it was measured on. */
+    public ChannelMatch withRangePairs(List<double[]> pairs) {
+        return new ChannelMatch(measuredAt, gainRatio, gainUncertainty, skewSecond, skewUncertaintySecond, points,
+                List.copyOf(pairs));
+    }
+
+    /** Whether the match was measured with the channels on these ranges (to 1e-6). */
+    public boolean measuredOn(double range1, double range2) {
+        return rangePairs != null && rangePairs.stream().anyMatch(r -> Math.abs(r[0] - range1) <= 1e-6 * range1
+                && Math.abs(r[1] - range2) <= 1e-6 * range2);
+    }
 
     /** Fits gain and skew to measured ratios at their frequencies. */
     public static ChannelMatch fit(String measuredAt, double[] frequencyHz, List<Complex> ratio) {

@@ -16,10 +16,17 @@ public record FixtureCompensation(String measuredAt, List<Point> points) {
      * The short and open readings at one frequency; {@code openReal}/{@code openImag} NaN when lost in
      * noise; {@code shortUncertaintyOhm} the short reading's own standard uncertainty per component
      * (null in corrections kept before it was recorded: then taken as 0); {@code openModelled} true where
- * the open was lost in noise and is the stray modelled from the frequencies where it was read.
+     * the open was lost in noise and is the stray modelled from the frequencies where it was read;
+     * {@code openAdmittanceUncertainty} the standard uncertainty per component of the open's
+     * admittance Y_o in siemens (null in corrections kept before it was recorded: then 0).
      */
     public record Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag,
-                        Double shortUncertaintyOhm, Boolean openModelled) {
+                        Double shortUncertaintyOhm, Boolean openModelled, Double openAdmittanceUncertainty) {
+
+        public Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag,
+                     Double shortUncertaintyOhm, Boolean openModelled) {
+            this(frequencyHz, shortReal, shortImag, openReal, openImag, shortUncertaintyOhm, openModelled, null);
+        }
 
         public Point(double frequencyHz, double shortReal, double shortImag, double openReal, double openImag) {
             this(frequencyHz, shortReal, shortImag, openReal, openImag, null, null);
@@ -57,16 +64,18 @@ public record FixtureCompensation(String measuredAt, List<Point> points) {
     /**
      * The standard uncertainty per component of the compensated impedance: the measured point's
      * and the short reading's (it is subtracted, so the two add in quadrature), carried through the
-     * correction's derivative dZ/dZ_m = 1 / (1 - (Z_m - Z_s) Y_o)^2 (first-order propagation,
-     * JCGM 100:2008 5.1.2). The open reading's own noise is not carried.
+     * correction's derivative dZ/dZ_m = 1 / (1 - D Y_o)^2 with D = Z_m - Z_s, and the open
+     * admittance's own uncertainty through dZ/dY_o = D^2 / (1 - D Y_o)^2 (first-order propagation,
+     * JCGM 100:2008 5.1.2).
      */
     public double uncertainty(double frequencyHz, Complex measured, double measuredUncertainty) {
         Point p = at(frequencyHz);
         double us = p.shortUncertaintyOhm() == null ? 0 : p.shortUncertaintyOhm();
+        double uy = p.openAdmittanceUncertainty() == null || Double.isNaN(p.openReal()) ? 0 : p.openAdmittanceUncertainty();
         Complex d = measured.subtract(p.shortZ());
         Complex den = Complex.ONE.subtract(d.multiply(p.openAdmittance()));
         double gain = 1 / (den.abs() * den.abs());
-        return Math.hypot(measuredUncertainty, us) * gain;
+        return Math.hypot(Math.hypot(measuredUncertainty, us), d.abs() * d.abs() * uy) * gain;
     }
 
     /**

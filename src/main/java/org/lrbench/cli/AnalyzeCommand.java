@@ -185,9 +185,10 @@ final class AnalyzeCommand implements Callable<Integer> {
         System.out.printf("  %12s %14s %14s %14s %14s%n", "frequency", "R before", "R now", "L before", "L now");
         for (int i = 0; i < c.points().size(); i++) {
             var p = c.points().get(i);
-            ImpedancePoint z = org.lrbench.analysis.PhasorImpedance.of(p.frequencyHz(),
-                    org.lrbench.analysis.SineFit.fit(p.sense(), p.intervalSecond(), p.frequencyHz()),
-                    org.lrbench.analysis.SineFit.fit(p.part(), p.intervalSecond(), p.frequencyHz()), rs);
+            // the same extraction as the sweep: both channels fitted and corrected for quantization
+            var phasors = org.lrbench.analysis.FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(),
+                    1, 1, false);
+            ImpedancePoint z = org.lrbench.analysis.PhasorImpedance.of(p.frequencyHz(), phasors.sense(), phasors.part(), rs);
             Double oldR = old != null && old.size() > i ? old.get(i).get("resistance_ohm").asDouble() : null;
             Double oldL = old != null && old.size() > i ? old.get(i).get("inductance_h").asDouble() : null;
             System.out.printf(Locale.ROOT, "  %12s %14s %14s %14s %14s%n", Units.format(p.frequencyHz(), Dimension.FREQUENCY),
@@ -201,10 +202,9 @@ final class AnalyzeCommand implements Callable<Integer> {
             row.put("previous_resistance_ohm", oldR);
             row.put("previous_inductance_h", oldL);
             rows.add(row);
-            var senseFit = org.lrbench.analysis.SineFit.fit(p.sense(), p.intervalSecond(), p.frequencyHz());
-            var partFit = org.lrbench.analysis.SineFit.fit(p.part(), p.intervalSecond(), p.frequencyHz());
-            points.add(new org.lrbench.measure.PointResult(z, senseFit, partFit, p.senseRange(), p.partRange(),
-                    p.intervalSecond(), p.sense().length, 1, 0.0, null, null));
+            points.add(new org.lrbench.measure.PointResult(z, phasors.sense(), phasors.part(), p.senseRange(),
+                    p.partRange(), p.intervalSecond(), p.sense().length, 1, 0.0, null, null, phasors.senseCorrection(),
+                    phasors.partCorrection()));
         }
         java.util.Map<String, Object> judged = rejudge(original, points);
         String stamp = java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS).toString().replace(":", "");

@@ -111,7 +111,7 @@ final class BenchmarkCommand implements Runnable {
     @Command(name = "coverage", mixinStandardHelpOptions = true, description = {"Coverage of the expanded uncertainty over a matrix of simulated parts,",
             "each calibrated and measured on independent seeds; every miss of a goal is marked."})
     static final class Coverage implements Callable<Integer> {
-        @Option(names = "--seeds", defaultValue = "50", description = "seeds per part (default: ${DEFAULT-VALUE})")
+        @Option(names = "--seeds", defaultValue = "100", description = "seeds per part (default: ${DEFAULT-VALUE})")
         int seeds;
 
         @Option(names = "--bench", paramLabel = "BENCH", description = "simulated bench (default: simulator/bench.yaml)")

@@ -1,6 +1,7 @@
 package org.lrbench.measure;
 
 import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.Quantization;
 import org.lrbench.analysis.SineFitResult;
 import org.lrbench.instrument.Trace;
 
@@ -11,5 +12,23 @@ import org.lrbench.instrument.Trace;
  */
 public record PointResult(ImpedancePoint impedance, SineFitResult senseFit, SineFitResult partFit,
                           double senseRangeVolt, double partRangeVolt, double sampleIntervalSecond,
-                          int samples, int acquisitions, double currentThd, Trace senseTrace, Trace partTrace) {
+                          int samples, int acquisitions, double currentThd, Trace senseTrace, Trace partTrace,
+                          Quantization.Correction senseQuantization, Quantization.Correction partQuantization) {
+
+    /** A point without quantization corrections (read back from a record that has none). */
+    public PointResult(ImpedancePoint impedance, SineFitResult senseFit, SineFitResult partFit, double senseRangeVolt,
+                       double partRangeVolt, double sampleIntervalSecond, int samples, int acquisitions,
+                       double currentThd, Trace senseTrace, Trace partTrace) {
+        this(impedance, senseFit, partFit, senseRangeVolt, partRangeVolt, sampleIntervalSecond, samples, acquisitions,
+                currentThd, senseTrace, partTrace, Quantization.Correction.NONE, Quantization.Correction.NONE);
+    }
+
+    /**
+     * The relative standard uncertainty of the impedance from the two channels' quantization
+     * corrections: systematic, since the same signal on the same range gives the same correction.
+     */
+    public double quantizationRelativeUncertainty() {
+        return Math.hypot(senseQuantization.gainUncertainty() / senseQuantization.gain(),
+                partQuantization.gainUncertainty() / partQuantization.gain());
+    }
 }

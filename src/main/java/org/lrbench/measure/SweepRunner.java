@@ -2,10 +2,10 @@ package org.lrbench.measure;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.HarmonicFit;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.PhasorImpedance;
-import org.lrbench.analysis.SineFit;
 import org.lrbench.analysis.SineFitResult;
 import org.lrbench.analysis.TriangleExtraction;
 import org.lrbench.instrument.Coupling;
@@ -17,6 +17,7 @@ import org.lrbench.instrument.Waveform;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.SineSweep;
 import org.lrbench.plan.TriangleCheck;
+import org.lrbench.sim.FixtureWiring;
 
 /**
  * Runs a plan's sine sweep on a generator and a digitizer: per frequency it sets the generator,
@@ -124,10 +125,10 @@ public final class SweepRunner {
     }
 
     static double[][] volts(Plan plan, AutoRanger.Capture capture) {
-        org.lrbench.sim.FixtureWiring w = plan.wiring();
+        FixtureWiring w = plan.wiring();
         double a1 = w == null ? 1 : w.attenuation1();
         double a2 = w == null ? 1 : w.attenuation2();
-        boolean lowSide = w != null && w.topology() == org.lrbench.sim.FixtureWiring.Topology.LOW_SIDE;
+        boolean lowSide = w != null && w.topology() == FixtureWiring.Topology.LOW_SIDE;
         double[] s = capture.sense().volts();
         double[] p = capture.part().volts();
         double[] sense = new double[s.length];
@@ -146,8 +147,12 @@ public final class SweepRunner {
         sleeper.sleep(sweep.settleSecond());
         AutoRanger.Capture capture = ranger.acquire();
         double[][] v = volts(plan, capture);
-        SineFitResult sense = SineFit.fit(v[0], capture.sense().intervalSecond(), f);
-        SineFitResult part = SineFit.fit(v[1], capture.part().intervalSecond(), f);
+        FixtureWiring w = plan.wiring();
+        FixturePhasors.Result phasors = FixturePhasors.of(capture.sense().volts(), capture.part().volts(),
+                capture.sense().intervalSecond(), f, attenuation(plan, 1), attenuation(plan, 2),
+                w != null && w.topology() == FixtureWiring.Topology.LOW_SIDE);
+        SineFitResult sense = phasors.sense();
+        SineFitResult part = phasors.part();
         if (sense.amplitude() <= 3 * sense.residualRms() * Math.sqrt(2.0 / sense.samples())) {
             if (openCircuit) {
                 ImpedancePoint none = new ImpedancePoint(f, new org.apache.commons.math3.complex.Complex(Double.NaN, Double.NaN),
@@ -155,7 +160,7 @@ public final class SweepRunner {
                 return new PointResult(none, sense, part, capture.sense().rangeVolt() * attenuation(plan, 1),
                         capture.part().rangeVolt() * attenuation(plan, 2),
                         timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), Double.NaN,
-                        capture.sense(), capture.part());
+                        capture.sense(), capture.part(), phasors.senseCorrection(), phasors.partCorrection());
             }
             throw new MeasurementException(String.format(java.util.Locale.ROOT,
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
@@ -165,6 +170,6 @@ public final class SweepRunner {
         return new PointResult(z, sense, part, capture.sense().rangeVolt() * attenuation(plan, 1),
                 capture.part().rangeVolt() * attenuation(plan, 2),
                 timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), thd,
-                capture.sense(), capture.part());
+                capture.sense(), capture.part(), phasors.senseCorrection(), phasors.partCorrection());
     }
 }

@@ -35,7 +35,8 @@ public final class CalibrationRun {
             f[i] = z.frequencyHz();
             ratio.add(z.impedanceOhm().divide(plan.senseResistanceOhm()));
         }
-        return ChannelMatch.fit(now(), f, ratio);
+        return ChannelMatch.fit(now(), f, ratio).withRangePairs(points.stream()
+                .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList());
     }
 
     /** Both corrections in turn: the channel match, then the fixture measured with it in force. */
@@ -54,10 +55,13 @@ public final class CalibrationRun {
         for (int i = 0; i < shorts.size(); i++) {
             ImpedancePoint s = match.apply(shorts.get(i).impedance());
             ImpedancePoint o = opens.get(i).impedance();
-            Complex open = Double.isNaN(o.impedanceOhm().getReal()) ? new Complex(Double.NaN, Double.NaN)
-                    : match.apply(o).impedanceOhm();
+            boolean lost = Double.isNaN(o.impedanceOhm().getReal());
+            ImpedancePoint oc = lost ? null : match.apply(o);
+            Complex open = lost ? new Complex(Double.NaN, Double.NaN) : oc.impedanceOhm();
+            // u(Y_o) = u(Z_open) / |Z_open - Z_s|^2, first order
+            Double uy = lost ? null : oc.componentUncertaintyOhm() / Math.pow(open.subtract(s.impedanceOhm()).abs(), 2);
             out.add(new FixtureCompensation.Point(s.frequencyHz(), s.resistanceOhm(), s.reactanceOhm(),
-                    open.getReal(), open.getImaginary(), s.componentUncertaintyOhm()));
+                    open.getReal(), open.getImaginary(), s.componentUncertaintyOhm(), false, uy));
         }
         change.moveTo(FixturePosition.PART);
         return new FixtureCompensation(now(), strayEverywhere(out));
@@ -74,6 +78,7 @@ public final class CalibrationRun {
         double sc = 0;
         double sw = 0;
         double sg = 0;
+        double su = 0;
         int readable = 0;
         for (FixtureCompensation.Point p : points) {
             if (Double.isNaN(p.openReal())) {
@@ -85,6 +90,8 @@ public final class CalibrationRun {
             // Im(Y) = w C: least squares with equal weights on Im(Y) gives C = sum(w Im Y) / sum(w^2)
             sc += omega * y.getImaginary();
             sw += omega * omega;
+            double uy = p.openAdmittanceUncertainty() == null ? 0 : p.openAdmittanceUncertainty();
+            su += omega * omega * uy * uy;
             sg += y.getReal();
             readable++;
         }
@@ -104,8 +111,9 @@ public final class CalibrationRun {
             }
             double omega = 2 * Math.PI * p.frequencyHz();
             Complex open = new Complex(p.shortReal(), p.shortImag()).add(new Complex(g, omega * c).reciprocal());
+            // u(C) = sqrt(sum w^2 u(Y)^2) / sum w^2 for the line through the origin; u(Y) = w u(C)
             out.add(new FixtureCompensation.Point(p.frequencyHz(), p.shortReal(), p.shortImag(), open.getReal(),
-                    open.getImaginary(), p.shortUncertaintyOhm(), true));
+                    open.getImaginary(), p.shortUncertaintyOhm(), true, omega * Math.sqrt(su) / sw));
         }
         return List.copyOf(out);
     }

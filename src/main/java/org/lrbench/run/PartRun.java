@@ -14,6 +14,7 @@ import org.lrbench.analysis.TriangleExtraction;
 import org.lrbench.analysis.fit.FitException;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
+import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Judge;
@@ -169,11 +170,17 @@ public final class PartRun {
             }
         }
         List<ImpedancePoint> z = calibration.apply(points.stream().map(PointResult::impedance).toList());
-        var accuracy = calibration.channels() == null ? bench.accuracy()
-                : bench.accuracy().afterChannelMatch(calibration.channels().gainUncertainty(),
-                        calibration.channels().skewUncertaintySecond());
+        ChannelMatch match = calibration.channels();
+        var accuracy = match == null ? bench.accuracy()
+                : bench.accuracy().afterChannelMatch(match.gainUncertainty(), match.skewUncertaintySecond(), match.points());
+        boolean otherRanges = match != null && points.stream()
+                .anyMatch(p -> !match.measuredOn(p.senseRangeVolt(), p.partRangeVolt()));
+        if (match != null && !otherRanges) {
+            accuracy = accuracy.withRangeGainMatch(0);
+        }
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
-                Readings.evaluations(plan.limits()), accuracy);
+                Readings.evaluations(plan.limits()), accuracy,
+                points.stream().mapToDouble(PointResult::quantizationRelativeUncertainty).toArray());
         double fMax = plan.sweep().highestHz();
         double l = sweep.fit().value(LumpedParameter.L);
         Double srf = null;

@@ -1,16 +1,16 @@
 package org.lrbench.traces;
 
+import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.FourParameterSineFit;
 import org.lrbench.analysis.FrequencyEstimate;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.PhasorImpedance;
-import org.lrbench.analysis.SineFit;
-import org.lrbench.analysis.SineFitResult;
 
 /**
  * The sine-phasor extraction on traces from a file: the frequency given, or estimated from the
  * current (spectrum peak, then the IEEE 1057 four-parameter fit); both channels fitted at that
- * frequency; Z = Rs V2 / V1.
+ * frequency, each corrected for its converter's quantization where the samples show its grid;
+ * Z = Rs V2 / V1.
  */
 public final class TraceAnalysis {
 
@@ -21,8 +21,7 @@ public final class TraceAnalysis {
         double f = frequencyHz != null ? frequencyHz
                 : FourParameterSineFit.fit(t.sense(), t.intervalSecond(), FrequencyEstimate.peakHz(t.sense(),
                         t.intervalSecond())).frequencyHz();
-        SineFitResult sense = SineFit.fit(t.sense(), t.intervalSecond(), f);
-        SineFitResult part = SineFit.fit(t.part(), t.intervalSecond(), f);
-        return PhasorImpedance.of(f, sense, part, senseOhm);
+        FixturePhasors.Result r = FixturePhasors.of(t.sense(), t.part(), t.intervalSecond(), f, 1, 1, false);
+        return PhasorImpedance.of(f, r.sense(), r.part(), senseOhm);
     }
 }

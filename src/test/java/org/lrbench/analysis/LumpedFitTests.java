@@ -75,6 +75,34 @@ class LumpedFitTests {
         assertThat(srfBound).isGreaterThan(13e3);
     }
 
+    /**
+     * The term test is the extra-sum-of-squares F test at 5 % (Bevington and Robinson, Data
+     * Reduction and Error Analysis, 3rd ed., 11.4, from memory): over repeats of a part with no
+     * parallel capacitance worth the name, the term is kept about 5 % of the time (false alarms at
+     * the test's level), and a capacitance ten times its uncertainty is always kept.
+     */
+    @Test
+    void modelTermsAreKeptByTheFTestAtItsLevel() {
+        PartModel none = new PartModel(1e-3, 2.3, 1e-18);
+        int kept = 0;
+        int runs = 200;
+        for (int seed = 0; seed < runs; seed++) {
+            LumpedFit.Result r = LumpedFit.fit(sweep(none, 200, 20e3, 11, 1e-3, seed), EnumSet.of(LumpedParameter.C_P));
+            kept += r.free().contains(LumpedParameter.C_P) ? 1 : 0;
+            if (!r.free().contains(LumpedParameter.C_P)) {
+                assertThat(r.dropped()).singleElement().asString().contains("parallel_capacitance");
+            }
+        }
+        // kept only with a positive estimate that passes: at most half of the 5 % two-sided chance,
+        // plus binomial scatter (3 sigma of 200 draws at 5 %: 9)
+        assertThat(kept).isLessThanOrEqualTo(10 + 9);
+        PartModel some = new PartModel(1e-3, 2.3, 2e-9);
+        for (int seed = 0; seed < 20; seed++) {
+            LumpedFit.Result r = LumpedFit.fit(sweep(some, 200, 20e3, 11, 1e-3, seed), EnumSet.of(LumpedParameter.C_P));
+            assertThat(r.free()).contains(LumpedParameter.C_P);
+        }
+    }
+
     @Test
     void uncertaintiesFromTheFitMatchTheScatterOverRepeats() {
         // the covariance's standard uncertainty must describe the spread of repeated fits

@@ -79,6 +79,29 @@ class CorrectionTests {
     }
 
     @Test
+    void theOpenAdmittancesUncertaintyIsCarriedThroughTheCompensation() {
+        // first-order propagation (JCGM 100:2008 5.1.2) of u(Y_o): |dZ/dY_o| checked by finite
+        // differences of the correction itself, near a resonance where the open correction matters
+        double f = 1e5;
+        double w = 2 * Math.PI * f;
+        Complex zs = new Complex(0.025, w * 40e-9);
+        Complex yo = new Complex(1e-7, w * 3e-12);
+        Complex open = zs.add(yo.reciprocal());
+        Complex zm = new Complex(900, 4.0e4);
+        double uy = 2e-8;
+        FixtureCompensation c = new FixtureCompensation("t", List.of(new FixtureCompensation.Point(f, zs.getReal(),
+                zs.getImaginary(), open.getReal(), open.getImaginary(), 0.0, false, uy)));
+        double h = 1e-12;
+        Complex shifted = zs.add(yo.add(new Complex(h, 0)).reciprocal());
+        FixtureCompensation moved = new FixtureCompensation("t", List.of(new FixtureCompensation.Point(f, zs.getReal(),
+                zs.getImaginary(), shifted.getReal(), shifted.getImaginary(), 0.0)));
+        double slopeY = moved.correct(f, zm).subtract(c.correct(f, zm)).abs() / h;
+        double slopeZ = c.correct(f, zm.add(new Complex(1e-3, 0))).subtract(c.correct(f, zm)).abs() / 1e-3;
+        assertThat(c.uncertainty(f, zm, 0.5)).isCloseTo(Math.hypot(0.5 * slopeZ, uy * slopeY),
+                within(1e-3 * c.uncertainty(f, zm, 0.5)));
+    }
+
+    @Test
     void calibrationOnTheSimulatedBenchRemovesLeadsGainAndSkew(@TempDir Path dir) throws Exception {
         // known truth: a 100 uH, 0.5 ohm part behind 25 mohm + 40 nH leads, channel 2 reading 1 % high
         // and 2 ns late; measured up to 200 kHz where skew matters (Q about 250 at the top)
