@@ -17,7 +17,7 @@ import org.lrbench.instrument.Waveform;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.SineSweep;
 import org.lrbench.plan.TriangleCheck;
-import org.lrbench.sim.FixtureWiring;
+import org.lrbench.fixture.FixtureWiring;
 
 /**
  * Runs a plan's sine sweep on a generator and a digitizer: per frequency it sets the generator,

@@ -3,7 +3,7 @@ package org.lrbench.plan;
 import java.util.List;
 import org.lrbench.judge.Limit;
 import org.lrbench.sampling.SamplingScheme;
-import org.lrbench.sim.FixtureWiring;
+import org.lrbench.fixture.FixtureWiring;
 
 /**
  * A validated measurement plan for one part number; {@code triangle} is null when the plan has no

@@ -14,7 +14,7 @@ import org.lrbench.judge.CharacteristicClass;
 import org.lrbench.sampling.InspectionLevel;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.sampling.SingleSampling;
-import org.lrbench.sim.FixtureWiring;
+import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.judge.DecisionRule;
 import org.lrbench.judge.Limit;
 import org.lrbench.units.Dimension;

@@ -14,7 +14,7 @@ import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
-import org.lrbench.sim.FixturePosition;
+import org.lrbench.fixture.FixturePosition;
 
 /**
  * Measures a bench's corrections at a plan's sweep frequencies: the channel match (both channels

@@ -1,6 +1,6 @@
 package org.lrbench.run;
 
-import org.lrbench.sim.FixturePosition;
+import org.lrbench.fixture.FixturePosition;
 
 /**
  * Gets the fixture into a position before a calibration sweep: on the simulated bench directly, on

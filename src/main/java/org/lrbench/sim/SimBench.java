@@ -1,5 +1,7 @@
 package org.lrbench.sim;
 
+import org.lrbench.fixture.FixturePosition;
+import org.lrbench.fixture.FixtureWiring;
 import java.util.ArrayList;
 import java.util.List;
 import org.apache.commons.math3.complex.Complex;

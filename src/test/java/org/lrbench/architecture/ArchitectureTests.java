@@ -1,0 +1,63 @@
+package org.lrbench.architecture;
+
+import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
+import static com.tngtech.archunit.library.dependencies.SlicesRuleDefinition.slices;
+
+import com.tngtech.archunit.core.importer.ImportOption;
+import com.tngtech.archunit.junit.AnalyzeClasses;
+import com.tngtech.archunit.junit.ArchTest;
+import com.tngtech.archunit.lang.ArchRule;
+
+/**
+ * The dependency rules of DEVELOPERS.md's architecture map, as code: a change that breaks one
+ * fails the build, naming the class and the dependency.
+ */
+@AnalyzeClasses(packages = "org.lrbench", importOptions = ImportOption.DoNotIncludeTests.class)
+class ArchitectureTests {
+
+    @ArchTest
+    static final ArchRule analysisIsPureNumerics = noClasses().that().resideInAPackage("org.lrbench.analysis..")
+            .should().dependOnClassesThat().resideInAnyPackage("org.lrbench.transport..", "org.lrbench.scpi..",
+                    "org.lrbench.driver..", "org.lrbench.store..", "org.lrbench.cli..", "org.lrbench.sim..",
+                    "org.lrbench.run..", "org.lrbench.service..", "org.lrbench.measure..")
+            .because("analysis is numerics on numbers, with no I/O, instruments or storage");
+
+    @ArchTest
+    static final ArchRule simulatorReachesNoRunner = noClasses().that().resideInAPackage("org.lrbench.sim..")
+            .should().dependOnClassesThat().resideInAnyPackage("org.lrbench.run..", "org.lrbench.cli..",
+                    "org.lrbench.service..", "org.lrbench.store..", "org.lrbench.records..")
+            .because("the simulator models a bench; it does not run lots or keep records");
+
+    @ArchTest
+    static final ArchRule transportsKnowNoPlan = noClasses().that().resideInAPackage("org.lrbench.transport..")
+            .should().dependOnClassesThat().resideInAnyPackage("org.lrbench.plan..", "org.lrbench.run..",
+                    "org.lrbench.measure..", "org.lrbench.cli..", "org.lrbench.store..")
+            .because("a transport moves bytes to one instrument and knows nothing of what they mean");
+
+    @ArchTest
+    static final ArchRule runnerKnowsSinksNotTheStoreOrConsole = noClasses().that().resideInAPackage("org.lrbench.run..")
+            .should().dependOnClassesThat().resideInAnyPackage("org.lrbench.store..", "org.lrbench.cli..",
+                    "org.lrbench.service..", "org.lrbench.records..")
+            .because("the runner reports to listeners and a ledger; the store and the console sit behind them");
+
+    @ArchTest
+    static final ArchRule nothingBelowTheCliReachesIt = noClasses().that().resideOutsideOfPackage("org.lrbench.cli..")
+            .should().dependOnClassesThat().resideInAPackage("org.lrbench.cli..")
+            .because("the command line is the top of the map");
+
+    @ArchTest
+    static final ArchRule serviceReachesNoCli = noClasses().that().resideInAPackage("org.lrbench.service..")
+            .should().dependOnClassesThat().resideInAPackage("org.lrbench.cli..");
+
+    @ArchTest
+    static final ArchRule realBenchCodeReachesNoSimulator = noClasses().that().resideInAnyPackage("org.lrbench.plan..",
+                    "org.lrbench.measure..", "org.lrbench.calibration..", "org.lrbench.judge..", "org.lrbench.uncertainty..",
+                    "org.lrbench.sampling..", "org.lrbench.results..", "org.lrbench.store..", "org.lrbench.records..",
+                    "org.lrbench.transport", "org.lrbench.scpi..", "org.lrbench.driver..", "org.lrbench.fixture..")
+            .should().dependOnClassesThat().resideInAPackage("org.lrbench.sim..")
+            .because("plans, sweeps, corrections and records are the same on a real bench; the fixture's wiring"
+                    + " belongs to real fixtures (package fixture)");
+
+    @ArchTest
+    static final ArchRule noPackageCycles = slices().matching("org.lrbench.(*)..").should().beFreeOfCycles();
+}
