@@ -40,11 +40,30 @@ public final class Quantization {
      * The correction of one channel's fitted sine: divide its phasor by {@code gain}.
      * {@code codeStep} NaN when the record shows no quantization grid (then gain is 1);
      * {@code noise} the noise ahead of the quantizer estimated from the record; {@code gainUncertainty}
-     * the standard uncertainty of the gain, from the noise estimate's own uncertainty.
+     * the standard uncertainty of the gain, from the noise estimate's own uncertainty;
+     * {@code varianceCosine}, {@code varianceSine}, {@code covarianceCosineSine} the covariance of
+     * the fitted sine's coefficients that noise and quantization leave after the correction (NaN
+     * when there is no grid: then the fit's own, from its residuals, stands).
      */
-    public record Correction(double gain, double gainUncertainty, double codeStep, double noise) {
-        public static final Correction NONE = new Correction(1, 0, Double.NaN, Double.NaN);
+    public record Correction(double gain, double gainUncertainty, double codeStep, double noise,
+                             double varianceCosine, double varianceSine, double covarianceCosineSine) {
+        public static final Correction NONE = new Correction(1, 0, Double.NaN, Double.NaN, Double.NaN, Double.NaN,
+                Double.NaN);
+
+        /** The fit with its sine divided by the gain and, where known, this covariance in place of the fit's own. */
+        public SineFitResult apply(SineFitResult fit) {
+            SineFitResult scaled = fit.scaled(1 / gain);
+            if (Double.isNaN(varianceCosine)) {
+                return scaled;
+            }
+            return new SineFitResult(scaled.frequencyHz(), scaled.cosineCoefficient(), scaled.sineCoefficient(),
+                    scaled.offset(), scaled.residualRms(), varianceCosine, varianceSine, covarianceCosineSine,
+                    scaled.samples());
+        }
     }
+
+    /** Trials of the parametric bootstrap of the fitted sine's scatter. */
+    static final int TRIALS = 24;
 
     /** The correction for samples {@code y} (volts) whose sine fit at a known frequency is {@code fit}. */
     public static Correction of(double[] y, double intervalSecond, SineFitResult fit) {
@@ -56,13 +75,61 @@ public final class Quantization {
         double origin = y[0];
         double[] s = fitted(y.length, intervalSecond, fit);
         double sigma = noise(y, s, step);
+        if (sigma > 0.9 * step) {
+            // dithered: the residual variance is the noise's plus the uniform step's, s^2 + D^2 / 12
+            // (common practice, no source), which measures any noise however large
+            sigma = Math.sqrt(Math.max(sigma * sigma, fit.residualRms() * fit.residualRms() - step * step / 12));
+        }
         double gain = gain(fit.amplitude(), fit.offset(), step, origin, sigma);
         // the noise estimate is uncertain by about 1/sqrt(number of samples near a threshold); the
         // gain's sensitivity to it is taken from a factor-of-two change either way
         double high = gain(fit.amplitude(), fit.offset(), step, origin, 2 * sigma);
         double low = gain(fit.amplitude(), fit.offset(), step, origin, 0.5 * sigma);
         double u = Math.abs(high - low) / (2 * Math.sqrt(3));
-        return new Correction(gain, u, step, sigma);
+        double[] cov = scatter(y.length, intervalSecond, fit, gain, step, origin, sigma);
+        return new Correction(gain, u, step, sigma, cov[0], cov[1], cov[2]);
+    }
+
+    /**
+     * How much noise and quantization scatter the corrected sine's coefficients for this record's
+     * time structure, by parametric bootstrap (Efron and Tibshirani, An Introduction to the
+     * Bootstrap, 1993, chapter 6, from memory): the fitted sine, at phases spread over the period,
+     * plus Gaussian noise of the estimated sigma, through the same grid, fitted again; the errors,
+     * turned back to the record's own phase, give the covariance. Unlike the fit's residual
+     * variance, which treats quantization as white, this sees a record whose samples fall on few
+     * distinct phases (a sample rate close to a multiple of the signal's frequency), where the same
+     * quantization error repeats cycle after cycle and does not average out. Seeded from the
+     * record, so the same record always gives the same numbers.
+     */
+    static double[] scatter(int n, double dt, SineFitResult fit, double gain, double step, double origin, double sigma) {
+        double a = fit.amplitude() / gain;
+        double phase = fit.phase();
+        double w = 2 * Math.PI * fit.frequencyHz() * dt;
+        java.util.Random rnd = new java.util.Random(Double.doubleToLongBits(fit.amplitude()) ^ n);
+        double[] y = new double[n];
+        double scc = 0;
+        double sss = 0;
+        double scs = 0;
+        for (int k = 0; k < TRIALS; k++) {
+            double shift = 2 * Math.PI * (k + rnd.nextDouble()) / TRIALS;
+            for (int i = 0; i < n; i++) {
+                double v = a * Math.cos(w * i + phase + shift) + fit.offset() + sigma * rnd.nextGaussian();
+                y[i] = origin + step * Math.rint((v - origin) / step);
+            }
+            SineFitResult r = SineFit.fit(y, dt, fit.frequencyHz());
+            // error of the corrected phasor against the truth, turned back by the shift
+            double ec = r.cosineCoefficient() / gain - a * Math.cos(phase + shift);
+            double es = r.sineCoefficient() / gain + a * Math.sin(phase + shift);
+            double c = Math.cos(shift);
+            double sn = Math.sin(shift);
+            // the phasor (cos coefficient, -sine coefficient) turned by -shift
+            double re = ec * c + (-es) * sn;
+            double im = -ec * sn + (-es) * c;
+            scc += re * re;
+            sss += im * im;
+            scs += re * -im;
+        }
+        return new double[] {scc / TRIALS, sss / TRIALS, scs / TRIALS};
     }
 
     /**
