@@ -73,11 +73,16 @@ public final class SweepAnalysis {
             effects.add(new Perturbation("converter quantization, repeatable part (corrected)", Distribution.NORMAL, 1,
                     "u", inf, d -> scaleEach(points, quantization, d)));
         }
+        // central differences over the input's own standard uncertainty: a step that size moves
+        // the fit far above its convergence tolerance, and the slope is the one that matters over
+        // the range the input may take
         List<double[]> perturbed = new ArrayList<>();
         for (Perturbation e : effects) {
-            double step = e.unit.equals("s") ? 1e-12 : e.unit.equals("u") ? 1e-3 : STEP;
+            double u = e.distribution.standardUncertainty(e.halfWidth);
+            double step = u > 0 ? u : e.unit.equals("s") ? 1e-12 : STEP;
             perturbed.add(new double[] {step});
             perturbed.add(LumpedFit.refit(e.apply.apply(step), free, p));
+            perturbed.add(LumpedFit.refit(e.apply.apply(-step), free, p));
         }
         Map<String, Budget> budgets = new LinkedHashMap<>();
         double dof = fit.degreesOfFreedom();
@@ -88,8 +93,8 @@ public final class SweepAnalysis {
                     Double.NaN, "", 1.0, typeA(ev, fit), dof, 0));
             for (int i = 0; i < effects.size(); i++) {
                 Perturbation e = effects.get(i);
-                double step = perturbed.get(2 * i)[0];
-                double c = (ev.at(perturbed.get(2 * i + 1)) - value) / step;
+                double step = perturbed.get(3 * i)[0];
+                double c = (ev.at(perturbed.get(3 * i + 1)) - ev.at(perturbed.get(3 * i + 2))) / (2 * step);
                 double u = e.distribution.standardUncertainty(e.halfWidth);
                 lines.add(new Contribution(e.source, "B", e.distribution, u, e.unit, c, Math.abs(c) * u,
                         e.degreesOfFreedom, 0));

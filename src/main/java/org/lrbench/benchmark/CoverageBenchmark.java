@@ -78,7 +78,8 @@ public final class CoverageBenchmark {
         DriverLoader loader = new DriverLoader(drivers);
         out.printf(Locale.ROOT, "coverage of U (k = 2) over %d seeds per part (goals: 93 %% to 99 %%, |bias| < 0.3 sigma);"
                 + " calibration and measurement on independent seeds%n", seeds);
-        out.printf(Locale.ROOT, "%-44s %-10s %9s %9s %8s%n", "part", "quantity", "coverage", "bias/sd", "errors");
+        out.printf(Locale.ROOT, "%-44s %-10s %9s %15s %9s %8s%n", "part", "quantity", "coverage", "95 % interval",
+                "bias/sd", "errors");
         int misses = 0;
         for (Case c : cases()) {
             Plan plan = PlanLoader.parse(c.plan(), "coverage.yaml", b.maxAmplitudeVolt());
@@ -111,16 +112,28 @@ public final class CoverageBenchmark {
                 double bias = sd > 0 ? (mean - t) / sd : Double.NaN;
                 boolean miss = coverage < 93 || coverage > 99 || !(Math.abs(bias) < 0.3);
                 misses += miss ? 1 : 0;
-                out.printf(Locale.ROOT, "%-44s %-10s %8.1f%% %9.2f %8d%s%n", c.name(), e.getKey(), coverage, bias, errors,
-                        miss ? "   MISS" : "");
+                double[] wilson = wilson(covered, v.size());
+                out.printf(Locale.ROOT, "%-44s %-10s %8.1f%% %6.1f-%5.1f %% %+9.2f %8d%s%n", c.name(), e.getKey(), coverage,
+                        wilson[0], wilson[1], bias, errors, miss ? "   MISS" : "");
             }
             if (readings.isEmpty()) {
                 misses++;
                 out.printf(Locale.ROOT, "%-44s every run ended in error   MISS%n", c.name());
             }
         }
+        out.printf(Locale.ROOT, "the interval is where the true coverage lies (Wilson score, 95 %%); the bias is known to"
+                + " +/- %.2f sigma (one standard error over %d seeds)%n", 1 / Math.sqrt(seeds), seeds);
         out.println(misses == 0 ? "every goal met" : misses + " quantity/part pair(s) miss a goal (marked MISS)");
         return misses;
+    }
+
+    /** The Wilson score interval for a proportion, 95 % (Wilson, JASA 22, 1927), in percent. */
+    static double[] wilson(long hits, int n) {
+        double z = 1.959964;
+        double p = (double) hits / n;
+        double centre = (p + z * z / (2 * n)) / (1 + z * z / n);
+        double half = z / (1 + z * z / n) * Math.sqrt(p * (1 - p) / n + z * z / (4.0 * n * n));
+        return new double[] {100 * (centre - half), 100 * (centre + half)};
     }
 
     private static double truth(String quantity, Plan plan, double[] p) {
