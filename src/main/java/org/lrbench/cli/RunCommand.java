@@ -264,6 +264,7 @@ final class RunCommand implements Callable<Integer> {
     }
 
     /** Lot mode: the sample one part after another, each attempt committed as it goes, resumable. */
+    @SuppressWarnings("try") // a resource held only for its close(): installed handlers, a running server
     private int runLot() throws Exception {
         if (serial != null || sim != null || reason != null) {
             throw new BadInputException("--lot-size runs the lot's sample: use --sim-lot for simulated parts, not"

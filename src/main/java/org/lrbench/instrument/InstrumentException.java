@@ -7,6 +7,8 @@ package org.lrbench.instrument;
  * error, never a pass.
  */
 public class InstrumentException extends RuntimeException {
+    private static final long serialVersionUID = 1L;
+
     public InstrumentException(String message) {
         super(message);
     }

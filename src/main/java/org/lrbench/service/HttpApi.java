@@ -71,6 +71,10 @@ public final class HttpApi implements AutoCloseable {
         var f = new ServerBootstrap().group(loop).channel(NioServerSocketChannel.class)
                 .childHandler(new ChannelInitializer<SocketChannel>() {
                     @Override
+                    // Netty 4.2 deprecates handlers on an executor group in favour of its own
+                    // per-handler executors; the group is what keeps store and chart work off the
+                    // I/O loop here, and it still works as documented for 4.x
+                    @SuppressWarnings("deprecation")
                     protected void initChannel(SocketChannel ch) {
                         connections.add(ch);
                         ch.pipeline().addLast(new HttpServerCodec(), new BodyLimit());

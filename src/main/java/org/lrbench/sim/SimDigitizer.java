@@ -432,12 +432,12 @@ public final class SimDigitizer extends ScpiDevice {
     private void acquire() {
         double f = inputs.fundamentalHz();
         double bandLimit = 0.5 / interval;
-        @SuppressWarnings("unchecked")
-        List<Harmonic>[] lines = new List[CHANNELS + 1];
+        List<List<Harmonic>> lines = new java.util.ArrayList<>();
+        lines.add(List.of()); // channels count from 1
         for (int ch = 1; ch <= CHANNELS; ch++) {
-            lines[ch] = inputs.channel(ch, bandLimit);
+            lines.add(inputs.channel(ch, bandLimit));
             if (acCoupled[ch]) {
-                lines[ch] = lines[ch].stream().filter(h -> h.k() != 0).toList();
+                lines.set(ch, lines.get(ch).stream().filter(h -> h.k() != 0).toList());
             }
         }
         java.util.Arrays.fill(encoded, null);
@@ -448,12 +448,12 @@ public final class SimDigitizer extends ScpiDevice {
         double t0 = trigger + firstSampleAfterTrigger;
         record = new double[CHANNELS + 1][];
         for (int ch = 1; ch <= CHANNELS; ch++) {
-            record[ch] = sample(lines[ch], f, t0, ch);
+            record[ch] = sample(lines.get(ch), f, t0, ch);
         }
     }
 
     /** The trigger instant: the record starts there (no pre-trigger). */
-    private double triggerTime(List<Harmonic>[] lines, double f) {
+    private double triggerTime(List<List<Harmonic>> lines, double f) {
         double period = 1.0 / f;
         double start = random.nextDouble() * period;
         if (triggerSource.equals("IMM")) {
@@ -462,7 +462,7 @@ public final class SimDigitizer extends ScpiDevice {
         if (triggerSource.equals("EXT")) {
             return Math.ceil(start / period) * period;
         }
-        List<Harmonic> signal = lines[triggerSource.equals("CH1") ? 1 : 2];
+        List<Harmonic> signal = lines.get(triggerSource.equals("CH1") ? 1 : 2);
         int maxK = signal.stream().mapToInt(Harmonic::k).max().orElse(1);
         int grid = 64 * Math.max(1, maxK);
         double step = period / grid;

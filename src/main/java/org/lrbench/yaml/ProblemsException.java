@@ -5,6 +5,8 @@ import java.util.stream.Collectors;
 
 /** Thrown when an input file has one or more problems; carries all of them, in file order. */
 public class ProblemsException extends Exception {
+    private static final long serialVersionUID = 1L;
+
     private final List<Problem> problems;
 
     public ProblemsException(List<Problem> problems) {

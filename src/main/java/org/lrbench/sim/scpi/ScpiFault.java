@@ -6,6 +6,8 @@ package org.lrbench.sim.scpi;
  * memory of the standard's error list).
  */
 public final class ScpiFault extends Exception {
+    private static final long serialVersionUID = 1L;
+
     private final int code;
 
     public ScpiFault(int code, String text) {

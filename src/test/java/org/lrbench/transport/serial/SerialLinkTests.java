@@ -51,6 +51,7 @@ class SerialLinkTests {
         }
     }
 
+    @SuppressWarnings("try") // a resource held only for its close(): installed handlers, a running server
     @Test
     void scpiOverASerialLineReachesTheSimulatedGenerator() throws Exception {
         SimGenerator generator = new SimGenerator(50);
