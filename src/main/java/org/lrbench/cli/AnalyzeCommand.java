@@ -10,12 +10,19 @@ import org.lrbench.units.Dimension;
 import org.lrbench.units.UnitException;
 import org.lrbench.units.Units;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench analyze --csv FILE --sense-resistor R}: the metrology on traces from any scope. */
 @Command(name = "analyze", mixinStandardHelpOptions = true, description = {"Extract R, X, L and Q from a two-channel trace file.",
         "Time, sense-resistor voltage and part voltage with a header, as any scope or simulator writes them."})
 final class AnalyzeCommand implements Callable<Integer> {
+
+    @Mixin
+    BenchOptions benchOptions;
+
+    @Mixin
+    FolderOptions.Calibration calibrationOption;
 
     @Option(names = "--csv", paramLabel = "FILE", description = "a trace file from any scope")
     Path csv;
@@ -36,13 +43,6 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Option(names = "--plan", paramLabel = "PLAN", description = "with --archive: the plan the part was measured with"
             + " (default: the one its result names; its content must be the same)")
     Path planFile;
-
-    @Option(names = "--bench", paramLabel = "BENCH", description = "with --archive: the bench file (default: simulator/bench.yaml)")
-    Path benchFile;
-
-    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
-            description = "with --archive: the bench corrections to apply (default: ${DEFAULT-VALUE})")
-    Path calibrationDir;
 
     @Override
     public Integer call() throws Exception {
@@ -123,9 +123,9 @@ final class AnalyzeCommand implements Callable<Integer> {
             throw new BadInputException(planPath + " is not the plan the part was measured with (its content differs"
                     + " from the stored SHA-256); give the original with --plan");
         }
-        org.lrbench.bench.BenchConfig b = Inputs.bench(benchFile != null ? benchFile : Home.defaultBench());
+        org.lrbench.bench.BenchConfig b = benchOptions.load();
         org.lrbench.plan.Plan plan = Inputs.plan(planPath, b);
-        var calibration = new org.lrbench.calibration.CalibrationStore(calibrationDir, b.name()).load();
+        var calibration = new org.lrbench.calibration.CalibrationStore(calibrationOption.calibration, b.name()).load();
         String thenMatch = stored.path("corrections").path("channel_match_measured_at").asText(null);
         String nowMatch = calibration.channels() == null ? null : calibration.channels().measuredAt();
         if (!java.util.Objects.equals(thenMatch, nowMatch)) {

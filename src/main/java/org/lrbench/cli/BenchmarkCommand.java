@@ -114,8 +114,8 @@ final class BenchmarkCommand implements Runnable {
         @Option(names = "--seeds", defaultValue = "100", description = "seeds per part (default: ${DEFAULT-VALUE})")
         int seeds;
 
-        @Option(names = "--bench", paramLabel = "BENCH", description = "simulated bench (default: simulator/bench.yaml)")
-        java.nio.file.Path bench;
+        @picocli.CommandLine.Mixin
+        BenchOptions benchOptions;
 
         @Override
         public Integer call() throws Exception {
@@ -123,8 +123,7 @@ final class BenchmarkCommand implements Runnable {
                 throw new BadInputException("--seeds 5..10000");
             }
             int misses = org.lrbench.benchmark.CoverageBenchmark.run(System.out,
-                    Inputs.bench(bench != null ? bench : Home.defaultBench()),
-                    Home.drivers(), seeds);
+                    benchOptions.load(), benchOptions.driverFolder(), seeds);
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }

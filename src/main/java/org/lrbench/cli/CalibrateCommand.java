@@ -19,6 +19,7 @@ import org.lrbench.run.FixtureChange;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.SimBench;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -27,18 +28,17 @@ import picocli.CommandLine.Parameters;
         "At the plan's frequencies; kept under DIR/BENCH/ and applied to later runs."})
 final class CalibrateCommand implements Callable<Integer> {
 
+    @Mixin
+    BenchOptions benchOptions;
+
+    @Mixin
+    FolderOptions.Calibration calibrationOption;
+
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan whose frequencies and fixture to calibrate")
     Path plan;
 
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
-    Path bench;
-
     @Option(names = "--sim", paramLabel = "PART.yaml", description = "calibrate the in-process simulated bench")
     Path sim;
-
-    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
-            description = "where corrections are kept (default: ${DEFAULT-VALUE})")
-    Path calibration;
 
     @picocli.CommandLine.Mixin
     LogOptions logging;
@@ -46,27 +46,27 @@ final class CalibrateCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         logging.apply();
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        BenchConfig b = benchOptions.load();
         Plan p = Inputs.plan(plan, b);
-        Inputs.requireFit(p, b, new DriverLoader(Home.drivers()));
+        Inputs.requireFit(p, b, benchOptions.loader());
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
             simBench = new SimBench(b.simulation(), p.wiring(), PartFile.load(sim));
         }
-        Path written = calibrate(p, b, simBench, calibration);
+        Path written = calibrate(p, b, benchOptions.loader(), simBench, calibrationOption.calibration);
         System.out.println("corrections kept in " + written);
         return ExitCodes.PASS;
     }
 
     /** Runs both calibrations and stores them; prints what was found. */
-    static Path calibrate(Plan p, BenchConfig b, SimBench simBench, Path dir) throws Exception {
+    static Path calibrate(Plan p, BenchConfig b, DriverLoader drivers, SimBench simBench, Path dir) throws Exception {
         FixtureChange change = simBench != null ? simBench::setPosition
                 : FixtureChange.console(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
                 System.out);
         Sleeper sleeper = simBench != null ? Sleeper.NONE : Sleeper.REAL;
         CalibrationStore store = new CalibrationStore(dir, b.name());
-        try (BenchInstruments inst = BenchInstruments.open(b, new DriverLoader(Home.drivers()), simBench)) {
+        try (BenchInstruments inst = BenchInstruments.open(b, drivers, simBench)) {
             ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper);
             store.save(m);
             System.out.printf(Locale.ROOT, "channel match: channel 2 gain %.5f +/- %.5f, skew %.1f +/- %.1f ps (%d frequencies)%n",

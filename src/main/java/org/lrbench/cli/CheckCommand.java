@@ -12,6 +12,7 @@ import org.lrbench.driver.DriverLoader;
 import org.lrbench.plan.Plan;
 import org.lrbench.yaml.ProblemsException;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -20,19 +21,16 @@ import picocli.CommandLine.Parameters;
         + " as file:line:column: key: message.")
 final class CheckCommand implements Callable<Integer> {
 
+    @Mixin
+    BenchOptions benchOptions;
+
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
     Path plan;
 
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
-    Path bench;
-
-    @Option(names = "--drivers", paramLabel = "DIR", description = "folder of driver files (default: the installed drivers/)")
-    Path drivers;
-
     @Override
     public Integer call() throws Exception {
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
-        DriverLoader loader = new DriverLoader(drivers != null ? drivers : Home.drivers());
+        BenchConfig b = benchOptions.load();
+        DriverLoader loader = benchOptions.loader();
         List<Object> problems = new ArrayList<>();
         List<String> loaded = new ArrayList<>();
         Plan p = null;

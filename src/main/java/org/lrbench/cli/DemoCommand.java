@@ -17,25 +17,24 @@ import org.lrbench.run.PartRun;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.SimLot;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench demo}: measures the simulated demo lot with its plan. */
 @Command(name = "demo", mixinStandardHelpOptions = true, description = "Calibrate the simulated bench and inspect the demo lot: sample, disposition, store, report.")
 final class DemoCommand implements Callable<Integer> {
 
+    @Mixin
+    BenchOptions benchOptions;
+
+    @Mixin
+    FolderOptions.Calibration calibrationOption;
+
+    @Mixin
+    FolderOptions.Runs runsOption;
+
     @Option(names = "--lot-file", paramLabel = "LOT.yaml", description = "simulated lot (default: simulator/demo-lot.yaml)")
     Path lotFile;
-
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
-    Path bench;
-
-    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
-            description = "bench corrections from `calibrate`, applied when present (default: ${DEFAULT-VALUE})")
-    Path calibration;
-
-    @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
-            description = "folder for the results (default: ${DEFAULT-VALUE})")
-    Path runs;
 
     @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
             description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
@@ -63,18 +62,18 @@ final class DemoCommand implements Callable<Integer> {
         Inputs.requireFile(lotPath, "simulated lot");
         SimLot lot = SimLot.load(lotPath);
         Inputs.name("lot", lot.lot());
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        BenchConfig b = benchOptions.load();
         Plan plan = Inputs.plan(lot.plan(), b);
         String sha = Inputs.sha256(lot.plan());
-        DriverLoader drivers = new DriverLoader(Home.drivers());
+        DriverLoader drivers = benchOptions.loader();
         double qAt = ResultText.qFrequency(plan);
         System.out.printf("lot %s: %d parts of %s (%s), plan %s, simulated bench %s%n%n", lot.lot(), lot.parts().size(),
                 plan.partNumber(), plan.description(), Home.root().relativize(lot.plan().toAbsolutePath()), b.name());
         // a bench is calibrated before a lot: channel match and fixture, here on the simulated bench
         System.out.println("calibrating the simulated bench at the plan's frequencies:");
-        CalibrateCommand.calibrate(plan, b, new SimBench(b.simulation(), plan.wiring(),
-                lot.parts().get(0).model()), calibration);
-        Calibration corrections = new CalibrationStore(calibration, b.name()).load();
+        CalibrateCommand.calibrate(plan, b, drivers, new SimBench(b.simulation(), plan.wiring(),
+                lot.parts().get(0).model()), calibrationOption.calibration);
+        Calibration corrections = new CalibrationStore(calibrationOption.calibration, b.name()).load();
         System.out.println();
         Integer lotSize = lot.lotSize();
         if (plan.sampling() == null || lotSize == null) {
@@ -88,22 +87,22 @@ final class DemoCommand implements Callable<Integer> {
             // the demo measures its invented lot afresh each time (a real lot resumes where it stopped
             // and its records are never removed): its earlier demo records go first, store and files
             store.deleteLot(lot.lot());
-            removeDemoRecords(runs.resolve(lot.lot()));
+            removeDemoRecords(runsOption.runs.resolve(lot.lot()));
             PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
-            LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, new StoreLedger(store, runs, true))
+            LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, new StoreLedger(store, runsOption.runs, true))
                     .withOperator("demo");
             LotRunner.Outcome outcome = RunCommand.runTray(setup, b, lot, r -> ResultText.tableRow(System.out, r, qAt));
             summary = LotSummaries.of(outcome, store.attempts(lot.lot()).size(), store.chainHead(lot.lot()));
-            Path report = runs.resolve(lot.lot()).resolve("report.html");
+            Path report = runsOption.runs.resolve(lot.lot()).resolve("report.html");
             ResultFiles.writeAtomically(report, org.lrbench.report.LotReport.html(store, lot.lot())
                     .getBytes(java.nio.charset.StandardCharsets.UTF_8));
         }
-        Path summaryFile = runs.resolve(lot.lot()).resolve("lot-summary.json");
+        Path summaryFile = runsOption.runs.resolve(lot.lot()).resolve("lot-summary.json");
         ResultFiles.writeJson(summaryFile, summary);
         System.out.println();
         ResultText.summary(System.out, summary);
         System.out.println("store: " + data.resolve("lrbench.db"));
-        System.out.println("results: " + runs.resolve(lot.lot()) + "/ (report.html opens in any browser, offline)");
+        System.out.println("results: " + runsOption.runs.resolve(lot.lot()) + "/ (report.html opens in any browser, offline)");
         return ExitCodes.PASS;
     }
 }

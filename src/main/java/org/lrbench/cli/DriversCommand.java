@@ -15,12 +15,12 @@ import picocli.CommandLine.Option;
         "Exit 0 when every driver file is sound, 2 otherwise."})
 final class DriversCommand implements Callable<Integer> {
 
-    @Option(names = "--drivers", paramLabel = "DIR", description = "folder of driver files (default: the installed drivers/)")
-    Path drivers;
+    @picocli.CommandLine.Mixin
+    FolderOptions.Drivers drivers;
 
     @Override
     public Integer call() throws Exception {
-        Path dir = drivers != null ? drivers : Home.drivers();
+        Path dir = drivers.folder();
         if (!Files.isDirectory(dir)) {
             throw new BadInputException("no drivers folder at " + dir);
         }

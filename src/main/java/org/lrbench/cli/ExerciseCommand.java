@@ -19,20 +19,14 @@ import picocli.CommandLine.Option;
         "Exit 0 when every operation worked, 3 otherwise, 2 for bad input."})
 final class ExerciseCommand implements Callable<Integer> {
 
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
-    Path bench;
+    @Mixin
+    BenchOptions benchOptions;
 
-    @Option(names = "--generator", paramLabel = "ADDR", description = "generator address, instead of the bench file's")
-    String generatorAddress;
-
-    @Option(names = "--digitizer", paramLabel = "ADDR", description = "digitizer address, instead of the bench file's")
-    String digitizerAddress;
+    @Mixin
+    AddressOptions addresses;
 
     @Option(names = "--sim", paramLabel = "PART.yaml", description = "exercise the in-process simulated bench with this part")
     Path sim;
-
-    @Option(names = "--drivers", paramLabel = "DIR", description = "folder of driver files (default: the installed drivers/)")
-    Path drivers;
 
     @Mixin
     LogOptions logging;
@@ -40,15 +34,15 @@ final class ExerciseCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         logging.apply();
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
-        b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
+        BenchConfig b = benchOptions.load();
+        b = addresses.applyTo(b);
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
             simBench = new SimBench(b.simulation(), 100, PartFile.load(sim));
         }
         List<DriverExercise.Step> steps;
-        try (BenchInstruments inst = BenchInstruments.open(b, new DriverLoader(drivers != null ? drivers : Home.drivers()),
+        try (BenchInstruments inst = BenchInstruments.open(b, benchOptions.loader(),
                 simBench, true)) {
             steps = DriverExercise.run(inst, Math.min(1.0, b.maxAmplitudeVolt()));
         }

@@ -8,6 +8,7 @@ import org.lrbench.driver.DriverLoader;
 import org.lrbench.plan.Plan;
 import org.lrbench.rehearsal.Rehearsal;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -17,11 +18,11 @@ import picocli.CommandLine.Parameters;
         "Exit 0 only when every verdict is right."})
 final class RehearseCommand implements Callable<Integer> {
 
+    @Mixin
+    BenchOptions benchOptions;
+
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
     Path plan;
-
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file for the simulation (default: simulator/bench.yaml)")
-    Path bench;
 
     @Option(names = "--seeds", paramLabel = "N", defaultValue = "3", description = "seeds per part (default: ${DEFAULT-VALUE})")
     int seeds;
@@ -31,11 +32,11 @@ final class RehearseCommand implements Callable<Integer> {
         if (seeds < 1 || seeds > 100) {
             throw new BadInputException("--seeds " + seeds + ": use 1 to 100");
         }
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        BenchConfig b = benchOptions.load();
         Plan p = Inputs.plan(plan, b);
         Rehearsal.Result r;
         try {
-            r = Rehearsal.rehearse(p, b, new DriverLoader(Home.drivers()), seeds);
+            r = Rehearsal.rehearse(p, b, benchOptions.loader(), seeds);
         } catch (IllegalArgumentException e) {
             throw new BadInputException(e.getMessage());
         }

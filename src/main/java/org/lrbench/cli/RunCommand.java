@@ -30,6 +30,7 @@ import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -38,6 +39,18 @@ import picocli.CommandLine.Parameters;
         "Exit codes: 0 pass, 1 fail, 2 bad input, 3 instrument or communication error;",
         "with --lot-size: 0 lot accepted, 1 rejected, 5 still open (stopped early: run again to resume)."})
 final class RunCommand implements Callable<Integer> {
+
+    @Mixin
+    BenchOptions benchOptions;
+
+    @Mixin
+    AddressOptions addresses;
+
+    @Mixin
+    FolderOptions.Calibration calibrationOption;
+
+    @Mixin
+    FolderOptions.Runs runsOption;
 
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
     Path plan;
@@ -96,23 +109,6 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--json", paramLabel = "OUT.json", description = "also write the result to this file")
     Path json;
 
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
-    Path bench;
-
-    @Option(names = "--generator", paramLabel = "ADDR", description = "generator address, instead of the bench file's")
-    String generatorAddress;
-
-    @Option(names = "--digitizer", paramLabel = "ADDR", description = "digitizer address, instead of the bench file's")
-    String digitizerAddress;
-
-    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
-            description = "bench corrections from `calibrate`, applied when present (default: ${DEFAULT-VALUE})")
-    Path calibration;
-
-    @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
-            description = "folder that keeps every result, as DIR/LOT/SERIAL.json (default: ${DEFAULT-VALUE})")
-    Path runs;
-
     @picocli.CommandLine.Mixin
     LogOptions logging;
 
@@ -129,14 +125,14 @@ final class RunCommand implements Callable<Integer> {
         Inputs.name("--serial", serial);
         refuseSampledLot();
         int number = singleAttemptNumber();
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
-        if (sim != null && (generatorAddress != null || digitizerAddress != null)) {
+        BenchConfig b = benchOptions.load();
+        if (sim != null && addresses.any()) {
             throw new BadInputException("--sim measures on the in-process simulated bench; it cannot be combined"
                     + " with --generator or --digitizer");
         }
-        b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
+        b = addresses.applyTo(b);
         Plan p = Inputs.plan(plan, b);
-        Inputs.requireFit(p, b, new DriverLoader(Home.drivers()));
+        Inputs.requireFit(p, b, benchOptions.loader());
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
@@ -144,14 +140,14 @@ final class RunCommand implements Callable<Integer> {
             simBench = new SimBench(b.simulation(), p.wiring(), part);
         }
         PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version(),
-                new CalibrationStore(calibration, b.name()).load());
+                new CalibrationStore(calibrationOption.calibration, b.name()).load());
         PartResult result;
         org.lrbench.traces.TraceRecorder recorder = new org.lrbench.traces.TraceRecorder(SweepListener.NONE);
-        try (BenchInstruments instruments = BenchInstruments.open(b, new DriverLoader(Home.drivers()), simBench)) {
+        try (BenchInstruments instruments = BenchInstruments.open(b, benchOptions.loader(), simBench)) {
             result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, recorder);
         }
         result = result.withAttempt(new PartResult.AttemptRecord(1, number, operatorName(), reason));
-        Path dir = runs.resolve(lot);
+        Path dir = runsOption.runs.resolve(lot);
         Path archive = dir.resolve(Attempt.fileName(serial, number, "lrtraces"));
         byte[] traces = keepTraces() ? org.lrbench.traces.TraceArchive.encode(lot, serial, p.partNumber(),
                 p.senseResistanceOhm(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
@@ -223,7 +219,7 @@ final class RunCommand implements Callable<Integer> {
      * before is measured again only with --reason, and gets the next free file names.
      */
     private int singleAttemptNumber() {
-        Path dir = runs.resolve(lot);
+        Path dir = runsOption.runs.resolve(lot);
         int number = 1;
         while (java.nio.file.Files.exists(dir.resolve(Attempt.fileName(serial, number, "json")))) {
             number++;
@@ -276,13 +272,13 @@ final class RunCommand implements Callable<Integer> {
         if (reinspect != null && reinspect.isBlank()) {
             throw new BadInputException("--reinspect needs a reason, in words");
         }
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
-        b = b.withAddresses(Inputs.address("--generator", generatorAddress), Inputs.address("--digitizer", digitizerAddress));
+        BenchConfig b = benchOptions.load();
+        b = addresses.applyTo(b);
         Plan p = Inputs.plan(plan, b);
         if (p.sampling() == null) {
             throw new BadInputException(plan + ": a lot run needs the plan's sampling section (level, AQL per class)");
         }
-        Inputs.requireFit(p, b, new DriverLoader(Home.drivers()));
+        Inputs.requireFit(p, b, benchOptions.loader());
         SimLot tray = null;
         List<String> serials = null;
         if (simLot != null) {
@@ -297,13 +293,13 @@ final class RunCommand implements Callable<Integer> {
         ResultText.samplingPlans(System.out, lotSize, p.sampling());
         double qAt = ResultText.qFrequency(p);
         PartRun.Request template = new PartRun.Request(p, Inputs.sha256(plan), b, lot, "-", tray != null, Home.version(),
-                new CalibrationStore(calibration, b.name()).load());
-        DriverLoader drivers = new DriverLoader(Home.drivers());
+                new CalibrationStore(calibrationOption.calibration, b.name()).load());
+        DriverLoader drivers = benchOptions.loader();
         LotStop stop = new LotStop();
         LotRunner.Outcome outcome;
         LotSummary summary;
         try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.open(data.resolve("lrbench.db"))) {
-            StoreLedger ledger = new StoreLedger(store, runs, keepTraces());
+            StoreLedger ledger = new StoreLedger(store, runsOption.runs, keepTraces());
             LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, ledger).withOperator(operatorName())
                     .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL).withStop(stop);
             if (reinspect != null) {
@@ -340,7 +336,7 @@ final class RunCommand implements Callable<Integer> {
             ledger.repairs().forEach(m -> System.out.println("repaired: " + m));
             summary = LotSummaries.of(outcome, store.attempts(lot).size(), store.chainHead(lot));
         }
-        ResultFiles.writeJson(runs.resolve(lot).resolve("lot-summary.json"), summary);
+        ResultFiles.writeJson(runsOption.runs.resolve(lot).resolve("lot-summary.json"), summary);
         System.out.println();
         ResultText.summary(System.out, summary);
         if (outcome.stopped()) {

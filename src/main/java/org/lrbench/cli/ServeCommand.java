@@ -12,6 +12,7 @@ import org.lrbench.service.BenchService;
 import org.lrbench.service.HttpApi;
 import org.lrbench.service.ServiceConfig;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench serve}: the bench service with its HTTP API and operator page. */
@@ -19,8 +20,14 @@ import picocli.CommandLine.Option;
         "Listens on 127.0.0.1 unless --listen says otherwise; then every call needs the access token."})
 final class ServeCommand implements Callable<Integer> {
 
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file (default: simulator/bench.yaml)")
-    Path bench;
+    @Mixin
+    BenchOptions benchOptions;
+
+    @Mixin
+    FolderOptions.Calibration calibrationOption;
+
+    @Mixin
+    FolderOptions.Runs runsOption;
 
     @Option(names = "--port", paramLabel = "N", defaultValue = "8750", description = "port (default: ${DEFAULT-VALUE}; 0 picks one)")
     int port;
@@ -35,13 +42,6 @@ final class ServeCommand implements Callable<Integer> {
     @Option(names = "--store", paramLabel = "URL",
             description = "a store shared by several benches, jdbc:postgresql://HOST:PORT/DB?user=U (instead of DIR/lrbench.db)")
     String store;
-
-    @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs", description = "result files (default: ${DEFAULT-VALUE})")
-    Path runs;
-
-    @Option(names = "--calibration", paramLabel = "DIR", defaultValue = "calibration",
-            description = "bench corrections (default: ${DEFAULT-VALUE})")
-    Path calibration;
 
     @picocli.CommandLine.Mixin
     LogOptions logging;
@@ -59,8 +59,8 @@ final class ServeCommand implements Callable<Integer> {
             throw new BadInputException("--listen '" + listen + "': not an address of this machine");
         }
         String token = address.isLoopbackAddress() ? null : token(data);
-        ServiceConfig cfg = new ServiceConfig(bench != null ? bench : Home.defaultBench(), Home.drivers(),
-                Home.root().resolve("plans"), Home.root().resolve("simulator"), data, runs, calibration, Home.version(),
+        ServiceConfig cfg = new ServiceConfig(benchOptions.benchFile(), benchOptions.driverFolder(),
+                Home.root().resolve("plans"), Home.root().resolve("simulator"), data, runsOption.runs, calibrationOption.calibration, Home.version(),
                 store);
         CountDownLatch stop = new CountDownLatch(1);
         try (BenchService service = new BenchService(cfg); HttpApi api = new HttpApi(service, address, port, token)) {

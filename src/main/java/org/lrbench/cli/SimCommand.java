@@ -12,6 +12,7 @@ import org.lrbench.units.Dimension;
 import org.lrbench.units.UnitException;
 import org.lrbench.units.Units;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code lrbench sim --dut PART.yaml}: serves the simulated bench over TCP (and a terminal). */
@@ -19,12 +20,11 @@ import picocli.CommandLine.Option;
         "Point `run --generator tcp://127.0.0.1:PORT --digitizer tcp://127.0.0.1:PORT+1` at it."})
 final class SimCommand implements Callable<Integer> {
 
+    @Mixin
+    BenchOptions benchOptions;
+
     @Option(names = "--dut", required = true, paramLabel = "PART.yaml", description = "the simulated part under test")
     Path dut;
-
-    @Option(names = "--bench", paramLabel = "BENCH", description = "bench file for the simulation settings"
-            + " (default: simulator/bench.yaml)")
-    Path bench;
 
     @Option(names = "--port", paramLabel = "N", defaultValue = "5025",
             description = "generator port; the digitizer takes N+1; 0 picks free ports (default: ${DEFAULT-VALUE})")
@@ -55,7 +55,7 @@ final class SimCommand implements Callable<Integer> {
         if (!ptyInstrument.equals("generator") && !ptyInstrument.equals("digitizer")) {
             throw new BadInputException("--pty-instrument '" + ptyInstrument + "': use generator or digitizer");
         }
-        BenchConfig b = Inputs.bench(bench != null ? bench : Home.defaultBench());
+        BenchConfig b = benchOptions.load();
         Inputs.requireFile(dut, "simulated part");
         SimBench sim = new SimBench(b.simulation(), senseOhm, PartFile.load(dut));
         CountDownLatch stop = new CountDownLatch(1);

@@ -17,14 +17,13 @@ import picocli.CommandLine.Option;
 final class VerifyCommand implements Callable<Integer> {
 
     @Mixin
+    FolderOptions.Runs runsOption;
+
+    @Mixin
     StoreCommands.StoreOptions store;
 
     @Option(names = "--lot", paramLabel = "LOT", description = "the lot to check (default: every lot in the store)")
     String lot;
-
-    @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",
-            description = "folder of the result files, DIR/LOT/ (default: ${DEFAULT-VALUE})")
-    Path runs;
 
     @Override
     public Integer call() {
@@ -37,7 +36,7 @@ final class VerifyCommand implements Callable<Integer> {
             }
             for (String l : names) {
                 lots++;
-                findings.addAll(RecordCheck.findings(s, runs, l));
+                findings.addAll(RecordCheck.findings(s, runsOption.runs, l));
             }
         }
         findings.forEach(System.out::println);
