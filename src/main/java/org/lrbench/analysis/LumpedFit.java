@@ -1,6 +1,7 @@
 package org.lrbench.analysis;
 
 import java.util.ArrayList;
+import java.util.Comparator;
 import java.util.EnumSet;
 import java.util.List;
 import java.util.Locale;
@@ -201,7 +202,7 @@ public final class LumpedFit {
         s[LumpedParameter.R_DC.ordinal()] = series.resistanceOhm();
         s[LumpedParameter.L.ordinal()] = series.inductanceHenry();
         out.add(s);
-        ImpedancePoint lowest = points.stream().min(java.util.Comparator.comparingDouble(ImpedancePoint::frequencyHz))
+        ImpedancePoint lowest = points.stream().min(Comparator.comparingDouble(ImpedancePoint::frequencyHz))
                 .orElseThrow();
         double r0 = Math.max(lowest.resistanceOhm(), 0);
         double sx = 0, sy = 0, sxx = 0, sxy = 0;

@@ -1,5 +1,7 @@
 package org.lrbench.analysis;
 
+import java.util.Arrays;
+import java.util.Random;
 import org.apache.commons.math3.special.BesselJ;
 
 /**
@@ -105,7 +107,7 @@ public final class Quantization {
         double a = fit.amplitude() / gain;
         double phase = fit.phase();
         double w = 2 * Math.PI * fit.frequencyHz() * dt;
-        java.util.Random rnd = new java.util.Random(Double.doubleToLongBits(fit.amplitude()) ^ n);
+        Random rnd = new Random(Double.doubleToLongBits(fit.amplitude()) ^ n);
         double[] y = new double[n];
         double scc = 0;
         double sss = 0;
@@ -141,7 +143,7 @@ public final class Quantization {
             return Double.NaN;
         }
         double[] v = y.clone();
-        java.util.Arrays.sort(v);
+        Arrays.sort(v);
         double span = v[v.length - 1] - v[0];
         if (!(span > 0)) {
             return Double.NaN;

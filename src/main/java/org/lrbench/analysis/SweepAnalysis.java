@@ -5,6 +5,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import java.util.function.DoubleFunction;
 import java.util.function.UnaryOperator;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.uncertainty.BenchAccuracy;
@@ -115,7 +116,7 @@ public final class SweepAnalysis {
     }
 
     private record Perturbation(String source, Distribution distribution, double halfWidth, String unit,
-                                double degreesOfFreedom, java.util.function.DoubleFunction<List<ImpedancePoint>> apply) {
+                                double degreesOfFreedom, DoubleFunction<List<ImpedancePoint>> apply) {
     }
 
     /** u from the fit covariance: gradient in the free parameters by central differences. */

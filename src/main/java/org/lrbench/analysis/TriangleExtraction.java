@@ -1,5 +1,6 @@
 package org.lrbench.analysis;
 
+import java.util.Arrays;
 import org.apache.commons.math3.linear.Array2DRowRealMatrix;
 import org.apache.commons.math3.linear.ArrayRealVector;
 import org.apache.commons.math3.linear.DecompositionSolver;
@@ -115,7 +116,7 @@ public final class TriangleExtraction {
      */
     static double quantizationStep(double[] y) {
         double[] sorted = y.clone();
-        java.util.Arrays.sort(sorted);
+        Arrays.sort(sorted);
         double step = Double.POSITIVE_INFINITY;
         double span = sorted[sorted.length - 1] - sorted[0];
         for (int i = 1; i < sorted.length; i++) {

@@ -1,6 +1,7 @@
 package org.lrbench.bench;
 
 import org.lrbench.sim.SimSettings;
+import org.lrbench.transport.Address;
 import org.lrbench.uncertainty.BenchAccuracy;
 
 /**
@@ -19,8 +20,8 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
     }
 
     /** The same bench with other instrument addresses (null keeps an address). */
-    public BenchConfig withAddresses(org.lrbench.transport.Address generatorAddress,
-                                     org.lrbench.transport.Address digitizerAddress) {
+    public BenchConfig withAddresses(Address generatorAddress,
+                                     Address digitizerAddress) {
         return new BenchConfig(source, name, maxAmplitudeVolt,
                 generatorAddress == null ? generator : new InstrumentLink(generator.driver(), generatorAddress),
                 digitizerAddress == null ? digitizer : new InstrumentLink(digitizer.driver(), digitizerAddress),

@@ -1,10 +1,13 @@
 package org.lrbench.bench;
 
 import java.nio.file.Path;
+import org.lrbench.sim.SimDigitizer;
+import org.lrbench.sim.SimGenerator;
 import org.lrbench.sim.SimSettings;
-import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.AddressException;
+import org.lrbench.transport.Transports;
+import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.units.Dimension;
 import org.lrbench.yaml.Problems;
 import org.lrbench.yaml.ProblemsException;
@@ -93,7 +96,7 @@ public final class BenchLoader {
         }
         try {
             Address a = Address.parse(address);
-            org.lrbench.transport.Transports.check(a);
+            Transports.check(a);
             return new InstrumentLink(driver, a);
         } catch (AddressException e) {
             m.problem("address", e.getMessage());
@@ -109,10 +112,10 @@ public final class BenchLoader {
         if (m == null) {
             return d;
         }
-        org.lrbench.sim.SimDigitizer.Personality personality = m.has("digitizer") ? m.choice("digitizer", true,
-                org.lrbench.sim.SimDigitizer.Personality.byKey()) : org.lrbench.sim.SimDigitizer.Personality.GENERIC;
-        org.lrbench.sim.SimGenerator.Personality generator = m.has("generator") ? m.choice("generator", true,
-                org.lrbench.sim.SimGenerator.Personality.byKey()) : org.lrbench.sim.SimGenerator.Personality.GENERIC;
+        SimDigitizer.Personality personality = m.has("digitizer") ? m.choice("digitizer", true,
+                SimDigitizer.Personality.byKey()) : SimDigitizer.Personality.GENERIC;
+        SimGenerator.Personality generator = m.has("generator") ? m.choice("generator", true,
+                SimGenerator.Personality.byKey()) : SimGenerator.Personality.GENERIC;
         Double source = m.quantity("source_impedance", Dimension.RESISTANCE, false);
         if (source != null && source < 0) {
             m.problem("source_impedance", "must not be negative");
@@ -150,7 +153,7 @@ public final class BenchLoader {
                 gain == null || !gain.relative() ? 0 : gain.value(), skew == null ? 0 : skew,
                 leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray,
                 meterLead == null ? 0.05 : meterLead,
-                personality == null ? org.lrbench.sim.SimDigitizer.Personality.GENERIC : personality,
-                generator == null ? org.lrbench.sim.SimGenerator.Personality.GENERIC : generator);
+                personality == null ? SimDigitizer.Personality.GENERIC : personality,
+                generator == null ? SimGenerator.Personality.GENERIC : generator);
     }
 }

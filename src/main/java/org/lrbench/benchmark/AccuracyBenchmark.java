@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.InstrumentLink;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Sleeper;
@@ -43,7 +44,7 @@ public final class AccuracyBenchmark {
                 tally);
         // an ideal converter needs traces that are not re-quantized in transfer: the float driver
         BenchConfig floating = new BenchConfig(bench.source(), bench.name(), bench.maxAmplitudeVolt(), bench.generator(),
-                new org.lrbench.bench.InstrumentLink("generic-digitizer-float", bench.digitizer().address()),
+                new InstrumentLink("generic-digitizer-float", bench.digitizer().address()),
                 bench.simulation(), bench.accuracy());
         run(out, floating, drivers, repeats, new SimSettings(s.sourceImpedanceOhm(), s.noiseVoltRms(), 0, 1), tally);
         out.println("  goal: efficiency CRLB/variance >= 0.8 and |bias| < 0.2 sigma");

@@ -1,5 +1,6 @@
 package org.lrbench.benchmark;
 
+import java.io.BufferedInputStream;
 import java.io.DataInputStream;
 import java.io.IOException;
 import java.io.InputStream;
@@ -95,7 +96,7 @@ public final class LinkBenchmark {
             OutputStream o = socket.getOutputStream();
             o.write((FETCH + "\n").getBytes(StandardCharsets.US_ASCII));
             o.flush();
-            DataInputStream in = new DataInputStream(new java.io.BufferedInputStream(socket.getInputStream(), 1 << 16));
+            DataInputStream in = new DataInputStream(new BufferedInputStream(socket.getInputStream(), 1 << 16));
             if (in.readUnsignedByte() != '#') {
                 throw new IOException("not a block");
             }

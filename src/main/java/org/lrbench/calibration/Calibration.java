@@ -1,6 +1,7 @@
 package org.lrbench.calibration;
 
 import java.util.List;
+import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.ImpedancePoint;
 
 /**
@@ -24,7 +25,7 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
      */
     public double[] correctSeries(double frequencyHz, double resistanceOhm, double inductanceHenry) {
         double omega = 2 * Math.PI * frequencyHz;
-        var z = new org.apache.commons.math3.complex.Complex(resistanceOhm, omega * inductanceHenry);
+        var z = new Complex(resistanceOhm, omega * inductanceHenry);
         if (channels != null) {
             z = z.divide(channels.ratio(frequencyHz));
         }

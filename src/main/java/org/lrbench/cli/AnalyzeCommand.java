@@ -1,11 +1,31 @@
 package org.lrbench.cli;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import java.io.IOException;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Locale;
+import java.util.Map;
+import java.util.Objects;
 import java.util.concurrent.Callable;
+import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.PhasorImpedance;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.CalibrationStore;
+import org.lrbench.measure.PointResult;
+import org.lrbench.plan.Plan;
+import org.lrbench.results.ResultFiles;
+import org.lrbench.run.PartRun;
 import org.lrbench.traces.CsvTraces;
 import org.lrbench.traces.TraceAnalysis;
+import org.lrbench.traces.TraceArchive;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.UnitException;
 import org.lrbench.units.Units;
@@ -86,7 +106,7 @@ final class AnalyzeCommand implements Callable<Integer> {
                 z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm(), z.inductanceHenry(), z.qualityFactor(),
                 z.componentUncertaintyOhm());
         if (json != null) {
-            java.util.Map<String, Object> out = new java.util.LinkedHashMap<>();
+            Map<String, Object> out = new LinkedHashMap<>();
             out.put("schema", "lrbench.trace-analysis.v1");
             out.put("file", csv.toString());
             out.put("samples", t.sense().length);
@@ -98,7 +118,7 @@ final class AnalyzeCommand implements Callable<Integer> {
             out.put("inductance_h", z.inductanceHenry());
             out.put("quality_factor", z.qualityFactor());
             out.put("component_uncertainty_ohm", z.componentUncertaintyOhm());
-            org.lrbench.results.ResultFiles.writeJson(json, out);
+            ResultFiles.writeJson(json, out);
             System.out.println("written: " + json);
         }
         return ExitCodes.PASS;
@@ -109,43 +129,43 @@ final class AnalyzeCommand implements Callable<Integer> {
      * content checked against the stored hash), the bench and its corrections; prints the stored
      * verdict beside the new one and each limit's stored and new value.
      */
-    private java.util.Map<String, Object> rejudge(Path original, java.util.List<org.lrbench.measure.PointResult> points)
+    private Map<String, Object> rejudge(Path original, List<PointResult> points)
             throws Exception {
-        java.util.Map<String, Object> out = new java.util.LinkedHashMap<>();
-        if (!java.nio.file.Files.isRegularFile(original)) {
+        Map<String, Object> out = new LinkedHashMap<>();
+        if (!Files.isRegularFile(original)) {
             System.out.println("no stored result " + original + ": the limits are not judged again");
             return out;
         }
-        var stored = org.lrbench.results.ResultFiles.JSON.readTree(original.toFile());
+        var stored = ResultFiles.JSON.readTree(original.toFile());
         Path planPath = planFile != null ? planFile : Path.of(stored.get("plan_path").asText());
         Inputs.requireFile(planPath, "plan (give it with --plan)");
         if (!Inputs.sha256(planPath).equals(stored.get("plan_sha256").asText())) {
             throw new BadInputException(planPath + " is not the plan the part was measured with (its content differs"
                     + " from the stored SHA-256); give the original with --plan");
         }
-        org.lrbench.bench.BenchConfig b = benchOptions.load();
-        org.lrbench.plan.Plan plan = Inputs.plan(planPath, b);
-        var calibration = new org.lrbench.calibration.CalibrationStore(calibrationOption.calibration, b.name()).load();
+        BenchConfig b = benchOptions.load();
+        Plan plan = Inputs.plan(planPath, b);
+        var calibration = new CalibrationStore(calibrationOption.calibration, b.name()).load();
         String thenMatch = stored.path("corrections").path("channel_match_measured_at").asText(null);
         String nowMatch = calibration.channels() == null ? null : calibration.channels().measuredAt();
-        if (!java.util.Objects.equals(thenMatch, nowMatch)) {
+        if (!Objects.equals(thenMatch, nowMatch)) {
             System.out.println("note: the channel match in force now (" + nowMatch + ") is not the one of the"
                     + " measurement (" + thenMatch + ")");
         }
-        var r = org.lrbench.run.PartRun.reassess(plan, b, calibration, points);
+        var r = PartRun.reassess(plan, b, calibration, points);
         String before = stored.get("verdict").asText();
         String now = r.verdict().word();
         System.out.printf("verdict: stored %s, re-judged %s%s%n", before, now, before.equals(now) ? " (it stands)" : " (CHANGED)");
-        java.util.Map<String, Double> storedValues = new java.util.HashMap<>();
+        Map<String, Double> storedValues = new HashMap<>();
         for (var l : stored.path("limits")) {
             storedValues.put(l.get("name").asText(), l.get("value").isNumber() ? l.get("value").asDouble() : null);
         }
-        java.util.List<java.util.Map<String, Object>> limits = new java.util.ArrayList<>();
+        List<Map<String, Object>> limits = new ArrayList<>();
         for (var l : r.limits()) {
             System.out.printf(Locale.ROOT, "  %-28s stored %-14s now %-14s %s%n", l.limit().name(),
                     storedValues.get(l.limit().name()) == null ? "-" : String.format(Locale.ROOT, "%.6g", storedValues.get(l.limit().name())),
                     String.format(Locale.ROOT, "%.6g", l.value()), l.pass() ? "pass" : "fail");
-            java.util.Map<String, Object> m = new java.util.LinkedHashMap<>();
+            Map<String, Object> m = new LinkedHashMap<>();
             m.put("name", l.limit().name());
             m.put("value", l.value());
             m.put("expanded_uncertainty", l.expandedUncertainty());
@@ -167,34 +187,34 @@ final class AnalyzeCommand implements Callable<Integer> {
     /** Re-runs the phasor extraction on archived traces; the original result is never touched. */
     private int reanalyse() throws Exception {
         Inputs.requireFile(archive, "trace archive");
-        org.lrbench.traces.TraceArchive.Contents c;
+        TraceArchive.Contents c;
         try {
-            c = org.lrbench.traces.TraceArchive.read(archive);
-        } catch (java.io.IOException e) {
+            c = TraceArchive.read(archive);
+        } catch (IOException e) {
             throw new BadInputException(e.getMessage());
         }
         double rs = c.header().get("sense_resistor_ohm").asDouble();
         String name = archive.getFileName().toString().replace(".lrtraces", "");
         Path original = archive.resolveSibling(name + ".json");
-        com.fasterxml.jackson.databind.JsonNode old = java.nio.file.Files.isRegularFile(original)
-                ? org.lrbench.results.ResultFiles.JSON.readTree(original.toFile()).get("points") : null;
-        java.util.List<java.util.Map<String, Object>> rows = new java.util.ArrayList<>();
-        java.util.List<org.lrbench.measure.PointResult> points = new java.util.ArrayList<>();
+        JsonNode old = Files.isRegularFile(original)
+                ? ResultFiles.JSON.readTree(original.toFile()).get("points") : null;
+        List<Map<String, Object>> rows = new ArrayList<>();
+        List<PointResult> points = new ArrayList<>();
         System.out.printf("re-analysis of %s (lot %s, serial %s), sense resistor %s%n", archive,
                 c.header().get("lot").asText(), c.header().get("serial").asText(), Units.format(rs, Dimension.RESISTANCE));
         System.out.printf("  %12s %14s %14s %14s %14s%n", "frequency", "R before", "R now", "L before", "L now");
         for (int i = 0; i < c.points().size(); i++) {
             var p = c.points().get(i);
             // the same extraction as the sweep: both channels fitted and corrected for quantization
-            var phasors = org.lrbench.analysis.FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(),
+            var phasors = FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(),
                     1, 1, false);
-            ImpedancePoint z = org.lrbench.analysis.PhasorImpedance.of(p.frequencyHz(), phasors.sense(), phasors.part(), rs);
+            ImpedancePoint z = PhasorImpedance.of(p.frequencyHz(), phasors.sense(), phasors.part(), rs);
             Double oldR = old != null && old.size() > i ? old.get(i).get("resistance_ohm").asDouble() : null;
             Double oldL = old != null && old.size() > i ? old.get(i).get("inductance_h").asDouble() : null;
             System.out.printf(Locale.ROOT, "  %12s %14s %14s %14s %14s%n", Units.format(p.frequencyHz(), Dimension.FREQUENCY),
                     oldR == null ? "-" : Units.format(oldR, Dimension.RESISTANCE), Units.format(z.resistanceOhm(), Dimension.RESISTANCE),
                     oldL == null ? "-" : Units.format(oldL, Dimension.INDUCTANCE), Units.format(z.inductanceHenry(), Dimension.INDUCTANCE));
-            java.util.Map<String, Object> row = new java.util.LinkedHashMap<>();
+            Map<String, Object> row = new LinkedHashMap<>();
             row.put("frequency_hz", p.frequencyHz());
             row.put("resistance_ohm", z.resistanceOhm());
             row.put("reactance_ohm", z.reactanceOhm());
@@ -202,25 +222,25 @@ final class AnalyzeCommand implements Callable<Integer> {
             row.put("previous_resistance_ohm", oldR);
             row.put("previous_inductance_h", oldL);
             rows.add(row);
-            points.add(new org.lrbench.measure.PointResult(z, phasors.sense(), phasors.part(), p.senseRange(),
+            points.add(new PointResult(z, phasors.sense(), phasors.part(), p.senseRange(),
                     p.partRange(), p.intervalSecond(), p.sense().length, 1, 0.0, null, null, phasors.senseCorrection(),
                     phasors.partCorrection()));
         }
-        java.util.Map<String, Object> judged = rejudge(original, points);
-        String stamp = java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS).toString().replace(":", "");
+        Map<String, Object> judged = rejudge(original, points);
+        String stamp = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString().replace(":", "");
         Path record = archive.resolveSibling(name + ".analysis-" + stamp + ".json");
-        for (int k = 2; java.nio.file.Files.exists(record); k++) {
+        for (int k = 2; Files.exists(record); k++) {
             record = archive.resolveSibling(name + ".analysis-" + stamp + "-" + k + ".json");
         }
-        java.util.Map<String, Object> analysis = new java.util.LinkedHashMap<>();
+        Map<String, Object> analysis = new LinkedHashMap<>();
         analysis.put("schema", "lrbench.reanalysis.v1");
         analysis.put("program_version", Home.version());
         analysis.put("archive", archive.toString());
-        analysis.put("analysed_at", java.time.Instant.now().toString());
+        analysis.put("analysed_at", Instant.now().toString());
         analysis.put("method", "three-parameter sine fits, Z = Rs V2 / V1 per point (before bench corrections)");
         analysis.put("points", rows);
         analysis.putAll(judged);
-        org.lrbench.results.ResultFiles.writeNew(record, org.lrbench.results.ResultFiles.JSON.writeValueAsBytes(analysis));
+        ResultFiles.writeNew(record, ResultFiles.JSON.writeValueAsBytes(analysis));
         System.out.println("analysis record added: " + record + " (the original result is unchanged)");
         return ExitCodes.PASS;
     }

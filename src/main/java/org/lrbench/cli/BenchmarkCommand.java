@@ -1,9 +1,13 @@
 package org.lrbench.cli;
 
 import java.util.concurrent.Callable;
-import org.lrbench.benchmark.FitBenchmark;
-import org.lrbench.benchmark.LinkBenchmark;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.benchmark.AccuracyBenchmark;
+import org.lrbench.benchmark.CoverageBenchmark;
+import org.lrbench.benchmark.FitBenchmark;
+import org.lrbench.benchmark.KillSoak;
+import org.lrbench.benchmark.LinkBenchmark;
+import org.lrbench.benchmark.ServiceBenchmark;
 import org.lrbench.plan.Plan;
 import org.lrbench.sim.PartFile;
 import picocli.CommandLine.Command;
@@ -45,7 +49,7 @@ final class BenchmarkCommand implements Runnable {
             if (repeats < 10 || repeats > 100_000) {
                 throw new BadInputException("--repeats 10..100000");
             }
-            org.lrbench.benchmark.AccuracyBenchmark.run(System.out, Inputs.bench(Home.defaultBench()), Home.drivers(),
+            AccuracyBenchmark.run(System.out, Inputs.bench(Home.defaultBench()), Home.drivers(),
                     repeats);
             return ExitCodes.PASS;
         }
@@ -61,7 +65,7 @@ final class BenchmarkCommand implements Runnable {
             if (clients < 1 || clients > 500) {
                 throw new BadInputException("--clients 1..500");
             }
-            org.lrbench.benchmark.ServiceBenchmark.run(System.out, Home.root(), Home.drivers(), Home.defaultBench(), clients);
+            ServiceBenchmark.run(System.out, Home.root(), Home.drivers(), Home.defaultBench(), clients);
             return ExitCodes.PASS;
         }
     }
@@ -102,7 +106,7 @@ final class BenchmarkCommand implements Runnable {
             if (kills < 1 || kills > 10_000) {
                 throw new BadInputException("--kills 1..10000");
             }
-            int violations = org.lrbench.benchmark.KillSoak.run(System.out, Home.root(),
+            int violations = KillSoak.run(System.out, Home.root(),
                     Home.root().resolve("plans/qfd-ind-1m0.yaml"), Home.demoLot(), kills, seed);
             return violations == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
@@ -122,7 +126,7 @@ final class BenchmarkCommand implements Runnable {
             if (seeds < 5 || seeds > 10_000) {
                 throw new BadInputException("--seeds 5..10000");
             }
-            int misses = org.lrbench.benchmark.CoverageBenchmark.run(System.out,
+            int misses = CoverageBenchmark.run(System.out,
                     benchOptions.load(), benchOptions.driverFolder(), seeds);
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }

@@ -9,7 +9,11 @@ import org.lrbench.bench.InstrumentLink;
 import org.lrbench.driver.DriverFile;
 import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
+import org.lrbench.driver.PlanFit;
 import org.lrbench.plan.Plan;
+import org.lrbench.plan.PlanAdvice;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
 import org.lrbench.yaml.ProblemsException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -42,7 +46,7 @@ final class CheckCommand implements Callable<Integer> {
         DriverFile source = driver(loader, "generator", b.generator(), DriverKind.SOURCE, problems, loaded);
         DriverFile digitizer = driver(loader, "digitizer", b.digitizer(), DriverKind.DIGITIZER, problems, loaded);
         if (p != null && source != null && digitizer != null) {
-            problems.addAll(org.lrbench.driver.PlanFit.problems(p, source, digitizer));
+            problems.addAll(PlanFit.problems(p, source, digitizer));
         }
         driver(loader, "switch", b.switchUnit(), DriverKind.SWITCH, problems, loaded);
         driver(loader, "meter", b.meter(), DriverKind.METER, problems, loaded);
@@ -52,11 +56,11 @@ final class CheckCommand implements Callable<Integer> {
         }
         System.out.printf("%s: ok, part number %s, %d frequencies from %s to %s, %d limits, bench %s%n",
                 plan, p.partNumber(), p.sweep().frequenciesHz().size(),
-                org.lrbench.units.Units.format(p.sweep().lowestHz(), org.lrbench.units.Dimension.FREQUENCY),
-                org.lrbench.units.Units.format(p.sweep().highestHz(), org.lrbench.units.Dimension.FREQUENCY),
+                Units.format(p.sweep().lowestHz(), Dimension.FREQUENCY),
+                Units.format(p.sweep().highestHz(), Dimension.FREQUENCY),
                 p.limits().size(), b.name());
         System.out.println("drivers: " + String.join("; ", loaded));
-        for (String w : org.lrbench.plan.PlanAdvice.warnings(p)) {
+        for (String w : PlanAdvice.warnings(p)) {
             System.out.println("warning: " + plan + ": " + w);
         }
         return ExitCodes.PASS;

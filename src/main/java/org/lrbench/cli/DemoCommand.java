@@ -1,21 +1,25 @@
 package org.lrbench.cli;
 
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
-import org.lrbench.store.ResultStore;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
+import org.lrbench.records.StoreLedger;
+import org.lrbench.report.LotReport;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.ResultFiles;
-import org.lrbench.records.StoreLedger;
 import org.lrbench.run.LotRunner;
 import org.lrbench.run.PartRun;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.SimLot;
+import org.lrbench.store.ResultStore;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -41,13 +45,13 @@ final class DemoCommand implements Callable<Integer> {
     Path data;
 
     /** The demo lot's earlier result files and trace archives (only those: other files stay). */
-    private static void removeDemoRecords(Path dir) throws java.io.IOException {
-        if (!java.nio.file.Files.isDirectory(dir)) {
+    private static void removeDemoRecords(Path dir) throws IOException {
+        if (!Files.isDirectory(dir)) {
             return;
         }
-        try (var files = java.nio.file.Files.newDirectoryStream(dir, "*.{json,lrtraces}")) {
+        try (var files = Files.newDirectoryStream(dir, "*.{json,lrtraces}")) {
             for (Path f : files) {
-                java.nio.file.Files.delete(f);
+                Files.delete(f);
             }
         }
     }
@@ -94,8 +98,8 @@ final class DemoCommand implements Callable<Integer> {
             LotRunner.Outcome outcome = RunCommand.runTray(setup, b, lot, r -> ResultText.tableRow(System.out, r, qAt));
             summary = LotSummaries.of(outcome, store.attempts(lot.lot()).size(), store.chainHead(lot.lot()));
             Path report = runsOption.runs.resolve(lot.lot()).resolve("report.html");
-            ResultFiles.writeAtomically(report, org.lrbench.report.LotReport.html(store, lot.lot())
-                    .getBytes(java.nio.charset.StandardCharsets.UTF_8));
+            ResultFiles.writeAtomically(report, LotReport.html(store, lot.lot())
+                    .getBytes(StandardCharsets.UTF_8));
         }
         Path summaryFile = runsOption.runs.resolve(lot.lot()).resolve("lot-summary.json");
         ResultFiles.writeJson(summaryFile, summary);

@@ -8,8 +8,14 @@ import java.security.NoSuchAlgorithmException;
 import java.util.HexFormat;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
+import org.lrbench.driver.DriverKind;
+import org.lrbench.driver.DriverLoader;
+import org.lrbench.driver.PlanFit;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
+import org.lrbench.transport.Address;
+import org.lrbench.transport.AddressException;
+import org.lrbench.transport.Transports;
 import org.lrbench.yaml.ProblemsException;
 
 /** Loading what commands share: the bench, the plan, and checks on names that become file names. */
@@ -33,10 +39,10 @@ final class Inputs {
      * Refuses, before any instrument is touched, a plan that asks of the bench's generator or
      * digitizer more than their driver files declare.
      */
-    static void requireFit(Plan plan, BenchConfig bench, org.lrbench.driver.DriverLoader drivers) throws ProblemsException {
-        var problems = org.lrbench.driver.PlanFit.problems(plan,
-                drivers.load(bench.generator().driver(), org.lrbench.driver.DriverKind.SOURCE),
-                drivers.load(bench.digitizer().driver(), org.lrbench.driver.DriverKind.DIGITIZER));
+    static void requireFit(Plan plan, BenchConfig bench, DriverLoader drivers) throws ProblemsException {
+        var problems = PlanFit.problems(plan,
+                drivers.load(bench.generator().driver(), DriverKind.SOURCE),
+                drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER));
         if (!problems.isEmpty()) {
             throw new BadInputException(String.join("\n", problems));
         }
@@ -58,15 +64,15 @@ final class Inputs {
     }
 
     /** Parses an address option; null stays null. */
-    static org.lrbench.transport.Address address(String option, String text) {
+    static Address address(String option, String text) {
         if (text == null) {
             return null;
         }
         try {
-            org.lrbench.transport.Address a = org.lrbench.transport.Address.parse(text);
-            org.lrbench.transport.Transports.check(a);
+            Address a = Address.parse(text);
+            Transports.check(a);
             return a;
-        } catch (org.lrbench.transport.AddressException e) {
+        } catch (AddressException e) {
             throw new BadInputException(option + ": " + e.getMessage());
         }
     }

@@ -5,6 +5,7 @@ import ch.qos.logback.classic.Logger;
 import ch.qos.logback.classic.LoggerContext;
 import ch.qos.logback.classic.encoder.PatternLayoutEncoder;
 import ch.qos.logback.core.FileAppender;
+import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import org.slf4j.LoggerFactory;
@@ -39,7 +40,7 @@ final class LogOptions {
         Path parent = ioLog.toAbsolutePath().getParent();
         try {
             Files.createDirectories(parent);
-        } catch (java.io.IOException e) {
+        } catch (IOException e) {
             throw new BadInputException("--io-log " + ioLog + ": cannot create " + parent + ": " + e.getMessage());
         }
         if (Files.isDirectory(ioLog) || (Files.exists(ioLog) && !Files.isWritable(ioLog))) {

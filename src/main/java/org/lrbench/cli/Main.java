@@ -1,9 +1,13 @@
 package org.lrbench.cli;
 
+import java.io.IOException;
 import org.lrbench.instrument.InstrumentException;
+import org.lrbench.run.LotRunner;
+import org.lrbench.store.StoreException;
+import org.lrbench.transport.AddressException;
 import org.lrbench.yaml.ProblemsException;
-import picocli.CommandLine;
 import picocli.CommandLine.Command;
+import picocli.CommandLine;
 
 /** The {@code lrbench} command line. */
 @Command(name = "lrbench", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
@@ -26,12 +30,12 @@ public final class Main implements Runnable {
                 ResultText.problems(commandLine.getErr(), p.problems());
                 return ExitCodes.BAD_INPUT;
             }
-            if (e instanceof BadInputException || e instanceof org.lrbench.run.LotRunner.Refused
-                    || e instanceof org.lrbench.transport.AddressException) {
+            if (e instanceof BadInputException || e instanceof LotRunner.Refused
+                    || e instanceof AddressException) {
                 commandLine.getErr().println("lrbench: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }
-            if (e instanceof org.lrbench.store.StoreException) {
+            if (e instanceof StoreException) {
                 commandLine.getErr().println("lrbench: results store: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }
@@ -39,7 +43,7 @@ public final class Main implements Runnable {
                 commandLine.getErr().println("lrbench: instrument error: " + e.getMessage());
                 return ExitCodes.INSTRUMENT;
             }
-            if (e instanceof java.io.IOException) {
+            if (e instanceof IOException) {
                 commandLine.getErr().println("lrbench: file error: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }

@@ -1,9 +1,12 @@
 package org.lrbench.cli;
 
+import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.concurrent.Callable;
 import org.lrbench.report.LotReport;
+import org.lrbench.results.Attempt;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.store.ResultStore;
 import picocli.CommandLine.Command;
@@ -42,13 +45,13 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
      * Every attempt of every part with every limit: value, expanded uncertainty, zone, pass and the
      * part's verdict, one row per attempt and limit (numbers in SI base units, full precision).
      */
-    private void writeCsv(ResultStore s) throws java.io.IOException {
+    private void writeCsv(ResultStore s) throws IOException {
         StringBuilder sb = new StringBuilder("lot,inspection,position,serial,attempt,counts,verdict,limit,value,"
                 + "expanded_uncertainty,zone,pass\n");
         var all = s.attempts(lot);
         for (var i : s.lot(lot)) {
             var round = all.stream().filter(a -> a.round() == i.round()).toList();
-            var counting = org.lrbench.results.Attempt.counting(round);
+            var counting = Attempt.counting(round);
             for (var a : round) {
                 var limits = ResultFiles.JSON.readTree(a.resultJson()).path("limits");
                 if (limits.isEmpty()) {
@@ -65,9 +68,9 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
         System.out.println("written: " + csv);
     }
 
-    private static String row(org.lrbench.results.Attempt a, boolean counts, String limit, String value, String u,
+    private static String row(Attempt a, boolean counts, String limit, String value, String u,
                               String zone, String pass) {
-        return String.join(",", java.util.List.of(a.lot(), String.valueOf(a.round()), String.valueOf(a.position()),
+        return String.join(",", List.of(a.lot(), String.valueOf(a.round()), String.valueOf(a.position()),
                 a.serial(), String.valueOf(a.number()), String.valueOf(counts), a.verdict(), StoreCommands.csv(limit),
                 value, u, zone, pass));
     }

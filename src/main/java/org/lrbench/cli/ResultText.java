@@ -1,6 +1,8 @@
 package org.lrbench.cli;
 
 import java.io.PrintStream;
+import java.io.PrintWriter;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import org.lrbench.judge.Characteristic;
@@ -8,6 +10,8 @@ import org.lrbench.judge.Limit;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.PartResult;
+import org.lrbench.sampling.LotDisposition;
+import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
 
@@ -110,18 +114,18 @@ final class ResultText {
     }
 
     /** The lot's sampling plans per class, one line. */
-    static void samplingPlans(PrintStream out, int lotSize, org.lrbench.sampling.SamplingScheme scheme) {
+    static void samplingPlans(PrintStream out, int lotSize, SamplingScheme scheme) {
         StringBuilder sb = new StringBuilder(String.format(Locale.ROOT, "lot size %d, inspection level %s (ISO 2859-1,"
                 + " normal, single):", lotSize, scheme.level()));
-        java.util.List<String> parts = new java.util.ArrayList<>();
-        org.lrbench.sampling.LotDisposition.plans(lotSize, scheme).forEach((c, p) -> parts.add(String.format(Locale.ROOT,
+        List<String> parts = new ArrayList<>();
+        LotDisposition.plans(lotSize, scheme).forEach((c, p) -> parts.add(String.format(Locale.ROOT,
                 "%s AQL %s: letter %c%s, n = %d, Ac %d, Re %d%s", c.name().toLowerCase(Locale.ROOT), p.aql(),
                 p.codeLetter(), p.planLetter() != p.codeLetter() ? " -> " + p.planLetter() : "", p.sampleSize(),
                 p.acceptance(), p.rejection(), p.fullInspection() ? " (100 % inspection)" : "")));
         out.println(sb.append(' ').append(String.join("; ", parts)));
     }
 
-    static void problems(java.io.PrintWriter err, List<?> problems) {
+    static void problems(PrintWriter err, List<?> problems) {
         problems.forEach(err::println);
     }
 }

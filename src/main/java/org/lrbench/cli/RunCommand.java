@@ -1,8 +1,18 @@
 package org.lrbench.cli;
 
+import java.io.BufferedReader;
+import java.io.IOException;
+import java.io.InputStreamReader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.List;
+import java.util.Locale;
+import java.util.Set;
 import java.util.concurrent.Callable;
+import java.util.function.Consumer;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
@@ -24,11 +34,13 @@ import org.lrbench.run.PartFeeder;
 import org.lrbench.run.PartRun;
 import org.lrbench.run.SwitchFeeder;
 import org.lrbench.run.TrayFeeder;
-import org.lrbench.sim.SimLot;
-import org.lrbench.store.ResultStore;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
+import org.lrbench.sim.SimLot;
+import org.lrbench.store.ResultStore;
+import org.lrbench.traces.TraceArchive;
+import org.lrbench.traces.TraceRecorder;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -142,14 +154,14 @@ final class RunCommand implements Callable<Integer> {
         PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version(),
                 new CalibrationStore(calibrationOption.calibration, b.name()).load());
         PartResult result;
-        org.lrbench.traces.TraceRecorder recorder = new org.lrbench.traces.TraceRecorder(SweepListener.NONE);
+        TraceRecorder recorder = new TraceRecorder(SweepListener.NONE);
         try (BenchInstruments instruments = BenchInstruments.open(b, benchOptions.loader(), simBench)) {
             result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, recorder);
         }
         result = result.withAttempt(new PartResult.AttemptRecord(1, number, operatorName(), reason));
         Path dir = runsOption.runs.resolve(lot);
         Path archive = dir.resolve(Attempt.fileName(serial, number, "lrtraces"));
-        byte[] traces = keepTraces() ? org.lrbench.traces.TraceArchive.encode(lot, serial, p.partNumber(),
+        byte[] traces = keepTraces() ? TraceArchive.encode(lot, serial, p.partNumber(),
                 p.senseResistanceOhm(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
         if (traces != null) {
             ResultFiles.writeNew(archive, traces);
@@ -167,7 +179,7 @@ final class RunCommand implements Callable<Integer> {
         if (result.error() != null) {
             System.err.println("lrbench: measurement error: " + result.error());
         }
-        return ExitCodes.of(Verdict.valueOf(result.verdict().toUpperCase(java.util.Locale.ROOT)));
+        return ExitCodes.of(Verdict.valueOf(result.verdict().toUpperCase(Locale.ROOT)));
     }
 
     /**
@@ -175,7 +187,7 @@ final class RunCommand implements Callable<Integer> {
      * holds the whole tray and the switch changes parts; without one, each part is its own bench.
      */
     static LotRunner.Outcome runTray(LotRunner.Setup setup, BenchConfig b, SimLot tray,
-                                     java.util.function.Consumer<PartResult> onPart) throws Exception {
+                                     Consumer<PartResult> onPart) throws Exception {
         if (b.switchUnit() == null) {
             return LotRunner.run(setup, new TrayFeeder(tray.parts()), onPart);
         }
@@ -202,7 +214,7 @@ final class RunCommand implements Callable<Integer> {
      */
     private void refuseSampledLot() {
         Path db = data.resolve("lrbench.db");
-        if (storeUrl == null && !java.nio.file.Files.isRegularFile(db)) {
+        if (storeUrl == null && !Files.isRegularFile(db)) {
             return;
         }
         try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.openForReading(db)) {
@@ -221,7 +233,7 @@ final class RunCommand implements Callable<Integer> {
     private int singleAttemptNumber() {
         Path dir = runsOption.runs.resolve(lot);
         int number = 1;
-        while (java.nio.file.Files.exists(dir.resolve(Attempt.fileName(serial, number, "json")))) {
+        while (Files.exists(dir.resolve(Attempt.fileName(serial, number, "json")))) {
             number++;
         }
         if (number > 1 && (reason == null || reason.isBlank())) {
@@ -236,11 +248,11 @@ final class RunCommand implements Callable<Integer> {
     }
 
     /** Serials of a tray file: one per line, blank lines and # comments ignored, each checked. */
-    static List<String> readSerials(Path file) throws java.io.IOException {
+    static List<String> readSerials(Path file) throws IOException {
         Inputs.requireFile(file, "tray");
-        List<String> out = new java.util.ArrayList<>();
-        java.util.Set<String> seen = new java.util.HashSet<>();
-        List<String> lines = java.nio.file.Files.readAllLines(file);
+        List<String> out = new ArrayList<>();
+        Set<String> seen = new HashSet<>();
+        List<String> lines = Files.readAllLines(file);
         for (int i = 0; i < lines.size(); i++) {
             String t = lines.get(i).replaceAll("#.*", "").trim();
             if (t.isEmpty()) {
@@ -315,7 +327,7 @@ final class RunCommand implements Callable<Integer> {
                 System.out.println("resuming lot " + lot + ": " + judged + " part(s) already measured are not measured again");
             }
             ResultText.tableHeader(System.out, qAt);
-            java.util.function.Consumer<PartResult> row = r -> ResultText.tableRow(System.out, r, qAt);
+            Consumer<PartResult> row = r -> ResultText.tableRow(System.out, r, qAt);
             try (StopSignals signals = StopSignals.install(stop, lot, System.err);
                  LotProgress progress = LotProgress.start((int) Math.max(0, setup.sampleSize() - judged),
                          p.sweep().frequenciesHz().size())) {
@@ -328,8 +340,8 @@ final class RunCommand implements Callable<Integer> {
                         outcome = LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(), serials), row);
                     }
                 } else {
-                    PartFeeder feeder = new ConsoleFeeder(new java.io.BufferedReader(new java.io.InputStreamReader(System.in,
-                                    java.nio.charset.StandardCharsets.UTF_8)), System.out);
+                    PartFeeder feeder = new ConsoleFeeder(new BufferedReader(new InputStreamReader(System.in,
+                                    StandardCharsets.UTF_8)), System.out);
                     outcome = LotRunner.run(setup, feeder, row);
                 }
             }
@@ -362,7 +374,7 @@ final class RunCommand implements Callable<Integer> {
         }
         System.out.printf("lot %s is closed: inspection %d was decided on %s: %s (%s).%nNothing was measured. To inspect"
                         + " it again, give --reinspect REASON; the earlier inspection is kept.%n", i.lot(), i.round(),
-                i.finishedAt(), i.disposition().toUpperCase(java.util.Locale.ROOT), i.dispositionReason());
+                i.finishedAt(), i.disposition().toUpperCase(Locale.ROOT), i.dispositionReason());
         return i.disposition().equals("accept") ? ExitCodes.PASS : ExitCodes.FAIL;
     }
 }

@@ -1,6 +1,8 @@
 package org.lrbench.cli;
 
+import java.io.IOException;
 import java.net.InetAddress;
+import java.net.UnknownHostException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
@@ -55,7 +57,7 @@ final class ServeCommand implements Callable<Integer> {
         InetAddress address;
         try {
             address = InetAddress.getByName(listen);
-        } catch (java.net.UnknownHostException e) {
+        } catch (UnknownHostException e) {
             throw new BadInputException("--listen '" + listen + "': not an address of this machine");
         }
         String token = address.isLoopbackAddress() ? null : token(data);
@@ -78,7 +80,7 @@ final class ServeCommand implements Callable<Integer> {
     }
 
     /** The access token, made at first start and kept readable by its owner only. */
-    static String token(Path data) throws java.io.IOException {
+    static String token(Path data) throws IOException {
         Path file = data.resolve("service-token");
         if (Files.isRegularFile(file)) {
             return Files.readString(file).trim();

@@ -2,16 +2,20 @@ package org.lrbench.cli;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import java.util.concurrent.Callable;
+import org.lrbench.results.Attempt;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
-import org.lrbench.results.Attempt;
 import org.lrbench.store.ResultStore;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -40,7 +44,7 @@ final class StoreCommands {
                 return ResultStore.openUrl(store);
             }
             Path db = data.resolve("lrbench.db");
-            if (!java.nio.file.Files.isRegularFile(db)) {
+            if (!Files.isRegularFile(db)) {
                 throw new BadInputException("no results store at " + db + " (measure a lot first, or give --data)");
             }
             // queries only read: a store on read-only media, or a copy handed to an auditor, is read as it is
@@ -48,7 +52,7 @@ final class StoreCommands {
         }
 
         void print(List<String> header, List<List<String>> rows) throws IOException {
-            print(header, rows, java.util.Map.of());
+            print(header, rows, Map.of());
         }
 
         /**
@@ -56,7 +60,7 @@ final class StoreCommands {
          * base-unit numbers: the table shows them with a prefix and four figures (as every command
          * prints them), the CSV keeps them at full precision for other programs.
          */
-        void print(List<String> header, List<List<String>> raw, java.util.Map<String, org.lrbench.units.Dimension> units)
+        void print(List<String> header, List<List<String>> raw, Map<String, Dimension> units)
                 throws IOException {
             List<List<String>> rows = new ArrayList<>();
             for (List<String> r : raw) {
@@ -64,7 +68,7 @@ final class StoreCommands {
                 for (int i = 0; i < r.size(); i++) {
                     var d = units.get(header.get(i));
                     String v = r.get(i);
-                    shown.add(d == null || v.isEmpty() ? v : org.lrbench.units.Units.format(Double.parseDouble(v), d));
+                    shown.add(d == null || v.isEmpty() ? v : Units.format(Double.parseDouble(v), d));
                 }
                 rows.add(shown);
             }
@@ -154,9 +158,9 @@ final class StoreCommands {
                     throw new BadInputException("lot " + lot + " has no stored parts");
                 }
                 print(List.of("inspection", "position", "serial", "attempt", "counts", "verdict", "inductance_h",
-                        "series_resistance_ohm", "measured_at", "operator", "reason"), rows, java.util.Map.of(
-                        "inductance_h", org.lrbench.units.Dimension.INDUCTANCE,
-                        "series_resistance_ohm", org.lrbench.units.Dimension.RESISTANCE));
+                        "series_resistance_ohm", "measured_at", "operator", "reason"), rows, Map.of(
+                        "inductance_h", Dimension.INDUCTANCE,
+                        "series_resistance_ohm", Dimension.RESISTANCE));
             }
             return ExitCodes.PASS;
         }
@@ -181,11 +185,11 @@ final class StoreCommands {
                     throw new BadInputException("no lots of part number " + partNumber + " in the store");
                 }
                 print(List.of("lot", "inspection", "started", "disposition", "measured", "yield_percent", "mean_inductance_h",
-                        "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows, java.util.Map.of(
-                        "mean_inductance_h", org.lrbench.units.Dimension.INDUCTANCE,
-                        "sd_inductance_h", org.lrbench.units.Dimension.INDUCTANCE,
-                        "mean_series_resistance_ohm", org.lrbench.units.Dimension.RESISTANCE,
-                        "sd_series_resistance_ohm", org.lrbench.units.Dimension.RESISTANCE));
+                        "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows, Map.of(
+                        "mean_inductance_h", Dimension.INDUCTANCE,
+                        "sd_inductance_h", Dimension.INDUCTANCE,
+                        "mean_series_resistance_ohm", Dimension.RESISTANCE,
+                        "sd_series_resistance_ohm", Dimension.RESISTANCE));
             }
             return ExitCodes.PASS;
         }

@@ -4,6 +4,9 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.lrbench.scpi.ScpiNumbers;
 
 /**
  * A SCPI command with {@code {name}} placeholders, from a driver file. The values put into it are
@@ -14,7 +17,7 @@ import java.util.Set;
  * screen); the result is sent as a SCPI NR3 number.
  */
 public final class CommandTemplate {
-    private static final java.util.regex.Pattern PLACEHOLDER = java.util.regex.Pattern.compile(
+    private static final Pattern PLACEHOLDER = Pattern.compile(
             "([a-z0-9_]+)(?:([*/])([0-9]+(?:\\.[0-9]+)?(?:[eE][-+]?[0-9]+)?))?");
     /** Placeholders whose values are words from the driver's tables or channel lists: no arithmetic. */
     private static final Set<String> WORDS = Set.of("shape", "coupling", "source", "slope", "channels");
@@ -47,7 +50,7 @@ public final class CommandTemplate {
                     throw new IllegalArgumentException("'{' at index " + i + " is never closed");
                 }
                 String inside = text.substring(i + 1, end);
-                java.util.regex.Matcher m = PLACEHOLDER.matcher(inside);
+                Matcher m = PLACEHOLDER.matcher(inside);
                 String name = m.matches() ? m.group(1) : inside;
                 if (!allowed.contains(name)) {
                     throw new IllegalArgumentException("unknown placeholder {" + inside + "} at index " + i
@@ -77,7 +80,7 @@ public final class CommandTemplate {
             char c = text.charAt(i);
             if (c == '{') {
                 int end = text.indexOf('}', i);
-                java.util.regex.Matcher m = PLACEHOLDER.matcher(text.substring(i + 1, end));
+                Matcher m = PLACEHOLDER.matcher(text.substring(i + 1, end));
                 m.matches();
                 String name = m.group(1);
                 String value = values.get(name);
@@ -87,8 +90,8 @@ public final class CommandTemplate {
                 requireToken(name, value);
                 if (m.group(2) != null) {
                     double k = Double.parseDouble(m.group(3));
-                    double v = org.lrbench.scpi.ScpiNumbers.parse(value);
-                    value = org.lrbench.scpi.ScpiNumbers.nr3(m.group(2).equals("*") ? v * k : v / k);
+                    double v = ScpiNumbers.parse(value);
+                    value = ScpiNumbers.nr3(m.group(2).equals("*") ? v * k : v / k);
                 }
                 out.append(value);
                 i = end + 1;

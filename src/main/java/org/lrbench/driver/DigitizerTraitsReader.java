@@ -2,6 +2,7 @@ package org.lrbench.driver;
 
 import java.time.Duration;
 import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -170,7 +171,7 @@ final class DigitizerTraitsReader {
 
     /** Digitizer operations a driver may leave out, given its traits. */
     static Set<String> optional(DigitizerTraits traits) {
-        Set<String> out = new java.util.HashSet<>();
+        Set<String> out = new HashSet<>();
         if (!traits.vertical().ranges().isEmpty()) {
             out.add("range_min_query");
             out.add("range_max_query");

@@ -5,10 +5,12 @@ import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.scpi.ScpiNumbers;
 import org.lrbench.scpi.ScpiSession;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /** What every driver-file instrument shares: its session, its driver, and a checked send. */
 abstract class DrivenInstrument {
-    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(DrivenInstrument.class);
+    private static final Logger LOG = LoggerFactory.getLogger(DrivenInstrument.class);
     protected final ScpiSession session;
     protected final DriverFile driver;
     private Identity identity;

@@ -3,6 +3,8 @@ package org.lrbench.driver;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
+import java.util.Arrays;
+import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -15,6 +17,7 @@ import org.lrbench.yaml.Problems;
 import org.lrbench.yaml.ProblemsException;
 import org.lrbench.yaml.YamlFile;
 import org.lrbench.yaml.YamlMap;
+import org.yaml.snakeyaml.nodes.Node;
 
 /**
  * Loads {@code drivers/NAME.yaml}. Every operation of the driver's kind must have a template, every
@@ -36,7 +39,7 @@ public final class DriverLoader {
         Path file = directory.resolve(name + ".yaml");
         Problems problems = new Problems(file.toString());
         if (!name.matches("[A-Za-z0-9._-]+") || !Files.isRegularFile(file)) {
-            problems.add((org.yaml.snakeyaml.nodes.Node) null, "driver",
+            problems.add((Node) null, "driver",
                     "no driver file '" + name + ".yaml' in " + directory);
             problems.throwIfAny();
         }
@@ -73,7 +76,7 @@ public final class DriverLoader {
                 encoding = TraceEncoding.byKey(key);
                 if (encoding == null) {
                     root.problem("trace_format", "'" + key + "' is not a trace format; allowed: "
-                            + String.join(", ", java.util.Arrays.stream(TraceEncoding.values()).map(TraceEncoding::key).toList()));
+                            + String.join(", ", Arrays.stream(TraceEncoding.values()).map(TraceEncoding::key).toList()));
                 }
             }
             traits = DigitizerTraitsReader.read(root, encoding);
@@ -93,7 +96,7 @@ public final class DriverLoader {
             root.problem("levels", "only source drivers have levels");
         }
         if (kind != null) {
-            Set<String> optional = new java.util.HashSet<>(traits == null ? Set.of() : DigitizerTraitsReader.optional(traits));
+            Set<String> optional = new HashSet<>(traits == null ? Set.of() : DigitizerTraitsReader.optional(traits));
             YamlMap cmds = root.map("commands", true, kind.operations().keySet().toArray(String[]::new));
             if (kind == DriverKind.DIGITIZER) {
                 // the instrument's list of ranges, when it can tell it, stands for its limits

@@ -1,5 +1,7 @@
 package org.lrbench.driver;
 
+import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
@@ -13,6 +15,7 @@ import org.lrbench.instrument.Trace;
 import org.lrbench.instrument.TriggerSource;
 import org.lrbench.scpi.BlockFormatException;
 import org.lrbench.scpi.ScpiNumbers;
+import org.lrbench.scpi.ScpiReplies;
 import org.lrbench.scpi.ScpiSession;
 import org.lrbench.scpi.TraceEncoding;
 
@@ -58,8 +61,8 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             if (list.length == 0) {
                 throw new InstrumentException(session.instrument() + ": '" + query + "' answered no ranges");
             }
-            double min = java.util.Arrays.stream(list).min().orElseThrow();
-            double max = java.util.Arrays.stream(list).max().orElseThrow();
+            double min = Arrays.stream(list).min().orElseThrow();
+            double max = Arrays.stream(list).max().orElseThrow();
             if (!(min > 0)) {
                 throw new InstrumentException(session.instrument() + ": '" + query + "' answered a range of " + min);
             }
@@ -274,14 +277,14 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     /** Asks the scaling of this channel and of every other ranged channel lacking it, in one message. */
     private void queryScales(int channel) {
-        List<Integer> channels = new java.util.ArrayList<>();
+        List<Integer> channels = new ArrayList<>();
         channels.add(channel);
         ranges.keySet().stream().filter(c -> c != channel && !scales.containsKey(c)).sorted().forEach(channels::add);
         StringBuilder command = new StringBuilder();
         for (int ch : channels) {
             command.append(command.length() == 0 ? "" : ";").append(driver.command("scale_query").render(channel(ch)));
         }
-        List<String> replies = org.lrbench.scpi.ScpiReplies.split(session.query(command.toString()));
+        List<String> replies = ScpiReplies.split(session.query(command.toString()));
         if (replies.size() != channels.size()) {
             throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies.size()
                     + " replies for " + channels.size() + " channels");
@@ -324,7 +327,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         for (String name : names) {
             command.append(command.length() == 0 ? "" : ";").append(queries.get(name).render(channel(channel)));
         }
-        List<String> replies = org.lrbench.scpi.ScpiReplies.split(session.query(command.toString()));
+        List<String> replies = ScpiReplies.split(session.query(command.toString()));
         if (replies.size() != names.size()) {
             throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies.size()
                     + " replies for " + names.size() + " queries");

@@ -1,5 +1,6 @@
 package org.lrbench.measure;
 
+import java.math.BigDecimal;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
@@ -8,6 +9,8 @@ import java.util.Set;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.RangeLimits;
 import org.lrbench.instrument.Trace;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /**
  * Picks each channel's vertical range, for any range set an instrument has: continuous, or fixed
@@ -27,7 +30,7 @@ import org.lrbench.instrument.Trace;
  * range asked for and granted.
  */
 public final class AutoRanger {
-    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(AutoRanger.class);
+    private static final Logger LOG = LoggerFactory.getLogger(AutoRanger.class);
     static final double LOW_FILL = 0.5;
     static final double HIGH_FILL = 0.9;
     static final double TARGET_FILL = 0.75;
@@ -162,7 +165,7 @@ public final class AutoRanger {
     }
 
     private static String volts(double v) {
-        return new java.math.BigDecimal(String.format(Locale.ROOT, "%.4g", v)).stripTrailingZeros().toPlainString() + " V";
+        return new BigDecimal(String.format(Locale.ROOT, "%.4g", v)).stripTrailingZeros().toPlainString() + " V";
     }
 
     private void note(int ch, String outcome) {

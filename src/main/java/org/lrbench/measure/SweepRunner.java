@@ -2,12 +2,15 @@ package org.lrbench.measure;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
+import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.HarmonicFit;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.PhasorImpedance;
 import org.lrbench.analysis.SineFitResult;
 import org.lrbench.analysis.TriangleExtraction;
+import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.Coupling;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
@@ -17,7 +20,6 @@ import org.lrbench.instrument.Waveform;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.SineSweep;
 import org.lrbench.plan.TriangleCheck;
-import org.lrbench.fixture.FixtureWiring;
 
 /**
  * Runs a plan's sine sweep on a generator and a digitizer: per frequency it sets the generator,
@@ -155,14 +157,14 @@ public final class SweepRunner {
         SineFitResult part = phasors.part();
         if (sense.amplitude() <= 3 * sense.residualRms() * Math.sqrt(2.0 / sense.samples())) {
             if (openCircuit) {
-                ImpedancePoint none = new ImpedancePoint(f, new org.apache.commons.math3.complex.Complex(Double.NaN, Double.NaN),
-                        Double.NaN, org.apache.commons.math3.complex.Complex.ZERO);
+                ImpedancePoint none = new ImpedancePoint(f, new Complex(Double.NaN, Double.NaN),
+                        Double.NaN, Complex.ZERO);
                 return new PointResult(none, sense, part, capture.sense().rangeVolt() * attenuation(plan, 1),
                         capture.part().rangeVolt() * attenuation(plan, 2),
                         timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), Double.NaN,
                         capture.sense(), capture.part(), phasors.senseCorrection(), phasors.partCorrection());
             }
-            throw new MeasurementException(String.format(java.util.Locale.ROOT,
+            throw new MeasurementException(String.format(Locale.ROOT,
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
         }
         ImpedancePoint z = PhasorImpedance.of(f, sense, part, plan.senseResistanceOhm());

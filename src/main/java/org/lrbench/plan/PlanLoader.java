@@ -2,21 +2,24 @@ package org.lrbench.plan;
 
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.EnumMap;
 import java.util.EnumSet;
 import java.util.HashSet;
-import java.util.Map;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import java.util.Set;
+import java.util.TreeSet;
 import org.lrbench.analysis.LumpedParameter;
+import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.CharacteristicClass;
+import org.lrbench.judge.DecisionRule;
+import org.lrbench.judge.Limit;
 import org.lrbench.sampling.InspectionLevel;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.sampling.SingleSampling;
-import org.lrbench.fixture.FixtureWiring;
-import org.lrbench.judge.DecisionRule;
-import org.lrbench.judge.Limit;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Quantity;
 import org.lrbench.units.Units;
@@ -24,6 +27,8 @@ import org.lrbench.yaml.Problems;
 import org.lrbench.yaml.ProblemsException;
 import org.lrbench.yaml.YamlFile;
 import org.lrbench.yaml.YamlMap;
+import org.yaml.snakeyaml.nodes.ScalarNode;
+import org.yaml.snakeyaml.nodes.SequenceNode;
 
 /**
  * Reads and validates a plan file. All problems of the file are collected and thrown together,
@@ -158,13 +163,13 @@ public final class PlanLoader {
         if (m == null) {
             return null;
         }
-        Map<String, InspectionLevel> levels = new java.util.LinkedHashMap<>();
+        Map<String, InspectionLevel> levels = new LinkedHashMap<>();
         for (InspectionLevel l : InspectionLevel.values()) {
             levels.put(l.name(), l);
         }
         InspectionLevel level = m.has("level") ? m.choice("level", true, levels) : InspectionLevel.II;
         YamlMap aqls = m.map("aql", true, "critical", "major", "minor");
-        Map<CharacteristicClass, Double> aql = new java.util.EnumMap<>(CharacteristicClass.class);
+        Map<CharacteristicClass, Double> aql = new EnumMap<>(CharacteristicClass.class);
         if (aqls != null) {
             for (var e : CLASSES.entrySet()) {
                 if (aqls.has(e.getKey())) {
@@ -274,16 +279,16 @@ public final class PlanLoader {
             return EnumSet.of(LumpedParameter.C_P, LumpedParameter.SKIN);
         }
         var node = s.value("model_terms", true).orElseThrow();
-        if (node instanceof org.yaml.snakeyaml.nodes.SequenceNode seq && seq.getValue().isEmpty()) {
+        if (node instanceof SequenceNode seq && seq.getValue().isEmpty()) {
             return terms; // the series R + L model
         }
         boolean ok = true;
         for (YamlMap.Item item : s.list("model_terms", true)) {
-            String word = item.node() instanceof org.yaml.snakeyaml.nodes.ScalarNode sc ? sc.getValue() : null;
+            String word = item.node() instanceof ScalarNode sc ? sc.getValue() : null;
             LumpedParameter p = word == null ? null : TERMS.get(word);
             if (p == null) {
                 s.problems().add(item.node(), item.path(), "'" + word + "' is not a model term; allowed: "
-                        + String.join(", ", new java.util.TreeSet<>(TERMS.keySet())) + " (an empty list: series R + L)");
+                        + String.join(", ", new TreeSet<>(TERMS.keySet())) + " (an empty list: series R + L)");
                 ok = false;
             } else {
                 terms.add(p);

@@ -5,8 +5,11 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.FileAlreadyExistsException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Optional;
 import org.lrbench.measure.PointResult;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
@@ -16,7 +19,10 @@ import org.lrbench.results.ResultFiles;
 import org.lrbench.run.LotLedger;
 import org.lrbench.store.Canonical;
 import org.lrbench.store.ResultStore;
+import org.lrbench.store.StoreException;
 import org.lrbench.traces.TraceArchive;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /**
  * Keeps a lot's attempts in the results store and as files under {@code RUNS/LOT/}: the result
@@ -28,7 +34,7 @@ import org.lrbench.traces.TraceArchive;
  * for the same attempt removes its temporary files and leaves nothing under final names.
  */
 public final class StoreLedger implements LotLedger {
-    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(StoreLedger.class);
+    private static final Logger LOG = LoggerFactory.getLogger(StoreLedger.class);
     private final ResultStore store;
     private final Path runs;
     private final boolean keepTraces;
@@ -42,8 +48,8 @@ public final class StoreLedger implements LotLedger {
 
     @Override
     public Inspection open(LotTerms terms, String reinspectReason) {
-        Inspection i = store.inspect(terms, reinspectReason, java.time.Instant.now()
-                .truncatedTo(java.time.temporal.ChronoUnit.MILLIS).toString());
+        Inspection i = store.inspect(terms, reinspectReason, Instant.now()
+                .truncatedTo(ChronoUnit.MILLIS).toString());
         repairs.addAll(repair(terms.lot()));
         return i;
     }
@@ -54,7 +60,7 @@ public final class StoreLedger implements LotLedger {
     }
 
     @Override
-    public java.util.Optional<Inspection> latest(String lot) {
+    public Optional<Inspection> latest(String lot) {
         return store.latestInspection(lot);
     }
 
@@ -151,7 +157,7 @@ public final class StoreLedger implements LotLedger {
                 done.add("removed " + removed + " temporary file(s) left by an interrupted run in " + dir);
             }
         } catch (IOException e) {
-            throw new org.lrbench.store.StoreException("repairing the files of lot " + lot + " in " + dir + " failed: "
+            throw new StoreException("repairing the files of lot " + lot + " in " + dir + " failed: "
                     + e.getMessage(), e);
         }
         return done;

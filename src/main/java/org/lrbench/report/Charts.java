@@ -4,12 +4,14 @@ import java.awt.BasicStroke;
 import java.awt.Color;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
+import java.text.DecimalFormat;
 import java.util.Base64;
 import java.util.List;
 import org.jfree.chart.ChartFactory;
 import org.jfree.chart.ChartUtils;
 import org.jfree.chart.JFreeChart;
 import org.jfree.chart.axis.LogAxis;
+import org.jfree.chart.axis.NumberAxis;
 import org.jfree.chart.plot.PlotOrientation;
 import org.jfree.chart.plot.ValueMarker;
 import org.jfree.chart.plot.XYPlot;
@@ -35,7 +37,7 @@ final class Charts {
         JFreeChart c = ChartFactory.createScatterPlot(title, "part (measuring order)", unit, new XYSeriesCollection(s),
                 PlotOrientation.VERTICAL, false, false, false);
         XYPlot p = c.getXYPlot();
-        p.getDomainAxis().setStandardTickUnits(org.jfree.chart.axis.NumberAxis.createIntegerTickUnits());
+        p.getDomainAxis().setStandardTickUnits(NumberAxis.createIntegerTickUnits());
         mark(p, lower, Color.RED, false);
         mark(p, upper, Color.RED, false);
         if (accLower != lower) {
@@ -62,10 +64,10 @@ final class Charts {
                 PlotOrientation.VERTICAL, true, false, false);
         XYPlot p = c.getXYPlot();
         LogAxis x = new LogAxis("frequency (Hz)");
-        x.setNumberFormatOverride(new java.text.DecimalFormat("0"));
+        x.setNumberFormatOverride(new DecimalFormat("0"));
         p.setDomainAxis(x);
         LogAxis y = new LogAxis("|Z| (ohm)");
-        y.setNumberFormatOverride(new java.text.DecimalFormat("0.###"));
+        y.setNumberFormatOverride(new DecimalFormat("0.###"));
         p.setRangeAxis(y);
         XYLineAndShapeRenderer r = new XYLineAndShapeRenderer();
         r.setSeriesLinesVisible(0, false);
@@ -75,7 +77,7 @@ final class Charts {
         phase.addSeries(m.getSeries(2));
         phase.addSeries(m.getSeries(3));
         p.setDataset(1, phase);
-        p.setRangeAxis(1, new org.jfree.chart.axis.NumberAxis("phase (degrees)"));
+        p.setRangeAxis(1, new NumberAxis("phase (degrees)"));
         p.mapDatasetToRangeAxis(1, 1);
         XYLineAndShapeRenderer r2 = new XYLineAndShapeRenderer();
         r2.setSeriesLinesVisible(0, false);

@@ -1,5 +1,10 @@
 package org.lrbench.results;
 
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
 /**
  * One stored measurement of a part: its number among the lot's measurements of that serial
  * (1, 2, ...), the inspection round it belongs to, its position in that round's sample, who
@@ -22,15 +27,15 @@ public record Attempt(String lot, String serial, int number, int round, int posi
      * latest attempt in that round. A re-measure, always recorded with its reason, supersedes the
      * attempts before it; every attempt stays stored and reported.
      */
-    public static java.util.List<Attempt> counting(java.util.List<Attempt> roundAttempts) {
-        java.util.Map<String, Attempt> latest = new java.util.LinkedHashMap<>();
+    public static List<Attempt> counting(List<Attempt> roundAttempts) {
+        Map<String, Attempt> latest = new LinkedHashMap<>();
         for (Attempt a : roundAttempts) {
             Attempt had = latest.get(a.serial());
             if (had == null || a.number() > had.number()) {
                 latest.put(a.serial(), a);
             }
         }
-        return latest.values().stream().sorted(java.util.Comparator.comparingInt(Attempt::position)).toList();
+        return latest.values().stream().sorted(Comparator.comparingInt(Attempt::position)).toList();
     }
 
     /** The file name of an attempt's record in the lot's folder: SERIAL.EXT, then SERIAL~2.EXT, ... */

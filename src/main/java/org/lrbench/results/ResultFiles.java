@@ -9,6 +9,7 @@ import java.nio.channels.FileChannel;
 import java.nio.file.AtomicMoveNotSupportedException;
 import java.nio.file.DirectoryStream;
 import java.nio.file.FileAlreadyExistsException;
+import java.nio.file.FileSystemException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
@@ -187,7 +188,7 @@ public final class ResultFiles {
 
     private static IOException failure(String doing, Path target, Exception e) {
         String reason = e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
-        if (e instanceof java.nio.file.FileSystemException f && f.getReason() != null) {
+        if (e instanceof FileSystemException f && f.getReason() != null) {
             reason = f.getReason();
         }
         if (reason.contains(target.toString())) {

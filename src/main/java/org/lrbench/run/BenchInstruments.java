@@ -1,6 +1,7 @@
 package org.lrbench.run;
 
 import java.io.IOException;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import org.lrbench.bench.BenchConfig;
@@ -10,8 +11,13 @@ import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.ScpiDigitizer;
 import org.lrbench.driver.ScpiGenerator;
+import org.lrbench.driver.ScpiMultimeter;
+import org.lrbench.driver.ScpiSwitch;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
+import org.lrbench.instrument.InstrumentException;
+import org.lrbench.instrument.Multimeter;
+import org.lrbench.instrument.Switch;
 import org.lrbench.scpi.ScpiSession;
 import org.lrbench.sim.SimBench;
 import org.lrbench.transport.Address;
@@ -25,14 +31,14 @@ public final class BenchInstruments implements AutoCloseable {
     private final Generator generator;
     private final Digitizer digitizer;
     private final List<ScpiSession> sessions;
-    private final org.lrbench.instrument.Switch switchUnit;
-    private org.lrbench.instrument.Multimeter meter;
+    private final Switch switchUnit;
+    private Multimeter meter;
 
     BenchInstruments(Generator generator, Digitizer digitizer, List<ScpiSession> sessions) {
         this(generator, digitizer, null, sessions);
     }
 
-    BenchInstruments(Generator generator, Digitizer digitizer, org.lrbench.instrument.Switch switchUnit,
+    BenchInstruments(Generator generator, Digitizer digitizer, Switch switchUnit,
                      List<ScpiSession> sessions) {
         this.generator = generator;
         this.digitizer = digitizer;
@@ -41,12 +47,12 @@ public final class BenchInstruments implements AutoCloseable {
     }
 
     /** The bench's multimeter, or null when it has none (or it was not opened). */
-    public org.lrbench.instrument.Multimeter multimeter() {
+    public Multimeter multimeter() {
         return meter;
     }
 
     /** The bench's switch unit, or null when it has none. */
-    public org.lrbench.instrument.Switch switchUnit() {
+    public Switch switchUnit() {
         return switchUnit;
     }
 
@@ -76,8 +82,8 @@ public final class BenchInstruments implements AutoCloseable {
         ScpiGenerator generator;
         try {
             g = session("generator", bench.generator(), sourceDriver, peers, simulated != null);
-        } catch (org.lrbench.instrument.InstrumentException e) {
-            throw new org.lrbench.instrument.InstrumentException(e.getMessage() + ". The generator could not be"
+        } catch (InstrumentException e) {
+            throw new InstrumentException(e.getMessage() + ". The generator could not be"
                     + " reached, so lrbench cannot switch its output off: if it may be on, switch it off at the"
                     + " instrument", e);
         }
@@ -86,7 +92,7 @@ public final class BenchInstruments implements AutoCloseable {
             generator.outputOff();
         } catch (RuntimeException e) {
             closeQuietly(g);
-            throw new org.lrbench.instrument.InstrumentException(e.getMessage() + ". The generator's output could not"
+            throw new InstrumentException(e.getMessage() + ". The generator's output could not"
                     + " be switched off: if it may be on, switch it off at the instrument", e);
         }
         ScpiSession d;
@@ -98,7 +104,7 @@ public final class BenchInstruments implements AutoCloseable {
         }
         if (bench.switchUnit() == null || !withSwitch) {
             BenchInstruments bi = new BenchInstruments(generator, new ScpiDigitizer(d, digitizerDriver),
-                    new java.util.ArrayList<>(List.of(g, d)));
+                    new ArrayList<>(List.of(g, d)));
             bi.openMeter(bench, drivers, peers, simulated != null);
             return bi;
         }
@@ -112,7 +118,7 @@ public final class BenchInstruments implements AutoCloseable {
             throw e;
         }
         BenchInstruments bi = new BenchInstruments(generator, new ScpiDigitizer(d, digitizerDriver),
-                new org.lrbench.driver.ScpiSwitch(w, switchDriver), new java.util.ArrayList<>(List.of(g, d, w)));
+                new ScpiSwitch(w, switchDriver), new ArrayList<>(List.of(g, d, w)));
         bi.openMeter(bench, drivers, peers, simulated != null);
         return bi;
     }
@@ -142,7 +148,7 @@ public final class BenchInstruments implements AutoCloseable {
         DriverFile meterDriver = drivers.load(bench.meter().driver(), DriverKind.METER);
         ScpiSession m = session("meter", bench.meter(), meterDriver, peers, simulated);
         sessions.add(m);
-        meter = new org.lrbench.driver.ScpiMultimeter(m, meterDriver);
+        meter = new ScpiMultimeter(m, meterDriver);
     }
 
     public Generator generator() {

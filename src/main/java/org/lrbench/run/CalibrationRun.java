@@ -9,12 +9,13 @@ import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.FixtureCompensation;
+import org.lrbench.fixture.FixturePosition;
+import org.lrbench.instrument.InstrumentException;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
-import org.lrbench.fixture.FixturePosition;
 
 /**
  * Measures a bench's corrections at a plan's sweep frequencies: the channel match (both channels
@@ -131,7 +132,7 @@ public final class CalibrationRun {
         } finally {
             guard.close();
             if (guard.failure() != null) {
-                throw new org.lrbench.instrument.InstrumentException(guard.failure());
+                throw new InstrumentException(guard.failure());
             }
         }
     }

@@ -1,5 +1,8 @@
 package org.lrbench.run;
 
+import java.io.BufferedReader;
+import java.io.IOException;
+import java.io.PrintStream;
 import org.lrbench.fixture.FixturePosition;
 
 /**
@@ -12,7 +15,7 @@ public interface FixtureChange {
     void moveTo(FixturePosition position);
 
     /** Console prompts for a real bench; returns after the operator presses Enter. */
-    static FixtureChange console(java.io.BufferedReader in, java.io.PrintStream out) {
+    static FixtureChange console(BufferedReader in, PrintStream out) {
         return position -> {
             out.println(switch (position) {
                 case CHANNEL_MATCH -> "Connect BOTH digitizer inputs across the sense resistor (same node, same"
@@ -27,7 +30,7 @@ public interface FixtureChange {
                 if (in.readLine() == null) {
                     throw new IllegalStateException("no operator input: calibration stopped");
                 }
-            } catch (java.io.IOException e) {
+            } catch (IOException e) {
                 throw new IllegalStateException("reading the operator's answer failed", e);
             }
         };

@@ -2,6 +2,7 @@ package org.lrbench.run;
 
 import java.io.IOException;
 import java.util.List;
+import java.util.Optional;
 import org.lrbench.measure.PointResult;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
@@ -19,7 +20,7 @@ public interface LotLedger {
     Inspection open(LotTerms terms, String reinspectReason);
 
     /** The lot's latest inspection, if the lot was started. */
-    java.util.Optional<Inspection> latest(String lot);
+    Optional<Inspection> latest(String lot);
 
     /** Every attempt of one inspection round. */
     List<Attempt> attempts(String lot, int round);

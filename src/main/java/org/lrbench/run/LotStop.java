@@ -1,5 +1,7 @@
 package org.lrbench.run;
 
+import java.io.IOException;
+
 /**
  * A request to stop a lot run from outside its thread (SIGTERM, Ctrl-C). The part in progress is
  * dropped (its sweep ends at the next point, the output goes off, nothing of it is stored); a part
@@ -59,11 +61,11 @@ public final class LotStop {
     /** Work that must not be cut in half by a stop: a commit and what follows it. */
     @FunctionalInterface
     interface Whole<T> {
-        T run() throws java.io.IOException;
+        T run() throws IOException;
     }
 
     /** Runs {@code work} unless a stop was requested first (then returns null and does nothing). */
-    synchronized <T> T unlessStopped(Whole<T> work) throws java.io.IOException {
+    synchronized <T> T unlessStopped(Whole<T> work) throws IOException {
         return requested ? null : work.run();
     }
 }

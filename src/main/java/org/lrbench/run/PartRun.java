@@ -6,6 +6,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.lrbench.analysis.CopperResistance;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.LumpedModel;
 import org.lrbench.analysis.LumpedParameter;
@@ -122,7 +123,7 @@ public final class PartRun {
             double combined = Math.hypot(r.expandedUncertainty(), 2 * 0.001 * dcOhm);
             boolean agrees = Math.abs(dcOhm - r.value()) <= combined;
             dc = new PartResult.DcResistanceRecord(step.fourWire() ? "four_wire" : "two_wire", dcOhm, step.temperatureC(),
-                    step.referenceTemperatureC(), org.lrbench.analysis.CopperResistance.toReference(dcOhm,
+                    step.referenceTemperatureC(), CopperResistance.toReference(dcOhm,
                     step.temperatureC(), step.referenceTemperatureC()), r.value(), agrees);
             if (!agrees) {
                 analysis.warnings().add(String.format(Locale.ROOT, "the multimeter's %s resistance %s and the sweep's"
@@ -210,7 +211,7 @@ public final class PartRun {
                 // a winding-resistance specification means the reference temperature: the sweep's R_dc,
                 // measured at the entered bench temperature, is corrected like the meter's reading
                 var step = plan.dcResistance();
-                double factor = org.lrbench.analysis.CopperResistance.toReference(1.0, step.temperatureC(),
+                double factor = CopperResistance.toReference(1.0, step.temperatureC(),
                         step.referenceTemperatureC());
                 reading = new Judge.Reading(b.value() * factor, b.standardUncertainty() * factor,
                         b.expandedUncertainty() * factor, String.format(Locale.ROOT, "at %s (copper, from %s)",

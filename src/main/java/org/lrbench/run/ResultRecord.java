@@ -5,10 +5,13 @@ import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.LumpedFit;
 import org.lrbench.analysis.LumpedParameter;
+import org.lrbench.analysis.TriangleExtraction;
+import org.lrbench.calibration.Calibration;
 import org.lrbench.judge.LimitResult;
 import org.lrbench.judge.Verdict;
 import org.lrbench.measure.PointResult;
@@ -79,12 +82,12 @@ final class ResultRecord {
                 limits, pointRecords, budgets, identities, null);
     }
 
-    private static PartResult.TriangleRecord triangle(org.lrbench.analysis.TriangleExtraction.Result t) {
+    private static PartResult.TriangleRecord triangle(TriangleExtraction.Result t) {
         return new PartResult.TriangleRecord(t.frequencyHz(), t.resistanceOhm(), t.resistanceUncertainty(),
                 t.inductanceHenry(), t.inductanceUncertainty(), t.residualRmsVolt(), t.harmonics());
     }
 
-    private static PartResult.CorrectionsRecord corrections(org.lrbench.calibration.Calibration c) {
+    private static PartResult.CorrectionsRecord corrections(Calibration c) {
         var ch = c.channels();
         var fx = c.fixture();
         return new PartResult.CorrectionsRecord(ch == null ? null : ch.measuredAt(), ch == null ? null : ch.gainRatio(),
@@ -96,7 +99,7 @@ final class ResultRecord {
         return new PartResult.LimitRecord(r.limit().name(), r.limit().characteristic().key(), r.limit().atFrequencyHz(),
                 r.limit().spec(), r.limit().rule().key(), finite(r.value()), finite(r.uncertainty()),
                 finite(r.expandedUncertainty()), finite(r.limit().lower()), finite(r.limit().upper()),
-                finite(r.acceptanceLower()), finite(r.acceptanceUpper()), r.zone().name().toLowerCase(java.util.Locale.ROOT),
+                finite(r.acceptanceLower()), finite(r.acceptanceUpper()), r.zone().name().toLowerCase(Locale.ROOT),
                 r.pass(), finite(r.margin()), r.reason());
     }
 
@@ -115,7 +118,7 @@ final class ResultRecord {
         List<PartResult.ContributionRecord> lines = new ArrayList<>();
         for (Contribution c : b.contributions()) {
             lines.add(new PartResult.ContributionRecord(c.source(), c.type(), c.distribution().name().toLowerCase(
-                    java.util.Locale.ROOT), finite(c.inputUncertainty()), c.inputUnit(), c.sensitivity(), c.contribution(),
+                    Locale.ROOT), finite(c.inputUncertainty()), c.inputUnit(), c.sensitivity(), c.contribution(),
                     c.share()));
         }
         return new PartResult.BudgetRecord(b.value(), b.standardUncertainty(), b.expandedUncertainty(), b.coverageFactor(),

@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
+import org.lrbench.judge.CharacteristicClass;
 
 /**
  * A lot's disposition under single sampling: each class of nonconformity has its own plan for the
@@ -29,8 +30,8 @@ public final class LotDisposition {
     }
 
     /** The plans for a lot size; the sample is as large as the largest of them. */
-    public static Map<org.lrbench.judge.CharacteristicClass, SamplingPlan> plans(int lotSize, SamplingScheme scheme) {
-        Map<org.lrbench.judge.CharacteristicClass, SamplingPlan> out = new EnumMap<>(org.lrbench.judge.CharacteristicClass.class);
+    public static Map<CharacteristicClass, SamplingPlan> plans(int lotSize, SamplingScheme scheme) {
+        Map<CharacteristicClass, SamplingPlan> out = new EnumMap<>(CharacteristicClass.class);
         scheme.aql().forEach((c, aql) -> out.put(c, SingleSampling.plan(lotSize, scheme.level(), aql)));
         return out;
     }
@@ -38,7 +39,7 @@ public final class LotDisposition {
     /**
      * @param failedClasses per measured part in measuring order, the classes of the limits it failed
      */
-    public static Result judge(int lotSize, SamplingScheme scheme, List<Set<org.lrbench.judge.CharacteristicClass>> failedClasses) {
+    public static Result judge(int lotSize, SamplingScheme scheme, List<Set<CharacteristicClass>> failedClasses) {
         List<ClassCount> counts = new ArrayList<>();
         int sample = 0;
         boolean reject = false;

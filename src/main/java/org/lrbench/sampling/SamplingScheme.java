@@ -1,5 +1,7 @@
 package org.lrbench.sampling;
 
+import java.math.BigDecimal;
+import java.util.Locale;
 import java.util.Map;
 import org.lrbench.judge.CharacteristicClass;
 
@@ -16,8 +18,8 @@ public record SamplingScheme(InspectionLevel level, Map<CharacteristicClass, Dou
         for (CharacteristicClass c : CharacteristicClass.values()) {
             Double a = aql.get(c);
             if (a != null) {
-                s.append(sep).append(c.name().toLowerCase(java.util.Locale.ROOT)).append(' ')
-                        .append(java.math.BigDecimal.valueOf(a).stripTrailingZeros().toPlainString());
+                s.append(sep).append(c.name().toLowerCase(Locale.ROOT)).append(' ')
+                        .append(BigDecimal.valueOf(a).stripTrailingZeros().toPlainString());
                 sep = ", ";
             }
         }

@@ -11,6 +11,8 @@ import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.transport.Transport;
 import org.lrbench.transport.TransportTimeoutException;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /**
  * A SCPI conversation with one instrument over any {@link Transport}: program messages out,
@@ -21,7 +23,7 @@ import org.lrbench.transport.TransportTimeoutException;
  */
 public final class ScpiSession implements AutoCloseable {
     /** Every message to and from every instrument, at DEBUG: off unless the I/O log is asked for. */
-    private static final org.slf4j.Logger IO = org.slf4j.LoggerFactory.getLogger("org.lrbench.io");
+    private static final Logger IO = LoggerFactory.getLogger("org.lrbench.io");
     /** Longest text reply accepted. */
     public static final int MAX_LINE = 64 << 20;
     /** Largest binary block accepted. */
@@ -107,7 +109,7 @@ public final class ScpiSession implements AutoCloseable {
         write(command);
         queries++;
         long start = System.nanoTime();
-        List<String> out = new java.util.ArrayList<>(lines);
+        List<String> out = new ArrayList<>(lines);
         try {
             for (int i = 0; i < lines; i++) {
                 out.add(readLine(command));

@@ -1,6 +1,9 @@
 package org.lrbench.service;
 
+import com.fasterxml.jackson.core.StreamReadFeature;
 import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectReader;
+import com.fasterxml.jackson.databind.SerializationFeature;
 import io.netty.bootstrap.ServerBootstrap;
 import io.netty.buffer.Unpooled;
 import io.netty.channel.Channel;
@@ -10,30 +13,42 @@ import io.netty.channel.ChannelInitializer;
 import io.netty.channel.EventLoopGroup;
 import io.netty.channel.MultiThreadIoEventLoopGroup;
 import io.netty.channel.SimpleChannelInboundHandler;
+import io.netty.channel.group.ChannelGroup;
+import io.netty.channel.group.DefaultChannelGroup;
 import io.netty.channel.nio.NioIoHandler;
 import io.netty.channel.socket.SocketChannel;
 import io.netty.channel.socket.nio.NioServerSocketChannel;
 import io.netty.handler.codec.http.DefaultFullHttpResponse;
 import io.netty.handler.codec.http.DefaultHttpResponse;
+import io.netty.handler.codec.http.FullHttpMessage;
 import io.netty.handler.codec.http.FullHttpRequest;
 import io.netty.handler.codec.http.FullHttpResponse;
 import io.netty.handler.codec.http.HttpHeaderNames;
+import io.netty.handler.codec.http.HttpMessage;
 import io.netty.handler.codec.http.HttpMethod;
 import io.netty.handler.codec.http.HttpObjectAggregator;
 import io.netty.handler.codec.http.HttpResponseStatus;
 import io.netty.handler.codec.http.HttpServerCodec;
+import io.netty.handler.codec.http.HttpUtil;
 import io.netty.handler.codec.http.HttpVersion;
 import io.netty.handler.codec.http.QueryStringDecoder;
+import io.netty.util.concurrent.DefaultEventExecutorGroup;
 import io.netty.util.concurrent.DefaultThreadFactory;
+import io.netty.util.concurrent.EventExecutorGroup;
+import io.netty.util.concurrent.GlobalEventExecutor;
 import java.io.IOException;
 import java.io.InputStream;
 import java.net.InetAddress;
 import java.net.InetSocketAddress;
 import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.TimeUnit;
 import java.util.function.Consumer;
 import org.lrbench.report.LotReport;
+import org.lrbench.results.Attempt;
 import org.lrbench.results.Names;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.store.ResultStore;
@@ -49,8 +64,8 @@ public final class HttpApi implements AutoCloseable {
     public static final int MAX_BODY = 64 * 1024;
     public static final String TOKEN_HEADER = "X-Lrbench-Token";
     /** Request bodies: a key given twice is refused, not silently taken as the last one. */
-    private static final com.fasterxml.jackson.databind.ObjectReader STRICT = ResultFiles.JSON.reader()
-            .with(com.fasterxml.jackson.core.StreamReadFeature.STRICT_DUPLICATE_DETECTION);
+    private static final ObjectReader STRICT = ResultFiles.JSON.reader()
+            .with(StreamReadFeature.STRICT_DUPLICATE_DETECTION);
 
     private final BenchService service;
     private final String token;
@@ -58,10 +73,10 @@ public final class HttpApi implements AutoCloseable {
             NioIoHandler.newFactory());
     private final Channel listener;
     /** The open connections, closed before the threads stop. */
-    private final io.netty.channel.group.ChannelGroup connections = new io.netty.channel.group.DefaultChannelGroup(
-            io.netty.util.concurrent.GlobalEventExecutor.INSTANCE);
+    private final ChannelGroup connections = new DefaultChannelGroup(
+            GlobalEventExecutor.INSTANCE);
     /** Threads for the handlers' blocking work, so the I/O loop only moves bytes. */
-    private final io.netty.util.concurrent.EventExecutorGroup work = new io.netty.util.concurrent.DefaultEventExecutorGroup(4,
+    private final EventExecutorGroup work = new DefaultEventExecutorGroup(4,
             new DefaultThreadFactory("lrbench-api", true));
 
     /** @param token required on every call, or null when listening on loopback only */
@@ -100,8 +115,8 @@ public final class HttpApi implements AutoCloseable {
         connections.close().awaitUninterruptibly();
         // both together, each with a short quiet period: closing a connection passes tasks between the
         // I/O loop and the work threads, which must both still accept them
-        var a = loop.shutdownGracefully(100, 2000, java.util.concurrent.TimeUnit.MILLISECONDS);
-        var b = work.shutdownGracefully(100, 2000, java.util.concurrent.TimeUnit.MILLISECONDS);
+        var a = loop.shutdownGracefully(100, 2000, TimeUnit.MILLISECONDS);
+        var b = work.shutdownGracefully(100, 2000, TimeUnit.MILLISECONDS);
         a.awaitUninterruptibly();
         b.awaitUninterruptibly();
     }
@@ -113,15 +128,15 @@ public final class HttpApi implements AutoCloseable {
         }
 
         @Override
-        protected void handleOversizedMessage(ChannelHandlerContext ctx, io.netty.handler.codec.http.HttpMessage oversized) {
+        protected void handleOversizedMessage(ChannelHandlerContext ctx, HttpMessage oversized) {
             byte[] body = ("{\"error\":\"body: larger than " + MAX_BODY + " bytes; nothing was done\"}")
                     .getBytes(StandardCharsets.UTF_8);
             FullHttpResponse r = new DefaultFullHttpResponse(HttpVersion.HTTP_1_1,
                     HttpResponseStatus.REQUEST_ENTITY_TOO_LARGE, Unpooled.wrappedBuffer(body));
             r.headers().set(HttpHeaderNames.CONTENT_TYPE, "application/json");
             r.headers().setInt(HttpHeaderNames.CONTENT_LENGTH, body.length);
-            if (oversized instanceof io.netty.handler.codec.http.FullHttpMessage
-                    || !io.netty.handler.codec.http.HttpUtil.isKeepAlive(oversized)) {
+            if (oversized instanceof FullHttpMessage
+                    || !HttpUtil.isKeepAlive(oversized)) {
                 r.headers().set(HttpHeaderNames.CONNECTION, "close");
                 ctx.writeAndFlush(r).addListener(ChannelFutureListener.CLOSE);
             } else {
@@ -220,7 +235,7 @@ public final class HttpApi implements AutoCloseable {
             } else if (m == HttpMethod.GET && path.equals("/api/runs/interrupted")) {
                 // lots begun and not decided, other than the one running now: resume by starting them again
                 BenchService.Run cur = service.current();
-                List<Object> open = new java.util.ArrayList<>();
+                List<Object> open = new ArrayList<>();
                 if (service.hasStore()) {
                     try (ResultStore s = store()) {
                         for (var l : s.lots()) {
@@ -243,12 +258,12 @@ public final class HttpApi implements AutoCloseable {
                     if (all.isEmpty()) {
                         throw new ServiceException(404, "lot: no parts stored for " + lot);
                     }
-                    List<Object> rows = new java.util.ArrayList<>();
+                    List<Object> rows = new ArrayList<>();
                     for (var i : s.lot(lot)) {
                         var round = all.stream().filter(a -> a.round() == i.round()).toList();
-                        var counting = org.lrbench.results.Attempt.counting(round);
+                        var counting = Attempt.counting(round);
                         for (var a : round) {
-                            Map<String, Object> row = new java.util.LinkedHashMap<>();
+                            Map<String, Object> row = new LinkedHashMap<>();
                             row.put("inspection", a.round());
                             row.put("serial", a.serial());
                             row.put("position", a.position());
@@ -306,7 +321,7 @@ public final class HttpApi implements AutoCloseable {
                     }
                     try {
                         String line = "id: " + e.get("seq") + "\nevent: " + e.get("type") + "\ndata: "
-                                + ResultFiles.JSON.writer().without(com.fasterxml.jackson.databind.SerializationFeature.INDENT_OUTPUT)
+                                + ResultFiles.JSON.writer().without(SerializationFeature.INDENT_OUTPUT)
                                 .writeValueAsString(e) + "\n\n";
                         ch.writeAndFlush(Unpooled.copiedBuffer(line, StandardCharsets.UTF_8));
                     } catch (IOException x) {

@@ -1,10 +1,10 @@
 package org.lrbench.sim;
 
-import org.lrbench.fixture.FixturePosition;
-import org.lrbench.fixture.FixtureWiring;
 import java.util.ArrayList;
 import java.util.List;
 import org.apache.commons.math3.complex.Complex;
+import org.lrbench.fixture.FixturePosition;
+import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.Waveform;
 
 /**
@@ -20,22 +20,22 @@ public final class SimBench implements AnalogInputs {
     private final SimSettings settings;
     private volatile FixturePosition position = FixturePosition.PART;
 
-    private final java.util.List<PartModel> tray;
+    private final List<PartModel> tray;
     private final SimSwitch switchUnit;
     private final FixtureWiring wiring;
 
     /** One part in the fixture, always connected. */
     public SimBench(SimSettings settings, double senseOhm, PartModel part) {
-        this(settings, FixtureWiring.differential(senseOhm), part, java.util.List.of());
+        this(settings, FixtureWiring.differential(senseOhm), part, List.of());
     }
 
     /** One part in a fixture wired and probed as given. */
     public SimBench(SimSettings settings, FixtureWiring wiring, PartModel part) {
-        this(settings, wiring, part, java.util.List.of());
+        this(settings, wiring, part, List.of());
     }
 
     /** A tray behind the switch, in a fixture wired and probed as given. */
-    public SimBench(SimSettings settings, FixtureWiring wiring, java.util.List<PartModel> tray) {
+    public SimBench(SimSettings settings, FixtureWiring wiring, List<PartModel> tray) {
         this(settings, wiring, tray.get(0), tray);
     }
 
@@ -43,15 +43,15 @@ public final class SimBench implements AnalogInputs {
      * A tray of parts in a multi-position fixture behind a switch unit: the part at the one closed
      * channel (101 for the first position) is connected; with none closed the fixture is open.
      */
-    public SimBench(SimSettings settings, double senseOhm, java.util.List<PartModel> tray) {
+    public SimBench(SimSettings settings, double senseOhm, List<PartModel> tray) {
         this(settings, FixtureWiring.differential(senseOhm), tray.get(0), tray);
     }
 
-    private SimBench(SimSettings settings, FixtureWiring wiring, PartModel first, java.util.List<PartModel> tray) {
+    private SimBench(SimSettings settings, FixtureWiring wiring, PartModel first, List<PartModel> tray) {
         this.wiring = wiring;
         this.circuit = new Circuit(settings.sourceImpedanceOhm(), wiring.senseOhm(), first);
         this.settings = settings;
-        this.tray = java.util.List.copyOf(tray);
+        this.tray = List.copyOf(tray);
         this.generator = new SimGenerator(settings.sourceImpedanceOhm(), settings.generator());
         this.digitizer = new SimDigitizer(this, settings);
         this.switchUnit = new SimSwitch(Math.max(1, tray.size()));

@@ -3,10 +3,15 @@ package org.lrbench.sim;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import java.util.Random;
 import org.apache.commons.math3.complex.Complex;
+import org.lrbench.sim.scpi.Call;
 import org.lrbench.sim.scpi.ScpiDevice;
 import org.lrbench.sim.scpi.ScpiFault;
 
@@ -42,8 +47,8 @@ public final class SimDigitizer extends ScpiDevice {
             return key;
         }
 
-        public static java.util.Map<String, Personality> byKey() {
-            java.util.Map<String, Personality> m = new java.util.LinkedHashMap<>();
+        public static Map<String, Personality> byKey() {
+            Map<String, Personality> m = new LinkedHashMap<>();
             for (Personality p : values()) {
                 m.put(p.key, p);
             }
@@ -283,7 +288,7 @@ public final class SimDigitizer extends ScpiDevice {
             c.expect(1, 1);
             format = c.word(0, "WORD", "ASCii").equals("WORD") ? Format.INT16 : Format.ASCII;
             littleEndian = false;
-            java.util.Arrays.fill(encoded, null);
+            Arrays.fill(encoded, null);
             return null;
         });
         register("DATA:FETCh", true, c -> {
@@ -360,7 +365,7 @@ public final class SimDigitizer extends ScpiDevice {
             c.expect(1, 2);
             String type = c.word(0, "ASCii", "INTeger", "REAL");
             int length = c.count() > 1 ? (int) c.number(1, 8, 64, 8) : (type.equals("REAL") ? 32 : 8);
-            java.util.Arrays.fill(encoded, null);
+            Arrays.fill(encoded, null);
             format = switch (type + length) {
                 case "ASC8" -> Format.ASCII;
                 case "INT8" -> Format.INT8;
@@ -374,7 +379,7 @@ public final class SimDigitizer extends ScpiDevice {
         register("FORMat:BORDer", false, c -> {
             c.expect(1, 1);
             littleEndian = c.word(0, "NORMal", "SWAPped").equals("SWAP");
-            java.util.Arrays.fill(encoded, null);
+            Arrays.fill(encoded, null);
             return null;
         });
         register("INITiate[:IMMediate]", false, c -> {
@@ -420,7 +425,7 @@ public final class SimDigitizer extends ScpiDevice {
         record = null;
     }
 
-    private int channelParameter(org.lrbench.sim.scpi.Call c) throws ScpiFault {
+    private int channelParameter(Call c) throws ScpiFault {
         c.expect(1, 1);
         int ch = c.word(0, "CH1", "CH2").equals("CH1") ? 1 : 2;
         if (record == null) {
@@ -432,7 +437,7 @@ public final class SimDigitizer extends ScpiDevice {
     private void acquire() {
         double f = inputs.fundamentalHz();
         double bandLimit = 0.5 / interval;
-        List<List<Harmonic>> lines = new java.util.ArrayList<>();
+        List<List<Harmonic>> lines = new ArrayList<>();
         lines.add(List.of()); // channels count from 1
         for (int ch = 1; ch <= CHANNELS; ch++) {
             lines.add(inputs.channel(ch, bandLimit));
@@ -440,7 +445,7 @@ public final class SimDigitizer extends ScpiDevice {
                 lines.set(ch, lines.get(ch).stream().filter(h -> h.k() != 0).toList());
             }
         }
-        java.util.Arrays.fill(encoded, null);
+        Arrays.fill(encoded, null);
         double trigger = triggerTime(lines, f);
         // the sample clock runs free: the first sample after the trigger falls at a random fraction of
         // an interval, reported as the record's x origin, as a real digitizer's trigger interpolator does

@@ -1,6 +1,8 @@
 package org.lrbench.sim;
 
+import java.util.LinkedHashMap;
 import java.util.Locale;
+import java.util.Map;
 import org.lrbench.instrument.Waveform;
 import org.lrbench.sim.scpi.ScpiDevice;
 
@@ -27,8 +29,8 @@ public final class SimGenerator extends ScpiDevice {
             this.key = key;
         }
 
-        public static java.util.Map<String, Personality> byKey() {
-            java.util.Map<String, Personality> m = new java.util.LinkedHashMap<>();
+        public static Map<String, Personality> byKey() {
+            Map<String, Personality> m = new LinkedHashMap<>();
             for (Personality p : values()) {
                 m.put(p.key, p);
             }

@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Set;
+import org.lrbench.results.Names;
 import org.lrbench.yaml.Problems;
 import org.lrbench.yaml.ProblemsException;
 import org.lrbench.yaml.YamlFile;
@@ -38,8 +39,8 @@ public record SimLot(String lot, Path plan, Integer lotSize, List<Part> parts) {
                 continue;
             }
             String serial = m.text("serial", true);
-            if (serial != null && !org.lrbench.results.Names.valid(serial)) {
-                m.problem("serial", org.lrbench.results.Names.problem("serial", serial));
+            if (serial != null && !Names.valid(serial)) {
+                m.problem("serial", Names.problem("serial", serial));
                 serial = null;
             }
             PartModel model = PartFile.read(m);

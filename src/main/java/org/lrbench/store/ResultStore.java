@@ -1,5 +1,6 @@
 package org.lrbench.store;
 
+import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.sql.Connection;
@@ -12,12 +13,14 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotTerms;
 import org.sqlite.SQLiteConfig;
+import org.sqlite.SQLiteOpenMode;
 
 /**
  * The results store: an embedded SQLite file (xerial sqlite-jdbc) by default, or a PostgreSQL
@@ -101,7 +104,7 @@ public final class ResultStore implements AutoCloseable {
         } catch (SQLException e) {
             closeQuietly(c);
             throw new StoreException("cannot open the results store " + file + ": " + StoreErrors.describe(e), e);
-        } catch (java.io.IOException e) {
+        } catch (IOException e) {
             throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
         }
     }
@@ -131,10 +134,10 @@ public final class ResultStore implements AutoCloseable {
                             + " and " + wal.getFileName() + " holds records not yet folded into the file; copy the store"
                             + " with its -wal and -shm files to a writable folder and read it there", e);
                 }
-            } catch (java.io.IOException io) {
+            } catch (IOException io) {
                 throw new StoreException("cannot read " + wal + ": " + io.getMessage(), io);
             }
-            cfg.setOpenMode(org.sqlite.SQLiteOpenMode.OPEN_URI);
+            cfg.setOpenMode(SQLiteOpenMode.OPEN_URI);
             return DriverManager.getConnection("jdbc:sqlite:file:" + file.toAbsolutePath() + "?immutable=1",
                     cfg.toProperties());
         }
@@ -232,7 +235,7 @@ public final class ResultStore implements AutoCloseable {
         try (Statement s = db.createStatement(); ResultSet r = s.executeQuery("SELECT version FROM schema_version")) {
             return r.next() ? r.getInt(1) : 0;
         } catch (SQLException e) {
-            if (String.valueOf(e.getMessage()).toLowerCase(java.util.Locale.ROOT).contains("no such table")
+            if (String.valueOf(e.getMessage()).toLowerCase(Locale.ROOT).contains("no such table")
                     || "42P01".equals(e.getSQLState())) {
                 return 0;
             }

@@ -4,7 +4,9 @@ import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.Arrays;
 import java.util.List;
+import java.util.regex.Pattern;
 
 /**
  * Two-channel traces from a plain text file, as any scope or simulator can write them: a header
@@ -68,11 +70,11 @@ public record CsvTraces(String file, double intervalSecond, double[] sense, doub
                         + dt + " s (resample the data, or ask the simulator to interpolate)");
             }
         }
-        return new CsvTraces(file.toString(), dt, java.util.Arrays.copyOf(a, n), java.util.Arrays.copyOf(b, n));
+        return new CsvTraces(file.toString(), dt, Arrays.copyOf(a, n), Arrays.copyOf(b, n));
     }
 
     private static String[] split(String line, String separator) {
-        String[] parts = line.trim().split(separator.equals("\\s+") ? "\\s+" : "\\s*" + java.util.regex.Pattern.quote(separator) + "\\s*");
+        String[] parts = line.trim().split(separator.equals("\\s+") ? "\\s+" : "\\s*" + Pattern.quote(separator) + "\\s*");
         return parts;
     }
 

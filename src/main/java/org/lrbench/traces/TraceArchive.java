@@ -11,6 +11,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.zip.CRC32;
 import org.lrbench.instrument.Trace;
@@ -95,7 +96,7 @@ public final class TraceArchive {
     public static Contents read(Path file) throws IOException {
         byte[] all = Files.readAllBytes(file);
         String where = file.toString();
-        if (all.length < 14 || !java.util.Arrays.equals(java.util.Arrays.copyOf(all, 4), MAGIC)) {
+        if (all.length < 14 || !Arrays.equals(Arrays.copyOf(all, 4), MAGIC)) {
             throw new IOException(where + ": not a trace archive (no LRTA header)");
         }
         CRC32 crc = new CRC32();

@@ -1,6 +1,7 @@
 package org.lrbench.transport;
 
 import java.io.IOException;
+import java.util.List;
 import java.util.Map;
 import java.util.ServiceLoader;
 import java.util.TreeMap;
@@ -22,7 +23,7 @@ public final class Transports {
     }
 
     /** The registered schemes, sorted. */
-    public static java.util.List<String> schemes() {
+    public static List<String> schemes() {
         return PROVIDERS.keySet().stream().sorted().toList();
     }
 

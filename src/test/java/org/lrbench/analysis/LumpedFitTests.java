@@ -8,7 +8,9 @@ import java.util.EnumSet;
 import java.util.List;
 import java.util.Random;
 import org.apache.commons.math3.complex.Complex;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
+import org.lrbench.analysis.fit.FitException;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SkinEffect;
 
@@ -151,8 +153,8 @@ class LumpedFitTests {
             double x = (i % 2 == 0 ? 1 : -1) * 100.0 * (i + 1);
             pts.add(new ImpedancePoint(f, new Complex(10, x), 0.01, Complex.ONE));
         }
-        org.assertj.core.api.Assertions.assertThatThrownBy(() -> LumpedFit.fit(pts, EnumSet.of(LumpedParameter.C_P)))
-                .isInstanceOf(org.lrbench.analysis.fit.FitException.class)
+        Assertions.assertThatThrownBy(() -> LumpedFit.fit(pts, EnumSet.of(LumpedParameter.C_P)))
+                .isInstanceOf(FitException.class)
                 .hasMessageContaining("does not describe");
     }
 }

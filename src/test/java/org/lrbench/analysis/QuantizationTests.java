@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
 import java.util.Random;
+import org.apache.commons.math3.special.BesselJ;
 import org.apache.commons.math3.special.Erf;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -78,7 +79,7 @@ class QuantizationTests {
     @Test
     void besselJ1AsymptoticMatchesCommonsMath() {
         for (double x = 100; x < 5000; x += 37.3) {
-            assertThat(Quantization.besselJ1(x)).isCloseTo(org.apache.commons.math3.special.BesselJ.value(1, x), within(1e-9));
+            assertThat(Quantization.besselJ1(x)).isCloseTo(BesselJ.value(1, x), within(1e-9));
         }
     }
 

@@ -5,16 +5,24 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.ByteArrayOutputStream;
+import java.io.IOException;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.stream.Stream;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
+import org.lrbench.results.LotTerms;
+import org.lrbench.store.Canonical;
+import org.lrbench.store.ResultStore;
 
 /** The commands end to end, as a user runs them, with their exit codes and files. */
 class CommandLineTests {
@@ -76,9 +84,9 @@ class CommandLineTests {
             sum += Math.pow(c.get("contribution").asDouble(), 2);
         }
         assertThat(Math.sqrt(sum)).isCloseTo(budget.get("standard_uncertainty").asDouble(),
-                org.assertj.core.api.Assertions.within(1e-12));
+                Assertions.within(1e-12));
         assertThat(budget.get("expanded_uncertainty").asDouble())
-                .isCloseTo(2 * budget.get("standard_uncertainty").asDouble(), org.assertj.core.api.Assertions.within(1e-15));
+                .isCloseTo(2 * budget.get("standard_uncertainty").asDouble(), Assertions.within(1e-15));
         assertThat(r.get("inductance_expanded_uncertainty_h").asDouble()).isPositive();
         assertThat(r.get("methods").get("inductance_h").asText()).contains("sweep fit");
         assertThat(r.get("model").get("parameters").has("inductance")).isTrue();
@@ -86,9 +94,9 @@ class CommandLineTests {
         // entered 23 C to 20 C with copper's 0.00393 per K (IACS), and agreeing with the sweep
         JsonNode dc = r.get("dc_resistance");
         assertThat(dc.get("wiring").asText()).isEqualTo("four_wire");
-        assertThat(dc.get("measured_ohm").asDouble()).isCloseTo(2.3, org.assertj.core.api.Assertions.within(1e-9));
+        assertThat(dc.get("measured_ohm").asDouble()).isCloseTo(2.3, Assertions.within(1e-9));
         assertThat(dc.get("at_reference_ohm").asDouble())
-                .isCloseTo(2.3 / (1 + 0.00393 * 3), org.assertj.core.api.Assertions.within(1e-9));
+                .isCloseTo(2.3 / (1 + 0.00393 * 3), Assertions.within(1e-9));
         assertThat(dc.get("agrees").asBoolean()).isTrue();
         // the kept record is the same result, and no half-written file is left behind
         assertThat(Files.readString(dir.resolve("runs/L-1/S-1.json"))).isEqualTo(Files.readString(json));
@@ -185,10 +193,10 @@ class CommandLineTests {
     static final String LOT_FILE = HOME.resolve("simulator/demo-lot.yaml").toString();
 
     static Outcome lotRun(Path dir, String lot, String lotSize, String... more) {
-        java.util.List<String> args = new java.util.ArrayList<>(java.util.List.of("run", PLAN, "--lot", lot, "--lot-size",
+        List<String> args = new ArrayList<>(List.of("run", PLAN, "--lot", lot, "--lot-size",
                 lotSize, "--sim-lot", LOT_FILE, "--runs", dir.resolve("runs").toString(), "--data",
                 dir.resolve("data").toString(), "--calibration", dir.resolve("none").toString(), "--operator", "Tam"));
-        args.addAll(java.util.List.of(more));
+        args.addAll(List.of(more));
         return run(args.toArray(String[]::new));
     }
 
@@ -215,7 +223,7 @@ class CommandLineTests {
         Path csv = dir.resolve("x1.csv");
         assertThat(run("report", "--lot", "X1", "--data", dir.resolve("data").toString(), "--out",
                 dir.resolve("r.html").toString(), "--csv", csv.toString()).code()).isZero();
-        java.util.List<String> rows = Files.readAllLines(csv);
+        List<String> rows = Files.readAllLines(csv);
         assertThat(rows.get(0)).startsWith("lot,inspection,position,serial,attempt,counts,verdict,limit,value");
         assertThat(rows).hasSize(1 + 16 * 3);
         // a single part measured into the sampled lot would take a record name the lot needs: refused
@@ -228,8 +236,8 @@ class CommandLineTests {
 
     @Test
     void aHalfMeasuredLotResumedWithOtherTermsIsRefusedNamingBoth(@TempDir Path dir) throws Exception {
-        try (var store = org.lrbench.store.ResultStore.open(dir.resolve("data/lrbench.db"))) {
-            store.inspect(new org.lrbench.results.LotTerms("X2", "QFD-IND-1M0", PLAN, org.lrbench.store.Canonical.sha256(
+        try (var store = ResultStore.open(dir.resolve("data/lrbench.db"))) {
+            store.inspect(new LotTerms("X2", "QFD-IND-1M0", PLAN, Canonical.sha256(
                     Files.readAllBytes(Path.of(PLAN))), "sim-bench-1", 40, 8, "level II; AQL major 6.5", "Tam"), null, "t0");
         }
         Outcome o = lotRun(dir, "X2", "5");
@@ -326,7 +334,7 @@ class CommandLineTests {
                 HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.resolve("runs").toString(),
                 "--calibration", dir.resolve("none").toString(), "--io-log", log.toString());
         assertThat(o.code()).as(o.err()).isZero();
-        java.util.List<String> lines = Files.readAllLines(log);
+        List<String> lines = Files.readAllLines(log);
         // IEEE 488.2 *IDN? to each instrument, and its four-field answer
         assertThat(lines).anyMatch(l -> l.matches("\\S+Z generator \\(generic-source at sim://generator\\) > \\*IDN\\?"));
         assertThat(lines).anyMatch(l -> l.contains("digitizer (generic-digitizer at sim://digitizer) < LRBENCH,SIM-DIGITIZER-2"));
@@ -388,10 +396,10 @@ class CommandLineTests {
         assertThat(winding).as(o.out()).isNotNull();
         // the limit reads the sweep's R_dc carried to 20 C; the reported R_dc stays as measured at 23 C
         assertThat(winding.get("value").asDouble()).isCloseTo(r.get("series_resistance_ohm").asDouble() / (1 + 0.00393 * 3),
-                org.assertj.core.api.Assertions.within(1e-9));
+                Assertions.within(1e-9));
         assertThat(winding.get("reason").asText()).contains("at 20.00 C (copper, from 23.00 C)");
         assertThat(r.get("dc_resistance").get("at_reference_ohm").asDouble())
-                .isCloseTo(2.62 / (1 + 0.00393 * 3), org.assertj.core.api.Assertions.within(1e-9));
+                .isCloseTo(2.62 / (1 + 0.00393 * 3), Assertions.within(1e-9));
     }
 
     @Test
@@ -399,7 +407,7 @@ class CommandLineTests {
         for (String[] command : new String[][] {{"run"}, {"check"}, {"lots"}, {"lot"}, {"demo"}, {"serve"}, {"analyze"},
             {"benchmark"}, {"benchmark", "coverage"}, {"verify"}, {"exercise"}, {"drivers"}, {"report"}, {"calibrate"},
             {"rehearse"}, {"history"}, {"sim"}}) {
-            String[] args = java.util.Arrays.copyOf(command, command.length + 1);
+            String[] args = Arrays.copyOf(command, command.length + 1);
             args[command.length] = "--help";
             Outcome o = run(args);
             assertThat(o.code()).as(String.join(" ", args) + o.err()).isZero();
@@ -414,7 +422,7 @@ class CommandLineTests {
     }
 
     /** A copy of the shipped driver files to edit in a test. */
-    static Path copyOfDrivers(Path dir) throws java.io.IOException {
+    static Path copyOfDrivers(Path dir) throws IOException {
         Path drivers = dir.resolve("drivers");
         Files.createDirectories(drivers);
         try (var files = Files.list(HOME.resolve("drivers"))) {

@@ -5,8 +5,10 @@ import static org.assertj.core.api.Assertions.within;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.List;
 import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
@@ -14,6 +16,7 @@ import org.junit.jupiter.params.provider.MethodSource;
 import org.lrbench.TestBench;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
+import org.lrbench.bench.InstrumentLink;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
@@ -23,11 +26,14 @@ import org.lrbench.results.PartResult;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.CalibrationRun;
 import org.lrbench.run.PartRun;
+import org.lrbench.scpi.ScpiSession;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
+import org.lrbench.sim.SimGenerator;
 import org.lrbench.sim.server.SimServer;
 import org.lrbench.transport.Address;
+import org.lrbench.transport.inproc.InProcessTransport;
 
 /**
  * Every plan in plans/ measured end to end on every simulated digitizer personality, each behind
@@ -88,14 +94,14 @@ class PersonalityTests {
      * of V across the load is an EMF of 2 V (voltage divider, circuit theory), and one on the
      * peak-EMF personality, whose levels are the EMF.
      */
-    @org.junit.jupiter.api.Test
+    @Test
     void everyGeneratorDriverSetsTheSameOpenCircuitEmf() throws Exception {
         for (String driverName : List.of("generic-source", "sim-source-matched", "sim-source-peak")) {
-            org.lrbench.sim.SimGenerator g = new org.lrbench.sim.SimGenerator(50, driverName.equals("sim-source-peak")
-                    ? org.lrbench.sim.SimGenerator.Personality.PEAK_EMF : org.lrbench.sim.SimGenerator.Personality.GENERIC);
+            SimGenerator g = new SimGenerator(50, driverName.equals("sim-source-peak")
+                    ? SimGenerator.Personality.PEAK_EMF : SimGenerator.Personality.GENERIC);
             DriverFile d = new DriverLoader(HOME.resolve("drivers")).load(driverName, DriverKind.SOURCE);
-            ScpiGenerator gen = new ScpiGenerator(new org.lrbench.scpi.ScpiSession("generator",
-                    new org.lrbench.transport.inproc.InProcessTransport("sim://generator", g), java.time.Duration.ofSeconds(1)), d);
+            ScpiGenerator gen = new ScpiGenerator(new ScpiSession("generator",
+                    new InProcessTransport("sim://generator", g), Duration.ofSeconds(1)), d);
             gen.prepare();
             gen.setAmplitude(1.5);
             gen.setOffset(0.25);
@@ -110,11 +116,11 @@ class PersonalityTests {
      * The per-division digitizer driven the other way its dialect allows: time per division (the
      * instrument picks the interval) and the scaling by one query per field. Same truth, same bounds.
      */
-    @org.junit.jupiter.api.Test
+    @Test
     void theSameDigitizerDrivenByTimePerDivisionAndSeparateScaleQueriesMeasuresTheTruth() throws Exception {
         BenchConfig div8 = BenchLoader.load(HOME.resolve("simulator/bench-div8.yaml"));
         BenchConfig b = new BenchConfig(div8.source(), div8.name(), div8.maxAmplitudeVolt(), div8.generator(),
-                new org.lrbench.bench.InstrumentLink("sim-div8-timebase-digitizer", div8.digitizer().address()),
+                new InstrumentLink("sim-div8-timebase-digitizer", div8.digitizer().address()),
                 div8.switchUnit(), div8.meter(), div8.simulation(), div8.accuracy());
         Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
         PartModel truth = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
@@ -135,7 +141,7 @@ class PersonalityTests {
     }
 
     /** A range list the instrument answers stands for declared limits: the same personality, ranges queried. */
-    @org.junit.jupiter.api.Test
+    @Test
     void aQueriedRangeListGivesTheRangeLimits(@TempDir Path dir) throws Exception {
         String text = Files.readString(HOME.resolve("drivers/sim-pm12-digitizer.yaml"))
                 .replaceAll("(?m)^  ranges: .*\\n", "")
@@ -146,9 +152,9 @@ class PersonalityTests {
         assertThat(d.digitizer().vertical().ranges()).isEmpty();
         BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench-pm12.yaml"));
         SimBench sim = new SimBench(b.simulation(), 100, PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")));
-        ScpiDigitizer dig = new ScpiDigitizer(new org.lrbench.scpi.ScpiSession("digitizer",
-                new org.lrbench.transport.inproc.InProcessTransport("sim://digitizer", sim.digitizer()),
-                java.time.Duration.ofSeconds(1)), d);
+        ScpiDigitizer dig = new ScpiDigitizer(new ScpiSession("digitizer",
+                new InProcessTransport("sim://digitizer", sim.digitizer()),
+                Duration.ofSeconds(1)), d);
         dig.prepare();
         // plus-minus 5 mV to 50 V is 10 mV to 100 V peak-to-peak
         assertThat(dig.rangeLimits(1).minVolt()).isCloseTo(0.01, within(1e-12));

@@ -2,8 +2,11 @@ package org.lrbench.measure;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import java.util.Arrays;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
 import org.lrbench.TestBench;
+import org.lrbench.instrument.Trace;
 import org.lrbench.instrument.TriggerSource;
 import org.lrbench.instrument.Waveform;
 import org.lrbench.sim.PartModel;
@@ -31,7 +34,7 @@ class AutoRangerTests {
         AutoRanger ranger = new AutoRanger(b.digitizer, 0.01, 0.01);
         AutoRanger.Capture c = ranger.acquire();
         assertThat(c.acquisitions()).isGreaterThan(1);
-        for (var t : new org.lrbench.instrument.Trace[] {c.sense(), c.part()}) {
+        for (var t : new Trace[] {c.sense(), c.part()}) {
             assertThat(t.clippedSamples()).isZero();
             assertThat(2 * t.excursion() / t.rangeVolt()).isBetween(AutoRanger.LOW_FILL, AutoRanger.HIGH_FILL);
         }
@@ -73,11 +76,11 @@ class AutoRangerTests {
                     AutoRanger.Capture c = new AutoRanger(d, start, start).acquire();
                     String what = rounding + " from " + start + " V, offset " + offset + " V";
                     assertThat(c.acquisitions()).as(what).isLessThanOrEqualTo(6);
-                    for (var t : new org.lrbench.instrument.Trace[] {c.sense(), c.part()}) {
+                    for (var t : new Trace[] {c.sense(), c.part()}) {
                         double fill = 2 * t.excursion() / t.rangeVolt();
                         assertThat(t.clippedSamples()).as(what).isZero();
                         assertThat(fill).as(what).isLessThanOrEqualTo(AutoRanger.HIGH_FILL);
-                        double smaller = java.util.Arrays.stream(set).filter(x -> x < t.rangeVolt() * (1 - 1e-9))
+                        double smaller = Arrays.stream(set).filter(x -> x < t.rangeVolt() * (1 - 1e-9))
                                 .max().orElse(0);
                         // either well filled, or the next smaller range would be filled past the target
                         assertThat(fill >= AutoRanger.LOW_FILL || 2 * t.excursion() / smaller > AutoRanger.TARGET_FILL)
@@ -93,7 +96,7 @@ class AutoRangerTests {
         TestBench b = bench(6);
         // an instrument whose ranges all clip this signal: asked and granted are in the message
         RangeSetDigitizer d = new RangeSetDigitizer(b.digitizer, new double[] {0.01, 0.02, 0.05}, RangeSetDigitizer.Rounding.UP);
-        org.assertj.core.api.Assertions.assertThatThrownBy(() -> new AutoRanger(d, 0.01, 0.01).acquire())
+        Assertions.assertThatThrownBy(() -> new AutoRanger(d, 0.01, 0.01).acquire())
                 .isInstanceOf(MeasurementException.class)
                 .hasMessageContaining("largest range")
                 .hasMessageContaining("asked 0.01 V got 0.01 V (clipped)").hasMessageContaining("asked 0.05 V got 0.05 V (clipped)");

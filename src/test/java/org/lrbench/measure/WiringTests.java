@@ -3,7 +3,9 @@ package org.lrbench.measure;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
+import java.time.Duration;
 import java.util.List;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
 import org.lrbench.TestBench;
 import org.lrbench.analysis.SeriesModel;
@@ -45,9 +47,9 @@ class WiringTests {
         DriverFile dig = DriverLoader.read(TestBench.home().resolve("drivers/generic-digitizer-float.yaml"), "d",
                 DriverKind.DIGITIZER, new Problems("d"));
         var gen = new ScpiGenerator(new ScpiSession("g", new InProcessTransport("sim://g", sim.generator()),
-                java.time.Duration.ofSeconds(1)), source);
+                Duration.ofSeconds(1)), source);
         var d = new ScpiDigitizer(new ScpiSession("d", new InProcessTransport("sim://d", sim.digitizer()),
-                java.time.Duration.ofSeconds(1)), dig);
+                Duration.ofSeconds(1)), dig);
         List<PointResult> pts = new SweepRunner(gen, d, Sleeper.NONE).run(plan, SweepListener.NONE).points();
         return SeriesModelFit.fit(pts.stream().map(PointResult::impedance).toList());
     }
@@ -73,7 +75,7 @@ class WiringTests {
 
     @Test
     void aGroundedInputAcrossTheFloatingSenseResistorIsRefused() {
-        var e = org.assertj.core.api.Assertions.catchThrowableOfType(ProblemsException.class, () -> PlanLoader.parse(
+        var e = Assertions.catchThrowableOfType(ProblemsException.class, () -> PlanLoader.parse(
                 PLAN.formatted("  probes: {channel1: {kind: single_ended}}"), "w.yaml", 5.0));
         assertThat(e.problems().get(0).key()).isEqualTo("fixture.probes");
         assertThat(e.problems().get(0).message()).contains("single-ended").contains("low_side");

@@ -4,9 +4,13 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.catchThrowableOfType;
 import static org.assertj.core.api.Assertions.within;
 
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.yaml.Problem;
@@ -52,7 +56,7 @@ class PlanLoaderTests {
     @Test
     void theShippedPlansLoad() throws Exception {
         Path plans = TestBench.home().resolve("plans");
-        try (var files = java.nio.file.Files.list(plans)) {
+        try (var files = Files.list(plans)) {
             for (Path f : files.filter(x -> x.toString().endsWith(".yaml")).toList()) {
                 assertThat(PlanLoader.load(f, 5.0).limits()).isNotEmpty();
             }
@@ -132,7 +136,7 @@ class PlanLoaderTests {
     @Test
     void plansThatCannotWorkAreRefusedEachWithItsOwnProblem() {
         String dc = GOOD + "dc_resistance:\n  wiring: four_wire\n  temperature: TEMP\n";
-        java.util.Map<String, String> cases = new java.util.LinkedHashMap<>();
+        Map<String, String> cases = new LinkedHashMap<>();
         // temperatures in degrees Celsius only, never read past: F is farad, K no unit here, a bare number
         // has no unit, and a prefix makes 23 mC a millidegree
         cases.put(dc.replace("TEMP", "73 F"), "dc_resistance.temperature");
@@ -160,9 +164,9 @@ class PlanLoaderTests {
     }
 
     @Test
-    void anOversizedFileIsRefusedBeforeItIsRead(@org.junit.jupiter.api.io.TempDir Path dir) throws Exception {
+    void anOversizedFileIsRefusedBeforeItIsRead(@TempDir Path dir) throws Exception {
         Path big = dir.resolve("big.yaml");
-        java.nio.file.Files.writeString(big, GOOD.replace("part_number: P-1", "part_number: P-1\ndescription: "
+        Files.writeString(big, GOOD.replace("part_number: P-1", "part_number: P-1\ndescription: "
                 + "x".repeat(2 * 1024 * 1024)));
         ProblemsException e = catchThrowableOfType(ProblemsException.class, () -> PlanLoader.load(big, 5.0));
         assertThat(e.problems().get(0).message()).contains("at most 1048576 bytes");

@@ -5,9 +5,12 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.io.IOException;
+import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.FileAlreadyExistsException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
 import java.sql.DriverManager;
 import java.util.ArrayList;
 import java.util.List;
@@ -15,11 +18,14 @@ import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.measure.PointResult;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.store.ResultStore;
 import org.lrbench.store.ResultStoreTests;
+import org.lrbench.store.StoreException;
+import org.lrbench.traces.TraceArchiveTests;
 
 /**
  * The records a lot leaves behind: written whole or not at all, never replaced, repaired after a
@@ -31,8 +37,8 @@ class RecordsTests {
         return ResultStoreTests.part("L1", serial, verdict).withAttempt(new PartResult.AttemptRecord(1, number, "op", reason));
     }
 
-    static List<org.lrbench.measure.PointResult> traces() throws Exception {
-        return org.lrbench.traces.TraceArchiveTests.sweep();
+    static List<PointResult> traces() throws Exception {
+        return TraceArchiveTests.sweep();
     }
 
     @Test
@@ -52,7 +58,7 @@ class RecordsTests {
             b[b.length / 2] ^= 0x01;
             Files.write(json, b);
             Path archive = runs.resolve("L1/S2.lrtraces");
-            try (var ch = java.nio.channels.FileChannel.open(archive, java.nio.file.StandardOpenOption.WRITE)) {
+            try (var ch = FileChannel.open(archive, StandardOpenOption.WRITE)) {
                 ch.truncate(Files.size(archive) - 100);
             }
         }
@@ -73,7 +79,7 @@ class RecordsTests {
         Path target = dir.resolve("S1.json");
         ResultFiles.writeNew(target, "first".getBytes(StandardCharsets.UTF_8));
         assertThatThrownBy(() -> ResultFiles.writeNew(target, "second".getBytes(StandardCharsets.UTF_8)))
-                .isInstanceOf(java.nio.file.FileAlreadyExistsException.class);
+                .isInstanceOf(FileAlreadyExistsException.class);
         assertThat(target).hasContent("first");
         try (var files = Files.list(dir)) {
             assertThat(files).containsExactly(target);
@@ -198,7 +204,7 @@ class RecordsTests {
         assumeTrue(mount(disk, "size=192k"), "cannot mount a tmpfs here (needs root): full-disk store test skipped");
         try {
             int stored = 0;
-            org.lrbench.store.StoreException full = null;
+            StoreException full = null;
             try (ResultStore s = ResultStore.open(disk.resolve("s.db"))) {
                 s.inspect(ResultStoreTests.terms("L1", 40), null, "t0");
                 String big = "x".repeat(20_000);
@@ -206,7 +212,7 @@ class RecordsTests {
                     try {
                         ResultStoreTests.store(s, 1, i, 1, ResultStoreTests.part("L1", "S" + i, "pass"), big);
                         stored++;
-                    } catch (org.lrbench.store.StoreException e) {
+                    } catch (StoreException e) {
                         full = e;
                     }
                 }

@@ -50,12 +50,12 @@ class RehearsalTests {
     void theAdviceNamesWhatLimitsTheCurrent() throws Exception {
         // a 10 uH part behind 1 ohm and a 50 ohm source: the loop impedance is mostly the source's
         // (series circuit, circuit theory), so a smaller sense resistor would change little
-        var p = org.lrbench.plan.PlanLoader.load(TestBench.home().resolve("plans/qfd-ind-1m0.yaml"), BENCH.maxAmplitudeVolt());
-        var small = new org.lrbench.plan.Plan(p.source(), p.partNumber(), p.description(), 1.0, p.sweep(), p.triangle(),
+        var p = PlanLoader.load(TestBench.home().resolve("plans/qfd-ind-1m0.yaml"), BENCH.maxAmplitudeVolt());
+        var small = new Plan(p.source(), p.partNumber(), p.description(), 1.0, p.sweep(), p.triangle(),
                 p.limits(), p.sampling(), p.wiring(), p.dcResistance());
         assertThat(Rehearsal.limitingElement(small, BENCH, 0.05)).contains("generator's output impedance (50.00 ohm)")
                 .contains("changes little");
-        var big = new org.lrbench.plan.Plan(p.source(), p.partNumber(), p.description(), 20e3, p.sweep(), p.triangle(),
+        var big = new Plan(p.source(), p.partNumber(), p.description(), 20e3, p.sweep(), p.triangle(),
                 p.limits(), p.sampling(), p.wiring(), p.dcResistance());
         assertThat(Rehearsal.limitingElement(big, BENCH, 5)).contains("the sense resistor (20.00 kohm) is the largest");
         assertThat(Rehearsal.limitingElement(p, BENCH, 5e3)).contains("the part's own impedance");

@@ -5,10 +5,12 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.security.MessageDigest;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.Deque;
 import java.util.HashSet;
+import java.util.HexFormat;
 import java.util.List;
 import java.util.Set;
 import java.util.concurrent.TimeUnit;
@@ -40,7 +42,7 @@ public class LotRunTests {
         BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
         Plan p = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
         byte[] content = Files.readAllBytes(HOME.resolve("plans/qfd-ind-1m0.yaml"));
-        String sha = java.util.HexFormat.of().formatHex(java.security.MessageDigest.getInstance("SHA-256").digest(content));
+        String sha = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(content));
         PartRun.Request t = new PartRun.Request(p, sha, b, "LOT-1", "-", true, "test");
         return LotRunner.Setup.of(t, lotSize, new DriverLoader(HOME.resolve("drivers")), new StoreLedger(store, runs, true))
                 .withOperator("tester");

@@ -10,7 +10,9 @@ import static org.mockito.Mockito.mock;
 import static org.mockito.Mockito.when;
 
 import java.util.List;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
+import org.lrbench.TestBench;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
@@ -18,13 +20,17 @@ import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.instrument.RangeLimits;
 import org.lrbench.instrument.Timing;
+import org.lrbench.instrument.Waveform;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
 import org.lrbench.results.PartResult;
+import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimSettings;
+import org.lrbench.uncertainty.BenchAccuracy;
 import org.mockito.InOrder;
+import org.mockito.Mockito;
 
 /** The generator output goes off on every exit path, and a fault is never a pass. */
 class OutputSafetyTests {
@@ -37,7 +43,7 @@ class OutputSafetyTests {
             """;
 
     static BenchConfig bench() {
-        return new BenchConfig("b.yaml", "test-bench", 5.0, null, null, SimSettings.defaults(), org.lrbench.uncertainty.BenchAccuracy.defaults());
+        return new BenchConfig("b.yaml", "test-bench", 5.0, null, null, SimSettings.defaults(), BenchAccuracy.defaults());
     }
 
     static PartRun.Request request(Plan plan) {
@@ -69,15 +75,15 @@ class OutputSafetyTests {
 
     @Test
     void failingToSwitchOffIsAnErrorEvenAfterAGoodSweep() throws Exception {
-        var bench = new org.lrbench.TestBench(SimSettings.defaults(), 100,
-                new org.lrbench.sim.PartModel(1e-3, 2.3, 0), org.lrbench.TestBench.genericDigitizer());
+        var bench = new TestBench(SimSettings.defaults(), 100,
+                new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());
         Generator real = bench.generator;
         Generator flaky = new Generator() {
             int offCalls;
 
             @Override public Identity identity() { return real.identity(); }
             @Override public void prepare() { real.prepare(); }
-            @Override public void setWaveform(org.lrbench.instrument.Waveform w) { real.setWaveform(w); }
+            @Override public void setWaveform(Waveform w) { real.setWaveform(w); }
             @Override public void setFrequency(double hz) { real.setFrequency(hz); }
             @Override public void setAmplitude(double v) { real.setAmplitude(v); }
             @Override public void setOffset(double v) { real.setOffset(v); }
@@ -99,8 +105,8 @@ class OutputSafetyTests {
 
     @Test
     void planBeyondTheDigitizerEndsInErrorAndTheSimulatedOutputIsOff() throws Exception {
-        var bench = new org.lrbench.TestBench(SimSettings.defaults(), 100,
-                new org.lrbench.sim.PartModel(1e-3, 2.3, 0), org.lrbench.TestBench.genericDigitizer());
+        var bench = new TestBench(SimSettings.defaults(), 100,
+                new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());
         // 10 MHz at 200 samples per cycle needs 0.5 ns sampling; the simulated digitizer's clock is 1 ns
         Plan plan = PlanLoader.parse(PLAN.replace("[1 kHz, 2 kHz]", "[1 kHz, 10 MHz]")
                 .replace("cycles: 10", "cycles: 10, samples_per_cycle: 200"), "t.yaml", 5.0);
@@ -116,11 +122,11 @@ class OutputSafetyTests {
     void planOverTheBenchCeilingIsRefusedBeforeAnythingIsSwitched() throws Exception {
         Generator gen = mock(Generator.class);
         Plan plan = PlanLoader.parse(PLAN.replace("3 V", "4.5 V"), "t.yaml", 5.0);
-        BenchConfig low = new BenchConfig("b.yaml", "low", 4.0, null, null, SimSettings.defaults(), org.lrbench.uncertainty.BenchAccuracy.defaults());
-        org.assertj.core.api.Assertions.assertThatThrownBy(() -> PartRun.measure(
+        BenchConfig low = new BenchConfig("b.yaml", "low", 4.0, null, null, SimSettings.defaults(), BenchAccuracy.defaults());
+        Assertions.assertThatThrownBy(() -> PartRun.measure(
                 new PartRun.Request(plan, "0", low, "L", "S", true, "t"),
                 new BenchInstruments(gen, mock(Digitizer.class), List.of()), Sleeper.NONE, SweepListener.NONE))
                 .hasMessageContaining("exceeds the bench's maximum");
-        org.mockito.Mockito.verifyNoInteractions(gen);
+        Mockito.verifyNoInteractions(gen);
     }
 }

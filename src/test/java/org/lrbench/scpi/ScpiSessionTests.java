@@ -8,6 +8,8 @@ import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.ArrayDeque;
 import java.util.Deque;
+import java.util.List;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.transport.Transport;
@@ -177,7 +179,7 @@ class ScpiSessionTests {
         // with commas, blanks, or both
         double[] want = {1.5, -0.25, 3e-3, 4};
         for (String reply : new String[] {"1.5,-0.25,3E-3,+4", "1.5 -0.25 3E-3 +4", " 1.5, -0.25,  3E-3 , 4 "}) {
-            org.assertj.core.api.Assertions.assertThat(TraceEncoding.decodeAscii(reply)).as(reply).containsExactly(want);
+            Assertions.assertThat(TraceEncoding.decodeAscii(reply)).as(reply).containsExactly(want);
         }
     }
 
@@ -185,19 +187,19 @@ class ScpiSessionTests {
     void aDefiniteBlockWithoutTrailingTerminatorIsReadWhenTheDriverSaysSo() {
         // IEEE Std 488.2-1992, 7.7.6.2: #<digit count><length digits><bytes>; some instruments send no terminator after it
         byte[] block = session(3, "#14abcd").queryBlock(":DATA?", false);
-        org.assertj.core.api.Assertions.assertThat(new String(block, StandardCharsets.ISO_8859_1)).isEqualTo("abcd");
-        org.assertj.core.api.Assertions.assertThatThrownBy(() -> session(3, "#14abcd").queryBlock(":DATA?", true))
-                .isInstanceOf(org.lrbench.instrument.InstrumentException.class);
+        Assertions.assertThat(new String(block, StandardCharsets.ISO_8859_1)).isEqualTo("abcd");
+        Assertions.assertThatThrownBy(() -> session(3, "#14abcd").queryBlock(":DATA?", true))
+                .isInstanceOf(InstrumentException.class);
     }
 
     @Test
     void anAsciiListOneValuePerLineIsReadLineByLine() {
         ScpiSession s = session(2, "1.5\n-2\n3E-1\n");
-        java.util.List<String> lines = s.queryLines(":DATA?", 3);
-        org.assertj.core.api.Assertions.assertThat(TraceEncoding.decodeAscii(String.join(",", lines)))
+        List<String> lines = s.queryLines(":DATA?", 3);
+        Assertions.assertThat(TraceEncoding.decodeAscii(String.join(",", lines)))
                 .containsExactly(1.5, -2, 0.3);
         // a reply with fewer lines than the record times out and says how many came
-        org.assertj.core.api.Assertions.assertThatThrownBy(() -> session(2, "1\n2\n").queryLines(":DATA?", 3))
+        Assertions.assertThatThrownBy(() -> session(2, "1\n2\n").queryLines(":DATA?", 3))
                 .hasMessageContaining("2 of 3 lines");
     }
 }

@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.BufferedReader;
+import java.io.InputStream;
 import java.io.InputStreamReader;
 import java.net.InetAddress;
 import java.net.URI;
@@ -12,7 +13,9 @@ import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.nio.file.attribute.PosixFilePermission;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
@@ -20,6 +23,7 @@ import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
+import org.lrbench.cli.ServeTokens;
 
 /** The service's API with the JDK's HTTP client against a service on a free loopback port. */
 class BenchServiceApiTests {
@@ -108,7 +112,7 @@ class BenchServiceApiTests {
             service.join(30_000);
             // the event stream replays the whole run: prompts, points, parts in order, then the disposition
             List<String> types = new ArrayList<>();
-            HttpResponse<java.io.InputStream> stream = http.send(HttpRequest.newBuilder(
+            HttpResponse<InputStream> stream = http.send(HttpRequest.newBuilder(
                     URI.create("http://127.0.0.1:" + port + "/api/runs/current/events")).build(),
                     HttpResponse.BodyHandlers.ofInputStream());
             try (BufferedReader r = new BufferedReader(new InputStreamReader(stream.body(), StandardCharsets.UTF_8))) {
@@ -125,7 +129,7 @@ class BenchServiceApiTests {
             assertThat(types.get(0)).isEqualTo("run_started");
             // a client that reconnects with Last-Event-ID (the SSE standard's resume) gets only what it missed
             int total = json(call(port, "GET", "/api/runs/current", null, null)).get("events").asInt();
-            HttpResponse<java.io.InputStream> resumed = http.send(HttpRequest.newBuilder(
+            HttpResponse<InputStream> resumed = http.send(HttpRequest.newBuilder(
                     URI.create("http://127.0.0.1:" + port + "/api/runs/current/events"))
                     .header("Last-Event-ID", String.valueOf(total - 2)).build(), HttpResponse.BodyHandlers.ofInputStream());
             List<String> ids = new ArrayList<>();
@@ -309,11 +313,11 @@ class BenchServiceApiTests {
             assertThat(call(port, "GET", "/api/plans", null, "s3cret").statusCode()).isEqualTo(200);
         }
         Path token = dir.resolve("t");
-        String t = org.lrbench.cli.ServeTokens.token(token);
-        assertThat(t).hasSize(48).isEqualTo(org.lrbench.cli.ServeTokens.token(token));
-        assertThat(java.nio.file.Files.getPosixFilePermissions(token.resolve("service-token")))
-                .containsExactlyInAnyOrder(java.nio.file.attribute.PosixFilePermission.OWNER_READ,
-                        java.nio.file.attribute.PosixFilePermission.OWNER_WRITE);
+        String t = ServeTokens.token(token);
+        assertThat(t).hasSize(48).isEqualTo(ServeTokens.token(token));
+        assertThat(Files.getPosixFilePermissions(token.resolve("service-token")))
+                .containsExactlyInAnyOrder(PosixFilePermission.OWNER_READ,
+                        PosixFilePermission.OWNER_WRITE);
         TimeUnit.MILLISECONDS.sleep(1);
     }
 }

@@ -6,6 +6,7 @@ import java.nio.charset.StandardCharsets;
 import org.junit.jupiter.api.Test;
 import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.Waveform;
+import org.lrbench.sim.scpi.ScpiDevice;
 
 /** The simulated instruments' SCPI front end. */
 class ScpiDeviceTests {
@@ -105,6 +106,6 @@ class ScpiDeviceTests {
 
     /** The queue depth the device promises. */
     static final class ScpiDeviceConstants {
-        static final int DEPTH = org.lrbench.sim.scpi.ScpiDevice.QUEUE_DEPTH;
+        static final int DEPTH = ScpiDevice.QUEUE_DEPTH;
     }
 }

@@ -7,8 +7,11 @@ import static org.assertj.core.api.Assertions.within;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.sql.DriverManager;
+import java.sql.SQLException;
 import java.util.List;
 import java.util.Map;
+import org.apache.commons.math3.stat.descriptive.DescriptiveStatistics;
+import org.assertj.core.groups.Tuple;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.results.Attempt;
@@ -64,11 +67,11 @@ public class ResultStoreTests {
             // "test until it passes" leaves its trace: the failing attempt stays, the re-measure has its reason
             store(s, 1, 2, 2, part("L1", "S2", "pass"), "bad contact seen");
             assertThat(s.attempts("L1")).extracting(Attempt::serial, Attempt::number, Attempt::verdict)
-                    .containsExactly(org.assertj.core.groups.Tuple.tuple("S1", 1, "pass"),
-                            org.assertj.core.groups.Tuple.tuple("S2", 1, "fail"),
-                            org.assertj.core.groups.Tuple.tuple("S2", 2, "pass"));
+                    .containsExactly(Tuple.tuple("S1", 1, "pass"),
+                            Tuple.tuple("S2", 1, "fail"),
+                            Tuple.tuple("S2", 2, "pass"));
             assertThat(s.parts("L1")).extracting(Attempt::serial, Attempt::number)
-                    .containsExactly(org.assertj.core.groups.Tuple.tuple("S1", 1), org.assertj.core.groups.Tuple.tuple("S2", 2));
+                    .containsExactly(Tuple.tuple("S1", 1), Tuple.tuple("S2", 2));
             // an attempt number is taken once: a second writer of attempt 2 is refused, nothing replaced
             assertThatThrownBy(() -> store(s, 1, 2, 2, part("L1", "S2", "fail"), "again"))
                     .hasMessageContaining("already has attempt 2");
@@ -105,8 +108,8 @@ public class ResultStoreTests {
             store(s, 1, 5, 1, part("L1", "S9", "error"), null);
             LotStatistics st = s.history("P-1").get(0);
             // reference: Apache Commons Math DescriptiveStatistics (sample standard deviation)
-            var dl = new org.apache.commons.math3.stat.descriptive.DescriptiveStatistics(ls);
-            var dr = new org.apache.commons.math3.stat.descriptive.DescriptiveStatistics(rs);
+            var dl = new DescriptiveStatistics(ls);
+            var dr = new DescriptiveStatistics(rs);
             assertThat(st.measured()).isEqualTo(4);
             assertThat(st.yield()).isEqualTo(0.75);
             assertThat(st.meanInductanceH()).isCloseTo(dl.getMean(), within(1e-15));
@@ -139,8 +142,8 @@ public class ResultStoreTests {
             Inspection second = s.inspect(terms("L1", 38), "supplier screened the lot", "t5");
             assertThat(second.round()).isEqualTo(2);
             assertThat(s.lots()).extracting(LotRecord::round, LotRecord::disposition, LotRecord::reason)
-                    .containsExactly(org.assertj.core.groups.Tuple.tuple(1, "reject", null),
-                            org.assertj.core.groups.Tuple.tuple(2, null, "supplier screened the lot"));
+                    .containsExactly(Tuple.tuple(1, "reject", null),
+                            Tuple.tuple(2, null, "supplier screened the lot"));
             // parts of the closed inspection cannot be added any more
             assertThatThrownBy(() -> store(s, 1, 1, 1, part("L1", "S1", "pass"), null)).hasMessageContaining("closed");
             assertThat(s.chainFindings("L1")).isEmpty();
@@ -250,14 +253,14 @@ public class ResultStoreTests {
     void databaseFailuresAreNamedByTheirCause() {
         // the causes of xerial sqlite-jdbc's result codes (sqlite.org/rescode.html) and PostgreSQL SQLSTATEs
         // (postgresql.org/docs/current/errcodes-appendix.html: 53100 disk_full, 25006 read_only_sql_transaction)
-        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_FULL] Insertion failed because database is full")))
+        assertThat(StoreErrors.describe(new SQLException("[SQLITE_FULL] Insertion failed because database is full")))
                 .startsWith("the disk is full");
-        assertThat(StoreErrors.describe(new java.sql.SQLException("could not extend file", "53100"))).startsWith("the disk is full");
-        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_READONLY] attempt to write a readonly database")))
+        assertThat(StoreErrors.describe(new SQLException("could not extend file", "53100"))).startsWith("the disk is full");
+        assertThat(StoreErrors.describe(new SQLException("[SQLITE_READONLY] attempt to write a readonly database")))
                 .startsWith("the store is read-only");
-        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_BUSY] The database file is locked")))
+        assertThat(StoreErrors.describe(new SQLException("[SQLITE_BUSY] The database file is locked")))
                 .startsWith("another program holds the store locked");
-        assertThat(StoreErrors.describe(new java.sql.SQLException("[SQLITE_NOTADB] file is not a database")))
+        assertThat(StoreErrors.describe(new SQLException("[SQLITE_NOTADB] file is not a database")))
                 .startsWith("the store file is corrupt");
     }
 

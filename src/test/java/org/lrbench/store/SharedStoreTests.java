@@ -12,6 +12,7 @@ import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.Supplier;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.results.Attempt;
 
 /**
  * Two benches writing one store at once, on SQLite and on a real PostgreSQL server. The PostgreSQL
@@ -133,7 +134,7 @@ class SharedStoreTests {
         assertThat(unexpected).isEmpty();
         assertThat(sharedWins.get()).isEqualTo(1);
         try (ResultStore s = open.get()) {
-            assertThat(s.parts("L1")).hasSize(21).extracting(org.lrbench.results.Attempt::serial).doesNotHaveDuplicates();
+            assertThat(s.parts("L1")).hasSize(21).extracting(Attempt::serial).doesNotHaveDuplicates();
             assertThat(s.attempts("L1")).hasSize(21);
             // both benches appended to one lot's hash chain, in turn, without a gap
             assertThat(s.chainFindings("L1")).isEmpty();

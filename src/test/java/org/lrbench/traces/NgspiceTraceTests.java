@@ -7,10 +7,12 @@ import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.Locale;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.cli.Main;
 
 /**
  * Re-analysis of traces that ngspice (Debian package ngspice, a general-purpose circuit simulator;
@@ -83,8 +85,8 @@ class NgspiceTraceTests {
             double t = i * 5e-6;
             double v1 = 1.2 * Math.sin(2 * Math.PI * f * t);
             double v2 = 0.3 * Math.sin(2 * Math.PI * f * t + phi);
-            points.append(String.format(java.util.Locale.ROOT, "%.9e,%.9e,%.9e%n", t, v1, v2));
-            commas.append(String.format(java.util.Locale.GERMANY, "%.9e;%.9e;%.9e%n", t, v1, v2));
+            points.append(String.format(Locale.ROOT, "%.9e,%.9e,%.9e%n", t, v1, v2));
+            commas.append(String.format(Locale.GERMANY, "%.9e;%.9e;%.9e%n", t, v1, v2));
         }
         Path a1 = dir.resolve("points.csv");
         Path a2 = dir.resolve("commas.csv");
@@ -100,6 +102,6 @@ class NgspiceTraceTests {
         // a file that cannot be analysed is bad input (exit 2), not an internal error
         Path junk = dir.resolve("junk.csv");
         Files.writeString(junk, "a;b;c\n" + "1;x;2\n".repeat(20));
-        assertThat(org.lrbench.cli.Main.execute("analyze", "--csv", junk.toString(), "--sense-resistor", "100 ohm")).isEqualTo(2);
+        assertThat(Main.execute("analyze", "--csv", junk.toString(), "--sense-resistor", "100 ohm")).isEqualTo(2);
     }
 }

@@ -7,13 +7,16 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.Arrays;
 import java.util.List;
+import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
 import org.lrbench.cli.Main;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -31,7 +34,7 @@ public class TraceArchiveTests {
                 sine_sweep: {amplitude: 3 V, frequencies: [1 kHz, 5 kHz], cycles: 5, settle: 0 s}
                 limits: [{characteristic: series_resistance, max: 10 ohm}]
                 """, "t.yaml", 5.0);
-        TraceRecorder rec = new TraceRecorder(org.lrbench.measure.SweepListener.NONE);
+        TraceRecorder rec = new TraceRecorder(SweepListener.NONE);
         new SweepRunner(b.generator, b.digitizer, Sleeper.NONE).run(plan, rec);
         return rec.points();
     }
@@ -56,7 +59,7 @@ public class TraceArchiveTests {
     void aTruncatedOrCorruptedArchiveIsAClearError(@TempDir Path dir) throws Exception {
         byte[] bytes = TraceArchive.encode("L", "S", "T-1", 100, new ObjectMapper().createObjectNode(), sweep());
         Path cut = dir.resolve("cut.lrtraces");
-        Files.write(cut, java.util.Arrays.copyOf(bytes, bytes.length / 2));
+        Files.write(cut, Arrays.copyOf(bytes, bytes.length / 2));
         assertThatThrownBy(() -> TraceArchive.read(cut)).hasMessageContaining("corrupt or truncated");
         byte[] flipped = bytes.clone();
         flipped[flipped.length / 2] ^= 0x10;
@@ -99,7 +102,7 @@ public class TraceArchiveTests {
         JsonNode storedLimits = new ObjectMapper().readTree(before).get("limits");
         for (int i = 0; i < storedLimits.size(); i++) {
             assertThat(again.get("limits").get(i).get("value").asDouble())
-                    .isCloseTo(storedLimits.get(i).get("value").asDouble(), org.assertj.core.api.Assertions.within(
+                    .isCloseTo(storedLimits.get(i).get("value").asDouble(), Assertions.within(
                             1e-9 * Math.abs(storedLimits.get(i).get("value").asDouble())));
         }
         // a plan whose content changed since is refused: the verdict must be judged on the original

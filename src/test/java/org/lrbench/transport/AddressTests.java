@@ -3,9 +3,15 @@ package org.lrbench.transport;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.TestBench;
+import org.lrbench.bench.BenchLoader;
 import org.lrbench.transport.serial.SerialSettings;
+import org.lrbench.yaml.ProblemsException;
 
 class AddressTests {
 
@@ -49,23 +55,23 @@ class AddressTests {
     @Test
     void linksAreFoundThroughTheirProvidersAndThisPackageKnowsNoImplementation() throws Exception {
         assertThat(Transports.schemes()).containsExactly("serial", "sim", "tcp", "usbtmc");
-        java.nio.file.Path dir = org.lrbench.TestBench.home().resolve("src/main/java/org/lrbench/transport");
-        try (var files = java.nio.file.Files.list(dir)) {
-            for (java.nio.file.Path f : files.filter(x -> x.toString().endsWith(".java")).toList()) {
-                assertThat(java.nio.file.Files.readString(f)).as(f.toString())
+        Path dir = TestBench.home().resolve("src/main/java/org/lrbench/transport");
+        try (var files = Files.list(dir)) {
+            for (Path f : files.filter(x -> x.toString().endsWith(".java")).toList()) {
+                assertThat(Files.readString(f)).as(f.toString())
                         .doesNotContainPattern("org\\.lrbench\\.transport\\.(tcp|serial|usbtmc|inproc)");
             }
         }
     }
 
     @Test
-    void aMalformedAddressInABenchFileIsAPositionedProblem(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+    void aMalformedAddressInABenchFileIsAPositionedProblem(@TempDir Path dir)
             throws Exception {
-        java.nio.file.Path bench = dir.resolve("bench.yaml");
-        String text = java.nio.file.Files.readString(org.lrbench.TestBench.home().resolve("simulator/bench.yaml"));
-        java.nio.file.Files.writeString(bench, text.replaceFirst("address: sim://digitizer", "address: tcp://127.0.0.1:99999"));
-        assertThatThrownBy(() -> org.lrbench.bench.BenchLoader.load(bench))
-                .isInstanceOf(org.lrbench.yaml.ProblemsException.class)
+        Path bench = dir.resolve("bench.yaml");
+        String text = Files.readString(TestBench.home().resolve("simulator/bench.yaml"));
+        Files.writeString(bench, text.replaceFirst("address: sim://digitizer", "address: tcp://127.0.0.1:99999"));
+        assertThatThrownBy(() -> BenchLoader.load(bench))
+                .isInstanceOf(ProblemsException.class)
                 .hasMessageContaining("address: instrument address 'tcp://127.0.0.1:99999': port '99999' is not 1 to 65535");
     }
 }

@@ -3,6 +3,7 @@ package org.lrbench.uncertainty;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
+import java.util.Arrays;
 import java.util.EnumSet;
 import java.util.List;
 import org.apache.commons.math3.complex.Complex;
@@ -42,7 +43,7 @@ class BudgetTests {
     }
 
     static List<ImpedancePoint> ideal(double l, double r, double... freqs) {
-        return java.util.Arrays.stream(freqs).mapToObj(f -> new ImpedancePoint(f, new Complex(r, 2 * Math.PI * f * l),
+        return Arrays.stream(freqs).mapToObj(f -> new ImpedancePoint(f, new Complex(r, 2 * Math.PI * f * l),
                 1e-9, Complex.ONE)).toList();
     }
 

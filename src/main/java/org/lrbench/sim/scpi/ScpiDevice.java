@@ -4,6 +4,7 @@ import java.io.ByteArrayOutputStream;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Deque;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -120,7 +121,7 @@ public abstract class ScpiDevice implements InProcessPeer {
     /** Takes every reply byte not yet transmitted (servers push replies as soon as they exist). */
     public synchronized byte[] takeOutput() {
         byte[] out = outputPosition == 0 ? output
-                : java.util.Arrays.copyOfRange(output, outputPosition, output.length);
+                : Arrays.copyOfRange(output, outputPosition, output.length);
         output = new byte[0];
         outputPosition = 0;
         return out;

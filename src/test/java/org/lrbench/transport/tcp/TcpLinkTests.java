@@ -7,9 +7,11 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
+import org.lrbench.cli.Main;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.InstrumentException;
@@ -25,6 +27,7 @@ import org.lrbench.sim.PartFile;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.server.SimServer;
 import org.lrbench.transport.Address;
+import org.lrbench.transport.Transports;
 
 /** SCPI over real loopback sockets to the simulated bench served by {@link SimServer}. */
 class TcpLinkTests {
@@ -115,13 +118,13 @@ class TcpLinkTests {
     }
 
     @Test
-    void theRunCommandExitsThreeWhenTheDigitizerLinkDrops(@org.junit.jupiter.api.io.TempDir Path dir) throws Exception {
+    void theRunCommandExitsThreeWhenTheDigitizerLinkDrops(@TempDir Path dir) throws Exception {
         BenchConfig b = bench();
         Plan p = plan(b);
         SimBench sim = simBench(b, p);
         try (SimServer server = new SimServer(sim, 0);
              DroppingProxy proxy = new DroppingProxy(server.digitizerPort(), "TRACe:DATA?", 100)) {
-            int code = org.lrbench.cli.Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
+            int code = Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
                     "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
                     "--digitizer", "tcp://127.0.0.1:" + proxy.port(), "--runs", dir.toString(),
                     "--calibration", dir.resolve("none").toString());
@@ -132,7 +135,7 @@ class TcpLinkTests {
     }
 
     @Test
-    void aDigitizerThatRefusesTheLinkStillLeavesTheGeneratorOutputOff(@org.junit.jupiter.api.io.TempDir Path dir)
+    void aDigitizerThatRefusesTheLinkStillLeavesTheGeneratorOutputOff(@TempDir Path dir)
             throws Exception {
         BenchConfig b = bench();
         SimBench sim = simBench(b, plan(b));
@@ -142,7 +145,7 @@ class TcpLinkTests {
             // an output left on by an earlier crash
             s.write(":OUTPut1:STATe ON");
             assertThat(s.query(":OUTPut1:STATe?")).isEqualTo("1");
-            int code = org.lrbench.cli.Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
+            int code = Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
                     "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
                     "--digitizer", "tcp://127.0.0.1:1?connect_timeout_ms=500", "--runs", dir.toString(),
                     "--calibration", dir.resolve("none").toString());
@@ -163,7 +166,7 @@ class TcpLinkTests {
 
     @Test
     void nobodyListeningIsAClearError() {
-        assertThatThrownBy(() -> org.lrbench.transport.Transports.open(
+        assertThatThrownBy(() -> Transports.open(
                 Address.parse("tcp://127.0.0.1:1?connect_timeout_ms=500"), java.util.Map.of()))
                 .isInstanceOf(InstrumentException.class)
                 .hasMessageContaining("cannot open tcp://127.0.0.1:1");
