@@ -1,6 +1,8 @@
 package org.lrbench.run;
 
 import org.lrbench.instrument.Generator;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /**
  * Keeps the generator output off on every way out of a measurement: at the end, on an error, and
@@ -8,6 +10,7 @@ import org.lrbench.instrument.Generator;
  * try-with-resources around everything that may switch the output on.
  */
 public final class OutputGuard implements AutoCloseable {
+    private static final Logger LOG = LoggerFactory.getLogger(OutputGuard.class);
     private final Generator generator;
     private final Thread hook;
     private String failure;
@@ -26,7 +29,8 @@ public final class OutputGuard implements AutoCloseable {
         } catch (RuntimeException e) {
             failure = "could not switch the generator output off: " + e.getMessage()
                     + " -- switch it off at the instrument";
-            System.err.println("WARNING: " + failure);
+            // the shutdown hook has no caller to tell: the log (on stderr by default) does
+            LOG.error(failure);
         }
     }
 

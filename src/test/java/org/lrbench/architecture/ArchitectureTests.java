@@ -59,5 +59,11 @@ class ArchitectureTests {
                     + " belongs to real fixtures (package fixture)");
 
     @ArchTest
+    static final ArchRule onlyTheCommandLineWritesToTheConsole = noClasses().that()
+            .resideOutsideOfPackages("org.lrbench.cli..", "org.lrbench.benchmark..")
+            .should().accessField(System.class, "out").orShould().accessField(System.class, "err")
+            .because("below the command line, output goes to listeners, sinks, a given stream or the log");
+
+    @ArchTest
     static final ArchRule noPackageCycles = slices().matching("org.lrbench.(*)..").should().beFreeOfCycles();
 }
