@@ -28,6 +28,11 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
                 switchUnit, meter, simulation, accuracy);
     }
 
+    /** The same bench with its simulation's seed moved by {@code offset} (its own noise per measurement). */
+    public BenchConfig withSeedOffset(long offset) {
+        return withSimulation(simulation().withSeed(simulation().seed() + offset));
+    }
+
     public BenchConfig withSimulation(SimSettings settings) {
         return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, switchUnit, meter, settings, accuracy);
     }

@@ -1,5 +1,6 @@
 package org.lrbench.cli;
 
+import org.lrbench.bench.SimulatedPart;
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.InputStreamReader;
@@ -189,7 +190,7 @@ final class RunCommand implements Callable<Integer> {
     static LotRunner.Outcome runTray(LotRunner.Setup setup, BenchConfig b, SimLot tray,
                                      Consumer<PartResult> onPart) throws Exception {
         if (b.switchUnit() == null) {
-            return LotRunner.run(setup, new TrayFeeder(tray.parts()), onPart);
+            return LotRunner.run(setup, new TrayFeeder(SimulatedPart.tray(tray.parts())), onPart);
         }
         SimBench bench = new SimBench(b.simulation(), setup.template().plan().wiring(),
                 tray.parts().stream().map(SimLot.Part::model).toList());

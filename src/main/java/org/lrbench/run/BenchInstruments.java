@@ -19,11 +19,11 @@ import org.lrbench.instrument.InstrumentException;
 import org.lrbench.instrument.Multimeter;
 import org.lrbench.instrument.Switch;
 import org.lrbench.scpi.ScpiSession;
-import org.lrbench.sim.SimBench;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.Transport;
 import org.lrbench.transport.Transports;
 import org.lrbench.transport.inproc.InProcessPeer;
+import org.lrbench.transport.inproc.PeerSet;
 import org.lrbench.yaml.ProblemsException;
 
 /** A bench's generator and digitizer, opened through their drivers and links; closes both links. */
@@ -60,7 +60,7 @@ public final class BenchInstruments implements AutoCloseable {
      * Opens the bench's instruments. With a simulated bench, both links go to its in-process
      * instruments whatever the bench file's addresses say.
      */
-    public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, SimBench simulated)
+    public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, PeerSet simulated)
             throws ProblemsException {
         return open(bench, drivers, simulated, false);
     }
@@ -69,13 +69,11 @@ public final class BenchInstruments implements AutoCloseable {
      * Opens the generator, the digitizer and, when {@code withSwitch} and the bench has one, the
      * switch unit of a multi-position fixture (a one-part measurement leaves the switch alone).
      */
-    public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, SimBench simulated, boolean withSwitch)
+    public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, PeerSet simulated, boolean withSwitch)
             throws ProblemsException {
         DriverFile sourceDriver = drivers.load(bench.generator().driver(), DriverKind.SOURCE);
         DriverFile digitizerDriver = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER);
-        Map<String, InProcessPeer> peers = simulated == null ? Map.of()
-                : Map.of("generator", simulated.generator(), "digitizer", simulated.digitizer(),
-                        "switch", simulated.switchUnit(), "meter", simulated.meter());
+        Map<String, InProcessPeer> peers = simulated == null ? Map.of() : simulated.peers();
         // safety first: the generator is reached and its output switched off before anything else,
         // so an output left on by an earlier crash does not stay on when another instrument fails
         ScpiSession g;

@@ -29,7 +29,7 @@ import org.lrbench.results.LotTerms;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.sampling.LotDisposition;
-import org.lrbench.sim.SimBench;
+import org.lrbench.transport.inproc.PeerSet;
 import org.lrbench.yaml.ProblemsException;
 
 /**
@@ -253,12 +253,12 @@ public final class LotRunner {
     private static Measured measure(Setup s, PartFeeder.Next next, int attempt) throws ProblemsException {
         PartRun.Request t = s.template();
         BenchConfig bench = t.bench();
-        SimBench sim = null;
+        PeerSet sim = null;
         if (next.simulated() != null) {
             // each simulated measurement gets its own noise, the same however often the lot is resumed
             long offset = Math.floorMod(31L * next.serial().hashCode() + attempt, 1_000_003L);
-            bench = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + offset));
-            sim = new SimBench(bench.simulation(), t.plan().wiring(), next.simulated());
+            bench = bench.withSeedOffset(offset);
+            sim = next.simulated().open(bench, t.plan().wiring());
         }
         PartRun.Request request = new PartRun.Request(t.plan(), t.planSha256(), bench, t.lot(), next.serial(),
                 t.simulated(), t.programVersion(), t.calibration());

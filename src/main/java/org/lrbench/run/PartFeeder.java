@@ -1,7 +1,7 @@
 package org.lrbench.run;
 
 import java.util.Set;
-import org.lrbench.sim.PartModel;
+import org.lrbench.bench.SimulatedPart;
 
 /**
  * Brings the next part of a lot's sample to the fixture: an operator at the console or at the
@@ -21,13 +21,13 @@ public interface PartFeeder {
      * What to do next: measure a part (its serial, on the simulated bench its model, and the reason
      * when it was measured before), skip a position, or stop.
      */
-    record Next(Action action, String serial, PartModel simulated, String reason) {
+    record Next(Action action, String serial, SimulatedPart simulated, String reason) {
 
         public static Next stop() {
             return new Next(Action.STOP, null, null, null);
         }
 
-        public static Next measure(String serial, PartModel simulated) {
+        public static Next measure(String serial, SimulatedPart simulated) {
             return new Next(Action.MEASURE, serial, simulated, null);
         }
 

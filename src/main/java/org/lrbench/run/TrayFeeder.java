@@ -1,14 +1,14 @@
 package org.lrbench.run;
 
 import java.util.List;
-import org.lrbench.sim.SimLot;
+import org.lrbench.bench.SimulatedPart;
 
 /** A tray of simulated parts measured in order, unattended, passing over serials already measured. */
 public final class TrayFeeder implements PartFeeder {
-    private final List<SimLot.Part> tray;
+    private final List<SimulatedPart.Slot> tray;
     private int next;
 
-    public TrayFeeder(List<SimLot.Part> tray) {
+    public TrayFeeder(List<SimulatedPart.Slot> tray) {
         this.tray = tray;
     }
 
@@ -20,7 +20,7 @@ public final class TrayFeeder implements PartFeeder {
         if (next >= tray.size()) {
             return Next.stop();
         }
-        SimLot.Part p = tray.get(next++);
-        return Next.measure(p.serial(), p.model());
+        SimulatedPart.Slot p = tray.get(next++);
+        return Next.measure(p.serial(), p.part());
     }
 }

@@ -1,5 +1,6 @@
 package org.lrbench.service;
 
+import org.lrbench.bench.SimulatedPart;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import org.lrbench.results.Names;
@@ -106,8 +107,8 @@ final class PromptFeeder implements PartFeeder {
         if ("skip".equals(a.action())) {
             return Next.skip(a.serial() == null ? "skipped-" + prompt.index() : a.serial());
         }
-        var model = tray == null ? null : tray.parts().stream().filter(p -> p.serial().equals(a.serial()))
-                .findFirst().orElseThrow().model();
+        SimulatedPart model = tray == null ? null : SimulatedPart.of(tray.parts().stream()
+                .filter(p -> p.serial().equals(a.serial())).findFirst().orElseThrow().model());
         return new Next(Action.MEASURE, a.serial(), model, "again".equals(a.action()) ? a.reason() : null);
     }
 

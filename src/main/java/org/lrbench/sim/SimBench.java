@@ -2,9 +2,12 @@ package org.lrbench.sim;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.fixture.FixturePosition;
 import org.lrbench.fixture.FixtureWiring;
+import org.lrbench.transport.inproc.InProcessPeer;
+import org.lrbench.transport.inproc.PeerSet;
 import org.lrbench.instrument.Waveform;
 
 /**
@@ -13,7 +16,7 @@ import org.lrbench.instrument.Waveform;
  * across the sense resistor and channel 2 across the fixture's part terminals (differential inputs),
  * channel 2 with its own gain error and delay. The instruments are reached over SCPI like real ones.
  */
-public final class SimBench implements AnalogInputs {
+public final class SimBench implements AnalogInputs, PeerSet {
     private final SimGenerator generator;
     private final SimDigitizer digitizer;
     private final Circuit circuit;
@@ -103,6 +106,11 @@ public final class SimBench implements AnalogInputs {
                 yield leads.add(stray.abs() == 0 ? part : part.reciprocal().add(stray).reciprocal());
             }
         };
+    }
+
+    @Override
+    public Map<String, InProcessPeer> peers() {
+        return Map.of("generator", generator, "digitizer", digitizer, "switch", switchUnit(), "meter", meter());
     }
 
     public SimGenerator generator() {

@@ -37,8 +37,9 @@ class ArchitectureTests {
     @ArchTest
     static final ArchRule runnerKnowsSinksNotTheStoreOrConsole = noClasses().that().resideInAPackage("org.lrbench.run..")
             .should().dependOnClassesThat().resideInAnyPackage("org.lrbench.store..", "org.lrbench.cli..",
-                    "org.lrbench.service..", "org.lrbench.records..")
-            .because("the runner reports to listeners and a ledger; the store and the console sit behind them");
+                    "org.lrbench.service..", "org.lrbench.records..", "org.lrbench.sim..")
+            .because("the runner reports to listeners and a ledger (the store and the console sit behind them),"
+                    + " and measures simulated parts through bench.SimulatedPart without building the simulator");
 
     @ArchTest
     static final ArchRule nothingBelowTheCliReachesIt = noClasses().that().resideOutsideOfPackage("org.lrbench.cli..")

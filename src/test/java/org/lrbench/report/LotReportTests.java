@@ -1,5 +1,6 @@
 package org.lrbench.report;
 
+import org.lrbench.bench.SimulatedPart;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
@@ -36,7 +37,7 @@ class LotReportTests {
     void theReportParsesCarriesEveryPlotAndMatchesTheStore(@TempDir Path dir) throws Exception {
         SimLot tray = SimLot.load(TestBench.home().resolve("simulator/demo-lot.yaml"));
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
-            LotRunner.run(LotRunTests.setup(store, dir), new TrayFeeder(tray.parts()), r -> { });
+            LotRunner.run(LotRunTests.setup(store, dir), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
             Document d = Jsoup.parse(LotReport.html(store, "LOT-1"));
             assertThat(d.title()).isEqualTo("Lot LOT-1");
             assertThat(d.text()).contains("REJECT");

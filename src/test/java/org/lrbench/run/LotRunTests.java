@@ -1,5 +1,6 @@
 package org.lrbench.run;
 
+import org.lrbench.bench.SimulatedPart;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
@@ -86,19 +87,19 @@ public class LotRunTests {
 
     static PartFeeder.Next part(SimLot tray, String serial, String reason) {
         var p = tray.parts().stream().filter(x -> x.serial().equals(serial)).findFirst().orElseThrow();
-        return new PartFeeder.Next(PartFeeder.Action.MEASURE, serial, p.model(), reason);
+        return new PartFeeder.Next(PartFeeder.Action.MEASURE, serial, SimulatedPart.of(p.model()), reason);
     }
 
     @Test
     void aStoppedLotResumesAfterItsLastCompletedPart(@TempDir Path dir) throws Exception {
         SimLot tray = tray();
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
-            LotRunner.Outcome first = LotRunner.run(setup(store, dir), stoppingAfter(new TrayFeeder(tray.parts()), 3),
+            LotRunner.Outcome first = LotRunner.run(setup(store, dir), stoppingAfter(new TrayFeeder(SimulatedPart.tray(tray.parts())), 3),
                     r -> { });
             assertThat(first.keptNow()).hasSize(3);
             assertThat(first.disposition().state()).isEqualTo(LotDisposition.State.OPEN);
             List<String> measuredAgain = new ArrayList<>();
-            LotRunner.Outcome second = LotRunner.run(setup(store, dir), new TrayFeeder(tray.parts()),
+            LotRunner.Outcome second = LotRunner.run(setup(store, dir), new TrayFeeder(SimulatedPart.tray(tray.parts())),
                     r -> measuredAgain.add(r.serial()));
             assertThat(measuredAgain).doesNotContain("HC0417-0001", "HC0417-0002", "HC0417-0003").hasSize(5);
             assertThat(second.counting()).extracting(Attempt::serial).doesNotHaveDuplicates().hasSize(8);
@@ -112,25 +113,25 @@ public class LotRunTests {
     void aLotIsHeldToItsTermsAndADecidedLotIsClosed(@TempDir Path dir) throws Exception {
         SimLot tray = tray();
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
-            LotRunner.run(setup(store, dir), stoppingAfter(new TrayFeeder(tray.parts()), 2), r -> { });
+            LotRunner.run(setup(store, dir), stoppingAfter(new TrayFeeder(SimulatedPart.tray(tray.parts())), 2), r -> { });
             // a half-measured lot resumed with a smaller lot size (n = 2, Ac 0 by ISO 2859-1) is refused
             assertThatThrownBy(() -> LotRunner.preflight(setup(store, dir, 5))).isInstanceOf(LotRunner.Refused.class)
                     .hasMessageContaining("lot size: stored 40, given 5");
-            assertThatThrownBy(() -> LotRunner.run(setup(store, dir, 5), new TrayFeeder(tray.parts()), r -> { }))
+            assertThatThrownBy(() -> LotRunner.run(setup(store, dir, 5), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { }))
                     .hasMessageContaining("lot size: stored 40, given 5");
-            LotRunner.Outcome done = LotRunner.run(setup(store, dir), new TrayFeeder(tray.parts()), r -> { });
+            LotRunner.Outcome done = LotRunner.run(setup(store, dir), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
             assertThat(done.disposition().state()).isEqualTo(LotDisposition.State.REJECT);
             // the same lot again, even with a lot size that would accept it: closed, nothing measured
             List<String> measured = new ArrayList<>();
             assertThat(LotRunner.preflight(setup(store, dir, 5)).disposition()).isEqualTo("reject");
-            LotRunner.Outcome again = LotRunner.run(setup(store, dir, 5), new TrayFeeder(tray.parts()), r -> measured.add(r.serial()));
+            LotRunner.Outcome again = LotRunner.run(setup(store, dir, 5), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> measured.add(r.serial()));
             assertThat(again.closed()).isTrue();
             assertThat(measured).isEmpty();
             assertThat(store.lots()).hasSize(1);
             assertThat(store.lots().get(0).disposition()).isEqualTo("reject");
             // a re-inspection is an explicit act with a reason: a new inspection, the first one kept
             LotRunner.Outcome second = LotRunner.run(setup(store, dir).reinspecting("supplier sorted the lot"),
-                    new TrayFeeder(tray.parts()), r -> measured.add(r.serial()));
+                    new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> measured.add(r.serial()));
             assertThat(second.inspection().round()).isEqualTo(2);
             assertThat(measured).hasSize(8);
             assertThat(store.lots()).extracting(l -> l.round() + " " + l.disposition())
@@ -180,7 +181,7 @@ public class LotRunTests {
                 }
             };
             LotRunner.Outcome o = LotRunner.run(setup(store, dir).withStop(stop).withListener(signal),
-                    new TrayFeeder(tray.parts()), r -> shown.add(r.serial()));
+                    new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> shown.add(r.serial()));
             assertThat(o.stopped()).isTrue();
             assertThat(shown).containsExactly("HC0417-0001", "HC0417-0002");
             assertThat(store.attempts("LOT-1")).extracting(Attempt::serial).containsExactly("HC0417-0001", "HC0417-0002");
@@ -220,7 +221,7 @@ public class LotRunTests {
             store.parts("LOT-1").forEach(a -> before.add(a.serial()));
             assertThat(before).isNotEmpty();
             List<String> now = new ArrayList<>();
-            LotRunner.Outcome o = LotRunner.run(setup(store, dir.resolve("runs")), new TrayFeeder(tray().parts()),
+            LotRunner.Outcome o = LotRunner.run(setup(store, dir.resolve("runs")), new TrayFeeder(SimulatedPart.tray(tray().parts())),
                     r -> now.add(r.serial()));
             assertThat(now).doesNotContainAnyElementsOf(before);
             assertThat(o.counting()).extracting(Attempt::serial).doesNotHaveDuplicates().hasSize(8);
