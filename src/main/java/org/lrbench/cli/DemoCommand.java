@@ -29,6 +29,9 @@ import picocli.CommandLine.Option;
 final class DemoCommand implements Callable<Integer> {
 
     @Mixin
+    StoreLocation location;
+
+    @Mixin
     BenchOptions benchOptions;
 
     @Mixin
@@ -39,10 +42,6 @@ final class DemoCommand implements Callable<Integer> {
 
     @Option(names = "--lot-file", paramLabel = "LOT.yaml", description = "simulated lot (default: simulator/demo-lot.yaml)")
     Path lotFile;
-
-    @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
-            description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
-    Path data;
 
     /** The demo lot's earlier result files and trace archives (only those: other files stay). */
     private static void removeDemoRecords(Path dir) throws IOException {
@@ -62,6 +61,11 @@ final class DemoCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         logging.apply();
+        if (location.url != null) {
+            // the demo removes its invented lot's earlier records before it starts: never on a shared store
+            throw new BadInputException("--store: the demo keeps its invented lot in a store of its own (--data DIR);"
+                    + " a shared store is for real lots (run, serve)");
+        }
         Path lotPath = lotFile != null ? lotFile : Home.demoLot();
         Inputs.requireFile(lotPath, "simulated lot");
         SimLot lot = SimLot.load(lotPath);
@@ -87,7 +91,7 @@ final class DemoCommand implements Callable<Integer> {
         System.out.println();
         ResultText.tableHeader(System.out, qAt);
         LotSummary summary;
-        try (ResultStore store = ResultStore.open(data.resolve("lrbench.db"))) {
+        try (ResultStore store = location.open()) {
             // the demo measures its invented lot afresh each time (a real lot resumes where it stopped
             // and its records are never removed): its earlier demo records go first, store and files
             store.deleteLot(lot.lot());
@@ -105,7 +109,7 @@ final class DemoCommand implements Callable<Integer> {
         ResultFiles.writeJson(summaryFile, summary);
         System.out.println();
         ResultText.summary(System.out, summary);
-        System.out.println("store: " + data.resolve("lrbench.db"));
+        System.out.println("store: " + (location.url != null ? location.url : location.file()));
         System.out.println("results: " + runsOption.runs.resolve(lot.lot()) + "/ (report.html opens in any browser, offline)");
         return ExitCodes.PASS;
     }

@@ -28,7 +28,7 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
         String html;
         try (ResultStore s = open()) {
             if (s.lot(lot).isEmpty()) {
-                throw new BadInputException("no lot " + lot + " in " + data.resolve("lrbench.db"));
+                throw new BadInputException("no lot " + lot + " in " + (location.url != null ? location.url : location.file()));
             }
             html = LotReport.html(s, lot);
             if (csv != null) {

@@ -54,6 +54,9 @@ import picocli.CommandLine.Parameters;
 final class RunCommand implements Callable<Integer> {
 
     @Mixin
+    StoreLocation location;
+
+    @Mixin
     BenchOptions benchOptions;
 
     @Mixin
@@ -106,14 +109,6 @@ final class RunCommand implements Callable<Integer> {
             description = "with --lot-size: open a new inspection of a lot already decided, for this reason;"
                     + " the earlier inspection stays in the store and the report")
     String reinspect;
-
-    @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
-            description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
-    Path data;
-
-    @Option(names = "--store", paramLabel = "URL",
-            description = "with --lot-size: a shared store instead of DIR/lrbench.db, jdbc:postgresql://HOST:PORT/DB?user=U")
-    String storeUrl;
 
     @Option(names = "--sim", paramLabel = "PART.yaml",
             description = "measure on the in-process simulated bench, with this simulated part under test")
@@ -214,11 +209,10 @@ final class RunCommand implements Callable<Integer> {
      * would take a record name the lot run needs, so it is refused.
      */
     private void refuseSampledLot() {
-        Path db = data.resolve("lrbench.db");
-        if (storeUrl == null && !Files.isRegularFile(db)) {
+        if (!location.exists()) {
             return;
         }
-        try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.openForReading(db)) {
+        try (ResultStore store = location.openForReading()) {
             if (store.latestInspection(lot).isPresent()) {
                 throw new BadInputException("lot " + lot + " is inspected by sampling in the results store: measure its"
                         + " parts with --lot-size (a part is measured again at its prompt), or give single parts"
@@ -311,7 +305,7 @@ final class RunCommand implements Callable<Integer> {
         LotStop stop = new LotStop();
         LotRunner.Outcome outcome;
         LotSummary summary;
-        try (ResultStore store = storeUrl != null ? ResultStore.openUrl(storeUrl) : ResultStore.open(data.resolve("lrbench.db"))) {
+        try (ResultStore store = location.open()) {
             StoreLedger ledger = new StoreLedger(store, runsOption.runs, keepTraces());
             LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, ledger).withOperator(operatorName())
                     .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL).withStop(stop);

@@ -23,6 +23,9 @@ import picocli.CommandLine.Option;
 final class ServeCommand implements Callable<Integer> {
 
     @Mixin
+    StoreLocation location;
+
+    @Mixin
     BenchOptions benchOptions;
 
     @Mixin
@@ -37,13 +40,6 @@ final class ServeCommand implements Callable<Integer> {
     @Option(names = "--listen", paramLabel = "ADDR", defaultValue = "127.0.0.1",
             description = "address to listen on (default: ${DEFAULT-VALUE})")
     String listen;
-
-    @Option(names = "--data", paramLabel = "DIR", defaultValue = "data", description = "results store folder (default: ${DEFAULT-VALUE})")
-    Path data;
-
-    @Option(names = "--store", paramLabel = "URL",
-            description = "a store shared by several benches, jdbc:postgresql://HOST:PORT/DB?user=U (instead of DIR/lrbench.db)")
-    String store;
 
     @picocli.CommandLine.Mixin
     LogOptions logging;
@@ -60,17 +56,17 @@ final class ServeCommand implements Callable<Integer> {
         } catch (UnknownHostException e) {
             throw new BadInputException("--listen '" + listen + "': not an address of this machine");
         }
-        String token = address.isLoopbackAddress() ? null : token(data);
+        String token = address.isLoopbackAddress() ? null : token(location.data);
         ServiceConfig cfg = new ServiceConfig(benchOptions.benchFile(), benchOptions.driverFolder(),
-                Home.root().resolve("plans"), Home.root().resolve("simulator"), data, runsOption.runs, calibrationOption.calibration, Home.version(),
-                store);
+                Home.root().resolve("plans"), Home.root().resolve("simulator"), location.data, runsOption.runs, calibrationOption.calibration, Home.version(),
+                location.url);
         CountDownLatch stop = new CountDownLatch(1);
         try (BenchService service = new BenchService(cfg); HttpApi api = new HttpApi(service, address, port, token)) {
             System.out.println("bench service for " + service.benchName() + " listening on http://"
                     + address.getHostAddress() + ":" + api.port() + "/");
             if (token != null) {
                 System.out.println("access token required in header " + HttpApi.TOKEN_HEADER + ": see "
-                        + data.resolve("service-token"));
+                        + location.data.resolve("service-token"));
             }
             System.out.flush();
             Runtime.getRuntime().addShutdownHook(new Thread(stop::countDown));

@@ -28,27 +28,15 @@ final class StoreCommands {
 
     /** Options every store query takes. */
     static class StoreOptions {
-        @Option(names = "--data", paramLabel = "DIR", defaultValue = "data",
-                description = "folder of the results store, DIR/lrbench.db (default: ${DEFAULT-VALUE})")
-        Path data;
-
-        @Option(names = "--store", paramLabel = "URL",
-                description = "a shared store instead of DIR/lrbench.db: jdbc:postgresql://HOST:PORT/DB?user=U&password=P")
-        String store;
+        @picocli.CommandLine.Mixin
+        StoreLocation location;
 
         @Option(names = "--csv", paramLabel = "FILE", description = "also write the rows to this CSV file")
         Path csv;
 
         ResultStore open() {
-            if (store != null) {
-                return ResultStore.openUrl(store);
-            }
-            Path db = data.resolve("lrbench.db");
-            if (!Files.isRegularFile(db)) {
-                throw new BadInputException("no results store at " + db + " (measure a lot first, or give --data)");
-            }
-            // queries only read: a store on read-only media, or a copy handed to an auditor, is read as it is
-            return ResultStore.openForReading(db);
+            // queries only read
+            return location.openForReading();
         }
 
         void print(List<String> header, List<List<String>> rows) throws IOException {
