@@ -4,15 +4,22 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.PropertyNamingStrategies;
 import java.io.IOException;
+import java.time.Duration;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.LumpedModel;
 import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.results.PartResult;
+import org.lrbench.sampling.InspectionLevel;
+import org.lrbench.sampling.SamplingPlan;
+import org.lrbench.sampling.SingleSampling;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
 import org.lrbench.results.Attempt;
@@ -50,14 +57,18 @@ public final class LotReport {
             }
         }
         StringBuilder h = new StringBuilder();
-        h.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>Lot ").append(esc(lot))
-                .append("</title><style>body{font-family:sans-serif;margin:2em;max-width:60em;color:#222}"
-                        + "table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #bbb;padding:.2em .6em;"
-                        + "text-align:left}th{background:#eee}.reject,.fail{color:#a00;font-weight:bold}"
-                        + ".accept,.pass{color:#060;font-weight:bold}img{max-width:100%}</style></head><body>\n");
-        h.append("<h1>Lot ").append(esc(lot)).append(" &mdash; ").append(esc(l.partNumber())).append("</h1>\n");
+        h.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>Inspection record, lot ")
+                .append(esc(lot)).append("</title><style>").append(CSS).append("</style></head><body>\n");
+        boolean simulated = parts.stream().anyMatch(PartResult::simulated);
+        if (simulated) {
+            h.append("<div class=\"banner\" id=\"simulated\">SIMULATED BENCH: parts of this lot were measured on the"
+                    + " simulated bench, not on instruments. These results show how the plan behaves; they are not"
+                    + " measurements of real parts.</div>\n");
+        }
+        h.append("<h1>Inspection record: lot ").append(esc(lot)).append(" &mdash; ").append(esc(l.partNumber()))
+                .append("</h1>\n");
         String disp = l.disposition() == null ? "open" : l.disposition();
-        h.append("<table>");
+        h.append("<table id=\"identity\">");
         row(h, "disposition", "<span class=\"" + esc(disp) + "\">" + esc(disp.toUpperCase(Locale.ROOT)) + "</span>"
                 + (l.dispositionReason() == null ? "" : " &mdash; " + esc(l.dispositionReason())));
         row(h, "lot size / sample", l.lotSize() + " / " + l.sampleSize());
@@ -67,15 +78,17 @@ public final class LotReport {
         row(h, "parts measured", l.measured() + " (" + l.passed() + " pass, " + l.failed() + " fail, " + l.errors()
                 + " error)" + (l.skipped() > 0 ? "; " + l.skipped() + " position(s) skipped, not measured" : ""));
         row(h, "attempts stored", l.attempts() + " (every measurement is kept; the latest attempt of a part counts)");
-        row(h, "operator", esc(String.valueOf(l.operator())));
+        row(h, "operators", esc(String.join(", ", operators(l, attempts))));
         row(h, "plan", esc(l.planPath()) + "<br>SHA-256 " + esc(l.planSha256()));
-        row(h, "bench", esc(l.bench()));
+        row(h, "bench", esc(l.bench()) + (simulated ? " (simulated)" : ""));
+        row(h, "program", esc(String.join(", ", distinct(parts.stream().map(PartResult::programVersion).toList()))));
+        row(h, "instruments", instruments(parts));
+        row(h, "calibration", calibration(parts, l.createdAt()));
         row(h, "started / finished", esc(l.createdAt()) + " / " + esc(l.finishedAt() == null ? "-" : l.finishedAt()));
         h.append("</table>\n");
+        sampling(h, l);
         limits(h, parts);
-        impedance(h, parts);
-        history(h, store.history(l.partNumber()), l.partNumber());
-        h.append("<h2>Parts</h2><table><tr><th>#</th><th>serial</th><th>verdict</th><th>L &plusmn; U (k = 2)</th>"
+        h.append("<h2>Parts</h2><table id=\"parts\"><tr><th>#</th><th>serial</th><th>verdict</th><th>L &plusmn; U (k = 2)</th>"
                 + "<th>R_dc &plusmn; U (k = 2)</th><th>reason</th></tr>");
         int i = 1;
         for (PartResult p : parts) {
@@ -87,11 +100,161 @@ public final class LotReport {
                     .append("</td></tr>");
         }
         h.append("</table>\n");
+        perPart(h, parts);
         attempts(h, inspections, attempts);
-        h.append("<p>Written by lrbench from the results store. Hash chain head SHA-256 ")
+        impedance(h, parts);
+        history(h, store.history(l.partNumber()), l.partNumber());
+        signOff(h, disp);
+        h.append("<p class=\"foot\">Written by lrbench from the results store. Hash chain head SHA-256 ")
                 .append(esc(String.valueOf(store.chainHead(lot)))).append("; check the records with lrbench verify.</p>")
                 .append("</body></html>\n");
         return h.toString();
+    }
+
+    /** Screen and print (A4 and letter alike: margins, no content cut, tables and charts kept whole). */
+    private static final String CSS = "body{font-family:sans-serif;margin:2em;max-width:60em;color:#222}"
+            + "table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #bbb;padding:.2em .6em;"
+            + "text-align:left;vertical-align:top}th{background:#eee}"
+            + ".reject,.fail,.error{color:#7b2d8e;font-weight:bold}.accept,.pass{color:#1b4f8c;font-weight:bold}"
+            + ".banner{border:3px solid #d97a00;background:#fff3e0;padding:.6em;font-weight:bold;margin-bottom:1em}"
+            + ".warn{color:#8a5a00}img{max-width:100%}.signoff td{height:2.4em;min-width:14em}.foot{color:#555;font-size:90%}"
+            + "@page{margin:15mm}"
+            + "@media print{body{margin:0;max-width:none;font-size:10pt}h2{break-after:avoid;page-break-after:avoid}"
+            + "table,img,.signoff{break-inside:avoid;page-break-inside:avoid}tr{break-inside:avoid}"
+            + "img{max-width:100%;height:auto}.banner{-webkit-print-color-adjust:exact;print-color-adjust:exact}}";
+
+    private static List<String> distinct(List<String> values) {
+        return values.stream().filter(v -> v != null && !v.isBlank()).distinct().toList();
+    }
+
+    private static List<String> operators(LotRecord l, List<Attempt> attempts) {
+        List<String> all = new ArrayList<>();
+        all.add(l.operator());
+        attempts.stream().filter(a -> a.round() == l.round()).forEach(a -> all.add(a.operator()));
+        return distinct(all);
+    }
+
+    /** Each instrument's identity as it answered *IDN?, by role, over the lot's parts. */
+    private static String instruments(List<PartResult> parts) {
+        Map<String, List<String>> byRole = new LinkedHashMap<>();
+        for (PartResult p : parts) {
+            if (p.instruments() != null) {
+                p.instruments().forEach((role, idn) -> byRole.computeIfAbsent(role, k -> new ArrayList<>()).add(idn));
+            }
+        }
+        if (byRole.isEmpty()) {
+            return "-";
+        }
+        StringBuilder b = new StringBuilder();
+        byRole.forEach((role, ids) -> b.append(esc(role)).append(": ").append(esc(String.join(" / ", distinct(ids))))
+                .append("<br>"));
+        return b.toString();
+    }
+
+    /** When the corrections in force were measured, and how old they were when the lot started. */
+    private static String calibration(List<PartResult> parts, String lotStarted) {
+        List<String> match = distinct(parts.stream().map(p -> p.corrections() == null ? null
+                : p.corrections().channelMatchMeasuredAt()).toList());
+        List<String> fixture = distinct(parts.stream().map(p -> p.corrections() == null ? null
+                : p.corrections().fixtureMeasuredAt()).toList());
+        if (match.isEmpty() && fixture.isEmpty()) {
+            return "<span class=\"warn\">no corrections in force (no channel match, no fixture compensation)</span>";
+        }
+        return "channel match " + dated(match, lotStarted) + "<br>fixture short/open " + dated(fixture, lotStarted);
+    }
+
+    private static String dated(List<String> when, String lotStarted) {
+        if (when.isEmpty()) {
+            return "<span class=\"warn\">none</span>";
+        }
+        List<String> out = new ArrayList<>();
+        for (String w : when) {
+            String age = "";
+            try {
+                Duration d = Duration.between(Instant.parse(w), Instant.parse(lotStarted));
+                age = d.isNegative() ? " (after the lot started)" : String.format(Locale.ROOT, " (%s before the lot started)",
+                        d.toHours() >= 48 ? d.toDays() + " days" : d.toHours() >= 1 ? d.toHours() + " h" : d.toMinutes() + " min");
+            } catch (RuntimeException e) {
+                age = "";
+            }
+            out.add(esc(w) + age);
+        }
+        return String.join(", ", out);
+    }
+
+    /**
+     * The sampling the lot was inspected under: level and AQL per class from the stored terms,
+     * each class's code letter, sample size and Ac/Re from ISO 2859-1 (normal inspection,
+     * single sampling: lrbench does not switch severity yet).
+     */
+    private static void sampling(StringBuilder h, LotRecord l) {
+        h.append("<h2>Sampling</h2>\n");
+        if (l.sampling() == null || l.lotSize() == null) {
+            h.append("<p>No sampling plan: parts measured one by one.</p>\n");
+            return;
+        }
+        h.append("<p>").append(esc(l.sampling())).append("; ISO 2859-1, single sampling, normal inspection.</p>\n");
+        Matcher level = Pattern.compile("level (\\S+);").matcher(l.sampling());
+        Matcher aqls = Pattern.compile("(\\w+) ([0-9.]+)").matcher(l.sampling().replaceFirst(".*AQL ", ""));
+        if (!level.find()) {
+            return;
+        }
+        InspectionLevel lv;
+        try {
+            lv = InspectionLevel.valueOf(level.group(1));
+        } catch (IllegalArgumentException e) {
+            return;
+        }
+        h.append("<table id=\"sampling\"><tr><th>class</th><th>AQL</th><th>code letter</th><th>n</th><th>Ac</th><th>Re</th>"
+                + "<th>severity</th></tr>");
+        while (aqls.find()) {
+            SamplingPlan sp = SingleSampling.plan(l.lotSize(), lv, Double.parseDouble(aqls.group(2)));
+            h.append("<tr><td>").append(esc(aqls.group(1))).append("</td><td>").append(esc(aqls.group(2))).append("</td><td>")
+                    .append(sp.codeLetter()).append(sp.planLetter() != sp.codeLetter() ? " &rarr; " + sp.planLetter() : "")
+                    .append("</td><td>").append(sp.sampleSize()).append("</td><td>").append(sp.acceptance())
+                    .append("</td><td>").append(sp.rejection()).append("</td><td>normal</td></tr>");
+        }
+        h.append("</table>\n");
+    }
+
+    /** Per part and limit: value +/- U, the decision rule, the zone, the margin; then the part's warnings. */
+    private static void perPart(StringBuilder h, List<PartResult> parts) {
+        h.append("<h2>Limits per part</h2>\n<table id=\"limits\"><tr><th>serial</th><th>limit</th><th>value &plusmn; U (k = 2)</th>"
+                + "<th>specification</th><th>decision rule</th><th>zone</th><th>margin</th><th>result</th></tr>");
+        for (PartResult p : parts) {
+            for (PartResult.LimitRecord r : p.limits()) {
+                Dimension d = dimensionOf(r.characteristic());
+                h.append("<tr><td>").append(esc(p.serial())).append("</td><td>").append(esc(r.name())).append("</td>")
+                        .append(withU(r.value(), r.expandedUncertainty(), d)).append("<td>").append(esc(r.spec()))
+                        .append("</td><td>").append(esc(r.decisionRule())).append("</td><td>").append(esc(r.zone()))
+                        .append("</td><td>").append(si(r.margin(), d)).append("</td><td class=\"")
+                        .append(r.pass() ? "pass\">pass" : "fail\">fail").append("</td></tr>");
+            }
+        }
+        h.append("</table>\n");
+        boolean any = false;
+        for (PartResult p : parts) {
+            if (p.warnings() != null && !p.warnings().isEmpty()) {
+                if (!any) {
+                    h.append("<h3>Warnings</h3><ul id=\"warnings\">");
+                    any = true;
+                }
+                for (String w : p.warnings()) {
+                    h.append("<li class=\"warn\">").append(esc(p.serial())).append(": ").append(esc(w)).append("</li>");
+                }
+            }
+        }
+        if (any) {
+            h.append("</ul>\n");
+        }
+    }
+
+    /** Where the people who stand behind the record sign. */
+    private static void signOff(StringBuilder h, String disposition) {
+        h.append("<h2>Sign-off</h2>\n<table class=\"signoff\" id=\"signoff\"><tr><th>disposition</th><td>")
+                .append(esc(disposition.toUpperCase(Locale.ROOT))).append("</td></tr>"
+                        + "<tr><th>inspected by</th><td></td></tr><tr><th>approved by</th><td></td></tr>"
+                        + "<tr><th>date</th><td></td></tr></table>\n");
     }
 
     /** Every inspection of the lot and every attempt of every part, with the one that counts marked. */
@@ -147,21 +310,30 @@ public final class LotReport {
             Capability c = Capability.of(v, lo, hi);
             h.append("<h3>").append(esc(e.getKey())).append("</h3><p>spec ").append(esc(first.spec()))
                     .append(", decision rule ").append(esc(first.decisionRule())).append("; n = ").append(c.n())
-                    .append(", mean ").append(fmt(c.mean())).append(", s ").append(fmt(c.sd())).append(", Cp ")
+                    .append(", mean ").append(si(c.mean(), dimensionOf(first.characteristic()))).append(", s ")
+                    .append(si(c.sd(), dimensionOf(first.characteristic()))).append(", Cp ")
                     .append(c.cp() == null ? "-" : String.format(Locale.ROOT, "%.2f", c.cp())).append(", Cpk ")
                     .append(c.cpk() == null ? "-" : String.format(Locale.ROOT, "%.2f", c.cpk())).append("</p>\n");
             double accLo = first.acceptanceLower() == null ? lo : first.acceptanceLower();
             double accHi = first.acceptanceUpper() == null ? hi : first.acceptanceUpper();
+            boolean[] pass = new boolean[rs.size()];
+            for (int k = 0; k < pass.length; k++) {
+                pass[k] = rs.get(k).pass();
+            }
+            Dimension d = dimensionOf(first.characteristic());
             h.append("<img alt=\"").append(esc(e.getKey())).append(" readings\" src=\"")
-                    .append(Charts.sample(e.getKey(), unitOf(first.characteristic()), v, lo, hi, accLo, accHi))
-                    .append("\">\n<p>Red: tolerance limits; orange dashed: acceptance limits where a guard band"
-                            + " moves them.</p>\n");
+                    .append(Charts.sample(e.getKey(), d, v, pass, lo, hi, accLo, accHi)).append("\">\n")
+                    .append("<img alt=\"").append(esc(e.getKey())).append(" histogram\" src=\"")
+                    .append(Charts.histogram(e.getKey() + ": distribution", d, v, lo, hi, accLo, accHi)).append("\">\n")
+                    .append("<p>Circles: pass; crosses: fail. Solid purple lines: tolerance limits; dashed orange:"
+                            + " acceptance limits where a guard band moves them.</p>\n");
         }
     }
 
     private static void impedance(StringBuilder h, List<PartResult> parts) throws IOException {
-        h.append("<h2>Impedance per part</h2>\n<p>Points as measured, before bench corrections; lines: the fitted"
-                + " model (after corrections).</p>\n");
+        h.append("<h2>Impedance per part</h2>\n<p>Points: each frequency after the bench's corrections (what the"
+                + " model was fitted to); lines: the fitted model. Records kept before corrected points were stored show"
+                + " the points as measured.</p>\n");
         for (PartResult p : parts) {
             if (p.points() == null || p.points().isEmpty() || p.model() == null) {
                 continue;
@@ -173,7 +345,9 @@ public final class LotReport {
             for (int i = 0; i < n; i++) {
                 var pt = p.points().get(i);
                 f[i] = pt.frequencyHz();
-                Complex z = new Complex(pt.resistanceOhm(), pt.reactanceOhm());
+                Complex z = pt.correctedResistanceOhm() != null && pt.correctedReactanceOhm() != null
+                        ? new Complex(pt.correctedResistanceOhm(), pt.correctedReactanceOhm())
+                        : new Complex(pt.resistanceOhm(), pt.reactanceOhm());
                 mag[i] = z.abs();
                 ph[i] = Math.toDegrees(z.getArgument());
             }
@@ -219,15 +393,16 @@ public final class LotReport {
                     .append(si(s.sdResistanceOhm(), Dimension.RESISTANCE)).append("</td></tr>");
         }
         h.append("</table>\n<img alt=\"inductance per lot\" src=\"")
-                .append(Charts.history(partNumber + ": inductance per lot", "H", names, mean, sd)).append("\">\n");
+                .append(Charts.history(partNumber + ": inductance per lot", Dimension.INDUCTANCE, names, mean, sd))
+                .append("\">\n");
     }
 
-    private static String unitOf(String characteristic) {
+    private static Dimension dimensionOf(String characteristic) {
         return switch (characteristic) {
-            case "inductance" -> "H";
-            case "series_resistance" -> "ohm";
-            case "self_resonance" -> "Hz";
-            default -> "";
+            case "inductance" -> Dimension.INDUCTANCE;
+            case "series_resistance" -> Dimension.RESISTANCE;
+            case "self_resonance" -> Dimension.FREQUENCY;
+            default -> Dimension.NONE;
         };
     }
 
@@ -237,7 +412,11 @@ public final class LotReport {
 
     /** A value with an SI prefix and its unit (the number every command prints), or "-". */
     private static String si(Double v, Dimension d) {
-        return v == null || !Double.isFinite(v) ? "-" : esc(Units.format(v, d));
+        if (v == null || !Double.isFinite(v)) {
+            return "-";
+        }
+        // a pure number (a quality factor) gets four significant figures, no prefix
+        return d == Dimension.NONE ? esc(String.format(Locale.ROOT, "%.4g", v)) : esc(Units.format(v, d));
     }
 
     /** A table cell "value +/- U" with the full-precision value kept in data-value for readers and tests. */

@@ -79,7 +79,8 @@ public record PartResult(String schema, String programVersion, String lot, Strin
     public record PointRecord(double frequencyHz, double resistanceOhm, double reactanceOhm, double inductanceH,
                               double qualityFactor, double impedanceUncertaintyOhm, double currentPeakA,
                               double currentThd, double senseRangeV, double partRangeV, double sampleIntervalS,
-                              int samples, int acquisitions) {
+                              int samples, int acquisitions, Double correctedResistanceOhm,
+                              Double correctedReactanceOhm) {
     }
 
     /** An uncertainty budget (JCGM 100:2008). */

@@ -64,10 +64,12 @@ final class ResultRecord {
         List<PartResult.PointRecord> pointRecords = new ArrayList<>();
         for (PointResult p : points) {
             ImpedancePoint z = p.impedance();
+            ImpedancePoint c = corrected(request, z);
             pointRecords.add(new PartResult.PointRecord(z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm(),
                     z.inductanceHenry(), z.qualityFactor(), z.componentUncertaintyOhm(), z.currentAmpere().abs(),
                     p.currentThd(), p.senseRangeVolt(), p.partRangeVolt(), p.sampleIntervalSecond(), p.samples(),
-                    p.acquisitions()));
+                    p.acquisitions(), c == null ? null : finite(c.resistanceOhm()),
+                    c == null ? null : finite(c.reactanceOhm())));
         }
         return new PartResult(PartResult.SCHEMA, request.programVersion(), request.lot(), request.serial(),
                 request.plan().partNumber(), request.plan().source(), request.planSha256(), request.bench().name(),
@@ -127,5 +129,17 @@ final class ResultRecord {
 
     static Double finite(double v) {
         return Double.isFinite(v) ? v : null;
+    }
+
+    /** The point after the bench's corrections (what the model was fitted to), or null where they do not apply. */
+    private static ImpedancePoint corrected(PartRun.Request request, ImpedancePoint z) {
+        if (request.calibration() == null || !Double.isFinite(z.resistanceOhm())) {
+            return null;
+        }
+        try {
+            return request.calibration().apply(z);
+        } catch (IllegalArgumentException e) {
+            return null; // the fixture compensation has no reading at this frequency
+        }
     }
 }

@@ -105,4 +105,22 @@ public final class Units {
         }
         return (digits + " " + prefixes[exp3 + 4] + unit).trim();
     }
+
+    /** As {@link #format}, without trailing zeros, for axis ticks: "200 Hz", "1 kHz", "2.5 mohm". */
+    public static String formatTick(double value, Dimension dimension) {
+        if (dimension == Dimension.NONE || value == 0 || !Double.isFinite(value)) {
+            // a pure number (a quality factor): no prefix
+            return String.format(Locale.ROOT, "%.4g", value).replaceAll("(\\.\\d*?)0+$", "$1").replaceAll("\\.$", "");
+        }
+        String f = format(value, dimension);
+        int space = f.indexOf(' ');
+        if (space < 0) {
+            return f;
+        }
+        String number = f.substring(0, space);
+        if (number.contains(".")) {
+            number = number.replaceAll("0+$", "").replaceAll("\\.$", "");
+        }
+        return number + f.substring(space);
+    }
 }

@@ -39,10 +39,10 @@ class LotReportTests {
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
             LotRunner.run(LotRunTests.setup(store, dir), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
             Document d = Jsoup.parse(LotReport.html(store, "LOT-1"));
-            assertThat(d.title()).isEqualTo("Lot LOT-1");
+            assertThat(d.title()).isEqualTo("Inspection record, lot LOT-1");
             assertThat(d.text()).contains("REJECT");
-            // 3 characteristics + 8 parts + the history: 12 plots, each a real PNG
-            assertThat(d.select("img")).hasSize(12);
+            // 3 characteristics with a run chart and a histogram each + 8 parts + the history: 15 plots
+            assertThat(d.select("img")).hasSize(15);
             for (Element img : d.select("img")) {
                 String src = img.attr("src");
                 assertThat(src).startsWith("data:image/png;base64,");
@@ -51,10 +51,40 @@ class LotReportTests {
                 assertThat(png[1]).isEqualTo((byte) 'P');
                 assertThat(png[2]).isEqualTo((byte) 'N');
             }
+            // the simulated bench is announced before anything else
+            assertThat(d.body().child(0).id()).isEqualTo("simulated");
+            assertThat(d.getElementById("simulated").text()).contains("SIMULATED BENCH");
+            // identity: program version, plan and its hash, bench, each instrument's *IDN?, calibration
+            // dates and age, operators, start and finish
+            Element identity = d.getElementById("identity");
+            for (String key : new String[] {"program", "plan", "bench", "instruments", "calibration", "operators",
+                "started / finished"}) {
+                assertThat(identity.select("th:containsOwn(" + key + ")")).as(key).hasSize(1);
+            }
+            assertThat(identity.text()).contains("SHA-256").contains("generator: ").contains("digitizer: ")
+                    .contains("tester")
+                    // this lot ran without corrections, and the record says so rather than leave it out
+                    .contains("no corrections in force");
+            // sampling per class: ISO 2859-1 Table I / II-A for lot size 40 at level II: letter D, n = 8;
+            // AQL 6.5 gives Ac 1, Re 2 (the standard's tables, as transcribed in sampling.SingleSamplingTests)
+            var sampling = d.select("#sampling tr");
+            assertThat(sampling).hasSizeGreaterThan(1);
+            assertThat(sampling.get(1).select("td").eachText()).containsExactly("major", "6.5", "D", "8", "1", "2", "normal");
+            // per part and limit: value +- U, decision rule, zone, margin
+            var limitRows = d.select("#limits tr");
+            assertThat(limitRows).hasSize(1 + 8 * 3);
+            assertThat(limitRows.get(1).select("td").get(2).text()).matches("[0-9.]+ [mu]H ± [0-9.]+ [mun]H");
+            assertThat(limitRows.get(1).select("td").get(4).text()).isEqualTo("simple");
+            assertThat(limitRows.get(1).select("td").get(5).text()).isIn("clear", "outside", "marginal");
+            // a place to sign
+            assertThat(d.getElementById("signoff").text()).contains("inspected by").contains("approved by")
+                    .contains("date").contains("REJECT");
+            // printable: a print style that keeps tables and charts whole
+            assertThat(d.select("style").html()).contains("@media print").contains("break-inside:avoid");
             // every attempt is listed, each with the one that counts marked
             assertThat(d.select("h2:contains(Attempts) + table tr")).hasSize(store.attempts("LOT-1").size() + 1);
             // the parts table matches the store row by row
-            var rows = d.select("h2:contains(Parts) + table tr");
+            var rows = d.select("#parts tr");
             var stored = store.parts("LOT-1");
             assertThat(rows).hasSize(stored.size() + 1);
             for (int i = 0; i < stored.size(); i++) {
@@ -66,6 +96,26 @@ class LotReportTests {
                 // shown with its prefix, unit and expanded uncertainty
                 assertThat(cells.get(3).text()).matches("[0-9.]+ [mu]H ± [0-9.]+ [mun]H");
             }
+        }
+    }
+
+    /** The record says when the corrections in force were measured and how old they were at the lot's start. */
+    @Test
+    void theRecordDatesTheCorrectionsInForce(@TempDir Path dir) throws Exception {
+        SimLot tray = SimLot.load(TestBench.home().resolve("simulator/demo-lot.yaml"));
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
+            LotRunner.Setup base = LotRunTests.setup(store, dir);
+            var t = base.template();
+            var match = new org.lrbench.calibration.ChannelMatch("2026-11-29T08:00:00Z", 1.0, 1e-4, 0, 1e-12, 11);
+            var withMatch = new org.lrbench.run.PartRun.Request(t.plan(), t.planSha256(), t.bench(), t.lot(), t.serial(),
+                    t.simulated(), t.programVersion(), new org.lrbench.calibration.Calibration(match, null));
+            LotRunner.Setup setup = new LotRunner.Setup(withMatch, base.lotSize(), base.operator(), null, base.drivers(),
+                    base.ledger(), base.sleeper(), base.listener(), null, base.stop());
+            LotRunner.run(setup, new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
+            Element identity = Jsoup.parse(LotReport.html(store, "LOT-1")).getElementById("identity");
+            // measured 2026-11-29, the lot started today: days before, and the fixture compensation missing
+            assertThat(identity.text()).containsPattern("channel match 2026-11-29T08:00:00Z \\(\\d+ days before the lot started\\)")
+                    .contains("fixture short/open none");
         }
     }
 }

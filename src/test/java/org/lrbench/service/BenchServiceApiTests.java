@@ -158,7 +158,7 @@ class BenchServiceApiTests {
                     .isEqualTo("reject");
             HttpResponse<String> report = call(port, "GET", "/api/lots/API-1/report", null, null);
             assertThat(report.statusCode()).isEqualTo(200);
-            assertThat(report.body()).contains("<h1>Lot API-1");
+            assertThat(report.body()).contains("<h1>Inspection record: lot API-1");
             assertThat(call(port, "GET", "/", null, null).body()).contains("STOP the lot");
         }
     }
