@@ -48,6 +48,11 @@ class OperatorPageBrowserTests {
                 browser.get("http://127.0.0.1:" + api.port() + "/");
                 WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
                 wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#plan option")));
+                // with no run, only the start form works
+                for (String id : new String[] {"stop", "skip", "serial", "again"}) {
+                    assertThat(browser.findElement(By.id(id)).isEnabled()).as(id).isFalse();
+                }
+                assertThat(browser.findElement(By.id("start")).isEnabled()).isTrue();
                 WebElement lot = browser.findElement(By.id("lot"));
                 lot.clear();
                 lot.sendKeys("PAGE-1");
@@ -59,7 +64,9 @@ class OperatorPageBrowserTests {
                     // focus stays in the serial field: typing and Enter is all a scanner does
                     WebElement active = browser.switchTo().activeElement();
                     assertThat(active.getAttribute("id")).isEqualTo("serial");
-                    active.sendKeys(String.format("HC0417-%04d", i), Keys.ENTER);
+                    assertThat(browser.findElement(By.id("stop")).isEnabled()).isTrue();
+                    // a scanner ends a scan with Enter or, set up otherwise, with Tab: both measure
+                    active.sendKeys(String.format("HC0417-%04d", i), i == 2 ? Keys.TAB : Keys.ENTER);
                     int rows = i + 1;
                     wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() >= rows);
                 }
@@ -69,6 +76,19 @@ class OperatorPageBrowserTests {
                 assertThat(browser.findElements(By.cssSelector("#parts td.fail"))).hasSize(3);
                 assertThat(browser.findElement(By.id("reportlink")).getText()).contains("PAGE-1");
                 assertThat(browser.findElements(By.cssSelector("#plot circle"))).isNotEmpty();
+                // the plot's axes say what they are: frequency in Hz, |Z| in ohm
+                assertThat(browser.findElement(By.id("plot")).getText()).contains("Hz").contains("ohm");
+                // the latest verdict in words (and colour), the last part of the demo tray passes
+                WebElement verdict = browser.findElement(By.id("verdict"));
+                assertThat(verdict.getText()).startsWith("HC0417-0008: PASS");
+                assertThat(verdict.getAttribute("class")).isEqualTo("pass");
+                // at 800 x 600 the prompt and the latest verdict are above the fold
+                browser.manage().window().setSize(new org.openqa.selenium.Dimension(800, 600));
+                for (String id : new String[] {"prompt", "verdict", "serial"}) {
+                    Object fits = browser.executeScript("const r = document.getElementById(arguments[0])"
+                            + ".getBoundingClientRect(); return r.bottom <= window.innerHeight && r.top >= 0;", id);
+                    assertThat(fits).as(id + " above the fold at 800x600").isEqualTo(Boolean.TRUE);
+                }
                 Files.createDirectories(Path.of("target"));
                 Files.write(Path.of("target", "operator-page.png"), browser.getScreenshotAs(OutputType.BYTES));
             } finally {
