@@ -35,11 +35,10 @@ final class ResultText {
             }
         }
         if (r.inductanceH() != null) {
-            out.printf("  %s: L = %s +/- %s, R_dc = %s +/- %s (expanded, k = 2)%n", r.model().name(),
-                    Units.format(r.inductanceH(), Dimension.INDUCTANCE),
-                    Units.format(r.inductanceExpandedUncertaintyH(), Dimension.INDUCTANCE),
-                    Units.format(r.seriesResistanceOhm(), Dimension.RESISTANCE),
-                    Units.format(r.seriesResistanceExpandedUncertaintyOhm(), Dimension.RESISTANCE));
+            // each value to the digits its expanded uncertainty supports
+            out.printf("  %s: L = %s, R_dc = %s (expanded, k = 2)%n", r.model().name(),
+                    withU(r.inductanceH(), r.inductanceExpandedUncertaintyH(), Dimension.INDUCTANCE),
+                    withU(r.seriesResistanceOhm(), r.seriesResistanceExpandedUncertaintyOhm(), Dimension.RESISTANCE));
             if (r.selfResonanceHz() != null) {
                 out.printf("  self-resonance %s%n", Units.format(r.selfResonanceHz(), Dimension.FREQUENCY));
             } else if (r.selfResonanceAboveHz() != null) {
@@ -123,6 +122,13 @@ final class ResultText {
                 p.codeLetter(), p.planLetter() != p.codeLetter() ? " -> " + p.planLetter() : "", p.sampleSize(),
                 p.acceptance(), p.rejection(), p.fullInspection() ? " (100 % inspection)" : "")));
         out.println(sb.append(' ').append(String.join("; ", parts)));
+    }
+
+    private static String withU(Double value, Double u, Dimension d) {
+        if (value == null) {
+            return "-";
+        }
+        return u == null ? Units.format(value, d) : Units.formatWithUncertainty(value, u, d).replace("\u00b1", "+/-");
     }
 
     static void problems(PrintWriter err, List<?> problems) {

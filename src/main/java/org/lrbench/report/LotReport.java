@@ -424,8 +424,8 @@ public final class LotReport {
         if (v == null || !Double.isFinite(v)) {
             return "<td>-</td>";
         }
-        return "<td data-value=\"" + v + "\">" + si(v, d) + (u == null || !Double.isFinite(u) ? "" : " &plusmn; " + si(u, d))
-                + "</td>";
+        return "<td data-value=\"" + v + "\">" + (u == null || !Double.isFinite(u) || !(u > 0) ? si(v, d)
+                : esc(Units.formatWithUncertainty(v, u, d))) + "</td>";
     }
 
     private static String fmt(Double v) {

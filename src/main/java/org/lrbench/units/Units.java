@@ -123,4 +123,32 @@ public final class Units {
         }
         return number + f.substring(space);
     }
+
+    /**
+     * A value and its expanded uncertainty in one SI prefix, U to two significant figures and the
+     * value to the same decimal place (JCGM 100:2008 7.2.6: U with at most two significant digits,
+     * the result rounded to match): "1.0120 mH +/- 0.0017 mH" as "1.0120 +/- 0.0017 mH".
+     */
+    public static String formatWithUncertainty(double value, double u, Dimension dimension) {
+        if (!Double.isFinite(value)) {
+            return format(value, dimension);
+        }
+        if (!(u > 0) || !Double.isFinite(u)) {
+            return format(value, dimension);
+        }
+        String[] prefixes = {"p", "n", "u", "m", "", "k", "M", "G"};
+        double ref = Math.abs(value) > 0 ? Math.abs(value) : u;
+        int exp3 = dimension == Dimension.NONE ? 0 : Math.max(-4, Math.min(3, (int) Math.floor(Math.log10(ref) / 3.0)));
+        double scale = Math.pow(10, exp3 * 3);
+        double v = value / scale;
+        double uu = u / scale;
+        // the decimal place of U's second significant figure
+        int place = (int) Math.floor(Math.log10(uu)) - 1;
+        int decimals = Math.max(0, -place);
+        double q = Math.pow(10, place);
+        double uRounded = Math.ceil(uu / q - 1e-9) * q; // an uncertainty is rounded up, never down
+        String unit = (dimension == Dimension.NONE ? "" : " " + prefixes[exp3 + 4] + dimension.symbol());
+        return String.format(Locale.ROOT, "%." + decimals + "f \u00b1 %." + decimals + "f", Math.rint(v / q) * q, uRounded)
+                + unit;
+    }
 }
