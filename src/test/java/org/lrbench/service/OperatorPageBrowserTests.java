@@ -8,6 +8,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import org.junit.jupiter.api.Test;
+import org.lrbench.store.ResultStore;
 import org.junit.jupiter.api.io.TempDir;
 import org.openqa.selenium.By;
 import org.openqa.selenium.Keys;
@@ -95,5 +96,86 @@ class OperatorPageBrowserTests {
                 browser.quit();
             }
         }
+    }
+
+    /**
+     * The paths off the happy one, in the browser: a start the simulated bench cannot run is
+     * refused on the page in its own terms; a part measured again needs its reason and is
+     * recorded as a second attempt; STOP ends the run between parts; starting the same lot again
+     * resumes it and the table shows the parts measured before the stop as well.
+     */
+    @Test
+    void refusalMeasureAgainStopAndResume(@TempDir Path dir) throws Exception {
+        Path chromium = Path.of("/usr/bin/chromium");
+        Path driverBinary = Path.of("/usr/bin/chromedriver");
+        assumeTrue(Files.isExecutable(chromium) && Files.isExecutable(driverBinary),
+                "chromium and chromium-driver are not installed (apt-get install chromium chromium-driver):"
+                        + " browser test skipped");
+        ChromeOptions options = new ChromeOptions();
+        options.setBinary(chromium.toString());
+        options.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+                "--disable-background-networking", "--disable-component-update", "--disable-sync",
+                "--disable-dev-shm-usage", "--user-data-dir=" + dir.resolve("profile"), "--window-size=1200,1600");
+        ChromeDriverService driverService = new ChromeDriverService.Builder()
+                .usingDriverExecutable(driverBinary.toFile()).usingAnyFreePort().build();
+        try (BenchService service = new BenchService(BenchServiceApiTests.config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            ChromeDriver browser = new ChromeDriver(driverService, options);
+            try {
+                browser.get("http://127.0.0.1:" + api.port() + "/");
+                WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
+                wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#plan option")));
+                WebElement lot = browser.findElement(By.id("lot"));
+                lot.clear();
+                lot.sendKeys("PAGE-2");
+                browser.findElement(By.id("operator")).sendKeys("Ruth");
+                // the simulated bench has no parts without a tray: refused before anything runs
+                browser.findElement(By.id("tray")).clear();
+                browser.findElement(By.id("start")).click();
+                wait.until(d -> !d.findElement(By.id("startmsg")).getText().isBlank());
+                assertThat(browser.findElement(By.id("startmsg")).getText()).contains("tray");
+                assertThat(browser.findElement(By.id("stop")).isEnabled()).isFalse();
+                browser.findElement(By.id("tray")).sendKeys("demo-lot.yaml");
+                browser.findElement(By.id("start")).click();
+                scan(browser, wait, 1, "HC0417-0001", null);
+                scan(browser, wait, 2, "HC0417-0002", null);
+                // at position 3, part 1 again: refused without a reason, measured with one
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "place part 3 of 8"));
+                browser.findElement(By.id("serial")).sendKeys("HC0417-0001", Keys.ENTER);
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("status"), "reason to measure again"));
+                // the prompt stays where it was
+                assertThat(browser.findElement(By.id("prompt")).getText()).contains("place part 3 of 8");
+                scan(browser, wait, 3, "HC0417-0001", "lead not seated");
+                // STOP between parts: the run ends, the parts so far are kept
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "place part"));
+                browser.findElement(By.id("stop")).click();
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "stopped"));
+                wait.until(d -> d.findElement(By.id("start")).isEnabled());
+                // the same lot again resumes it: the table shows what was measured before the stop
+                browser.findElement(By.id("start")).click();
+                wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() >= 3);
+                assertThat(browser.findElement(By.id("parts")).getText()).contains("HC0417-0001").contains("HC0417-0002");
+                assertThat(browser.findElement(By.id("status")).getText()).contains("already measured");
+            } finally {
+                browser.quit();
+            }
+        }
+        // the record: part 1 twice, the second attempt with its reason and the operator's name
+        try (ResultStore store = ResultStore.open(dir.resolve("data").resolve("lrbench.db"))) {
+            var attempts = store.attempts("PAGE-2").stream().filter(a -> a.serial().equals("HC0417-0001")).toList();
+            assertThat(attempts).hasSize(2);
+            assertThat(attempts.get(1).reason()).isEqualTo("lead not seated");
+            assertThat(attempts.get(1).operator()).isEqualTo("Ruth");
+        }
+    }
+
+    private static void scan(ChromeDriver browser, WebDriverWait wait, int position, String serial, String reason) {
+        wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "place part " + position + " of 8"));
+        if (reason != null) {
+            browser.findElement(By.id("again")).sendKeys(reason);
+        }
+        int before = browser.findElements(By.cssSelector("#parts tr")).size();
+        browser.findElement(By.id("serial")).sendKeys(serial, Keys.ENTER);
+        wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() > before);
     }
 }
