@@ -83,6 +83,12 @@ class OperatorPageBrowserTests {
                 WebElement verdict = browser.findElement(By.id("verdict"));
                 assertThat(verdict.getText()).startsWith("HC0417-0008: PASS");
                 assertThat(verdict.getAttribute("class")).isEqualTo("pass");
+                // an event the stream delivers again (a reconnect that replays) is ignored by its sequence number
+                int rowsBefore = browser.findElements(By.cssSelector("#parts tr")).size();
+                browser.executeScript("source.dispatchEvent(new MessageEvent('part_done', {data:"
+                        + " JSON.stringify({seq: 1, serial: 'REPLAYED', verdict: 'pass'})}));");
+                assertThat(browser.findElements(By.cssSelector("#parts tr"))).hasSize(rowsBefore);
+                assertThat(browser.findElement(By.id("parts")).getText()).doesNotContain("REPLAYED");
                 // at 800 x 600 the prompt and the latest verdict are above the fold
                 browser.manage().window().setSize(new org.openqa.selenium.Dimension(800, 600));
                 for (String id : new String[] {"prompt", "verdict", "serial"}) {
