@@ -37,14 +37,15 @@ class SineFitTests {
         assertThat(r.residualRms()).isLessThan(1e-6 * Math.max(1, a));
     }
 
-    @Test
-    void agreesWithCommonsMathOrdinaryLeastSquaresOnNoisyData() {
+    @ParameterizedTest(name = "f = {0} Hz at 48 kHz, {1} samples")
+    @CsvSource({"1234.5, 2345", "3.7, 20003", "23987.0, 4099", "12000.0, 1027", "16000.3, 513"})
+    void agreesWithCommonsMathOrdinaryLeastSquaresOnNoisyData(double f, int n) {
         // Reference: Apache Commons Math OLSMultipleLinearRegression (QR-based) solving the same
-        // design matrix [cos, sin, 1]; our normal-equation fit must give the same estimates.
+        // design matrix [cos, sin, 1]; our fit (closed-form design sums, Goertzel data sums) must
+        // give the same estimates: near DC (the design sums' direct path), near Nyquist, at a
+        // quarter of the sample rate, and with records whose length leaves a tail after the lanes.
         Random rnd = new Random(42);
-        int n = 2345;
         double dt = 1.0 / 48000;
-        double f = 1234.5;
         double[] y = new double[n];
         double[][] x = new double[n][2];
         for (int i = 0; i < n; i++) {
