@@ -4,6 +4,7 @@ import java.nio.file.Path;
 import org.lrbench.sim.SimDigitizer;
 import org.lrbench.sim.SimGenerator;
 import org.lrbench.sim.SimSettings;
+import org.lrbench.sim.SimTiming;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.AddressException;
 import org.lrbench.transport.Transports;
@@ -72,6 +73,13 @@ public final class BenchLoader {
                 ranges == null ? d.rangeGainMatch() : ranges, Double.POSITIVE_INFINITY);
     }
 
+    /** {@code simulation.timing}: how long the simulated instruments take (none, lan, usb, serial). */
+    private static SimTiming timing(YamlMap m) {
+        SimTiming t = m.has("timing") ? m.choice("timing", true, new java.util.TreeMap<>(java.util.Map.of("none", SimTiming.NONE,
+                "lan", SimTiming.LAN, "usb", SimTiming.USB, "serial", SimTiming.SERIAL))) : null;
+        return t == null ? SimTiming.NONE : t;
+    }
+
     private static Double relative(YamlMap m, String key) {
         var q = m.anyQuantity(key, false);
         if (q == null) {
@@ -108,7 +116,7 @@ public final class BenchLoader {
         SimSettings d = SimSettings.defaults();
         YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed",
                 "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
-                "meter_lead_resistance", "digitizer", "generator");
+                "meter_lead_resistance", "digitizer", "generator", "timing");
         if (m == null) {
             return d;
         }
@@ -154,6 +162,6 @@ public final class BenchLoader {
                 leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray,
                 meterLead == null ? 0.05 : meterLead,
                 personality == null ? SimDigitizer.Personality.GENERIC : personality,
-                generator == null ? SimGenerator.Personality.GENERIC : generator);
+                generator == null ? SimGenerator.Personality.GENERIC : generator, timing(m));
     }
 }

@@ -1,5 +1,6 @@
 package org.lrbench.cli;
 
+import java.util.List;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.benchmark.AccuracyBenchmark;
@@ -16,12 +17,13 @@ import picocli.CommandLine.Option;
 /** {@code lrbench benchmark links}: measured ratios, printed side by side. */
 @Command(name = "benchmark", mixinStandardHelpOptions = true, description = "Print measured speed figures and their ratios to a baseline.",
         subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class,
-            BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class, BenchmarkCommand.Coverage.class})
+            BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class, BenchmarkCommand.Coverage.class,
+            BenchmarkCommand.Throughput.class})
 final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage");
+        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage | throughput");
     }
 
     @Command(name = "fits", mixinStandardHelpOptions = true, description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
@@ -89,6 +91,32 @@ final class BenchmarkCommand implements Runnable {
             LinkBenchmark.run(System.out, bench, plan, Home.drivers(),
                     PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")), points, repeats);
             return ExitCodes.PASS;
+        }
+    }
+
+    @Command(name = "throughput", mixinStandardHelpOptions = true, description = {"Time per part of the demo plan on the"
+            + " simulated bench with instruments that take time,", "per timing profile, against the plan's physical minimum;"
+            + " round trips per point.", "Example: lrbench benchmark throughput --profiles lan,usb"})
+    static final class Throughput implements Callable<Integer> {
+        @Option(names = "--profiles", split = ",", defaultValue = "lan,usb", paramLabel = "NAME",
+                description = "timing profiles: none, lan, usb, serial (default: ${DEFAULT-VALUE})")
+        List<String> profiles;
+
+        @Override
+        public Integer call() throws Exception {
+            List<org.lrbench.sim.SimTiming> timings = new java.util.ArrayList<>();
+            for (String p : profiles) {
+                try {
+                    timings.add(org.lrbench.sim.SimTiming.named(p));
+                } catch (IllegalArgumentException e) {
+                    throw new BadInputException("--profiles: " + e.getMessage());
+                }
+            }
+            BenchConfig bench = Inputs.bench(Home.defaultBench());
+            Plan plan = Inputs.plan(Home.root().resolve("plans/qfd-ind-1m0.yaml"), bench);
+            int misses = org.lrbench.benchmark.ThroughputBenchmark.run(System.out, bench, plan, Home.drivers(),
+                    PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")), timings);
+            return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }
 

@@ -30,6 +30,11 @@ public enum TraceEncoding {
         this.integer = integer;
     }
 
+    /** Bytes per sample on the wire; for ASCII about 14 (a signed six-digit mantissa, exponent, separator). */
+    public int bytesOnWire() {
+        return bytesPerSample > 0 ? bytesPerSample : 14;
+    }
+
     public String key() {
         return key;
     }

@@ -57,6 +57,10 @@ public final class SimBench implements AnalogInputs, PeerSet {
         this.tray = List.copyOf(tray);
         this.generator = new SimGenerator(settings.sourceImpedanceOhm(), settings.generator());
         this.digitizer = new SimDigitizer(this, settings);
+        SimTiming t = settings.timing();
+        generator.setTiming(t.messageSecond(), t.bytesPerSecond());
+        generator.setFrequencyChangeSecond(t.frequencyChangeSecond());
+        digitizer.setTiming(t.messageSecond(), t.bytesPerSecond());
         this.switchUnit = new SimSwitch(Math.max(1, tray.size()));
         this.meter = new SimMultimeter(this::connectedPart, settings.meterLeadOhm());
     }

@@ -435,6 +435,8 @@ public final class SimDigitizer extends ScpiDevice {
     }
 
     private void acquire() {
+        // arming and trigger latency, then the record itself takes its time
+        SimTiming.pass(settings.timing().armSecond() + points * interval);
         double f = inputs.fundamentalHz();
         double bandLimit = 0.5 / interval;
         List<List<Harmonic>> lines = new ArrayList<>();

@@ -49,6 +49,21 @@ public final class SimGenerator extends ScpiDevice {
     private double loadOhm;
     private boolean outputOn;
 
+    private double frequencyChangeSecond;
+
+    /** How long the output takes to settle after a frequency change (0: at once). */
+    public void setFrequencyChangeSecond(double seconds) {
+        this.frequencyChangeSecond = seconds;
+    }
+
+    /** A new frequency; the command completes once the output has settled there. */
+    private void changeFrequency(double f) {
+        if (f != frequency) {
+            SimTiming.pass(frequencyChangeSecond);
+        }
+        frequency = f;
+    }
+
     public SimGenerator(double outputOhm) {
         this(outputOhm, Personality.GENERIC);
     }
@@ -79,7 +94,7 @@ public final class SimGenerator extends ScpiDevice {
         });
         register("WAVe:FREQuency", false, c -> {
             c.expect(1, 1);
-            frequency = c.number(0, 1e-3, MAX_FREQUENCY, 1e3);
+            changeFrequency(c.number(0, 1e-3, MAX_FREQUENCY, 1e3));
             return null;
         });
         register("WAVe:PEAK", false, c -> {
@@ -120,7 +135,7 @@ public final class SimGenerator extends ScpiDevice {
         });
         Handler setFrequency = c -> {
             c.expect(1, 1).suffixUpTo(1);
-            frequency = c.number(0, 1e-3, MAX_FREQUENCY, 1e3);
+            changeFrequency(c.number(0, 1e-3, MAX_FREQUENCY, 1e3));
             return null;
         };
         register("[SOURce#]:FREQuency[:CW]", false, setFrequency);

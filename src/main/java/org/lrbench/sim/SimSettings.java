@@ -7,12 +7,22 @@ package org.lrbench.sim;
  * channel 2's gain error (relative) and time skew against channel 1, and the fixture's parasitics:
  * lead resistance and inductance in series with the part, stray capacitance across it; and the
  * resistance of each multimeter test lead; and which simulated digitizer and generator (their personalities:
- * dialect, range set, scaling, resolution, levels) the bench has.
+ * dialect, range set, scaling, resolution, levels) the bench has, and how long its instruments take.
  */
 public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
                           double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
                           double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm,
-                          SimDigitizer.Personality digitizer, SimGenerator.Personality generator) {
+                          SimDigitizer.Personality digitizer, SimGenerator.Personality generator, SimTiming timing) {
+
+    /** Instruments that answer at once. */
+    public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
+                       double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
+                       double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm,
+                       SimDigitizer.Personality digitizer, SimGenerator.Personality generator) {
+        this(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError, channel2SkewSecond,
+                leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer, generator,
+                SimTiming.NONE);
+    }
 
     /** The generic digitizer. */
     public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
@@ -44,18 +54,27 @@ public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int re
     public SimSettings withSeed(long newSeed) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, newSeed, channel2GainError,
                 channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer,
-                generator);
+                generator, timing);
     }
 
     /** The same bench with another simulated digitizer personality. */
     public SimSettings withDigitizer(SimDigitizer.Personality p) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
-                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, p, generator);
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, p, generator,
+                timing);
     }
 
     /** The same bench with another simulated generator personality. */
     public SimSettings withGenerator(SimGenerator.Personality p) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
-                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer, p);
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer, p,
+                timing);
+    }
+
+    /** The same bench with instruments that take this long. */
+    public SimSettings withTiming(SimTiming t) {
+        return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer,
+                generator, t);
     }
 }

@@ -133,6 +133,31 @@ public abstract class ScpiDevice implements InProcessPeer {
         outputPosition = 0;
     }
 
+    private double messageSecond;
+    private double bytesPerSecond;
+
+    /**
+     * How long each program message takes to reach the device and be processed, and the link's
+     * rate for the message and its response (0: at once).
+     */
+    public synchronized void setTiming(double messageSecond, double bytesPerSecond) {
+        this.messageSecond = messageSecond;
+        this.bytesPerSecond = bytesPerSecond;
+    }
+
+    /** Sleeps the simulated time of one message of {@code bytes} in and out. */
+    private void take(long bytes) {
+        double seconds = messageSecond + (bytesPerSecond > 0 ? bytes / bytesPerSecond : 0);
+        if (seconds > 0) {
+            long nanos = (long) (seconds * 1e9);
+            try {
+                Thread.sleep(nanos / 1_000_000, (int) (nanos % 1_000_000));
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+        }
+    }
+
     /** Executes one whole program message. */
     public synchronized void execute(String message) {
         if (outputPosition < output.length) {
@@ -173,6 +198,7 @@ public abstract class ScpiDevice implements InProcessPeer {
             response.write('\n');
             output = response.toByteArray();
         }
+        take(message.length() + 1L + output.length);
     }
 
     private record Parsed(Handler handler, Call call, List<HeaderPattern.Token> tokens, boolean common) {
