@@ -17,7 +17,7 @@ public record DriverFile(String name, String source, DriverKind kind, String des
                          Map<String, Pattern> identity, Duration timeout, String errorQuery,
                          Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
                          TraceEncoding traceEncoding, DigitizerTraits digitizer, double levelPerEmf,
-                         InstrumentLimits limits) {
+                         InstrumentLimits limits, double frequencySettleSecond) {
 
     /** Whether the driver has a template for the operation (some are needed only for some traits). */
     public boolean has(String operation) {

@@ -52,7 +52,8 @@ public final class DriverLoader {
         YamlMap root = YamlFile.read(file, problems,
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
-                "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator");
+                "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator",
+                "frequency_settle");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -141,11 +142,18 @@ public final class DriverLoader {
                 root.problem("error_query", e.getMessage());
             }
         }
+        // a source's declared settling after a frequency change, from its datasheet (0 when not declared)
+        Double frequencySettle = root.quantity("frequency_settle", Dimension.TIME, false);
+        if (frequencySettle != null && (frequencySettle < 0 || frequencySettle > 10)) {
+            root.problem("frequency_settle", "must be 0 s to 10 s");
+        } else if (frequencySettle != null && kind != DriverKind.SOURCE) {
+            root.problem("frequency_settle", "only source drivers settle after a frequency change");
+        }
         problems.throwIfAny();
         Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
         return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
                 errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits,
-                levelPerEmf, limits);
+                levelPerEmf, limits, frequencySettle == null ? 0 : frequencySettle);
     }
 
     /**

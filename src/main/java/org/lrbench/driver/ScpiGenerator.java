@@ -15,6 +15,11 @@ public final class ScpiGenerator extends DrivenInstrument implements Generator {
     }
 
     @Override
+    public double frequencySettleSecond() {
+        return driver.frequencySettleSecond();
+    }
+
+    @Override
     public void prepare() {
         super.prepare();
         outputOff();

@@ -9,6 +9,11 @@ public interface Generator {
 
     Identity identity();
 
+    /** How long the output takes to settle after a frequency change, as the instrument declares (0: at once). */
+    default double frequencySettleSecond() {
+        return 0;
+    }
+
     /** Puts the instrument in a known state with its output off. */
     void prepare();
 

@@ -91,11 +91,13 @@ public final class SweepRunner {
                         ranger.expect(peaks[0], peaks[1]);
                     }
                 }
-                PointResult point = measurePoint(plan, f, ranger);
+                PointResult point = measurePoint(plan, f, ranger,
+                        points.isEmpty() ? null : points.get(points.size() - 1).impedance());
                 points.add(point);
                 listener.pointMeasured(i, count, point);
             }
-            TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null : triangle(plan);
+            TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
+                    : triangle(plan, points.get(points.size() - 1).impedance());
             return new Measurement(points, triangle);
         } finally {
             generator.outputOff();
@@ -103,13 +105,13 @@ public final class SweepRunner {
     }
 
     /** Drives the triangle, captures both channels and extracts R and L in the time domain. */
-    private TriangleExtraction.Result triangle(Plan plan) {
+    private TriangleExtraction.Result triangle(Plan plan, ImpedancePoint last) {
         TriangleCheck t = plan.triangle();
         generator.setWaveform(Waveform.TRIANGLE);
         generator.setAmplitude(t.amplitudeVolt());
         generator.setFrequency(t.frequencyHz());
         Timing timing = TimeBase.set(digitizer, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
-        sleeper.sleep(plan.sweep().settleSecond());
+        sleeper.sleep(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond()));
         double start = 2.2 * t.amplitudeVolt();
         AutoRanger.Capture capture = new AutoRanger(digitizer, start, start).acquire();
         double[][] v = volts(plan, capture);
@@ -142,11 +144,11 @@ public final class SweepRunner {
         return new double[][] {sense, part};
     }
 
-    private PointResult measurePoint(Plan plan, double f, AutoRanger ranger) {
+    private PointResult measurePoint(Plan plan, double f, AutoRanger ranger, ImpedancePoint previous) {
         SineSweep sweep = plan.sweep();
         generator.setFrequency(f);
         Timing timing = TimeBase.set(digitizer, f, sweep.cycles(), sweep.samplesPerCycle());
-        sleeper.sleep(sweep.settleSecond());
+        sleeper.sleep(Settle.seconds(sweep, plan.senseResistanceOhm(), previous, generator.frequencySettleSecond()));
         AutoRanger.Capture capture = ranger.acquire();
         double[][] v = volts(plan, capture);
         FixtureWiring w = plan.wiring();

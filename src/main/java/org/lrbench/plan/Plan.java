@@ -12,4 +12,10 @@ import org.lrbench.fixture.FixtureWiring;
 public record Plan(String source, String partNumber, String description, double senseResistanceOhm,
                    SineSweep sweep, TriangleCheck triangle, List<Limit> limits, SamplingScheme sampling,
                    FixtureWiring wiring, DcResistanceStep dcResistance) {
+
+    /** The same plan with another sweep. */
+    public Plan withSweep(SineSweep other) {
+        return new Plan(source, partNumber, description, senseResistanceOhm, other, triangle, limits, sampling, wiring,
+                dcResistance);
+    }
 }

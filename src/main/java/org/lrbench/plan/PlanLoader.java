@@ -227,7 +227,7 @@ public final class PlanLoader {
 
     private static SineSweep readSweep(YamlMap root, double maxAmplitudeVolt) {
         YamlMap s = root.map("sine_sweep", true, "amplitude", "offset", "frequencies", "log_sweep", "cycles",
-                "samples_per_cycle", "settle", "model_terms", "distortion_limit");
+                "samples_per_cycle", "settle", "settle_rule", "model_terms", "distortion_limit");
         if (s == null) {
             return null;
         }
@@ -248,6 +248,9 @@ public final class PlanLoader {
         Integer cycles = s.integer("cycles", true, 1, 10_000);
         Integer spc = s.integer("samples_per_cycle", false, MIN_SAMPLES_PER_CYCLE, 100_000);
         Double settle = s.quantity("settle", Dimension.TIME, true);
+        // fixed: the settle at every point; circuit: from the part's time constant, the settle a ceiling
+        Boolean fromCircuit = s.has("settle_rule") ? s.choice("settle_rule", true,
+                new java.util.TreeMap<>(Map.of("fixed", false, "circuit", true))) : Boolean.FALSE;
         if (settle != null && (settle < 0 || settle > 600)) {
             s.problem("settle", "must be 0 s to 600 s");
         }
@@ -261,11 +264,11 @@ public final class PlanLoader {
             distortion = q == null || !q.relative() ? null : q.value();
         }
         if (amplitude == null || frequencies == null || cycles == null || settle == null || terms == null
-                || distortion == null) {
+                || distortion == null || fromCircuit == null) {
             return null;
         }
         return new SineSweep(amplitude, off, frequencies, cycles, spc == null ? MIN_SAMPLES_PER_CYCLE : spc, settle,
-                terms, distortion);
+                terms, distortion, fromCircuit);
     }
 
     private static final Map<String, LumpedParameter> TERMS = Map.of(

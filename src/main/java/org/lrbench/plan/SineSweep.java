@@ -13,7 +13,20 @@ import org.lrbench.analysis.LumpedParameter;
  */
 public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
                         int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms,
-                        double distortionLimit) {
+                        double distortionLimit, boolean settleFromCircuit) {
+
+    /** A sweep that waits its fixed settle at every point. */
+    public SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
+                     int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms, double distortionLimit) {
+        this(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms, distortionLimit,
+                false);
+    }
+
+    /** The same sweep with the settle taken from the circuit (the plan's settle the ceiling) or fixed. */
+    public SineSweep withSettleFromCircuit(boolean fromCircuit) {
+        return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
+                distortionLimit, fromCircuit);
+    }
 
     public double lowestHz() {
         return frequenciesHz.stream().mapToDouble(Double::doubleValue).min().orElse(Double.NaN);
