@@ -93,6 +93,43 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         return actual;
     }
 
+    /** Both channels' ranges in one message when both change (one round trip, not two). */
+    @Override
+    public double[] setRanges(double peakToPeak1, double peakToPeak2) {
+        boolean same1 = requestedRanges.get(1) != null && requestedRanges.get(1) == peakToPeak1 && ranges.containsKey(1);
+        boolean same2 = requestedRanges.get(2) != null && requestedRanges.get(2) == peakToPeak2 && ranges.containsKey(2);
+        if (same1 || same2) {
+            return new double[] {setRange(1, peakToPeak1), setRange(2, peakToPeak2)};
+        }
+        StringBuilder message = new StringBuilder();
+        double[] requested = {peakToPeak1, peakToPeak2};
+        String[] queries = new String[2];
+        for (int ch = 1; ch <= 2; ch++) {
+            Map<String, String> values = new HashMap<>(channel(ch));
+            values.put("range", ScpiNumbers.nr3(requested[ch - 1] * perPeakToPeak()));
+            queries[ch - 1] = driver.command("range_query").render(channel(ch));
+            message.append(ch == 1 ? "" : ";").append(driver.command("range").render(values)).append(';')
+                    .append(queries[ch - 1]);
+        }
+        List<String> replies = session.configure(message.toString(), driver.errorQuery());
+        if (replies.size() != 2) {
+            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
+                    + " replies; expected 2");
+        }
+        double[] actual = new double[2];
+        for (int ch = 1; ch <= 2; ch++) {
+            actual[ch - 1] = number(queries[ch - 1], replies.get(ch - 1).trim()) / perPeakToPeak();
+            if (!(actual[ch - 1] > 0)) {
+                throw new InstrumentException(session.instrument() + ": '" + queries[ch - 1] + "' answered a range of "
+                        + actual[ch - 1]);
+            }
+            ranges.put(ch, actual[ch - 1]);
+            requestedRanges.put(ch, requested[ch - 1]);
+            scales.remove(ch);
+        }
+        return actual;
+    }
+
     @Override
     public void setOffset(int channel, double volt) {
         Map<String, String> values = new HashMap<>(channel(channel));
@@ -158,11 +195,24 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         DigitizerTraits.Acquisition a = traits.acquisition();
         switch (a.complete()) {
             case OPC -> {
-                // arm and wait in one message: *OPC? answers once the record is complete
-                List<String> replies = session.configure(arm + ";*OPC?", driver.errorQuery());
-                String opc = single("*OPC?", replies);
+                // arm and wait in one message: *OPC? answers once the record is complete; the scaling
+                // the fetches will need is asked in the same message (one round trip, not two)
+                List<Integer> unscaled = scaleQueryChannels();
+                StringBuilder message = new StringBuilder(arm).append(";*OPC?");
+                for (int ch : unscaled) {
+                    message.append(';').append(driver.command("scale_query").render(channel(ch)));
+                }
+                List<String> replies = session.configure(message.toString(), driver.errorQuery());
+                if (replies.size() != 1 + unscaled.size()) {
+                    throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
+                            + " replies; expected " + (1 + unscaled.size()));
+                }
+                String opc = replies.get(0).trim();
                 if (!opc.equals("1") && !opc.equals("+1")) {
                     throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
+                }
+                for (int i = 0; i < unscaled.size(); i++) {
+                    scales.put(unscaled.get(i), parseScale(message.toString(), replies.get(1 + i).trim()));
                 }
             }
             case WAIT -> {
@@ -273,6 +323,14 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new IllegalStateException("the time base was never set");
         }
         return interval;
+    }
+
+    /** The ranged channels whose scaling must be asked with a scale query and is not known yet. */
+    private List<Integer> scaleQueryChannels() {
+        if (traits.scaling().source() != DigitizerTraits.ScaleSource.SCALE_QUERY) {
+            return List.of();
+        }
+        return ranges.keySet().stream().filter(c -> !scales.containsKey(c)).sorted().toList();
     }
 
     /** Asks the scaling of this channel and of every other ranged channel lacking it, in one message. */

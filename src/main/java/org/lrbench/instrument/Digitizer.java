@@ -17,6 +17,11 @@ public interface Digitizer {
     /** Sets the full-scale range; returns the range in effect. */
     double setRange(int channel, double peakToPeakVolt);
 
+    /** Both channels' ranges at once; a driver may send them in one message. Returns the granted ranges. */
+    default double[] setRanges(double peakToPeak1, double peakToPeak2) {
+        return new double[] {setRange(1, peakToPeak1), setRange(2, peakToPeak2)};
+    }
+
     void setOffset(int channel, double volt);
 
     void setCoupling(int channel, Coupling coupling);

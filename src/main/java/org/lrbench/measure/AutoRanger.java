@@ -67,6 +67,7 @@ public final class AutoRanger {
         }
         double[] granted = new double[3];
         for (int attempt = 1; attempt <= MAX_ACQUISITIONS; attempt++) {
+            askBoth();
             for (int ch = 1; ch <= 2; ch++) {
                 granted[ch] = set(ch);
             }
@@ -96,6 +97,20 @@ public final class AutoRanger {
             g = ask(ch, request[ch]);
         }
         return g;
+    }
+
+    /** When both channels' requests changed, asks for them together (one message where the driver can). */
+    private void askBoth() {
+        if (request[1] == lastAsked[1] || request[2] == lastAsked[2]) {
+            return;
+        }
+        double[] g = digitizer.setRanges(request[1], request[2]);
+        for (int ch = 1; ch <= 2; ch++) {
+            asked.get(ch).add(request[ch]);
+            history.get(ch).add("asked " + volts(request[ch]) + " got " + volts(g[ch - 1]));
+            lastAsked[ch] = request[ch];
+            lastGranted[ch] = g[ch - 1];
+        }
     }
 
     private double ask(int ch, double r) {

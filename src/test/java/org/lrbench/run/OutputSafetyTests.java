@@ -58,6 +58,7 @@ class OutputSafetyTests {
         when(dig.identity()).thenReturn(new Identity("X", "D", "1", "1"));
         when(dig.rangeLimits(anyInt())).thenReturn(new RangeLimits(0.01, 100));
         when(dig.setRange(anyInt(), anyDouble())).thenAnswer(a -> a.getArgument(1));
+        when(dig.setRanges(anyDouble(), anyDouble())).thenCallRealMethod();
         when(dig.setTiming(anyDouble(), anyInt())).thenAnswer(a -> new Timing(a.getArgument(0), a.getArgument(1)));
         doThrow(new InstrumentException("digitizer: link lost")).when(dig).acquire();
 
