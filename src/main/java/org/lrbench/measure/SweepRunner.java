@@ -31,6 +31,8 @@ import org.lrbench.plan.TriangleCheck;
 public final class SweepRunner {
     /** Harmonics 2..9 enter the current's distortion figure. */
     static final int THD_HARMONICS = 9;
+    /** Cycles per record while the first point's ranges are found. */
+    static final int RANGING_CYCLES = 2;
     private final Generator generator;
     private final Digitizer digitizer;
     private final Sleeper sleeper;
@@ -110,10 +112,16 @@ public final class SweepRunner {
         generator.setWaveform(Waveform.TRIANGLE);
         generator.setAmplitude(t.amplitudeVolt());
         generator.setFrequency(t.frequencyHz());
-        Timing timing = TimeBase.set(digitizer, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
-        sleeper.sleep(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond()));
         double start = 2.2 * t.amplitudeVolt();
-        AutoRanger.Capture capture = new AutoRanger(digitizer, start, start).acquire();
+        AutoRanger ranger = new AutoRanger(digitizer, start, start);
+        sleeper.sleep(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond()));
+        if (t.cycles() > RANGING_CYCLES) {
+            // the ranges found on short records first, as at the sweep's first point
+            TimeBase.set(digitizer, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
+            ranger.acquire();
+        }
+        Timing timing = TimeBase.set(digitizer, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
+        AutoRanger.Capture capture = ranger.acquire();
         double[][] v = volts(plan, capture);
         return TriangleExtraction.extract(v[0], v[1], timing.sampleIntervalSecond(),
                 t.frequencyHz(), plan.senseResistanceOhm(), t.harmonics());
@@ -147,9 +155,20 @@ public final class SweepRunner {
     private PointResult measurePoint(Plan plan, double f, AutoRanger ranger, ImpedancePoint previous) {
         SineSweep sweep = plan.sweep();
         generator.setFrequency(f);
+        int ranging = 0;
+        if (previous == null && sweep.cycles() > RANGING_CYCLES) {
+            // nothing predicts the first point's ranges: find them on short records, then take the
+            // plan's record once on ranges already right
+            TimeBase.set(digitizer, f, RANGING_CYCLES, sweep.samplesPerCycle());
+            sleeper.sleep(Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()));
+            ranging = ranger.acquire().acquisitions();
+        }
         Timing timing = TimeBase.set(digitizer, f, sweep.cycles(), sweep.samplesPerCycle());
-        sleeper.sleep(Settle.seconds(sweep, plan.senseResistanceOhm(), previous, generator.frequencySettleSecond()));
-        AutoRanger.Capture capture = ranger.acquire();
+        if (ranging == 0) {
+            sleeper.sleep(Settle.seconds(sweep, plan.senseResistanceOhm(), previous, generator.frequencySettleSecond()));
+        }
+        AutoRanger.Capture found = ranger.acquire();
+        AutoRanger.Capture capture = new AutoRanger.Capture(found.sense(), found.part(), found.acquisitions() + ranging);
         double[][] v = volts(plan, capture);
         FixtureWiring w = plan.wiring();
         FixturePhasors.Result phasors = FixturePhasors.of(capture.sense().volts(), capture.part().volts(),
