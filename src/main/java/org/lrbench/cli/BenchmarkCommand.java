@@ -21,6 +21,17 @@ import picocli.CommandLine.Option;
             BenchmarkCommand.Throughput.class})
 final class BenchmarkCommand implements Runnable {
 
+    /** The demo plan, which the link and throughput benchmarks measure. */
+    static Plan demoPlan(BenchConfig bench) throws Exception {
+        return Inputs.plan(Home.root().resolve("plans/qfd-ind-1m0.yaml"), bench);
+    }
+
+    /** The demo part number's nominal simulated part. */
+    static org.lrbench.sim.PartModel nominalPart() throws Exception {
+        return PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+    }
+
+
     @Override
     public void run() {
         System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage | throughput");
@@ -87,9 +98,9 @@ final class BenchmarkCommand implements Runnable {
                 throw new BadInputException("--points 16..16777216 and --repeats 1..100");
             }
             BenchConfig bench = Inputs.bench(Home.defaultBench());
-            Plan plan = Inputs.plan(Home.root().resolve("plans/qfd-ind-1m0.yaml"), bench);
+            Plan plan = demoPlan(bench);
             LinkBenchmark.run(System.out, bench, plan, Home.drivers(),
-                    PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")), points, repeats);
+                    nominalPart(), points, repeats);
             return ExitCodes.PASS;
         }
     }
@@ -113,9 +124,9 @@ final class BenchmarkCommand implements Runnable {
                 }
             }
             BenchConfig bench = Inputs.bench(Home.defaultBench());
-            Plan plan = Inputs.plan(Home.root().resolve("plans/qfd-ind-1m0.yaml"), bench);
+            Plan plan = demoPlan(bench);
             int misses = org.lrbench.benchmark.ThroughputBenchmark.run(System.out, bench, plan, Home.drivers(),
-                    PartFile.load(Home.root().resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")), timings);
+                    nominalPart(), timings);
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }

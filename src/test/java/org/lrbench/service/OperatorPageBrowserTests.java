@@ -30,21 +30,9 @@ class OperatorPageBrowserTests {
 
     @Test
     void anOperatorRunsALotFromThePage(@TempDir Path dir) throws Exception {
-        Path chromium = Path.of("/usr/bin/chromium");
-        Path driverBinary = Path.of("/usr/bin/chromedriver");
-        assumeTrue(Files.isExecutable(chromium) && Files.isExecutable(driverBinary),
-                "chromium and chromium-driver are not installed (apt-get install chromium chromium-driver):"
-                        + " browser test skipped");
-        ChromeOptions options = new ChromeOptions();
-        options.setBinary(chromium.toString());
-        options.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-                "--disable-background-networking", "--disable-component-update", "--disable-sync",
-                "--disable-dev-shm-usage", "--user-data-dir=" + dir.resolve("profile"), "--window-size=1200,1600");
-        ChromeDriverService driverService = new ChromeDriverService.Builder()
-                .usingDriverExecutable(driverBinary.toFile()).usingAnyFreePort().build();
         try (BenchService service = new BenchService(BenchServiceApiTests.config(dir));
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
-            ChromeDriver browser = new ChromeDriver(driverService, options);
+            ChromeDriver browser = browser(dir);
             try {
                 browser.get("http://127.0.0.1:" + api.port() + "/");
                 WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
@@ -112,21 +100,9 @@ class OperatorPageBrowserTests {
      */
     @Test
     void refusalMeasureAgainStopAndResume(@TempDir Path dir) throws Exception {
-        Path chromium = Path.of("/usr/bin/chromium");
-        Path driverBinary = Path.of("/usr/bin/chromedriver");
-        assumeTrue(Files.isExecutable(chromium) && Files.isExecutable(driverBinary),
-                "chromium and chromium-driver are not installed (apt-get install chromium chromium-driver):"
-                        + " browser test skipped");
-        ChromeOptions options = new ChromeOptions();
-        options.setBinary(chromium.toString());
-        options.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-                "--disable-background-networking", "--disable-component-update", "--disable-sync",
-                "--disable-dev-shm-usage", "--user-data-dir=" + dir.resolve("profile"), "--window-size=1200,1600");
-        ChromeDriverService driverService = new ChromeDriverService.Builder()
-                .usingDriverExecutable(driverBinary.toFile()).usingAnyFreePort().build();
         try (BenchService service = new BenchService(BenchServiceApiTests.config(dir));
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
-            ChromeDriver browser = new ChromeDriver(driverService, options);
+            ChromeDriver browser = browser(dir);
             try {
                 browser.get("http://127.0.0.1:" + api.port() + "/");
                 WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
@@ -173,6 +149,23 @@ class OperatorPageBrowserTests {
             assertThat(attempts.get(1).reason()).isEqualTo("lead not seated");
             assertThat(attempts.get(1).operator()).isEqualTo("Ruth");
         }
+    }
+
+    /** Headless Chromium through its driver, skipping the test with the reason where they are not installed. */
+    private static ChromeDriver browser(Path dir) {
+        Path chromium = Path.of("/usr/bin/chromium");
+        Path driverBinary = Path.of("/usr/bin/chromedriver");
+        assumeTrue(Files.isExecutable(chromium) && Files.isExecutable(driverBinary),
+                "chromium and chromium-driver are not installed (apt-get install chromium chromium-driver):"
+                        + " browser test skipped");
+        ChromeOptions options = new ChromeOptions();
+        options.setBinary(chromium.toString());
+        options.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+                "--disable-background-networking", "--disable-component-update", "--disable-sync",
+                "--disable-dev-shm-usage", "--user-data-dir=" + dir.resolve("profile"), "--window-size=1200,1600");
+        ChromeDriverService driverService = new ChromeDriverService.Builder()
+                .usingDriverExecutable(driverBinary.toFile()).usingAnyFreePort().build();
+        return new ChromeDriver(driverService, options);
     }
 
     private static void scan(ChromeDriver browser, WebDriverWait wait, int position, String serial, String reason) {
