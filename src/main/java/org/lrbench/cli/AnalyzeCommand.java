@@ -194,6 +194,11 @@ final class AnalyzeCommand implements Callable<Integer> {
             throw new BadInputException(e.getMessage());
         }
         double rs = c.header().get("sense_resistor_ohm").asDouble();
+        // the fixture's wiring the traces were captured with (older archives: differential, unity probes)
+        JsonNode wiring = c.header().get("wiring");
+        double a1 = wiring == null ? 1 : wiring.get("attenuation_1").asDouble(1);
+        double a2 = wiring == null ? 1 : wiring.get("attenuation_2").asDouble(1);
+        boolean lowSide = wiring != null && wiring.get("low_side").asBoolean(false);
         String name = archive.getFileName().toString().replace(".lrtraces", "");
         Path original = archive.resolveSibling(name + ".json");
         JsonNode old = Files.isRegularFile(original)
@@ -207,7 +212,7 @@ final class AnalyzeCommand implements Callable<Integer> {
             var p = c.points().get(i);
             // the same extraction as the sweep: both channels fitted and corrected for quantization
             var phasors = FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(),
-                    1, 1, false);
+                    a1, a2, lowSide);
             ImpedancePoint z = PhasorImpedance.of(p.frequencyHz(), phasors.sense(), phasors.part(), rs);
             Double oldR = old != null && old.size() > i ? old.get(i).get("resistance_ohm").asDouble() : null;
             Double oldL = old != null && old.size() > i ? old.get(i).get("inductance_h").asDouble() : null;

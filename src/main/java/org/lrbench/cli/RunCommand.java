@@ -158,7 +158,7 @@ final class RunCommand implements Callable<Integer> {
         Path dir = runsOption.runs.resolve(lot);
         Path archive = dir.resolve(Attempt.fileName(serial, number, "lrtraces"));
         byte[] traces = keepTraces() ? TraceArchive.encode(lot, serial, p.partNumber(),
-                p.senseResistanceOhm(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
+                p.senseResistanceOhm(), p.wiring(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
         if (traces != null) {
             ResultFiles.writeNew(archive, traces);
         }

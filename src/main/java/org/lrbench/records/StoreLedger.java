@@ -1,5 +1,6 @@
 package org.lrbench.records;
 
+import org.lrbench.fixture.FixtureWiring;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.FileAlreadyExistsException;
@@ -75,13 +76,14 @@ public final class StoreLedger implements LotLedger {
     }
 
     @Override
-    public Attempt keep(PartResult result, int position, List<PointResult> traces, double senseOhm) throws IOException {
+    public Attempt keep(PartResult result, int position, List<PointResult> traces, double senseOhm, FixtureWiring wiring)
+            throws IOException {
         PartResult.AttemptRecord ar = result.attempt();
         Path dir = runs.resolve(result.lot());
         Path jsonPath = dir.resolve(Attempt.fileName(result.serial(), ar.number(), "json"));
         byte[] json = ResultFiles.JSON.writeValueAsBytes(result);
         byte[] archive = keepTraces && !traces.isEmpty()
-                ? TraceArchive.encode(result.lot(), result.serial(), result.partNumber(), senseOhm,
+                ? TraceArchive.encode(result.lot(), result.serial(), result.partNumber(), senseOhm, wiring,
                         ResultFiles.JSON.valueToTree(result.instruments()), traces)
                 : null;
         Path tracesPath = archive == null ? null : dir.resolve(Attempt.fileName(result.serial(), ar.number(), "lrtraces"));

@@ -1,5 +1,6 @@
 package org.lrbench.run;
 
+import org.lrbench.fixture.FixtureWiring;
 import java.io.IOException;
 import java.util.List;
 import java.util.Optional;
@@ -30,10 +31,16 @@ public interface LotLedger {
 
     /**
      * Keeps one finished attempt ({@code result} carries its attempt record) with its traces (empty
-     * for a skipped position) and the sense resistance they were captured with: files written whole,
-     * the store commit, then the files' final names.
+     * for a skipped position), the sense resistance and the fixture's wiring they were captured with
+     * (null: differential, unity probes): files written whole, the store commit, then the files' final names.
      */
-    Attempt keep(PartResult result, int position, List<PointResult> traces, double senseOhm) throws IOException;
+    Attempt keep(PartResult result, int position, List<PointResult> traces, double senseOhm, FixtureWiring wiring)
+            throws IOException;
+
+    /** As above, captured on a differential fixture with unity probes. */
+    default Attempt keep(PartResult result, int position, List<PointResult> traces, double senseOhm) throws IOException {
+        return keep(result, position, traces, senseOhm, null);
+    }
 
     /** Records an inspection's disposition once; false when it was decided already. */
     boolean decide(String lot, int round, String disposition, String reason, String now);

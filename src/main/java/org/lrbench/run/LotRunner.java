@@ -214,7 +214,8 @@ public final class LotRunner {
                     break;
                 }
                 PartResult r = m.result().withAttempt(new PartResult.AttemptRecord(round, number, s.operator(), reason));
-                Attempt a = stop.unlessStopped(() -> s.ledger().keep(r, position, m.points(), t.plan().senseResistanceOhm()));
+                Attempt a = stop.unlessStopped(() -> s.ledger().keep(r, position, m.points(), t.plan().senseResistanceOhm(),
+                        t.plan().wiring()));
                 if (a == null) {
                     stopped = true;
                     break;

@@ -1,5 +1,6 @@
 package org.lrbench.traces;
 
+import org.lrbench.fixture.FixtureWiring;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -24,7 +25,8 @@ import org.lrbench.results.ResultFiles;
  *   4 bytes   "LRTA"
  *   2 bytes   format version, big-endian (1)
  *   4 bytes   length N of the header, big-endian
- *   N bytes   header, UTF-8 JSON: lot, serial, part number, sense resistor, instrument identities,
+ *   N bytes   header, UTF-8 JSON: lot, serial, part number, sense resistor, the fixture's wiring (low
+ *             side or not, each probe's attenuation; absent in older archives), instrument identities,
  *             and per point its frequency, sample interval, start time, and per channel its range,
  *             offset and sample count
  *   then      per point, channel 1 then channel 2: the samples in volts, IEEE 754 float64, big-endian
@@ -48,13 +50,18 @@ public final class TraceArchive {
     public record Contents(JsonNode header, List<Point> points) {
     }
 
-    public static byte[] encode(String lot, String serial, String partNumber, double senseOhm, JsonNode identities,
-                                List<PointResult> points) throws IOException {
+    public static byte[] encode(String lot, String serial, String partNumber, double senseOhm, FixtureWiring wiring,
+                                JsonNode identities, List<PointResult> points) throws IOException {
         ObjectNode h = ResultFiles.JSON.createObjectNode();
         h.put("lot", lot);
         h.put("serial", serial);
         h.put("part_number", partNumber);
         h.put("sense_resistor_ohm", senseOhm);
+        // how the traces became the fixture's voltages (archives without it: differential, unity probes)
+        ObjectNode w = h.putObject("wiring");
+        w.put("low_side", wiring != null && wiring.topology() == FixtureWiring.Topology.LOW_SIDE);
+        w.put("attenuation_1", wiring == null ? 1 : wiring.attenuation1());
+        w.put("attenuation_2", wiring == null ? 1 : wiring.attenuation2());
         h.set("instruments", identities);
         ArrayNode pts = h.putArray("points");
         for (PointResult p : points) {
