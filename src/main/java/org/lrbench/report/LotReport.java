@@ -415,8 +415,7 @@ public final class LotReport {
         if (v == null || !Double.isFinite(v)) {
             return "-";
         }
-        // a pure number (a quality factor) gets four significant figures, no prefix
-        return d == Dimension.NONE ? esc(String.format(Locale.ROOT, "%.4g", v)) : esc(Units.format(v, d));
+        return esc(Units.format(v, d));
     }
 
     /** A table cell "value +/- U" with the full-precision value kept in data-value for readers and tests. */
@@ -426,10 +425,6 @@ public final class LotReport {
         }
         return "<td data-value=\"" + v + "\">" + (u == null || !Double.isFinite(u) || !(u > 0) ? si(v, d)
                 : esc(Units.formatWithUncertainty(v, u, d))) + "</td>";
-    }
-
-    private static String fmt(Double v) {
-        return v == null || !Double.isFinite(v) ? "-" : String.format(Locale.ROOT, "%.5g", v);
     }
 
     static String esc(String s) {

@@ -89,9 +89,15 @@ public final class Units {
         return q.value();
     }
 
-    /** Formats a value with an engineering prefix and four significant digits: "1.000 mH". */
+    /**
+     * Formats a value with an engineering prefix and four significant digits: "1.000 mH". A pure
+     * number (a quality factor) gets no prefix: "0.01532", not "15.32 m".
+     */
     public static String format(double value, Dimension dimension) {
         String unit = dimension.symbol();
+        if (dimension == Dimension.NONE && Double.isFinite(value)) {
+            return String.format(Locale.ROOT, "%.4g", value);
+        }
         if (value == 0 || !Double.isFinite(value)) {
             return String.format(Locale.ROOT, "%s %s", value, unit).trim();
         }
