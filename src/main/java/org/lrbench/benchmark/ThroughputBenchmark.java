@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
@@ -38,7 +39,8 @@ public final class ThroughputBenchmark {
 
     /** One profile's figures. */
     public record Figures(SimTiming timing, double partSecond, double minimumSecond, double roundTripsPerPoint,
-                          int maxRoundTrips, String verdict) {
+                          int maxRoundTrips, String verdict, double sweepSecond, double inductanceU,
+                          double resistanceU) {
         double ratio() {
             return partSecond / minimumSecond;
         }
@@ -50,7 +52,9 @@ public final class ThroughputBenchmark {
                 plan.partNumber());
         out.printf(Locale.ROOT, "%-8s %-8s %10s %10s %7s %11s %14s %14s%n", "profile", "settle", "part", "minimum", "ratio",
                 "parts/hour", "round trips", "above minimum");
-        measure(bench, plan, drivers, part, SimTiming.NONE); // warm-up: the first part pays for class loading and compiling
+        // warm-up, each excitation: the first part pays for class loading and compiling
+        measure(bench, plan.withSweep(plan.sweep().withMultisine(false)), drivers, part, SimTiming.NONE);
+        measure(bench, plan.withSweep(plan.sweep().withMultisine(true)), drivers, part, SimTiming.NONE);
         int misses = 0;
         Plan circuit = plan.withSweep(plan.sweep().withSettleFromCircuit(true));
         for (SimTiming t : profiles) {
@@ -66,7 +70,42 @@ public final class ThroughputBenchmark {
             }
         }
         out.println("goals: part time at most 1.15x the physical minimum; at most 6 round trips per point");
+        misses += excitations(out, bench, plan, drivers, part, profiles);
         out.println(misses == 0 ? "every goal met" : misses + " row(s) miss a goal (marked MISS)");
+        return misses;
+    }
+
+    /**
+     * The same part swept stepped and as one multisine, per profile: the sweep's time (from its
+     * first instrument command to its last point), U (k = 2) of L and R, and the verdicts. Goals: the multisine sweep
+     * at least 3x faster, its U at most 1.5x the stepped sweep's, the same verdict.
+     */
+    static int excitations(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part,
+                           List<SimTiming> profiles) throws Exception {
+        out.printf(Locale.ROOT, "%nstepped sweep against one multisine (settle rule of the plan), per profile%n");
+        out.printf(Locale.ROOT, "%-8s %-10s %10s %10s %12s %12s %-8s%n", "profile", "excitation", "sweep", "part", "U(L)",
+                "U(R)", "verdict");
+        Plan stepped = plan.withSweep(plan.sweep().withMultisine(false));
+        Plan multi = plan.withSweep(plan.sweep().withMultisine(true));
+        int misses = 0;
+        for (SimTiming t : profiles) {
+            Figures a = measure(bench, stepped, drivers, part, t);
+            Figures b = measure(bench, multi, drivers, part, t);
+            for (Figures f : List.of(a, b)) {
+                out.printf(Locale.ROOT, "%-8s %-10s %7.0f ms %7.0f ms %9.3f uH %9.3f mohm %-8s%n", t.name(),
+                        f == a ? "stepped" : "multisine", 1e3 * f.sweepSecond(), 1e3 * f.partSecond(), 1e6 * f.inductanceU(),
+                        1e3 * f.resistanceU(), f.verdict());
+            }
+            double faster = a.sweepSecond() / b.sweepSecond();
+            double uL = b.inductanceU() / a.inductanceU();
+            double uR = b.resistanceU() / a.resistanceU();
+            boolean miss = !(faster >= 3) || !(uL <= 1.5) || !(uR <= 1.5) || !a.verdict().equals(b.verdict());
+            misses += miss ? 1 : 0;
+            out.printf(Locale.ROOT, "%-8s multisine sweep %.2fx faster; U(L) %.2fx, U(R) %.2fx the stepped sweep's;"
+                    + " verdicts %s%s%n", t.name(), faster, uL, uR, a.verdict().equals(b.verdict()) ? "equal" : "differ",
+                    miss ? "   MISS" : "");
+        }
+        out.println("goals: the multisine sweep at least 3x faster, U of L and R at most 1.5x, the same verdict");
         return misses;
     }
 
@@ -78,11 +117,19 @@ public final class ThroughputBenchmark {
         try (BenchInstruments inst = BenchInstruments.open(b, loader, sim)) {
             List<Long> marks = new ArrayList<>();
             List<PointResult> points = new ArrayList<>();
+            long[] lastPoint = {0};
+            long[] started = {0};
             SweepListener listener = new SweepListener() {
+                @Override
+                public void sweepStarted() {
+                    started[0] = System.nanoTime();
+                }
+
                 @Override
                 public void pointMeasured(int index, int count, PointResult point) {
                     marks.add(queries(inst));
                     points.add(point);
+                    lastPoint[0] = System.nanoTime();
                 }
             };
             PartRun.Request req = new PartRun.Request(plan, "0", b, "THROUGHPUT", "T-1", true, "benchmark");
@@ -91,7 +138,15 @@ public final class ThroughputBenchmark {
             PartResult r = PartRun.measure(req, inst, Sleeper.REAL, listener);
             double seconds = (System.nanoTime() - t0) / 1e9;
             double minimum = 0;
-            for (int i = 0; i < points.size(); i++) {
+            if (plan.sweep().multisine() && !points.isEmpty()) {
+                // one capture, after loading the waveform (nine characters a point in ASCII)
+                PointResult p = points.get(0);
+                int waveform = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
+                        inst.generator().maxArbitrarySamples()).samples().length;
+                minimum += settle(plan, null) + capture(timing, p.samples(), p.sampleIntervalSecond(), bytesPerSample)
+                        + timing.transfer(9L * waveform) + timing.messageSecond();
+            }
+            for (int i = 0; i < (plan.sweep().multisine() ? 0 : points.size()); i++) {
                 PointResult p = points.get(i);
                 minimum += settle(plan, i == 0 ? null : points.get(i - 1))
                         + capture(timing, p.samples(), p.sampleIntervalSecond(), bytesPerSample);
@@ -113,7 +168,10 @@ public final class ThroughputBenchmark {
             if (marks.isEmpty()) {
                 perPoint = queries(inst) - q0;
             }
-            return new Figures(timing, seconds, minimum, perPoint, max, r.verdict());
+            var uL = r.budgets().get("inductance");
+            var uR = r.budgets().get("series_resistance_dc");
+            return new Figures(timing, seconds, minimum, perPoint, max, r.verdict(), (lastPoint[0] - started[0]) / 1e9,
+                    uL == null ? Double.NaN : uL.expandedUncertainty(), uR == null ? Double.NaN : uR.expandedUncertainty());
         }
     }
 

@@ -25,6 +25,7 @@ import org.lrbench.results.ResultFiles;
 import org.lrbench.run.PartRun;
 import org.lrbench.traces.CsvTraces;
 import org.lrbench.traces.TraceAnalysis;
+import org.lrbench.measure.MultisineCapture;
 import org.lrbench.traces.TraceArchive;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.UnitException;
@@ -208,10 +209,15 @@ final class AnalyzeCommand implements Callable<Integer> {
         System.out.printf("re-analysis of %s (lot %s, serial %s), sense resistor %s%n", archive,
                 c.header().get("lot").asText(), c.header().get("serial").asText(), Units.format(rs, Dimension.RESISTANCE));
         System.out.printf("  %12s %14s %14s %14s %14s%n", "frequency", "R before", "R now", "L before", "L now");
+        // a multisine archive: every point is a tone of one capture, fitted together as in the sweep
+        FixturePhasors.Result[] tones = c.header().path("excitation").asText("stepped").equals("multisine")
+                ? MultisineCapture.refit(c.points().get(0).sense(), c.points().get(0).part(), c.points().get(0).intervalSecond(),
+                        c.points().stream().mapToDouble(TraceArchive.Point::frequencyHz).toArray(), a1, a2, lowSide)
+                : null;
         for (int i = 0; i < c.points().size(); i++) {
             var p = c.points().get(i);
             // the same extraction as the sweep: both channels fitted and corrected for quantization
-            var phasors = FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(),
+            var phasors = tones != null ? tones[i] : FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(),
                     a1, a2, lowSide);
             ImpedancePoint z = PhasorImpedance.of(p.frequencyHz(), phasors.sense(), phasors.part(), rs);
             Double oldR = old != null && old.size() > i ? old.get(i).get("resistance_ohm").asDouble() : null;

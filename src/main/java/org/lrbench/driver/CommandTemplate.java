@@ -113,11 +113,29 @@ public final class CommandTemplate {
 
     /** A value may hold only what SCPI numbers and mnemonics are made of. */
     static void requireToken(String name, String value) {
-        // a SCPI channel list of whole channel numbers, "(@101)" or "(@101,102)", is the one other form
-        if (!value.matches("[A-Za-z0-9+\\-.]+") && !value.matches("\\(@[0-9]{1,6}(,[0-9]{1,6})*\\)")) {
+        // a SCPI channel list of whole channel numbers, "(@101)" or "(@101,102)", is another form, and
+        // {points} alone (an arbitrary waveform's) takes numbers separated by commas
+        if (!value.matches("[A-Za-z0-9+\\-.]+") && !value.matches("\\(@[0-9]{1,6}(,[0-9]{1,6})*\\)")
+                && !(name.equals("points") && numberList(value))) {
             throw new IllegalArgumentException("value '" + value + "' for {" + name
                     + "} is not a SCPI number or mnemonic (letters, digits, + - . only)");
         }
+    }
+
+    /** Decimal numbers separated by single commas (checked by hand: a regular expression would recurse per item). */
+    private static boolean numberList(String value) {
+        if (value.isEmpty() || value.charAt(0) == ',' || value.charAt(value.length() - 1) == ',') {
+            return false;
+        }
+        for (int i = 0; i < value.length(); i++) {
+            char c = value.charAt(i);
+            boolean ok = c >= '0' && c <= '9' || c == '+' || c == '-' || c == '.' || c == 'E' || c == 'e'
+                    || c == ',' && value.charAt(i - 1) != ',';
+            if (!ok) {
+                return false;
+            }
+        }
+        return true;
     }
 
     private static List<String> sorted(Set<String> s) {

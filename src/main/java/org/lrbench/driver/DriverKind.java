@@ -17,7 +17,10 @@ public enum DriverKind {
                 "amplitude", Set.of("amplitude_vpp", "amplitude_vpk"),
                 "offset", Set.of("offset"),
                 "output_on", Set.of(),
-                "output_off", Set.of()),
+                "output_off", Set.of(),
+                "arbitrary_data", Set.of("points", "count"),
+                "arbitrary_rate", Set.of("rate", "frequency"),
+                "arbitrary_select", Set.of()),
             Map.of("shapes", List.of("sine", "triangle", "square"))),
     DIGITIZER("digitizer",
             ops("prepare", Set.of(),
@@ -51,6 +54,9 @@ public enum DriverKind {
                 "closed_query", Set.of("channels")),
             Map.of());
 
+    /** A source's optional operations for an arbitrary waveform: all of them or none. */
+    public static final List<String> ARBITRARY_OPERATIONS = List.of("arbitrary_data", "arbitrary_rate", "arbitrary_select");
+
     private final String key;
     private final Map<String, Set<String>> operations;
     private final Map<String, List<String>> wordTables;
@@ -65,7 +71,7 @@ public enum DriverKind {
         return key;
     }
 
-    /** Operation name -> placeholders its template may use; every operation is required. */
+    /** Operation name -> placeholders its template may use; required unless the loader says otherwise. */
     public Map<String, Set<String>> operations() {
         return operations;
     }

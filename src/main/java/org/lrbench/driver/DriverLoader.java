@@ -99,6 +99,18 @@ public final class DriverLoader {
         if (kind != null) {
             Set<String> optional = new HashSet<>(traits == null ? Set.of() : DigitizerTraitsReader.optional(traits));
             YamlMap cmds = root.map("commands", true, kind.operations().keySet().toArray(String[]::new));
+            if (kind == DriverKind.SOURCE) {
+                // arbitrary waveforms are optional, but all three commands or none
+                optional.addAll(DriverKind.ARBITRARY_OPERATIONS);
+                if (cmds != null) {
+                    List<String> given = DriverKind.ARBITRARY_OPERATIONS.stream().filter(cmds::has).toList();
+                    if (!given.isEmpty() && given.size() < DriverKind.ARBITRARY_OPERATIONS.size()) {
+                        cmds.problem(given.get(0), "arbitrary waveforms need all of "
+                                + String.join(", ", DriverKind.ARBITRARY_OPERATIONS) + "; this driver gives only "
+                                + String.join(", ", given));
+                    }
+                }
+            }
             if (kind == DriverKind.DIGITIZER) {
                 // the instrument's list of ranges, when it can tell it, stands for its limits
                 optional.add("range_list_query");
@@ -157,8 +169,8 @@ public final class DriverLoader {
     }
 
     /**
-     * {@code limits}: for a source {@code frequency: [LOW, HIGH]} and {@code amplitude} (the highest
-     * peak open-circuit EMF); for a digitizer {@code interval} (the shortest sample interval) and
+     * {@code limits}: for a source {@code frequency: [LOW, HIGH]}, {@code amplitude} (the highest
+     * peak open-circuit EMF) and {@code arbitrary_samples} (the longest arbitrary waveform); for a digitizer {@code interval} (the shortest sample interval) and
      * {@code record_length} (the longest record).
      */
     private static InstrumentLimits limits(YamlMap root, DriverKind kind) {
@@ -166,7 +178,7 @@ public final class DriverLoader {
             return InstrumentLimits.NONE;
         }
         if (kind == DriverKind.SOURCE) {
-            YamlMap m = root.map("limits", false, "frequency", "amplitude");
+            YamlMap m = root.map("limits", false, "frequency", "amplitude", "arbitrary_samples");
             if (m == null) {
                 return InstrumentLimits.NONE;
             }
@@ -188,7 +200,8 @@ public final class DriverLoader {
             if (amplitude != null && !(amplitude > 0)) {
                 m.problem("amplitude", "must be positive");
             }
-            return new InstrumentLimits(low, high, amplitude, null, null);
+            Integer arbitrary = m.integer("arbitrary_samples", false, 16, 1 << 26);
+            return new InstrumentLimits(low, high, amplitude, null, null, arbitrary);
         }
         if (kind == DriverKind.DIGITIZER) {
             YamlMap m = root.map("limits", false, "interval", "record_length");
@@ -200,7 +213,7 @@ public final class DriverLoader {
                 m.problem("interval", "must be positive");
             }
             Integer length = m.integer("record_length", false, 16, Integer.MAX_VALUE);
-            return new InstrumentLimits(null, null, null, interval, length);
+            return new InstrumentLimits(null, null, null, interval, length, null);
         }
         root.problem("limits", "only source and digitizer drivers declare limits");
         return InstrumentLimits.NONE;

@@ -1,8 +1,10 @@
 package org.lrbench.driver;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.plan.Plan;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
@@ -10,7 +12,8 @@ import org.lrbench.units.Units;
 /**
  * Whether a plan asks of the bench's instruments no more than their drivers declare: every sweep
  * and triangle frequency within the generator's range, the peak EMF within its amplitude, and the
- * sample interval and record length each frequency needs within the digitizer's.
+ * sample interval and record length each frequency needs within the digitizer's; for a multisine,
+ * the generator's arbitrary-waveform commands and memory and the one record it needs.
  */
 public final class PlanFit {
 
@@ -49,6 +52,10 @@ public final class PlanFit {
                     + Units.format(g.maxEmfPeakVolt(), Dimension.VOLTAGE) + " that the " + gen + " declares");
         }
         InstrumentLimits d = digitizer.limits();
+        if (plan.sweep().multisine()) {
+            asks.removeIf(a -> plan.sweep().frequenciesHz().contains(a[0]) && a[1] == plan.sweep().cycles());
+            multisine(plan, source, gen, dig, d, out);
+        }
         for (double[] a : asks) {
             double interval = 1 / (a[0] * a[2]);
             if (d.minIntervalSecond() != null && interval < d.minIntervalSecond() * (1 - 1e-9)) {
@@ -64,6 +71,44 @@ public final class PlanFit {
             }
         }
         return out;
+    }
+
+    /**
+     * A multisine sweep needs arbitrary-waveform commands, a waveform within the generator's memory
+     * and one record of its whole periods at the plan's samples per cycle of the highest tone.
+     */
+    private static void multisine(Plan plan, DriverFile source, String gen, String dig, InstrumentLimits d,
+                                  List<String> out) {
+        if (!source.has("arbitrary_data")) {
+            out.add(plan.source() + ": excitation multisine needs arbitrary-waveform commands (arbitrary_data,"
+                    + " arbitrary_rate, arbitrary_select), which the " + gen + " does not give");
+            return;
+        }
+        Integer memory = source.limits().maxArbitrarySamples();
+        MultisineDesign.Design design;
+        try {
+            design = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
+                    memory == null ? Integer.MAX_VALUE : memory);
+        } catch (IllegalArgumentException e) {
+            out.add(plan.source() + ": " + e.getMessage() + " (" + gen + ")");
+            return;
+        }
+        int top = Arrays.stream(design.bins()).max().orElseThrow();
+        double lowest = Arrays.stream(design.frequenciesHz()).min().orElseThrow();
+        long periods = Math.max(1, (long) Math.ceil(plan.sweep().cycles() * design.baseHz() / lowest - 1e-9));
+        int perPeriod = MultisineDesign.captureSamplesPerPeriod(design, plan.sweep().samplesPerCycle());
+        long samples = periods * perPeriod + 2;
+        double interval = 1 / (design.baseHz() * perPeriod);
+        if (d.minIntervalSecond() != null && interval < d.minIntervalSecond() * (1 - 1e-9)) {
+            out.add(String.format(Locale.ROOT, "%s: the multisine up to %s needs %s between samples; the %s declares %s"
+                            + " at the shortest", plan.source(), hz(top * design.baseHz()),
+                    Units.format(interval, Dimension.TIME), dig, Units.format(d.minIntervalSecond(), Dimension.TIME)));
+        }
+        if (d.maxRecordLength() != null && samples > d.maxRecordLength()) {
+            out.add(String.format(Locale.ROOT, "%s: the multisine's record (%d periods of %s, %d samples each)"
+                    + " needs %d samples; the %s declares %d at the longest", plan.source(), periods,
+                    Units.format(1 / design.baseHz(), Dimension.TIME), perPeriod, samples, dig, d.maxRecordLength()));
+        }
     }
 
     private static String hz(double f) {

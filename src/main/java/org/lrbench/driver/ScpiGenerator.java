@@ -27,7 +27,61 @@ public final class ScpiGenerator extends DrivenInstrument implements Generator {
 
     @Override
     public void setWaveform(Waveform waveform) {
+        if (waveform == Waveform.ARBITRARY) {
+            if (!playsArbitrary()) {
+                Generator.super.loadArbitrary(new double[0], 0);
+            }
+            configure("arbitrary_select", Map.of());
+            return;
+        }
         configure("waveform", Map.of("shape", driver.word("shapes", waveform.name().toLowerCase(Locale.ROOT))));
+    }
+
+    @Override
+    public boolean playsArbitrary() {
+        return driver.has("arbitrary_data");
+    }
+
+    @Override
+    public int maxArbitrarySamples() {
+        Integer declared = driver.limits().maxArbitrarySamples();
+        return declared == null ? Generator.super.maxArbitrarySamples() : declared;
+    }
+
+    /**
+     * Sends the samples as an ASCII list (six decimals: steps of 1e-6 of the peak, finer than a
+     * 16-bit waveform memory's), then the playback rate, then selects the waveform.
+     */
+    @Override
+    public void loadArbitrary(double[] samples, double sampleRateHz) {
+        if (!playsArbitrary()) {
+            Generator.super.loadArbitrary(samples, sampleRateHz);
+        }
+        StringBuilder list = new StringBuilder(samples.length * 10);
+        for (int i = 0; i < samples.length; i++) {
+            if (!(Math.abs(samples[i]) <= 1)) {
+                throw new IllegalArgumentException("arbitrary sample " + i + " is " + samples[i] + "; allowed -1 to 1");
+            }
+            if (i > 0) {
+                list.append(',');
+            }
+            appendMicro(list, samples[i]);
+        }
+        configure("arbitrary_data", Map.of("points", list.toString(), "count", Integer.toString(samples.length)));
+        configure("arbitrary_rate", Map.of("rate", ScpiNumbers.nr3(sampleRateHz),
+                "frequency", ScpiNumbers.nr3(sampleRateHz / samples.length)));
+        configure("arbitrary_select", Map.of());
+    }
+
+    /** {@code v} with six decimals, as %.6f would give it, without a formatter per sample. */
+    static void appendMicro(StringBuilder out, double v) {
+        long micro = Math.round(Math.abs(v) * 1e6);
+        if (v < 0 && micro != 0) {
+            out.append('-');
+        }
+        out.append(micro / 1_000_000).append('.');
+        String frac = Long.toString(micro % 1_000_000);
+        out.append("000000", 0, 6 - frac.length()).append(frac);
     }
 
     @Override

@@ -19,6 +19,26 @@ public interface Generator {
 
     void setWaveform(Waveform waveform);
 
+    /** Whether this generator can play an arbitrary waveform ({@link #loadArbitrary}). */
+    default boolean playsArbitrary() {
+        return false;
+    }
+
+    /** The longest arbitrary waveform it takes; 16384 points where nothing is declared (common practice, no source). */
+    default int maxArbitrarySamples() {
+        return 16384;
+    }
+
+    /**
+     * Loads one period of an arbitrary waveform, samples between -1 and 1 (the amplitude setting is
+     * the peak), played at {@code sampleRateHz} samples per second, and selects it as the waveform.
+     *
+     * @throws InstrumentException when the generator or its driver cannot
+     */
+    default void loadArbitrary(double[] samples, double sampleRateHz) {
+        throw new InstrumentException("this generator's driver has no arbitrary-waveform commands (arbitrary_data, arbitrary_rate, arbitrary_select)");
+    }
+
     void setFrequency(double hertz);
 
     void setAmplitude(double peakVolt);

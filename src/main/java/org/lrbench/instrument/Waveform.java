@@ -1,4 +1,4 @@
 package org.lrbench.instrument;
 
-/** Generator waveforms. */
-public enum Waveform { SINE, TRIANGLE, SQUARE }
+/** Generator waveforms; {@code ARBITRARY} plays the samples last loaded with {@link Generator#loadArbitrary}. */
+public enum Waveform { SINE, TRIANGLE, SQUARE, ARBITRARY }

@@ -190,6 +190,25 @@ public final class AutoRanger {
         }
     }
 
+    /**
+     * One acquisition on the current requests, not judged: the next capture starts at ranges that put
+     * what it saw at the target fill (ten times up where it clipped). For a long record, ranged on a
+     * short one first, so that the long one is usually taken once.
+     *
+     * @return 1, the acquisitions it took
+     */
+    public int probe() {
+        askBoth();
+        double[] granted = {0, set(1), set(2)};
+        digitizer.acquire();
+        for (int ch = 1; ch <= 2; ch++) {
+            Trace t = digitizer.fetch(ch);
+            boolean clipped = t.clippedSamples() > 0 || t.excursion() >= granted[ch] / 2 * (1 - SAME);
+            request[ch] = clamp(ch, clipped ? granted[ch] * 10 : 2 * t.excursion() / TARGET_FILL);
+        }
+        return 1;
+    }
+
     /** Starts the next capture at ranges that put these peak voltages at the target fill. */
     public void expect(double peak1, double peak2) {
         request[1] = clamp(1, 2 * peak1 / TARGET_FILL);

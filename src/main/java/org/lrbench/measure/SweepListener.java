@@ -7,6 +7,10 @@ package org.lrbench.measure;
 public interface SweepListener {
     SweepListener NONE = new SweepListener() { };
 
+    /** Before the sweep's first command to an instrument. */
+    default void sweepStarted() {
+    }
+
     default void pointMeasured(int index, int count, PointResult point) {
     }
 }

@@ -7,6 +7,7 @@ import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.HarmonicFit;
 import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.analysis.PhasorImpedance;
 import org.lrbench.analysis.SineFitResult;
 import org.lrbench.analysis.TriangleExtraction;
@@ -43,6 +44,7 @@ public final class SweepRunner {
         this(generator, digitizer, sleeper, false);
     }
 
+
     /**
      * @param openCircuit true when the fixture is open: a point whose current is lost in noise is then
      *                    a reading (its impedance NaN: beyond what the bench can see), not an error
@@ -60,12 +62,18 @@ public final class SweepRunner {
 
     public Measurement run(Plan plan, SweepListener listener) {
         SineSweep sweep = plan.sweep();
+        listener.sweepStarted();
         generator.prepare();
         digitizer.prepare();
-        generator.setWaveform(Waveform.SINE);
-        generator.setFrequency(sweep.frequenciesHz().get(0));
-        generator.setAmplitude(sweep.amplitudeVolt());
-        generator.setOffset(sweep.offsetVolt());
+        MultisineDesign.Design multisine = null;
+        if (sweep.multisine()) {
+            multisine = MultisineCapture.load(generator, sweep, generator.maxArbitrarySamples());
+        } else {
+            generator.setWaveform(Waveform.SINE);
+            generator.setFrequency(sweep.frequenciesHz().get(0));
+            generator.setAmplitude(sweep.amplitudeVolt());
+            generator.setOffset(sweep.offsetVolt());
+        }
         for (int ch = 1; ch <= 2; ch++) {
             digitizer.setCoupling(ch, Coupling.DC);
             digitizer.setOffset(ch, 0.0);
@@ -83,6 +91,17 @@ public final class SweepRunner {
         List<PointResult> points = new ArrayList<>();
         generator.outputOn();
         try {
+            if (multisine != null) {
+                points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, () -> sleeper.sleep(
+                        Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond())),
+                        openCircuit));
+                for (int i = 0; i < points.size(); i++) {
+                    listener.pointMeasured(i, points.size(), points.get(i));
+                }
+                TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
+                        : triangle(plan, points.get(points.size() - 1).impedance());
+                return new Measurement(points, triangle);
+            }
             int count = sweep.frequenciesHz().size();
             for (int i = 0; i < count; i++) {
                 double f = sweep.frequenciesHz().get(i);

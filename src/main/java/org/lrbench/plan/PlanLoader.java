@@ -227,7 +227,8 @@ public final class PlanLoader {
 
     private static SineSweep readSweep(YamlMap root, double maxAmplitudeVolt) {
         YamlMap s = root.map("sine_sweep", true, "amplitude", "offset", "frequencies", "log_sweep", "cycles",
-                "samples_per_cycle", "settle", "settle_rule", "model_terms", "distortion_limit");
+                "samples_per_cycle", "settle", "settle_rule", "model_terms", "distortion_limit", "excitation",
+                "multisine_tolerance");
         if (s == null) {
             return null;
         }
@@ -263,12 +264,25 @@ public final class PlanLoader {
             }
             distortion = q == null || !q.relative() ? null : q.value();
         }
+        // stepped: one frequency after another; multisine: all of them in one arbitrary waveform
+        Boolean multisine = s.has("excitation") ? s.choice("excitation", true,
+                new java.util.TreeMap<>(Map.of("stepped", false, "multisine", true))) : Boolean.FALSE;
+        Double tolerance = SineSweep.DEFAULT_MULTISINE_TOLERANCE;
+        if (s.has("multisine_tolerance")) {
+            var q = s.anyQuantity("multisine_tolerance", true);
+            if (q != null && (!q.relative() || !(q.value() > 0) || q.value() > 0.1)) {
+                s.problem("multisine_tolerance", "must be a percentage above 0 % and at most 10 %, such as 2 %");
+            } else if (q != null && !Boolean.TRUE.equals(multisine)) {
+                s.problem("multisine_tolerance", "only a sweep with excitation: multisine has tones to place");
+            }
+            tolerance = q == null || !q.relative() ? null : q.value();
+        }
         if (amplitude == null || frequencies == null || cycles == null || settle == null || terms == null
-                || distortion == null || fromCircuit == null) {
+                || distortion == null || fromCircuit == null || multisine == null || tolerance == null) {
             return null;
         }
         return new SineSweep(amplitude, off, frequencies, cycles, spc == null ? MIN_SAMPLES_PER_CYCLE : spc, settle,
-                terms, distortion, fromCircuit);
+                terms, distortion, fromCircuit, multisine, tolerance);
     }
 
     private static final Map<String, LumpedParameter> TERMS = Map.of(

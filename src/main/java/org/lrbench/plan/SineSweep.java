@@ -8,12 +8,28 @@ import org.lrbench.analysis.LumpedParameter;
  * A sine sweep: the generator's open-circuit peak amplitude and offset, the frequencies in the
  * order measured, how many cycles each capture holds, the fewest samples per cycle, how long to
  * wait after a frequency change before capturing, the optional terms of the lumped model to try
- * (none: the series R + L model), and the current's total harmonic distortion above which a point
- * is flagged (core saturation).
+ * (none: the series R + L model), the current's total harmonic distortion above which a point
+ * is flagged (core saturation), and the excitation: one frequency after another (stepped), or all
+ * at once as a multisine whose tones lie within {@code multisineTolerance} (relative) of the
+ * requested frequencies; a multisine capture holds {@code cycles} cycles of its lowest tone, in
+ * whole periods, at {@code samplesPerCycle} samples per cycle of its lowest tone and no fewer than
+ * ten per cycle of its highest.
  */
 public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
                         int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms,
-                        double distortionLimit, boolean settleFromCircuit) {
+                        double distortionLimit, boolean settleFromCircuit, boolean multisine,
+                        double multisineTolerance) {
+
+    /** The tolerance a multisine's tones keep from the requested frequencies when the plan gives none. */
+    public static final double DEFAULT_MULTISINE_TOLERANCE = 0.02;
+
+    /** A stepped sweep. */
+    public SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
+                     int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms, double distortionLimit,
+                     boolean settleFromCircuit) {
+        this(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms, distortionLimit,
+                settleFromCircuit, false, DEFAULT_MULTISINE_TOLERANCE);
+    }
 
     /** A sweep that waits its fixed settle at every point. */
     public SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
@@ -25,7 +41,13 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
     /** The same sweep with the settle taken from the circuit (the plan's settle the ceiling) or fixed. */
     public SineSweep withSettleFromCircuit(boolean fromCircuit) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
-                distortionLimit, fromCircuit);
+                distortionLimit, fromCircuit, multisine, multisineTolerance);
+    }
+
+    /** The same sweep stepped, or as one multisine. */
+    public SineSweep withMultisine(boolean asMultisine) {
+        return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
+                distortionLimit, settleFromCircuit, asMultisine, multisineTolerance);
     }
 
     public double lowestHz() {

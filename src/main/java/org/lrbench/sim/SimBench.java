@@ -8,7 +8,6 @@ import org.lrbench.fixture.FixturePosition;
 import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.transport.inproc.InProcessPeer;
 import org.lrbench.transport.inproc.PeerSet;
-import org.lrbench.instrument.Waveform;
 
 /**
  * The simulated bench: a generator with its output impedance, the fixture's sense resistor, the
@@ -141,8 +140,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
             return out;
         }
         double f = generator.frequency();
-        Waveform w = generator.waveform();
-        for (Harmonic h : WaveformSpectrum.of(w, generator.emfPeak(), generator.emfOffset(), f, bandLimit)) {
+        for (Harmonic h : generator.emfLines(bandLimit)) {
             double omega = 2 * Math.PI * h.k() * f;
             PartModel connected = connectedPart();
             boolean open = position == FixturePosition.OPEN || position == FixturePosition.PART && connected == null;

@@ -435,8 +435,12 @@ public final class SimDigitizer extends ScpiDevice {
     }
 
     private void acquire() {
-        // arming and trigger latency, then the record itself takes its time
-        SimTiming.pass(settings.timing().armSecond() + points * interval);
+        // arming and trigger latency, then the record itself takes its time (instruments that
+        // answer at once, the default for tests and the coverage benchmark, take neither)
+        SimTiming timing = settings.timing();
+        if (!timing.none()) {
+            SimTiming.pass(timing.armSecond() + points * interval);
+        }
         double f = inputs.fundamentalHz();
         double bandLimit = 0.5 / interval;
         List<List<Harmonic>> lines = new ArrayList<>();

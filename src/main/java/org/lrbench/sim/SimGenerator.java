@@ -1,10 +1,17 @@
 package org.lrbench.sim;
 
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.apache.commons.math3.complex.Complex;
+import org.apache.commons.math3.transform.DftNormalization;
+import org.apache.commons.math3.transform.FastFourierTransformer;
+import org.apache.commons.math3.transform.TransformType;
 import org.lrbench.instrument.Waveform;
 import org.lrbench.sim.scpi.ScpiDevice;
+import org.lrbench.sim.scpi.ScpiFault;
 
 /**
  * A simulated one-channel function generator behind SCPI. Like most real ones, its amplitude
@@ -39,6 +46,11 @@ public final class SimGenerator extends ScpiDevice {
     }
     public static final double MAX_FREQUENCY = 20e6;
     public static final double MAX_EMF_PEAK = 10.0;
+    /** The arbitrary-waveform memory: points and fastest playback rate. */
+    public static final int MAX_ARBITRARY_POINTS = 65536;
+    public static final double MAX_ARBITRARY_RATE = 100e6;
+    /** Lines of an arbitrary waveform below this fraction of its largest are rounding, not signal. */
+    private static final double LINE_FLOOR = 1e-6;
 
     private final double outputOhm;
     private final Personality personality;
@@ -48,6 +60,10 @@ public final class SimGenerator extends ScpiDevice {
     private double offset;
     private double loadOhm;
     private boolean outputOn;
+    /** The arbitrary waveform's lines (peak 1, cosine phasors by harmonic of its period), its points and rate. */
+    private List<Harmonic> arbitraryLines = List.of();
+    private int arbitraryPoints;
+    private double arbitraryRate;
 
     private double frequencyChangeSecond;
 
@@ -120,10 +136,14 @@ public final class SimGenerator extends ScpiDevice {
     private void registerGeneric() {
         register("[SOURce#]:FUNCtion[:SHAPe]", false, c -> {
             c.expect(1, 1).suffixUpTo(1);
-            String w = c.word(0, "SINusoid", "TRIangle", "SQUare");
+            String w = c.word(0, "SINusoid", "TRIangle", "SQUare", "USER");
+            if (w.equals("USER") && arbitraryPoints == 0) {
+                throw ScpiFault.settingsConflict("no arbitrary waveform loaded");
+            }
             waveform = switch (w) {
                 case "SIN" -> Waveform.SINE;
                 case "TRI" -> Waveform.TRIANGLE;
+                case "USER" -> Waveform.ARBITRARY;
                 default -> Waveform.SQUARE;
             };
             return null;
@@ -132,7 +152,28 @@ public final class SimGenerator extends ScpiDevice {
             case SINE -> "SIN";
             case TRIANGLE -> "TRI";
             case SQUARE -> "SQU";
+            case ARBITRARY -> "USER";
         });
+        register("[SOURce#]:TRACe[:DATA]", false, c -> {
+            c.expect(16, MAX_ARBITRARY_POINTS).suffixUpTo(1);
+            double[] points = new double[c.count()];
+            for (int i = 0; i < points.length; i++) {
+                points[i] = c.number(i, -1, 1, 0);
+            }
+            loadArbitrary(points);
+            return null;
+        });
+        register("[SOURce#]:TRACe:POINts", true, c -> Integer.toString(arbitraryPoints));
+        register("[SOURce#]:TRACe:RATE", false, c -> {
+            c.expect(1, 1).suffixUpTo(1);
+            double rate = c.number(0, 1, MAX_ARBITRARY_RATE, 1e6);
+            if (arbitraryPoints > 0 && rate / arbitraryPoints > MAX_FREQUENCY) {
+                throw ScpiFault.outOfRange("the waveform would repeat above " + MAX_FREQUENCY + " Hz");
+            }
+            arbitraryRate = rate;
+            return null;
+        });
+        register("[SOURce#]:TRACe:RATE", true, c -> nr3(arbitraryRate));
         Handler setFrequency = c -> {
             c.expect(1, 1).suffixUpTo(1);
             changeFrequency(c.number(0, 1e-3, MAX_FREQUENCY, 1e3));
@@ -171,6 +212,75 @@ public final class SimGenerator extends ScpiDevice {
         register("OUTPut#:LOAD", true, c -> Double.isInfinite(loadOhm) ? "9.9E+37" : nr3(loadOhm));
     }
 
+    /**
+     * The waveform memory takes one period of samples; its lines follow from their discrete
+     * Fourier transform, the output being the band-limited periodic signal through those samples
+     * (an ideal reconstruction filter), lines at rounding level left out.
+     */
+    private void loadArbitrary(double[] points) {
+        int n = points.length;
+        Complex[] x;
+        if (Integer.bitCount(n) == 1) {
+            x = new FastFourierTransformer(DftNormalization.STANDARD).transform(points, TransformType.FORWARD);
+        } else {
+            x = new Complex[n / 2 + 1];
+            for (int k = 0; k <= n / 2; k++) {
+                double re = 0;
+                double im = 0;
+                for (int i = 0; i < n; i++) {
+                    double a = -2 * Math.PI * ((long) k * i % n) / n;
+                    re += points[i] * Math.cos(a);
+                    im += points[i] * Math.sin(a);
+                }
+                x[k] = new Complex(re, im);
+            }
+        }
+        double largest = 0;
+        for (int k = 0; k <= n / 2; k++) {
+            largest = Math.max(largest, x[k].abs());
+        }
+        List<Harmonic> lines = new ArrayList<>();
+        for (int k = 0; k <= n / 2; k++) {
+            if (x[k].abs() > LINE_FLOOR * largest) {
+                // x[i] = sum_k c_k exp(j 2 pi k i / n) / n: a line's cosine phasor is 2 c_k / n
+                // (c_0 / n for the mean and, for even n, the line at half the rate)
+                double scale = k == 0 || 2 * k == n ? 1.0 / n : 2.0 / n;
+                lines.add(new Harmonic(k, x[k].multiply(scale)));
+            }
+        }
+        arbitraryLines = List.copyOf(lines);
+        arbitraryPoints = n;
+    }
+
+    /** The open-circuit EMF's lines up to {@code bandLimit} Hz, as harmonics of {@link #frequency()}. */
+    public synchronized List<Harmonic> emfLines(double bandLimit) {
+        if (waveform != Waveform.ARBITRARY) {
+            return WaveformSpectrum.of(waveform, emfPeak(), emfOffset(), frequency, bandLimit);
+        }
+        List<Harmonic> out = new ArrayList<>();
+        if (!outputOn) {
+            return out;
+        }
+        double peak = emfPeak();
+        double f = frequency();
+        boolean dc = false;
+        for (Harmonic h : arbitraryLines) {
+            if (h.k() * f > bandLimit) {
+                continue;
+            }
+            Complex a = h.amplitude().multiply(peak);
+            if (h.k() == 0) {
+                a = a.add(emfOffset());
+                dc = true;
+            }
+            out.add(new Harmonic(h.k(), a));
+        }
+        if (!dc && emfOffset() != 0) {
+            out.add(0, new Harmonic(0, new Complex(emfOffset(), 0)));
+        }
+        return out;
+    }
+
     @Override
     protected void reset() {
         waveform = Waveform.SINE;
@@ -179,6 +289,7 @@ public final class SimGenerator extends ScpiDevice {
         offset = 0;
         loadOhm = 50;
         outputOn = false;
+        arbitraryRate = 1e6; // the waveform memory keeps its points, as on most generators
     }
 
     private double emfFactor() {
@@ -196,8 +307,9 @@ public final class SimGenerator extends ScpiDevice {
         return waveform;
     }
 
+    /** The signal's repetition frequency: the set frequency, or an arbitrary waveform's rate over its points. */
     public synchronized double frequency() {
-        return frequency;
+        return waveform == Waveform.ARBITRARY ? arbitraryRate / arbitraryPoints : frequency;
     }
 
     /** Open-circuit peak EMF; zero while the output is off. */

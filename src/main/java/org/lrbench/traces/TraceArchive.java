@@ -63,6 +63,9 @@ public final class TraceArchive {
         w.put("attenuation_1", wiring == null ? 1 : wiring.attenuation1());
         w.put("attenuation_2", wiring == null ? 1 : wiring.attenuation2());
         h.set("instruments", identities);
+        // one capture behind every point: the sweep was one multisine, its tones fitted together
+        boolean oneCapture = points.size() > 1 && points.stream().allMatch(p -> p.senseTrace() == points.get(0).senseTrace());
+        h.put("excitation", oneCapture ? "multisine" : "stepped");
         ArrayNode pts = h.putArray("points");
         for (PointResult p : points) {
             ObjectNode o = pts.addObject();

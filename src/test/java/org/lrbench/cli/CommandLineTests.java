@@ -378,6 +378,31 @@ class CommandLineTests {
     }
 
     @Test
+    void aMultisinePlanIsRefusedWhereTheGeneratorCannotPlayIt(@TempDir Path dir) throws Exception {
+        Path plan = dir.resolve("multisine.yaml");
+        Files.writeString(plan, Files.readString(Path.of(PLAN)).replace("  settle: 20 ms", "  settle: 20 ms\n  excitation: multisine"));
+        assertThat(run("check", plan.toString()).code()).as("the generic source plays arbitrary waveforms").isZero();
+        // the peak-EMF generator's driver gives no arbitrary-waveform commands
+        Outcome peak = run("check", plan.toString(), "--bench", HOME.resolve("simulator/bench-pm12.yaml").toString());
+        assertThat(peak.code()).isEqualTo(2);
+        assertThat(peak.err()).contains("excitation multisine needs arbitrary-waveform commands");
+        // a waveform memory too small for 200 Hz to 20 kHz on bins within 2 %
+        Path drivers = copyOfDrivers(dir);
+        Path source = drivers.resolve("generic-source.yaml");
+        Files.writeString(source, Files.readString(source).replace("arbitrary_samples: 65536", "arbitrary_samples: 1024"));
+        Outcome small = run("check", plan.toString(), "--drivers", drivers.toString());
+        assertThat(small.code()).isEqualTo(2);
+        assertThat(small.err()).contains("waveform samples; the generator takes 1024");
+        // a tolerance belongs to a multisine only
+        Path stepped = dir.resolve("stepped.yaml");
+        Files.writeString(stepped, Files.readString(Path.of(PLAN)).replace("  settle: 20 ms",
+                "  settle: 20 ms\n  multisine_tolerance: 1 %"));
+        Outcome tol = run("check", stepped.toString());
+        assertThat(tol.code()).isEqualTo(2);
+        assertThat(tol.err()).contains("multisine_tolerance").contains("only a sweep with excitation: multisine");
+    }
+
+    @Test
     void theWindingResistanceLimitIsJudgedAtTheReferenceTemperature(@TempDir Path dir) throws Exception {
         // R at the plan's bench temperature of 23 C is R / (1 + 0.00393 x 3) at the specification's 20 C
         // (copper, IACS alpha at 20 C, NBS Handbook 100): 2.62 ohm there is 2.5898 ohm here

@@ -55,6 +55,19 @@ class DriverLoaderTests {
             assertThatThrownBy(() -> t.render(Map.of("frequency", attack)))
                     .as(attack).isInstanceOf(IllegalArgumentException.class);
         }
+        // six decimals as %.6f writes them
+        for (double v : new double[] {0, 1, -1, 0.5, -0.0000004, 0.0000005, -0.123456789, 0.999999, 1e-7}) {
+            StringBuilder b = new StringBuilder();
+            ScpiGenerator.appendMicro(b, v);
+            assertThat(b.toString()).as("%s", v).isEqualTo(String.format(java.util.Locale.ROOT, "%.6f", v).replace("-0.000000", "0.000000"));
+        }
+        // an arbitrary waveform's {points} take a list of numbers, and nothing else
+        CommandTemplate data = CommandTemplate.parse(":SOUR:TRAC:DATA {points}", Set.of("points"));
+        assertThat(data.render(Map.of("points", "0.5,-1.000000,1E-3"))).isEqualTo(":SOUR:TRAC:DATA 0.5,-1.000000,1E-3");
+        for (String attack : new String[] {"1;*RST", "1,,2", "1, 2", "1,OUTP ON", ",1", "1,"}) {
+            assertThatThrownBy(() -> data.render(Map.of("points", attack)))
+                    .as(attack).isInstanceOf(IllegalArgumentException.class);
+        }
     }
 
     @Test

@@ -68,7 +68,7 @@ class PlanLoaderTests {
         List<Problem> ps = problems(GOOD.replace("  cycles: 10", "  cycels: 10"));
         assertThat(ps).extracting(Problem::toString).contains(
                 "p.yaml:8:3: sine_sweep.cycels: unknown key; allowed here: amplitude, offset, frequencies,"
-                        + " log_sweep, cycles, samples_per_cycle, settle, settle_rule, model_terms, distortion_limit");
+                        + " log_sweep, cycles, samples_per_cycle, settle, settle_rule, model_terms, distortion_limit, excitation, multisine_tolerance");
         // and the key it should have been is then missing, reported at its mapping
         assertThat(ps).extracting(Problem::toString).contains("p.yaml:6:3: sine_sweep.cycles: missing required key");
     }

@@ -143,4 +143,32 @@ public class TraceArchiveTests {
             assertThat(points.get(i).get("resistance_ohm").asDouble()).isEqualTo(measured.get(i).get("resistance_ohm").asDouble());
         }
     }
+
+    /** A multisine sweep's archive is re-analysed with all its tones fitted together: the same points, to the last bit. */
+    @Test
+    void aMultisineArchiveIsFittedAgainAsOneCapture(@TempDir Path dir) throws Exception {
+        Path home = TestBench.home();
+        Path planFile = dir.resolve("multisine.yaml");
+        Files.writeString(planFile, Files.readString(home.resolve("plans/qfd-ind-1m0.yaml"))
+                .replace("  settle: 20 ms", "  settle: 20 ms\n  excitation: multisine"));
+        int code = Main.execute("run", planFile.toString(), "--lot", "M", "--serial", "S",
+                "--sim", home.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString(),
+                "--calibration", dir.resolve("none").toString());
+        assertThat(code).isIn(0, 1);
+        assertThat(TraceArchive.read(dir.resolve("M/S.lrtraces")).header().get("excitation").asText()).isEqualTo("multisine");
+        String before = Files.readString(dir.resolve("M/S.json"));
+        assertThat(Main.execute("analyze", "--archive", dir.resolve("M/S.lrtraces").toString(), "--calibration",
+                dir.resolve("none").toString())).isZero();
+        Path record;
+        try (var files = Files.list(dir.resolve("M"))) {
+            record = files.filter(f -> f.getFileName().toString().startsWith("S.analysis-")).findFirst().orElseThrow();
+        }
+        JsonNode points = new ObjectMapper().readTree(record.toFile()).get("points");
+        JsonNode measured = new ObjectMapper().readTree(before).get("points");
+        assertThat(points.size()).isEqualTo(7);
+        for (int i = 0; i < points.size(); i++) {
+            assertThat(points.get(i).get("inductance_h").asDouble()).isEqualTo(measured.get(i).get("inductance_h").asDouble());
+            assertThat(points.get(i).get("resistance_ohm").asDouble()).isEqualTo(measured.get(i).get("resistance_ohm").asDouble());
+        }
+    }
 }

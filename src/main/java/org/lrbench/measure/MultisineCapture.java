@@ -1,0 +1,179 @@
+package org.lrbench.measure;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashSet;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Set;
+import org.apache.commons.math3.complex.Complex;
+import org.lrbench.analysis.FixturePhasors;
+import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.analysis.MultisineDesign;
+import org.lrbench.analysis.MultisineFit;
+import org.lrbench.analysis.PhasorImpedance;
+import org.lrbench.analysis.Quantization;
+import org.lrbench.analysis.SineFitResult;
+import org.lrbench.fixture.FixtureWiring;
+import org.lrbench.instrument.Digitizer;
+import org.lrbench.instrument.Generator;
+import org.lrbench.instrument.Timing;
+import org.lrbench.plan.Plan;
+import org.lrbench.plan.SineSweep;
+
+/**
+ * The sweep as one multisine: every frequency on a bin of a common period
+ * ({@link MultisineDesign}), loaded once into the generator's arbitrary-waveform memory at the
+ * plan's amplitude as its peak, ranged on one period at a coarse rate, then captured once and fitted
+ * at all tones together ({@link MultisineFit}). Each tone becomes a sweep point with the fit's own
+ * covariance. Bins that carry no tone, at the second and third harmonics of each tone, are fitted
+ * too: what a non-linear core puts there is each point's distortion figure.
+ */
+public final class MultisineCapture {
+    /** Samples per cycle of the highest tone while ranging on one period. */
+    static final int RANGING_SAMPLES_PER_TOP_CYCLE = 8;
+    /** Harmonics of each tone whose bins are watched for distortion. */
+    static final int[] WATCHED_HARMONICS = {2, 3};
+
+    private MultisineCapture() {
+    }
+
+    /** The design for a plan's sweep on this generator. */
+    static MultisineDesign.Design design(SineSweep sweep, int maxSamples) {
+        return MultisineDesign.of(sweep.frequenciesHz(), sweep.multisineTolerance(), maxSamples);
+    }
+
+    /** Whole periods of the common period that hold the plan's cycles of the lowest tone. */
+    static int periods(SineSweep sweep, MultisineDesign.Design d) {
+        double lowest = Arrays.stream(d.frequenciesHz()).min().orElseThrow();
+        return Math.max(1, (int) Math.ceil(sweep.cycles() * d.baseHz() / lowest - 1e-9));
+    }
+
+    /**
+     * Loads the waveform and sets its peak; the caller switches the output on. Returns the design.
+     */
+    static MultisineDesign.Design load(Generator generator, SineSweep sweep, int maxSamples) {
+        MultisineDesign.Design d = design(sweep, maxSamples);
+        generator.loadArbitrary(d.samples(), d.playbackRateHz());
+        generator.setAmplitude(sweep.amplitudeVolt());
+        generator.setOffset(sweep.offsetVolt());
+        return d;
+    }
+
+    /**
+     * Samples per common period of the capture: the plan's samples per cycle of the lowest tone (so
+     * the record holds as many samples as the stepped sweep's first point), raised to
+     * {@value MultisineDesign#MIN_CAPTURE_SAMPLES_PER_TOP_CYCLE} per cycle of the highest, which keeps
+     * the highest tone's third harmonic below half the sample rate.
+     */
+    static int samplesPerPeriod(SineSweep sweep, MultisineDesign.Design d) {
+        return MultisineDesign.captureSamplesPerPeriod(d, sweep.samplesPerCycle());
+    }
+
+    /** Ranges on one period, captures the plan's record, and returns one point per tone. */
+    static List<PointResult> measure(Plan plan, MultisineDesign.Design d, Digitizer digitizer, AutoRanger ranger,
+                                     Runnable settle, boolean openCircuit) {
+        SineSweep sweep = plan.sweep();
+        TimeBase.set(digitizer, d.baseHz(), 1, RANGING_SAMPLES_PER_TOP_CYCLE * top(d));
+        settle.run();
+        int ranging = ranger.probe();
+        Timing timing = TimeBase.set(digitizer, d.baseHz(), periods(sweep, d), samplesPerPeriod(sweep, d));
+        AutoRanger.Capture capture = ranger.acquire();
+        double[][] v = SweepRunner.volts(plan, capture);
+        double dt = capture.sense().intervalSecond();
+        double[] tones = d.frequenciesHz();
+        // the phasors from the tones alone (as a re-analysis of the archive fits them); the current
+        // fitted again with the empty bins at the tones' harmonics for the distortion figure
+        FixturePhasors.Result[] fits = refit(capture.sense().volts(), capture.part().volts(), dt, tones,
+                SweepRunner.attenuation(plan, 1), SweepRunner.attenuation(plan, 2),
+                plan.wiring() != null && plan.wiring().topology() == FixtureWiring.Topology.LOW_SIDE);
+        Map<Integer, Integer> watched = watchedBins(d, 0.45 / dt);
+        double[] distortion = new double[tones.length];
+        if (!watched.isEmpty()) {
+            double[] withWatched = new double[tones.length + watched.size()];
+            System.arraycopy(tones, 0, withWatched, 0, tones.length);
+            int j = tones.length;
+            for (int bin : watched.keySet()) {
+                withWatched[j++] = bin * d.baseHz();
+            }
+            SineFitResult[] all = MultisineFit.fit(v[0], dt, withWatched);
+            j = tones.length;
+            for (Map.Entry<Integer, Integer> e : watched.entrySet()) {
+                double a = all[j++].amplitude();
+                distortion[e.getValue()] += a * a;
+            }
+        }
+        List<PointResult> points = new ArrayList<>();
+        double senseRange = capture.sense().rangeVolt() * SweepRunner.attenuation(plan, 1);
+        double partRange = capture.part().rangeVolt() * SweepRunner.attenuation(plan, 2);
+        for (int i = 0; i < tones.length; i++) {
+            SineFitResult s = fits[i].sense();
+            SineFitResult partFit = fits[i].part();
+            int acquisitions = i == 0 ? capture.acquisitions() + ranging : 0;
+            double thd = Math.sqrt(distortion[i]) / s.amplitude();
+            if (s.amplitude() <= 3 * s.residualRms() * Math.sqrt(2.0 / s.samples())) {
+                if (!openCircuit) {
+                    throw new MeasurementException(String.format(Locale.ROOT, "no measurable current at %.6g Hz in the"
+                            + " multisine: the sense-resistor voltage is lost in noise (open fixture?)", tones[i]));
+                }
+                ImpedancePoint none = new ImpedancePoint(tones[i], new Complex(Double.NaN, Double.NaN), Double.NaN,
+                        Complex.ZERO);
+                points.add(new PointResult(none, s, partFit, senseRange, partRange, timing.sampleIntervalSecond(),
+                        capture.sense().length(), acquisitions, Double.NaN, capture.sense(), capture.part()));
+                continue;
+            }
+            ImpedancePoint z = PhasorImpedance.of(tones[i], s, partFit, plan.senseResistanceOhm());
+            points.add(new PointResult(z, s, partFit, senseRange, partRange, timing.sampleIntervalSecond(),
+                    capture.sense().length(), acquisitions, thd, capture.sense(), capture.part()));
+        }
+        return points;
+    }
+
+    /**
+     * The tones of an archived multisine capture fitted again as the sweep fitted them: the channels
+     * at the fixture (probe attenuations, low-side difference), all tones together.
+     */
+    public static FixturePhasors.Result[] refit(double[] channel1, double[] channel2, double intervalSecond,
+                                                double[] tonesHz, double attenuation1, double attenuation2, boolean lowSide) {
+        double[] sense = new double[channel1.length];
+        double[] part = new double[channel2.length];
+        for (int i = 0; i < sense.length; i++) {
+            sense[i] = channel1[i] * attenuation1;
+            part[i] = channel2[i] * attenuation2 - (lowSide ? sense[i] : 0);
+        }
+        SineFitResult[] s = MultisineFit.fit(sense, intervalSecond, tonesHz);
+        SineFitResult[] p = MultisineFit.fit(part, intervalSecond, tonesHz);
+        FixturePhasors.Result[] out = new FixturePhasors.Result[tonesHz.length];
+        for (int i = 0; i < out.length; i++) {
+            out[i] = new FixturePhasors.Result(s[i], p[i], Quantization.Correction.NONE, Quantization.Correction.NONE);
+        }
+        return out;
+    }
+
+    private static int top(MultisineDesign.Design d) {
+        return Arrays.stream(d.bins()).max().orElseThrow();
+    }
+
+    /**
+     * The bins at the watched harmonics of each tone that carry no tone and lie below {@code bandHz},
+     * each with the tone it belongs to (a bin two tones share goes to the lower).
+     */
+    static Map<Integer, Integer> watchedBins(MultisineDesign.Design d, double bandHz) {
+        Set<Integer> toneBins = new HashSet<>();
+        for (int b : d.bins()) {
+            toneBins.add(b);
+        }
+        Map<Integer, Integer> out = new LinkedHashMap<>();
+        for (int h : WATCHED_HARMONICS) {
+            for (int i = 0; i < d.bins().length; i++) {
+                long bin = (long) h * d.bins()[i];
+                if (bin * d.baseHz() < bandHz && !toneBins.contains((int) bin)) {
+                    out.putIfAbsent((int) bin, i);
+                }
+            }
+        }
+        return out;
+    }
+}
