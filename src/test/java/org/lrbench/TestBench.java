@@ -19,6 +19,8 @@ public final class TestBench {
     public final SimBench sim;
     public final ScpiGenerator generator;
     public final ScpiDigitizer digitizer;
+    public final ScpiSession generatorSession;
+    public final ScpiSession digitizerSession;
 
     public TestBench(SimSettings settings, double senseOhm, PartModel part, Path digitizerDriver) throws Exception {
         sim = new SimBench(settings, senseOhm, part);
@@ -26,10 +28,12 @@ public final class TestBench {
                 DriverKind.SOURCE, new Problems("generic-source.yaml"));
         DriverFile dig = DriverLoader.read(digitizerDriver, "digitizer", DriverKind.DIGITIZER,
                 new Problems(digitizerDriver.toString()));
-        generator = new ScpiGenerator(new ScpiSession("generator",
-                new InProcessTransport("sim://generator", sim.generator()), Duration.ofSeconds(1)), source);
-        digitizer = new ScpiDigitizer(new ScpiSession("digitizer",
-                new InProcessTransport("sim://digitizer", sim.digitizer()), Duration.ofSeconds(1)), dig);
+        generatorSession = new ScpiSession("generator", new InProcessTransport("sim://generator", sim.generator()),
+                Duration.ofSeconds(1));
+        digitizerSession = new ScpiSession("digitizer", new InProcessTransport("sim://digitizer", sim.digitizer()),
+                Duration.ofSeconds(1));
+        generator = new ScpiGenerator(generatorSession, source);
+        digitizer = new ScpiDigitizer(digitizerSession, dig);
     }
 
     public static Path home() {

@@ -36,7 +36,7 @@ import org.lrbench.uncertainty.BenchAccuracy;
  */
 public final class CoverageBenchmark {
 
-    private record Case(String name, PartModel part, String plan) {
+    record Case(String name, PartModel part, String plan) {
     }
 
     private CoverageBenchmark() {

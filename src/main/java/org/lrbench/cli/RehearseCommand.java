@@ -1,11 +1,15 @@
 package org.lrbench.cli;
 
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
+import org.lrbench.driver.PlanFit;
 import org.lrbench.plan.Plan;
+import org.lrbench.rehearsal.PartTime;
 import org.lrbench.rehearsal.Rehearsal;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -14,7 +18,8 @@ import picocli.CommandLine.Parameters;
 
 /** {@code lrbench rehearse PLAN}: proves on the simulated bench that a plan decides its limits right. */
 @Command(name = "rehearse", mixinStandardHelpOptions = true, description = {"Prove on the simulated bench that a plan decides its limits right.",
-        "Parts at the nominal and just inside and outside every limit, several seeds each.",
+        "Parts at the nominal and just inside and outside every limit, several seeds each;",
+        "then one nominal part timed stepped and as a multisine, with instruments that take time.",
         "Exit 0 only when every verdict is right."})
 final class RehearseCommand implements Callable<Integer> {
 
@@ -26,6 +31,25 @@ final class RehearseCommand implements Callable<Integer> {
 
     @Option(names = "--seeds", paramLabel = "N", defaultValue = "3", description = "seeds per part (default: ${DEFAULT-VALUE})")
     int seeds;
+
+    /** One nominal part timed stepped and as a multisine on the simulated bench with instruments that take time. */
+    private void timePerPart(Plan p, BenchConfig b) throws Exception {
+        DriverLoader loader = benchOptions.loader();
+        List<String> refused = PlanFit.problems(p.withSweep(p.sweep().withMultisine(true)),
+                loader.load(b.generator().driver(), DriverKind.SOURCE), loader.load(b.digitizer().driver(), DriverKind.DIGITIZER));
+        PartTime.Estimate t = PartTime.of(p, b, loader, refused.isEmpty(), String.join("; ", refused));
+        System.out.printf(Locale.ROOT, "time per part, one nominal part on the simulated bench with '%s' timing%s"
+                        + " (lrbench's processing and the plan's settles included):%n", t.timing().name(),
+                b.simulation().timing().none() ? " (the bench file sets none)" : "");
+        System.out.printf(Locale.ROOT, "  stepped sweep    %6.0f ms  (%.0f parts per hour)%s%n", 1e3 * t.steppedSecond(),
+                3600 / t.steppedSecond(), p.sweep().multisine() ? "" : "  <- this plan");
+        if (t.multisineRefused() == null) {
+            System.out.printf(Locale.ROOT, "  one multisine    %6.0f ms  (%.0f parts per hour)%s%n", 1e3 * t.multisineSecond(),
+                    3600 / t.multisineSecond(), p.sweep().multisine() ? "  <- this plan" : "");
+        } else {
+            System.out.println("  one multisine    not on this bench: " + t.multisineRefused());
+        }
+    }
 
     @Override
     public Integer call() throws Exception {
@@ -48,6 +72,7 @@ final class RehearseCommand implements Callable<Integer> {
                     o.tur() == null ? "-" : String.format(Locale.ROOT, "%.1f", o.tur()), String.join("; ", o.wrong()));
         }
         r.warnings().forEach(w -> System.out.println("warning: " + w));
+        timePerPart(p, b);
         System.out.println(r.allRight() ? "every limit was decided right" : "some limits were decided wrong");
         return r.allRight() ? ExitCodes.PASS : ExitCodes.FAIL;
     }

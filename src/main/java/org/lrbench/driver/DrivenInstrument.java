@@ -1,5 +1,7 @@
 package org.lrbench.driver;
 
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Map;
 import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.InstrumentException;
@@ -14,6 +16,8 @@ abstract class DrivenInstrument {
     protected final ScpiSession session;
     protected final DriverFile driver;
     private Identity identity;
+    /** Settings held back to go as one message; null when each goes at once. */
+    private List<String> held;
 
     DrivenInstrument(ScpiSession session, DriverFile driver) {
         this.session = session;
@@ -45,7 +49,36 @@ abstract class DrivenInstrument {
      * fails, naming the command, on any error it caused.
      */
     protected void configure(String operation, Map<String, String> values) {
-        session.configure(driver.command(operation).render(values), driver.errorQuery());
+        String command = driver.command(operation).render(values);
+        if (held != null) {
+            held.add(command);
+            return;
+        }
+        session.configure(command, driver.errorQuery());
+    }
+
+    /**
+     * Makes the settings {@code settings} sends go as one message, joined with ';' (every template
+     * starts with an absolute header, so joining keeps each command's meaning), with one error query
+     * after them: one round trip instead of one per setting. Only settings that read nothing back
+     * may be made inside.
+     */
+    public void batch(Runnable settings) {
+        if (held != null) {
+            settings.run();
+            return;
+        }
+        held = new ArrayList<>();
+        List<String> commands;
+        try {
+            settings.run();
+        } finally {
+            commands = held;
+            held = null;
+        }
+        if (!commands.isEmpty()) {
+            session.configure(String.join(";", commands), driver.errorQuery());
+        }
     }
 
     /** Parses one reply unit of a combined message as a number. */

@@ -21,6 +21,7 @@ import org.lrbench.scpi.TraceEncoding;
 
 /** A digitizer that speaks SCPI through a digitizer driver file. */
 public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
+    private final Map<Integer, RangeLimits> limitsAsked = new HashMap<>();
     private final Map<Integer, Double> ranges = new HashMap<>();
     private final Map<Integer, Double> requestedRanges = new HashMap<>();
     private final Map<Integer, Double> offsets = new HashMap<>();
@@ -48,8 +49,13 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         scales.clear();
     }
 
+    /** A channel's range limits, asked once: they are the instrument's, not a setting's. */
     @Override
     public RangeLimits rangeLimits(int channel) {
+        return limitsAsked.computeIfAbsent(channel, this::askRangeLimits);
+    }
+
+    private RangeLimits askRangeLimits(int channel) {
         List<Double> declared = traits.vertical().ranges();
         if (!declared.isEmpty()) {
             return new RangeLimits(declared.get(0) / perPeakToPeak(), declared.get(declared.size() - 1) / perPeakToPeak());
@@ -68,8 +74,16 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             }
             return new RangeLimits(min / perPeakToPeak(), max / perPeakToPeak());
         }
-        return new RangeLimits(queryNumber("range_min_query", ch) / perPeakToPeak(),
-                queryNumber("range_max_query", ch) / perPeakToPeak());
+        // both in one message, one round trip
+        String min = driver.command("range_min_query").render(ch);
+        String max = driver.command("range_max_query").render(ch);
+        List<String> replies = session.configure(min + ";" + max, driver.errorQuery());
+        if (replies.size() != 2) {
+            throw new InstrumentException(session.instrument() + ": '" + min + ";" + max + "' answered " + replies.size()
+                    + " replies; expected 2");
+        }
+        return new RangeLimits(number(min, replies.get(0).trim()) / perPeakToPeak(),
+                number(max, replies.get(1).trim()) / perPeakToPeak());
     }
 
     @Override

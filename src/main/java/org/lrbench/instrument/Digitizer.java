@@ -7,6 +7,15 @@ package org.lrbench.instrument;
  */
 public interface Digitizer {
 
+    /**
+     * Makes the settings {@code settings} sends go to the instrument together where it can (one
+     * message, one round trip); by default one after another. Only settings, no queries, inside.
+     */
+    default void batch(Runnable settings) {
+        settings.run();
+    }
+
+
     Identity identity();
 
     /** Puts the instrument in a known state. */

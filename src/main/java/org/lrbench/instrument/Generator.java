@@ -14,6 +14,14 @@ public interface Generator {
         return 0;
     }
 
+    /**
+     * Makes the settings {@code settings} sends go to the instrument together where it can (one
+     * message, one round trip); by default one after another. Only settings, no queries, inside.
+     */
+    default void batch(Runnable settings) {
+        settings.run();
+    }
+
     /** Puts the instrument in a known state with its output off. */
     void prepare();
 

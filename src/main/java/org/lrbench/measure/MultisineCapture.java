@@ -40,9 +40,17 @@ public final class MultisineCapture {
     private MultisineCapture() {
     }
 
+    /** Designs made, by sweep and memory: every part of a lot has the same. */
+    private static final Map<List<Object>, MultisineDesign.Design> DESIGNS = new java.util.concurrent.ConcurrentHashMap<>();
+
     /** The design for a plan's sweep on this generator. */
     static MultisineDesign.Design design(SineSweep sweep, int maxSamples) {
-        return MultisineDesign.of(sweep.frequenciesHz(), sweep.multisineTolerance(), maxSamples);
+        List<Object> key = List.of(sweep.frequenciesHz(), sweep.multisineTolerance(), maxSamples);
+        if (DESIGNS.size() > 16) {
+            DESIGNS.clear();
+        }
+        return DESIGNS.computeIfAbsent(key, k -> MultisineDesign.of(sweep.frequenciesHz(), sweep.multisineTolerance(),
+                maxSamples));
     }
 
     /** Whole periods of the common period that hold the plan's cycles of the lowest tone. */
@@ -72,13 +80,21 @@ public final class MultisineCapture {
         return MultisineDesign.captureSamplesPerPeriod(d, sweep.samplesPerCycle());
     }
 
-    /** Ranges on one period, captures the plan's record, and returns one point per tone. */
+    /**
+     * Ranges on one period, captures the plan's record, and returns one point per tone. The probe
+     * runs while the output settles (it only sets ranges): the capture starts once
+     * {@code settleSecond} has passed since the output came on, probe included.
+     */
     static List<PointResult> measure(Plan plan, MultisineDesign.Design d, Digitizer digitizer, AutoRanger ranger,
-                                     Runnable settle, boolean openCircuit) {
+                                     Sleeper sleeper, double settleSecond, boolean openCircuit) {
         SineSweep sweep = plan.sweep();
+        long on = System.nanoTime();
         TimeBase.set(digitizer, d.baseHz(), 1, RANGING_SAMPLES_PER_TOP_CYCLE * top(d));
-        settle.run();
         int ranging = ranger.probe();
+        double left = settleSecond - (System.nanoTime() - on) / 1e9;
+        if (left > 0) {
+            sleeper.sleep(left);
+        }
         Timing timing = TimeBase.set(digitizer, d.baseHz(), periods(sweep, d), samplesPerPeriod(sweep, d));
         AutoRanger.Capture capture = ranger.acquire();
         double[][] v = SweepRunner.volts(plan, capture);

@@ -65,35 +65,40 @@ public final class SweepRunner {
         listener.sweepStarted();
         generator.prepare();
         digitizer.prepare();
-        MultisineDesign.Design multisine = null;
-        if (sweep.multisine()) {
-            multisine = MultisineCapture.load(generator, sweep, generator.maxArbitrarySamples());
-        } else {
-            generator.setWaveform(Waveform.SINE);
-            generator.setFrequency(sweep.frequenciesHz().get(0));
-            generator.setAmplitude(sweep.amplitudeVolt());
-            generator.setOffset(sweep.offsetVolt());
-        }
-        for (int ch = 1; ch <= 2; ch++) {
-            digitizer.setCoupling(ch, Coupling.DC);
-            digitizer.setOffset(ch, 0.0);
-        }
-        // the sense-resistor voltage is the current: trigger on its rising zero crossing; with a DC
-        // offset the crossing level is unknown, so let the digitizer run free (the fit needs no trigger)
-        if (sweep.offsetVolt() == 0) {
-            digitizer.setTrigger(TriggerSource.CHANNEL1, 0.0, true);
-        } else {
-            digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
-        }
+        MultisineDesign.Design[] multisine = {null};
+        // the settings of each instrument in one message where its driver can
+        generator.batch(() -> {
+            if (sweep.multisine()) {
+                multisine[0] = MultisineCapture.load(generator, sweep, generator.maxArbitrarySamples());
+            } else {
+                generator.setWaveform(Waveform.SINE);
+                generator.setFrequency(sweep.frequenciesHz().get(0));
+                generator.setAmplitude(sweep.amplitudeVolt());
+                generator.setOffset(sweep.offsetVolt());
+            }
+        });
+        digitizer.batch(() -> {
+            for (int ch = 1; ch <= 2; ch++) {
+                digitizer.setCoupling(ch, Coupling.DC);
+                digitizer.setOffset(ch, 0.0);
+            }
+            // the sense-resistor voltage is the current: trigger on its rising zero crossing; with a DC
+            // offset the crossing level is unknown, so let the digitizer run free (the fit needs no trigger)
+            if (sweep.offsetVolt() == 0) {
+                digitizer.setTrigger(TriggerSource.CHANNEL1, 0.0, true);
+            } else {
+                digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
+            }
+        });
         // no node of this passive circuit exceeds the source EMF: start both channels above it
         double start = 2.2 * (sweep.amplitudeVolt() + Math.abs(sweep.offsetVolt()));
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         List<PointResult> points = new ArrayList<>();
         generator.outputOn();
         try {
-            if (multisine != null) {
-                points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, () -> sleeper.sleep(
-                        Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond())),
+            if (multisine[0] != null) {
+                points.addAll(MultisineCapture.measure(plan, multisine[0], digitizer, ranger, sleeper,
+                        Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()),
                         openCircuit));
                 for (int i = 0; i < points.size(); i++) {
                     listener.pointMeasured(i, points.size(), points.get(i));
@@ -128,9 +133,11 @@ public final class SweepRunner {
     /** Drives the triangle, captures both channels and extracts R and L in the time domain. */
     private TriangleExtraction.Result triangle(Plan plan, ImpedancePoint last) {
         TriangleCheck t = plan.triangle();
-        generator.setWaveform(Waveform.TRIANGLE);
-        generator.setAmplitude(t.amplitudeVolt());
-        generator.setFrequency(t.frequencyHz());
+        generator.batch(() -> {
+            generator.setWaveform(Waveform.TRIANGLE);
+            generator.setAmplitude(t.amplitudeVolt());
+            generator.setFrequency(t.frequencyHz());
+        });
         double start = 2.2 * t.amplitudeVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         sleeper.sleep(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond()));

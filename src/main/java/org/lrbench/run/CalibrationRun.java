@@ -30,13 +30,17 @@ public final class CalibrationRun {
     public static ChannelMatch channels(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper) {
         List<PointResult> points = sweep(plan, inst, change, FixturePosition.CHANNEL_MATCH, sleeper, false);
         double[] f = new double[points.size()];
+        double[] u = new double[points.size()];
         List<Complex> ratio = new ArrayList<>();
         for (int i = 0; i < points.size(); i++) {
             ImpedancePoint z = points.get(i).impedance();
             f[i] = z.frequencyHz();
             ratio.add(z.impedanceOhm().divide(plan.senseResistanceOhm()));
+            // each point's relative standard uncertainty, its phasors' scatter and its quantization correction's
+            u[i] = Math.hypot(z.componentUncertaintyOhm() / z.impedanceOhm().abs(),
+                    points.get(i).quantizationRelativeUncertainty());
         }
-        return ChannelMatch.fit(now(), f, ratio).withRangePairs(points.stream()
+        return ChannelMatch.fit(now(), f, ratio, u).withRangePairs(points.stream()
                 .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList());
     }
 

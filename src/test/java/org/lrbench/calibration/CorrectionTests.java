@@ -41,6 +41,27 @@ class CorrectionTests {
     }
 
     @Test
+    void channelMatchWeighsEachPointByItsOwnUncertainty() {
+        // the inverse-variance weighted mean and its internal and external (Birge ratio) standard
+        // uncertainties: common practice, no source; R. T. Birge, Phys. Rev. 40 (1932), from memory
+        double[] f = {1e3, 2e3, 5e3, 1e4, 1e5};
+        double[] u = {1e-4, 1e-4, 1e-4, 1e-4, 1e-2};
+        double[] off = {1e-4, -1e-4, 1e-4, -1e-4, 2e-2};   // the last point, on a small range, is far off
+        List<Complex> h = new ArrayList<>();
+        for (int i = 0; i < f.length; i++) {
+            h.add(new Complex(1.004 * (1 + off[i]), 0));
+        }
+        ChannelMatch weighted = ChannelMatch.fit("t", f, h, u);
+        // weights 1e8 for four points and 1e4 for the last: the mean moves by 2e-2 x 1e4 / (4e8 + 1e4)
+        assertThat(weighted.gainRatio()).isCloseTo(1.004 * (1 + 2e-2 * 1e4 / (4e8 + 1e4)), within(1e-12));
+        // chi^2 / (n - 1) is about (4 x 1 + 4) / 4 = 2: the scatter's uncertainty, sqrt(2) above the internal one
+        double internal = 1.004 / Math.sqrt(4e8 + 1e4);
+        assertThat(weighted.gainUncertainty()).isBetween(1.3 * internal, 1.5 * internal);
+        // with equal weights the far point pulls the mean by a fifth of its offset
+        assertThat(ChannelMatch.fit("t", f, h).gainRatio()).isCloseTo(1.004 * (1 + 2e-2 / 5), within(1e-9));
+    }
+
+    @Test
     void openShortCompensationInvertsTheFixtureModel() {
         // Open/short compensation (the usual series-residual, shunt-admittance fixture model, derived):
         // Z_m = Z_s + 1 / (Y_o + 1 / Z_dut) is undone by (Z_m - Z_s) / (1 - (Z_m - Z_s) Y_o)

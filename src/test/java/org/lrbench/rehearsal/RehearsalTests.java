@@ -28,6 +28,22 @@ class RehearsalTests {
     }
 
     @Test
+    void aPartIsTimedAtLeastAsLongAsItsRecordsAndSettles() throws Exception {
+        // physical floor, common practice, no source: a stepped point cannot take less than its settle
+        // and its record (cycles / f); the one multisine capture no less than the settle and its record
+        Plan p = plan("", "");
+        PartTime.Estimate t = PartTime.of(p, BENCH, new DriverLoader(TestBench.home().resolve("drivers")), true, null);
+        assertThat(t.timing().name()).isEqualTo("lan"); // the bench file sets no timing
+        double floor = 0;
+        for (double f : p.sweep().frequenciesHz()) {
+            floor += p.sweep().settleSecond() + p.sweep().cycles() / f;
+        }
+        assertThat(t.steppedSecond()).isGreaterThan(floor);
+        assertThat(t.multisineSecond()).isGreaterThan(p.sweep().settleSecond() + p.sweep().cycles() / p.sweep().lowestHz());
+        assertThat(t.multisineSecond()).isLessThan(t.steppedSecond());
+    }
+
+    @Test
     void theShippedPlanDecidesEveryLimitRightWithoutWarnings() throws Exception {
         Rehearsal.Result r = Rehearsal.rehearse(plan("", ""), BENCH, new DriverLoader(TestBench.home().resolve("drivers")), 1);
         assertThat(r.allRight()).isTrue();

@@ -68,6 +68,19 @@ public final class Call {
      */
     public double number(int index, double min, double max, double def) throws ScpiFault {
         String p = parameters.get(index).trim();
+        if (plainDecimal(p)) {
+            // the common case, a plain decimal number without a suffix (an arbitrary waveform has thousands)
+            double value;
+            try {
+                value = Double.parseDouble(p);
+            } catch (NumberFormatException e) {
+                throw ScpiFault.dataType(header + " " + p);
+            }
+            if (!(value >= min && value <= max)) {
+                throw ScpiFault.outOfRange(header + " " + p);
+            }
+            return value;
+        }
         String upper = p.toUpperCase(Locale.ROOT);
         if (upper.equals("MIN") || upper.equals("MINIMUM")) {
             return min;
@@ -87,6 +100,24 @@ public final class Call {
             throw ScpiFault.outOfRange(header + " " + p);
         }
         return value;
+    }
+
+    /** Digits, signs, a point and exponent letters only, starting with a digit, sign or point. */
+    private static boolean plainDecimal(String p) {
+        if (p.isEmpty()) {
+            return false;
+        }
+        char first = p.charAt(0);
+        if (!(first >= '0' && first <= '9' || first == '+' || first == '-' || first == '.')) {
+            return false;
+        }
+        for (int i = 1; i < p.length(); i++) {
+            char c = p.charAt(i);
+            if (!(c >= '0' && c <= '9' || c == '+' || c == '-' || c == '.' || c == 'e' || c == 'E')) {
+                return false;
+            }
+        }
+        return true;
     }
 
     /** A character parameter matched against long-form mnemonics (long or short accepted). */
