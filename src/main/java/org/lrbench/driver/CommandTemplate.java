@@ -6,6 +6,7 @@ import java.util.Map;
 import java.util.Set;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.lrbench.scpi.DefiniteBlock;
 import org.lrbench.scpi.ScpiNumbers;
 
 /**
@@ -114,9 +115,9 @@ public final class CommandTemplate {
     /** A value may hold only what SCPI numbers and mnemonics are made of. */
     static void requireToken(String name, String value) {
         // a SCPI channel list of whole channel numbers, "(@101)" or "(@101,102)", is another form, and
-        // {points} alone (an arbitrary waveform's) takes numbers separated by commas
+        // {points} alone (an arbitrary waveform's) takes numbers separated by commas or one definite block
         if (!value.matches("[A-Za-z0-9+\\-.]+") && !value.matches("\\(@[0-9]{1,6}(,[0-9]{1,6})*\\)")
-                && !(name.equals("points") && numberList(value))) {
+                && !(name.equals("points") && (numberList(value) || DefiniteBlock.data(value) != null))) {
             throw new IllegalArgumentException("value '" + value + "' for {" + name
                     + "} is not a SCPI number or mnemonic (letters, digits, + - . only)");
         }

@@ -17,7 +17,10 @@ public record DriverFile(String name, String source, DriverKind kind, String des
                          Map<String, Pattern> identity, Duration timeout, String errorQuery,
                          Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
                          TraceEncoding traceEncoding, DigitizerTraits digitizer, double levelPerEmf,
-                         InstrumentLimits limits, double frequencySettleSecond) {
+                         InstrumentLimits limits, double frequencySettleSecond, String arbitraryEncoding) {
+
+    /** How a source's arbitrary waveform goes: an ASCII list, or a block of 16-bit words. */
+    public static final java.util.List<String> ARBITRARY_ENCODINGS = java.util.List.of("ascii", "int16-big", "int16-little");
 
     /** Whether the driver has a template for the operation (some are needed only for some traits). */
     public boolean has(String operation) {

@@ -53,7 +53,7 @@ public final class DriverLoader {
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
                 "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator",
-                "frequency_settle");
+                "frequency_settle", "arbitrary_encoding");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -161,11 +161,20 @@ public final class DriverLoader {
         } else if (frequencySettle != null && kind != DriverKind.SOURCE) {
             root.problem("frequency_settle", "only source drivers settle after a frequency change");
         }
+        // a source's arbitrary waveform: an ASCII list (default) or a definite block of 16-bit words
+        String arbitraryEncoding = root.text("arbitrary_encoding", false);
+        if (arbitraryEncoding != null && kind != DriverKind.SOURCE) {
+            root.problem("arbitrary_encoding", "only source drivers load arbitrary waveforms");
+        } else if (arbitraryEncoding != null && !DriverFile.ARBITRARY_ENCODINGS.contains(arbitraryEncoding)) {
+            root.problem("arbitrary_encoding", "'" + arbitraryEncoding + "' is not an arbitrary-waveform encoding; allowed: "
+                    + String.join(", ", DriverFile.ARBITRARY_ENCODINGS));
+        }
         problems.throwIfAny();
         Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
         return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
                 errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits,
-                levelPerEmf, limits, frequencySettle == null ? 0 : frequencySettle);
+                levelPerEmf, limits, frequencySettle == null ? 0 : frequencySettle,
+                arbitraryEncoding == null ? "ascii" : arbitraryEncoding);
     }
 
     /**

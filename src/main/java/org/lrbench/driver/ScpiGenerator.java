@@ -1,9 +1,12 @@
 package org.lrbench.driver;
 
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
 import java.util.Locale;
 import java.util.Map;
 import org.lrbench.instrument.Generator;
 import org.lrbench.instrument.Waveform;
+import org.lrbench.scpi.DefiniteBlock;
 import org.lrbench.scpi.ScpiNumbers;
 import org.lrbench.scpi.ScpiSession;
 
@@ -49,28 +52,47 @@ public final class ScpiGenerator extends DrivenInstrument implements Generator {
     }
 
     /**
-     * Sends the samples as an ASCII list (six decimals: steps of 1e-6 of the peak, finer than a
-     * 16-bit waveform memory's), then the playback rate, then selects the waveform.
+     * Sends the samples as the driver says: an ASCII list (six decimals: steps of 1e-6 of the peak,
+     * finer than a 16-bit waveform memory's), or an IEEE 488.2 definite block of 16-bit two's
+     * complement words, full scale +/-32767, in either byte order (a fifth of the bytes); then the
+     * playback rate; then selects the waveform.
      */
     @Override
     public void loadArbitrary(double[] samples, double sampleRateHz) {
         if (!playsArbitrary()) {
             Generator.super.loadArbitrary(samples, sampleRateHz);
         }
-        StringBuilder list = new StringBuilder(samples.length * 10);
         for (int i = 0; i < samples.length; i++) {
             if (!(Math.abs(samples[i]) <= 1)) {
                 throw new IllegalArgumentException("arbitrary sample " + i + " is " + samples[i] + "; allowed -1 to 1");
             }
+        }
+        String points = driver.arbitraryEncoding().equals("ascii") ? asciiList(samples)
+                : DefiniteBlock.of(words(samples, driver.arbitraryEncoding().equals("int16-big")));
+        configure("arbitrary_data", Map.of("points", points, "count", Integer.toString(samples.length)));
+        configure("arbitrary_rate", Map.of("rate", ScpiNumbers.nr3(sampleRateHz),
+                "frequency", ScpiNumbers.nr3(sampleRateHz / samples.length)));
+        configure("arbitrary_select", Map.of());
+    }
+
+    private static String asciiList(double[] samples) {
+        StringBuilder list = new StringBuilder(samples.length * 10);
+        for (int i = 0; i < samples.length; i++) {
             if (i > 0) {
                 list.append(',');
             }
             appendMicro(list, samples[i]);
         }
-        configure("arbitrary_data", Map.of("points", list.toString(), "count", Integer.toString(samples.length)));
-        configure("arbitrary_rate", Map.of("rate", ScpiNumbers.nr3(sampleRateHz),
-                "frequency", ScpiNumbers.nr3(sampleRateHz / samples.length)));
-        configure("arbitrary_select", Map.of());
+        return list.toString();
+    }
+
+    /** The samples as 16-bit words, -1 to 1 as -32767 to 32767. */
+    static byte[] words(double[] samples, boolean bigEndian) {
+        ByteBuffer b = ByteBuffer.allocate(2 * samples.length).order(bigEndian ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
+        for (double v : samples) {
+            b.putShort((short) Math.round(v * 32767));
+        }
+        return b.array();
     }
 
     /** {@code v} with six decimals, as %.6f would give it, without a formatter per sample. */

@@ -81,18 +81,19 @@ public final class ScpiSession implements AutoCloseable {
             flushLateReplies();
             stale = false;
         }
-        byte[] text = command.getBytes(StandardCharsets.US_ASCII);
+        // ISO 8859-1: ASCII text byte for byte, and a definite block's bytes as they are
+        byte[] text = command.getBytes(StandardCharsets.ISO_8859_1);
         byte[] message = new byte[text.length + terminator.length];
         System.arraycopy(text, 0, message, 0, text.length);
         System.arraycopy(terminator, 0, message, text.length, terminator.length);
         if (IO.isDebugEnabled()) {
-            IO.debug("{} > {}", instrument, command);
+            IO.debug("{} > {}", instrument, printable(command));
         }
         long start = System.nanoTime();
         try {
             transport.write(message);
         } catch (IOException e) {
-            throw new InstrumentException(instrument + " (" + transport.address() + "): sending '" + command
+            throw new InstrumentException(instrument + " (" + transport.address() + "): sending '" + printable(command)
                     + "' failed: " + e.getMessage(), e);
         } finally {
             ioNanos += System.nanoTime() - start;
@@ -233,17 +234,17 @@ public final class ScpiSession implements AutoCloseable {
         } catch (InstrumentException timeout) {
             List<ScpiError> errors = drainErrors(errorQuery);
             throw new InstrumentException(errors.isEmpty() ? timeout.getMessage()
-                    : instrument + ": '" + command + "' caused " + errors, timeout);
+                    : instrument + ": '" + printable(command) + "' caused " + errors, timeout);
         }
         if (replies.isEmpty()) {
-            throw new InstrumentException(instrument + ": reply to '" + message + "' is empty");
+            throw new InstrumentException(instrument + ": reply to '" + printable(message) + "' is empty");
         }
         ScpiError first = parseError(replies.get(replies.size() - 1));
         if (!first.isNoError()) {
             List<ScpiError> errors = new ArrayList<>();
             errors.add(first);
             errors.addAll(drainErrors(errorQuery));
-            throw new InstrumentException(instrument + ": '" + command + "' caused " + errors);
+            throw new InstrumentException(instrument + ": '" + printable(command) + "' caused " + errors);
         }
         return replies.subList(0, replies.size() - 1);
     }
@@ -406,11 +407,38 @@ public final class ScpiSession implements AutoCloseable {
         return (System.nanoTime() - startNanos) / 1_000_000;
     }
 
+    /** The command with each definite block shown as its size, for the I/O log and messages. */
+    static String printable(String command) {
+        if (command.indexOf('#') < 0) {
+            return command;
+        }
+        StringBuilder out = new StringBuilder();
+        for (int i = 0; i < command.length(); i++) {
+            int end = DefiniteBlock.end(command, i);
+            if (end > 0) {
+                out.append("<block of ").append(end - i).append(" bytes>");
+                i = end - 1;
+            } else {
+                out.append(command.charAt(i));
+            }
+        }
+        return out.toString();
+    }
+
+    /** One program message: printable ASCII, except inside definite blocks, which may hold any byte. */
     private static void requireSingleMessage(String command) {
         for (int i = 0; i < command.length(); i++) {
+            int end = command.charAt(i) == '#' ? DefiniteBlock.end(command, i) : -1;
+            if (end > 0) {
+                if (command.chars().skip(i).limit(end - i).anyMatch(ch -> ch > 0xff)) {
+                    throw new IllegalArgumentException("a block holds a character that is not a byte");
+                }
+                i = end - 1;
+                continue;
+            }
             char c = command.charAt(i);
             if (c == '\n' || c == '\r' || c < 0x20 || c > 0x7e) {
-                throw new IllegalArgumentException("command '" + command.replace("\n", "\\n")
+                throw new IllegalArgumentException("command '" + printable(command).replace("\n", "\\n")
                         + "' holds a control or non-ASCII character at index " + i);
             }
         }

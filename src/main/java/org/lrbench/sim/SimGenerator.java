@@ -49,8 +49,12 @@ public final class SimGenerator extends ScpiDevice {
     /** The arbitrary-waveform memory: points and fastest playback rate. */
     public static final int MAX_ARBITRARY_POINTS = 65536;
     public static final double MAX_ARBITRARY_RATE = 100e6;
-    /** Lines of an arbitrary waveform below this fraction of its largest are rounding, not signal. */
-    private static final double LINE_FLOOR = 1e-6;
+    /**
+     * Lines of an arbitrary waveform below this fraction of its largest (-100 dB) are left out: the
+     * points' own rounding (16-bit words spread it over every bin near -130 dB) and spurs far below
+     * any simulated digitizer's resolution and noise, each of which would cost the synthesis a line.
+     */
+    private static final double LINE_FLOOR = 1e-5;
 
     private final double outputOhm;
     private final Personality personality;
@@ -154,11 +158,30 @@ public final class SimGenerator extends ScpiDevice {
             case SQUARE -> "SQU";
             case ARBITRARY -> "USER";
         });
+        // one period of points: an ASCII list from -1 to 1, or one definite block of 16-bit words,
+        // most significant byte first, full scale +/-32767
         register("[SOURce#]:TRACe[:DATA]", false, c -> {
-            c.expect(16, MAX_ARBITRARY_POINTS).suffixUpTo(1);
-            double[] points = new double[c.count()];
-            for (int i = 0; i < points.length; i++) {
-                points[i] = c.number(i, -1, 1, 0);
+            c.expect(1, MAX_ARBITRARY_POINTS).suffixUpTo(1);
+            double[] points;
+            if (c.count() == 1 && c.isBlock(0)) {
+                byte[] data = c.block(0);
+                if (data.length % 2 != 0 || data.length / 2 < 16 || data.length / 2 > MAX_ARBITRARY_POINTS) {
+                    throw ScpiFault.invalidBlock(data.length + " bytes: 16 to " + MAX_ARBITRARY_POINTS + " 16-bit words");
+                }
+                points = new double[data.length / 2];
+                for (int i = 0; i < points.length; i++) {
+                    int word = (short) ((data[2 * i] & 0xff) << 8 | data[2 * i + 1] & 0xff);
+                    if (word == Short.MIN_VALUE) {
+                        throw ScpiFault.outOfRange("word " + i + " is -32768; full scale is +/-32767");
+                    }
+                    points[i] = word / 32767.0;
+                }
+            } else {
+                c.expect(16, MAX_ARBITRARY_POINTS);
+                points = new double[c.count()];
+                for (int i = 0; i < points.length; i++) {
+                    points[i] = c.number(i, -1, 1, 0);
+                }
             }
             loadArbitrary(points);
             return null;

@@ -61,8 +61,16 @@ class DriverLoaderTests {
             ScpiGenerator.appendMicro(b, v);
             assertThat(b.toString()).as("%s", v).isEqualTo(String.format(java.util.Locale.ROOT, "%.6f", v).replace("-0.000000", "0.000000"));
         }
+        // 16-bit two's complement words, full scale +/-32767 (common practice, no source): 1 is 7FFF,
+        // -1 is 8001, 0.5 rounds to 4000; little-endian swaps each pair
+        assertThat(ScpiGenerator.words(new double[] {1, -1, 0.5}, true))
+                .containsExactly(0x7f, 0xff, 0x80, 0x01, 0x40, 0x00);
+        assertThat(ScpiGenerator.words(new double[] {1, -1, 0.5}, false))
+                .containsExactly(0xff, 0x7f, 0x01, 0x80, 0x00, 0x40);
         // an arbitrary waveform's {points} take a list of numbers, and nothing else
         CommandTemplate data = CommandTemplate.parse(":SOUR:TRAC:DATA {points}", Set.of("points"));
+        assertThat(data.render(Map.of("points", org.lrbench.scpi.DefiniteBlock.of(new byte[] {1, 10, 59}))))
+                .isEqualTo(":SOUR:TRAC:DATA #13\u0001\n;");
         assertThat(data.render(Map.of("points", "0.5,-1.000000,1E-3"))).isEqualTo(":SOUR:TRAC:DATA 0.5,-1.000000,1E-3");
         for (String attack : new String[] {"1;*RST", "1,,2", "1, 2", "1,OUTP ON", ",1", "1,"}) {
             assertThatThrownBy(() -> data.render(Map.of("points", attack)))

@@ -108,4 +108,36 @@ class ScpiDeviceTests {
     static final class ScpiDeviceConstants {
         static final int DEPTH = ScpiDevice.QUEUE_DEPTH;
     }
+
+    @Test
+    void aDefiniteBlockIsFramedByItsCountWhateverBytesItHolds() {
+        // IEEE Std 488.2-1992, 7.7.6: #, a digit d, d digits of byte count, then that many bytes of any
+        // value; a newline, ';' or ',' inside is data. 32 words whose bytes include 0x0A, ';', ',' and
+        // a last byte that is white space
+        SimGenerator g = new SimGenerator(50);
+        byte[] data = new byte[64];
+        for (int i = 0; i < 32; i++) {
+            short w = (short) (i % 4 == 0 ? 0x0A3B : i % 4 == 1 ? 0x2C20 : i % 4 == 2 ? -32767 : 32767);
+            data[2 * i] = (byte) (w >> 8);
+            data[2 * i + 1] = (byte) w;
+        }
+        data[63] = 0x20;
+        String block = org.lrbench.scpi.DefiniteBlock.of(data);
+        byte[] message = (":TRACe:DATA " + block + ";:TRACe:RATE 3.2E4;:FUNC USER;:SYST:ERR?\n")
+                .getBytes(StandardCharsets.ISO_8859_1);
+        // in three pieces, as a link may deliver it
+        g.receive(java.util.Arrays.copyOfRange(message, 0, 15));
+        g.receive(java.util.Arrays.copyOfRange(message, 15, 40));
+        g.receive(java.util.Arrays.copyOfRange(message, 40, message.length));
+        byte[] buf = new byte[256];
+        int n = g.transmit(buf, 0, buf.length);
+        assertThat(new String(buf, 0, n, StandardCharsets.US_ASCII).strip()).isEqualTo("0,\"No error\"");
+        assertThat(g.waveform()).isEqualTo(Waveform.ARBITRARY);
+        assertThat(ask(g, "TRACe:POINts?")).isEqualTo("32");
+        // 32 points repeated at 32 kpoints/s: the waveform repeats at 1 kHz
+        assertThat(g.frequency()).isEqualTo(1000.0);
+        // a block one byte short of a word is refused (SCPI-1999 -161, invalid block data)
+        ask(g, ":TRACe:DATA #13abc");
+        assertThat(ask(g, "SYST:ERR?")).startsWith("-161");
+    }
 }

@@ -5,6 +5,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.lrbench.scpi.DefiniteBlock;
 
 /** One received command or query: its header suffix and its parameters, with typed accessors. */
 public final class Call {
@@ -100,6 +101,24 @@ public final class Call {
             throw ScpiFault.outOfRange(header + " " + p);
         }
         return value;
+    }
+
+    /**
+     * A definite-length block parameter's bytes (IEEE 488.2 7.7.6); error -161 (invalid block data)
+     * when the parameter is not one.
+     */
+    public byte[] block(int index) throws ScpiFault {
+        byte[] data = DefiniteBlock.data(parameters.get(index));
+        if (data == null) {
+            throw ScpiFault.invalidBlock(header + ": expected a definite-length block");
+        }
+        return data;
+    }
+
+    /** Whether the parameter is a definite-length block. */
+    public boolean isBlock(int index) {
+        String p = parameters.get(index);
+        return !p.isEmpty() && p.charAt(0) == '#' && DefiniteBlock.data(p) != null;
     }
 
     /** Digits, signs, a point and exponent letters only, starting with a digit, sign or point. */

@@ -10,6 +10,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.lrbench.scpi.DefiniteBlock;
 import org.lrbench.transport.inproc.InProcessPeer;
 
 /**
@@ -24,6 +25,11 @@ public abstract class ScpiDevice implements InProcessPeer {
     /** Error queue depth; on overflow the last entry becomes -350 (SCPI-1999 Vol. 2, 21.8). */
     public static final int QUEUE_DEPTH = 20;
     private static final int MAX_MESSAGE = 1 << 20;
+    /** Framing a definite block: -1 outside one, -2 just after '#', else header digits still to read. */
+    private int blockDigits = -1;
+    private long blockCount;
+    private long blockLeft;
+    private boolean quoted;
 
     /** Executes one command; returns null, a response String, or response bytes (a block). */
     @FunctionalInterface
@@ -97,16 +103,60 @@ public abstract class ScpiDevice implements InProcessPeer {
     @Override
     public synchronized void receive(byte[] bytes) {
         for (byte b : bytes) {
-            if (b == '\n') {
+            if (blockLeft > 0) {
+                // inside a definite block (IEEE 488.2 7.7.6) every byte is data, a newline too
+                blockLeft--;
+                keep(b);
+                continue;
+            }
+            if (b == '\n' && blockDigits < 0) {
                 String message = input.toString(StandardCharsets.ISO_8859_1);
                 input.reset();
+                quoted = false;
+                blockDigits = -1;
                 execute(message.endsWith("\r") ? message.substring(0, message.length() - 1) : message);
-            } else if (input.size() < MAX_MESSAGE) {
-                input.write(b);
-            } else {
-                input.reset();
-                pushError(-102, "Syntax error;program message too long");
+                continue;
             }
+            keep(b);
+            watchForBlock(b);
+        }
+    }
+
+    /** Follows a definite block's header ('#', a digit d, d digits of count) so its data frame whole. */
+    private void watchForBlock(byte b) {
+        if (blockDigits == -2) {
+            // after '#': a digit 1 to 9 starts a definite block's header
+            blockDigits = b >= '1' && b <= '9' ? b - '0' : -1;
+            blockCount = 0;
+            return;
+        }
+        if (blockDigits > 0) {
+            blockCount = b >= '0' && b <= '9' ? blockCount * 10 + (b - '0') : -1;
+            if (blockCount < 0) {
+                blockDigits = -1;
+                return;
+            }
+            if (--blockDigits == 0) {
+                blockLeft = blockCount;
+                blockDigits = -1;
+            }
+            return;
+        }
+        if (b == '"') {
+            quoted = !quoted;
+        } else if (b == '#' && !quoted) {
+            blockDigits = -2;
+        }
+    }
+
+    private void keep(byte b) {
+        if (input.size() < MAX_MESSAGE) {
+            input.write(b);
+        } else {
+            input.reset();
+            blockLeft = 0;
+            blockDigits = -1;
+            pushError(-102, "Syntax error;program message too long");
         }
     }
 
@@ -169,7 +219,7 @@ public abstract class ScpiDevice implements InProcessPeer {
         ByteArrayOutputStream response = new ByteArrayOutputStream();
         List<HeaderPattern.Token> path = List.of();
         for (String unit : splitUnits(message)) {
-            String trimmed = unit.strip();
+            String trimmed = strip(unit);
             if (trimmed.isEmpty()) {
                 if (!message.isBlank()) {
                     pushError(-102, "Syntax error;empty message unit");
@@ -210,7 +260,7 @@ public abstract class ScpiDevice implements InProcessPeer {
             space++;
         }
         String header = unit.substring(0, space);
-        List<String> params = splitParameters(unit.substring(space).strip(), header);
+        List<String> params = splitParameters(strip(unit.substring(space)), header);
         if (header.startsWith("*")) {
             Handler h = common.get(header.toUpperCase(Locale.ROOT));
             if (h == null) {
@@ -257,7 +307,14 @@ public abstract class ScpiDevice implements InProcessPeer {
         List<String> units = new ArrayList<>();
         StringBuilder current = new StringBuilder();
         boolean quoted = false;
-        for (char c : message.toCharArray()) {
+        for (int i = 0; i < message.length(); i++) {
+            char c = message.charAt(i);
+            int block = c == '#' && !quoted ? DefiniteBlock.end(message, i) : -1;
+            if (block > 0) {
+                current.append(message, i, block);
+                i = block - 1;
+                continue;
+            }
             if (c == '"') {
                 quoted = !quoted;
             }
@@ -280,7 +337,14 @@ public abstract class ScpiDevice implements InProcessPeer {
         // commas inside a channel list "(@101,102)" (SCPI-1999 Vol. 1, 8.3.2) do not separate parameters
         StringBuilder current = new StringBuilder();
         int depth = 0;
-        for (char c : text.toCharArray()) {
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            int block = c == '#' ? DefiniteBlock.end(text, i) : -1;
+            if (block > 0) {
+                current.append(text, i, block);
+                i = block - 1;
+                continue;
+            }
             if (c == '(') {
                 depth++;
             } else if (c == ')') {
@@ -300,7 +364,21 @@ public abstract class ScpiDevice implements InProcessPeer {
         if (current.toString().isBlank()) {
             throw ScpiFault.syntax(header + " empty parameter");
         }
-        params.add(current.toString().strip());
+        params.add(strip(current.toString()));
         current.setLength(0);
+    }
+
+    /** Strips white space around a unit or parameter, but none from inside a definite block's data. */
+    static String strip(String text) {
+        String lead = text.stripLeading();
+        int keep = 0;
+        for (int i = 0; i < lead.length(); i++) {
+            int end = lead.charAt(i) == '#' ? DefiniteBlock.end(lead, i) : -1;
+            if (end > 0) {
+                keep = end;
+                i = end - 1;
+            }
+        }
+        return lead.substring(0, keep) + lead.substring(keep).stripTrailing();
     }
 }

@@ -59,6 +59,11 @@ public final class ScpiFault extends Exception {
         return new ScpiFault(-224, "Illegal parameter value;" + detail);
     }
 
+    /** SCPI-1999 -161, invalid block data. */
+    public static ScpiFault invalidBlock(String detail) {
+        return new ScpiFault(-161, "Invalid block data;" + detail);
+    }
+
     public static ScpiFault stale(String detail) {
         return new ScpiFault(-230, "Data corrupt or stale;" + detail);
     }
