@@ -3,10 +3,13 @@ package org.lrbench.benchmark;
 import java.io.PrintStream;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.PointResult;
@@ -16,10 +19,12 @@ import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
 import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.CalibrationRun;
 import org.lrbench.run.PartRun;
 import org.lrbench.scpi.ScpiSession;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
+import org.lrbench.sim.SimLot;
 import org.lrbench.sim.SimTiming;
 
 /**
@@ -47,7 +52,7 @@ public final class ThroughputBenchmark {
     }
 
     public static int run(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part,
-                          List<SimTiming> profiles) throws Exception {
+                          List<SimTiming> profiles, SimLot lot) throws Exception {
         out.printf(Locale.ROOT, "throughput of plan %s, one part on the simulated bench, per timing profile%n",
                 plan.partNumber());
         out.printf(Locale.ROOT, "%-8s %-8s %10s %10s %7s %11s %14s %14s%n", "profile", "settle", "part", "minimum", "ratio",
@@ -71,6 +76,7 @@ public final class ThroughputBenchmark {
         }
         out.println("goals: part time at most 1.15x the physical minimum; at most 6 round trips per point");
         misses += excitations(out, bench, plan, drivers, part, profiles);
+        misses += lotVerdicts(out, bench, plan, drivers, lot);
         out.println(misses == 0 ? "every goal met" : misses + " row(s) miss a goal (marked MISS)");
         return misses;
     }
@@ -107,6 +113,49 @@ public final class ThroughputBenchmark {
         }
         out.println("goals: the multisine sweep at least 3x faster, U of L and R at most 1.5x, the same verdict");
         return misses;
+    }
+
+    /**
+     * The demo lot's parts measured stepped and as one multisine, each after its own calibration of
+     * the simulated bench with that excitation (instruments that answer at once): the verdicts side
+     * by side. Goal: the same verdict for every part.
+     */
+    static int lotVerdicts(PrintStream out, BenchConfig bench, Plan plan, Path drivers, SimLot lot) throws Exception {
+        out.printf(Locale.ROOT, "%nverdicts on lot %s, stepped against one multisine%n", lot.lot());
+        DriverLoader loader = new DriverLoader(drivers);
+        Map<Boolean, List<String>> verdicts = new LinkedHashMap<>();
+        for (boolean multisine : new boolean[] {false, true}) {
+            Plan p = plan.withSweep(plan.sweep().withMultisine(multisine));
+            SimBench calBench = new SimBench(bench.simulation(), p.wiring(), lot.parts().get(0).model());
+            Calibration corrections;
+            try (BenchInstruments inst = BenchInstruments.open(bench, loader, calBench)) {
+                corrections = CalibrationRun.calibrate(p, inst, calBench::setPosition, Sleeper.NONE);
+            }
+            List<String> v = new ArrayList<>();
+            int i = 0;
+            for (SimLot.Part part : lot.parts()) {
+                BenchConfig b = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 31L * ++i));
+                SimBench sim = new SimBench(b.simulation(), p.wiring(), part.model());
+                try (BenchInstruments inst = BenchInstruments.open(b, loader, sim)) {
+                    PartResult r = PartRun.measure(new PartRun.Request(p, "0", b, lot.lot(), part.serial(), true,
+                            "benchmark", corrections), inst, Sleeper.NONE, SweepListener.NONE);
+                    // the verdict and which limits failed (their values differ a little between methods)
+                    List<String> failed = r.limits().stream().filter(l -> !l.pass()).map(PartResult.LimitRecord::name).toList();
+                    v.add(r.verdict() + (failed.isEmpty() ? "" : " (" + String.join(", ", failed) + ")"));
+                }
+            }
+            verdicts.put(multisine, v);
+        }
+        int differ = 0;
+        out.printf(Locale.ROOT, "%-14s %-44s %-44s%n", "serial", "stepped", "multisine");
+        for (int i = 0; i < lot.parts().size(); i++) {
+            String a = verdicts.get(false).get(i);
+            String b = verdicts.get(true).get(i);
+            differ += a.equals(b) ? 0 : 1;
+            out.printf(Locale.ROOT, "%-14s %-44s %-44s%s%n", lot.parts().get(i).serial(), a, b, a.equals(b) ? "" : "   MISS");
+        }
+        out.println(differ == 0 ? "the same verdict for every part" : differ + " part(s) judged differently (marked MISS)");
+        return differ;
     }
 
     static Figures measure(BenchConfig bench, Plan plan, Path drivers, PartModel part, SimTiming timing) throws Exception {

@@ -126,7 +126,7 @@ final class BenchmarkCommand implements Runnable {
             BenchConfig bench = Inputs.bench(Home.defaultBench());
             Plan plan = demoPlan(bench);
             int misses = org.lrbench.benchmark.ThroughputBenchmark.run(System.out, bench, plan, Home.drivers(),
-                    nominalPart(), timings);
+                    nominalPart(), timings, org.lrbench.sim.SimLot.load(Home.demoLot()));
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }
