@@ -403,6 +403,19 @@ class CommandLineTests {
     }
 
     @Test
+    void aStudyOfTheDemoPlanShowsTheSimulatedBenchFitAndSaysWhy() throws Exception {
+        // the figures' definitions are checked in study.GaugeStudyTests; here the command end to end
+        Outcome o = run("study", PLAN, "--benches", HOME.resolve("simulator/bench.yaml") + "," + HOME.resolve("simulator/bench-div8.yaml"),
+                "--trials", "2", "--repeats", "10");
+        assertThat(o.code()).as(o.out() + o.err()).isZero();
+        assertThat(o.out()).contains("8 parts x 2 benches x 2 trials").contains("%GRR of the tolerance")
+                .contains("distinct categories").contains("type-1 study").contains("Cgk").contains("the bench is fit");
+        Outcome one = run("study", PLAN, "--benches", HOME.resolve("simulator/bench.yaml").toString());
+        assertThat(one.code()).isEqualTo(2);
+        assertThat(one.err()).contains("at least 2 benches");
+    }
+
+    @Test
     void theWindingResistanceLimitIsJudgedAtTheReferenceTemperature(@TempDir Path dir) throws Exception {
         // R at the plan's bench temperature of 23 C is R / (1 + 0.00393 x 3) at the specification's 20 C
         // (copper, IACS alpha at 20 C, NBS Handbook 100): 2.62 ohm there is 2.5898 ohm here
