@@ -1,6 +1,10 @@
 package org.lrbench.cli;
 
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -11,6 +15,9 @@ import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.plan.Plan;
 import org.lrbench.rehearsal.SimulatedStudy;
+import org.lrbench.report.StudyPage;
+import org.lrbench.results.Names;
+import org.lrbench.results.ResultFiles;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimLot;
@@ -20,6 +27,7 @@ import org.lrbench.study.TypeOneStudy;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -48,6 +56,9 @@ final class StudyCommand implements Callable<Integer> {
     @Option(names = "--reference", paramLabel = "PART.yaml",
             description = "the type-1 study's reference part (default: the demo part at its nominal values)")
     Path reference;
+
+    @Mixin
+    FolderOptions.Runs runs = new FolderOptions.Runs();
 
     @Option(names = "--trials", defaultValue = "3", paramLabel = "N", description = "trials per part and bench (default: ${DEFAULT-VALUE})")
     int trials;
@@ -113,11 +124,19 @@ final class StudyCommand implements Callable<Integer> {
         System.out.printf(Locale.ROOT, "  %%GRR of the tolerance (6 sigma over %s): %.2f %%; distinct categories: %d%n",
                 Units.format(g.tolerance(), Dimension.INDUCTANCE), g.percentOfTolerance(), g.distinctCategories());
         double truth = truth(p, ref);
-        TypeOneStudy.Result t = SimulatedStudy.typeOne(p, configs.get(0), drivers, ref, truth, repeats);
+        SimulatedStudy.TypeOne one = SimulatedStudy.typeOne(p, configs.get(0), drivers, ref, truth, repeats);
+        TypeOneStudy.Result t = one.result();
         System.out.printf(Locale.ROOT, "type-1 study on %s: %d readings of a reference part of %s: mean %s, s %s, bias %s"
                         + " (p = %.3g); Cg %.2f, Cgk %.2f%n", configs.get(0).name(), t.n(), Units.format(truth, Dimension.INDUCTANCE),
                 Units.format(t.mean(), Dimension.INDUCTANCE), Units.format(t.standardDeviation(), Dimension.INDUCTANCE),
                 Units.format(t.bias(), Dimension.INDUCTANCE), t.biasPValue(), t.cg(), t.cgk());
+        String stamp = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
+        StudyPage.Content page = new StudyPage.Content(plan.toString(), crossed.limit(), true,
+                configs.stream().map(BenchConfig::name).toList(), crossed.readings(), g, one.readings(), truth, t, stamp);
+        Path out = runs.runs.resolve("studies").resolve((Names.valid(p.partNumber()) ? p.partNumber() : "study") + "-" + stamp.replace(":", "") + ".html");
+        Files.createDirectories(out.getParent());
+        ResultFiles.writeNew(out, StudyPage.html(page).getBytes(StandardCharsets.UTF_8));
+        System.out.println("study page: " + out + " (opens in any browser, offline)");
         boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5 && t.capable();
         System.out.println(fit ? "the bench is fit for this plan's inductance (%GRR <= 10 % of the tolerance, ndc >= 5,"
                 + " Cg and Cgk >= 1.33)" : "the bench is not shown fit for this plan's inductance (want %GRR <= 10 % of the"

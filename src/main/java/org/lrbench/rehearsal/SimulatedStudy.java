@@ -51,9 +51,13 @@ public final class SimulatedStudy {
         return new Crossed(limit.name(), y, GaugeStudy.analyse(y, tolerance(limit)));
     }
 
+    /** The type-1 study's readings in measuring order and its analysis. */
+    public record TypeOne(double[] readings, TypeOneStudy.Result result) {
+    }
+
     /** The type-1 study: {@code n} readings of {@code reference} on one bench, against its true value. */
-    public static TypeOneStudy.Result typeOne(Plan plan, BenchConfig bench, DriverLoader drivers, PartModel reference,
-                                              double trueValue, int n) throws Exception {
+    public static TypeOne typeOne(Plan plan, BenchConfig bench, DriverLoader drivers, PartModel reference,
+                                  double trueValue, int n) throws Exception {
         Limit limit = inductanceLimit(plan);
         Calibration cal = calibrate(plan, bench, drivers, reference);
         double[] v = new double[n];
@@ -61,7 +65,7 @@ public final class SimulatedStudy {
             v[k] = reading(plan, bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 7L * (k + 1))),
                     drivers, reference, cal, limit);
         }
-        return TypeOneStudy.analyse(v, trueValue, tolerance(limit));
+        return new TypeOne(v, TypeOneStudy.analyse(v, trueValue, tolerance(limit)));
     }
 
     static Limit inductanceLimit(Plan plan) {

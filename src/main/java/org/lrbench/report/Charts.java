@@ -221,6 +221,69 @@ final class Charts {
         return png(c);
     }
 
+    /**
+     * A study's readings: each part on the horizontal axis, each appraiser's readings beside it
+     * (offset a little), in its own colour and shape.
+     */
+    static String byPart(String title, Dimension unit, List<String> appraisers, double[][][] y) throws IOException {
+        XYSeriesCollection d = new XYSeriesCollection();
+        int a = appraisers.size();
+        for (int j = 0; j < a; j++) {
+            XYSeries s = new XYSeries(appraisers.get(j), false);
+            for (int i = 0; i < y.length; i++) {
+                for (double v : y[i][j]) {
+                    s.add(i + 1 + 0.5 * (j - (a - 1) / 2.0) / a, v);
+                }
+            }
+            d.addSeries(s);
+        }
+        JFreeChart c = ChartFactory.createScatterPlot(title, "part", axisLabel(unit), d, PlotOrientation.VERTICAL, true,
+                false, false);
+        XYPlot p = c.getXYPlot();
+        p.getDomainAxis().setStandardTickUnits(NumberAxis.createIntegerTickUnits());
+        p.setRangeAxis(siAxis(axisLabel(unit), unit));
+        XYLineAndShapeRenderer r = new XYLineAndShapeRenderer(false, true);
+        Color[] colours = {DATA, MODEL, SECOND, FAIL};
+        Shape[] shapes = {PASS_SHAPE, FAIL_SHAPE, new java.awt.Rectangle(-3, -3, 6, 6), PASS_SHAPE};
+        for (int j = 0; j < a; j++) {
+            r.setSeriesPaint(j, colours[j % colours.length]);
+            r.setSeriesShape(j, shapes[j % shapes.length]);
+        }
+        p.setRenderer(r);
+        return png(c);
+    }
+
+    /**
+     * Readings less the reference value in measuring order, with zero (solid) and, where they are no
+     * farther than ten times the readings' spread, the band +/- {@code band} (dashed): a band far
+     * outside would flatten the readings into a line.
+     */
+    static String run(String title, Dimension unit, double[] values, double reference, double band) throws IOException {
+        XYSeries s = new XYSeries("reading", false);
+        double spread = 0;
+        for (int i = 0; i < values.length; i++) {
+            s.add(i + 1, values[i] - reference);
+            spread = Math.max(spread, Math.abs(values[i] - reference));
+        }
+        JFreeChart c = ChartFactory.createScatterPlot(title, "reading (measuring order)", "reading less the reference ("
+                        + unit.symbol() + ")",
+                new XYSeriesCollection(s), PlotOrientation.VERTICAL, false, false, false);
+        XYPlot p = c.getXYPlot();
+        p.getDomainAxis().setStandardTickUnits(NumberAxis.createIntegerTickUnits());
+        p.setRangeAxis(siAxis(axisLabel(unit), unit));
+        XYLineAndShapeRenderer r = new XYLineAndShapeRenderer(true, true);
+        r.setSeriesPaint(0, DATA);
+        r.setSeriesShape(0, PASS_SHAPE);
+        p.setRenderer(r);
+        p.getRangeAxis().setLabel("reading less the reference (" + unit.symbol() + ")");
+        mark(p, 0, MODEL, false, false);
+        if (band <= 10 * spread) {
+            mark(p, -band, MODEL, true, false);
+            mark(p, band, MODEL, true, false);
+        }
+        return png(c);
+    }
+
     private static String axisLabel(Dimension unit) {
         return unit == null || unit == Dimension.NONE ? "value" : "value (" + unit.symbol() + ")";
     }

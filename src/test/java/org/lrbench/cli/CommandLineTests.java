@@ -403,13 +403,19 @@ class CommandLineTests {
     }
 
     @Test
-    void aStudyOfTheDemoPlanShowsTheSimulatedBenchFitAndSaysWhy() throws Exception {
+    void aStudyOfTheDemoPlanShowsTheSimulatedBenchFitAndSaysWhy(@TempDir Path dir) throws Exception {
         // the figures' definitions are checked in study.GaugeStudyTests; here the command end to end
         Outcome o = run("study", PLAN, "--benches", HOME.resolve("simulator/bench.yaml") + "," + HOME.resolve("simulator/bench-div8.yaml"),
-                "--trials", "2", "--repeats", "10");
+                "--trials", "2", "--repeats", "10", "--runs", dir.toString());
         assertThat(o.code()).as(o.out() + o.err()).isZero();
         assertThat(o.out()).contains("8 parts x 2 benches x 2 trials").contains("%GRR of the tolerance")
                 .contains("distinct categories").contains("type-1 study").contains("Cgk").contains("the bench is fit");
+        Path page;
+        try (var files = Files.list(dir.resolve("studies"))) {
+            page = files.findFirst().orElseThrow();
+        }
+        assertThat(Files.readString(page)).contains("Measured on the simulated bench").contains("appraiser").contains("repeatability")
+                .doesNotContain("null").contains("data:image/png;base64,");
         Outcome one = run("study", PLAN, "--benches", HOME.resolve("simulator/bench.yaml").toString());
         assertThat(one.code()).isEqualTo(2);
         assertThat(one.err()).contains("at least 2 benches");
