@@ -6,12 +6,19 @@ import org.lrbench.uncertainty.BenchAccuracy;
 
 /**
  * A bench: its name, the ceiling on the generator's peak open-circuit voltage that no plan may
- * exceed, its generator and digitizer, how the simulated bench departs from ideal, and the accuracy
- * specifications that enter every uncertainty budget.
+ * exceed, its generator and digitizer, how the simulated bench departs from ideal, the accuracy
+ * specifications that enter every uncertainty budget, and its check standard (null: none).
  */
 public record BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
                           InstrumentLink digitizer, InstrumentLink switchUnit, InstrumentLink meter,
-                          SimSettings simulation, BenchAccuracy accuracy) {
+                          SimSettings simulation, BenchAccuracy accuracy, CheckStandard checkStandard) {
+
+    /** A bench without a check standard. */
+    public BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
+                       InstrumentLink digitizer, InstrumentLink switchUnit, InstrumentLink meter,
+                       SimSettings simulation, BenchAccuracy accuracy) {
+        this(source, name, maxAmplitudeVolt, generator, digitizer, switchUnit, meter, simulation, accuracy, null);
+    }
 
     /** A bench without a switch unit. */
     public BenchConfig(String source, String name, double maxAmplitudeVolt, InstrumentLink generator,
@@ -25,7 +32,7 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
         return new BenchConfig(source, name, maxAmplitudeVolt,
                 generatorAddress == null ? generator : new InstrumentLink(generator.driver(), generatorAddress),
                 digitizerAddress == null ? digitizer : new InstrumentLink(digitizer.driver(), digitizerAddress),
-                switchUnit, meter, simulation, accuracy);
+                switchUnit, meter, simulation, accuracy, checkStandard);
     }
 
     /** The same bench with its simulation's seed moved by {@code offset} (its own noise per measurement). */
@@ -34,6 +41,7 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
     }
 
     public BenchConfig withSimulation(SimSettings settings) {
-        return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, switchUnit, meter, settings, accuracy);
+        return new BenchConfig(source, name, maxAmplitudeVolt, generator, digitizer, switchUnit, meter, settings, accuracy,
+                checkStandard);
     }
 }

@@ -18,7 +18,7 @@ import org.lrbench.yaml.YamlMap;
 /** Reads and validates a bench file. */
 public final class BenchLoader {
     private static final String[] KEYS = {"bench_format", "name", "max_amplitude", "generator", "digitizer", "simulation",
-        "accuracy", "switch", "meter"};
+        "accuracy", "switch", "meter", "check_standard"};
 
     private BenchLoader() {
     }
@@ -49,8 +49,90 @@ public final class BenchLoader {
         InstrumentLink meter = root.has("meter") ? link(root, "meter") : null;
         SimSettings sim = simulation(root);
         BenchAccuracy accuracy = accuracy(root);
+        CheckStandard check = root.has("check_standard") ? checkStandard(root, sim != null) : null;
         root.problems().throwIfAny();
-        return new BenchConfig(source, name, max, generator, digitizer, switchUnit, meter, sim, accuracy);
+        return new BenchConfig(source, name, max, generator, digitizer, switchUnit, meter, sim, accuracy, check);
+    }
+
+    /**
+     * {@code check_standard}: {@code serial}, {@code inductance} (certified) and {@code uncertainty}
+     * (its expanded uncertainty, absolute or relative), {@code plan} (relative to the bench file),
+     * {@code interval} (how often it is measured), {@code calibration_due} (the corrections' longest
+     * age), {@code history} (readings before the chart's limits come from them, default 20), and on a
+     * simulated bench {@code part} (the reference part's file).
+     */
+    private static CheckStandard checkStandard(YamlMap root, boolean simulated) {
+        YamlMap m = root.map("check_standard", false, "serial", "inductance", "uncertainty", "plan", "interval",
+                "calibration_due", "history", "part");
+        if (m == null) {
+            return null;
+        }
+        String serial = m.text("serial", true);
+        if (serial != null && !serial.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
+            m.problem("serial", "'" + serial + "' must be 1 to 64 letters, digits, '.', '_' or '-'");
+        }
+        Double l = m.quantity("inductance", Dimension.INDUCTANCE, true);
+        if (l != null && !(l > 0)) {
+            m.problem("inductance", "must be greater than 0 H");
+        }
+        Double u = null;
+        var q = m.anyQuantity("uncertainty", true);
+        if (q != null && l != null) {
+            if (q.relative()) {
+                u = q.value() * l;
+            } else if (q.dimension() == Dimension.INDUCTANCE) {
+                u = q.value();
+            } else {
+                m.problem("uncertainty", "give the certificate's expanded uncertainty in H or as a percentage, such as 0.2 %");
+            }
+            if (u != null && !(u > 0 && u < l)) {
+                m.problem("uncertainty", "must be above 0 and below the certified value");
+                u = null;
+            }
+        }
+        String plan = m.text("plan", true);
+        Double interval = duration(m, "interval");
+        if (interval != null && !(interval >= 60 && interval <= 31 * 86400)) {
+            m.problem("interval", "must be 1 min to 31 d, such as 8 h");
+        }
+        Double due = duration(m, "calibration_due");
+        if (due != null && !(due >= 3600 && due <= 400 * 86400)) {
+            m.problem("calibration_due", "must be 1 h to 400 d, such as 30 d");
+        }
+        Integer history = m.has("history") ? m.integer("history", true, 5, 1000) : Integer.valueOf(20);
+        String part = m.text("part", false);
+        if (part != null && !simulated) {
+            m.problem("part", "only a simulated bench has a simulated reference part");
+        } else if (part == null && simulated) {
+            m.problem("check_standard", "a simulated bench needs the reference part's file (part)");
+        }
+        if (serial == null || l == null || u == null || plan == null || interval == null || due == null || history == null) {
+            return null;
+        }
+        return new CheckStandard(serial, l, u, plan, interval, due, history, part);
+    }
+
+    /**
+     * A required duration in seconds, minutes, hours or days ({@code 8 h}, {@code 30 d}: units the SI
+     * accepts for use with it), or null with a problem at the key.
+     */
+    private static Double duration(YamlMap m, String key) {
+        String text = m.text(key, true);
+        if (text == null) {
+            return null;
+        }
+        var match = java.util.regex.Pattern.compile("\\s*([0-9]+(?:\\.[0-9]+)?)\\s*(s|min|h|d)\\s*").matcher(text);
+        if (!match.matches()) {
+            m.problem(key, "'" + text + "' is not a duration; give a number and s, min, h or d, such as 8 h");
+            return null;
+        }
+        double v = Double.parseDouble(match.group(1));
+        return v * switch (match.group(2)) {
+            case "min" -> 60;
+            case "h" -> 3600;
+            case "d" -> 86400;
+            default -> 1;
+        };
     }
 
     private static BenchAccuracy accuracy(YamlMap root) {

@@ -7,6 +7,7 @@ import java.io.InputStreamReader;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
@@ -15,12 +16,14 @@ import java.util.Set;
 import java.util.concurrent.Callable;
 import java.util.function.Consumer;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Verdict;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
+import org.lrbench.records.CheckStandardLog;
 import org.lrbench.records.StoreLedger;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.LotSummary;
@@ -113,6 +116,11 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--sim", paramLabel = "PART.yaml",
             description = "measure on the in-process simulated bench, with this simulated part under test")
     Path sim;
+
+    @Option(names = "--override-check", paramLabel = "REASON",
+            description = "with --lot-size on a bench with a check standard: start although the check refuses,"
+                    + " for this reason (recorded with the operator's name)")
+    String overrideCheck;
 
     @Option(names = "--json", paramLabel = "OUT.json", description = "also write the result to this file")
     Path json;
@@ -267,6 +275,34 @@ final class RunCommand implements Callable<Integer> {
     }
 
     /** Lot mode: the sample one part after another, each attempt committed as it goes, resumable. */
+    /**
+     * On a bench with a check standard, a lot run starts only when its last check is in control and
+     * within its interval and the bench's corrections are within theirs; or with a recorded override.
+     */
+    private void checkGate(BenchConfig b) throws Exception {
+        if (b.checkStandard() == null) {
+            if (overrideCheck != null) {
+                throw new BadInputException("--override-check: bench " + b.name() + " has no check standard to override");
+            }
+            return;
+        }
+        Calibration corrections = new CalibrationStore(calibrationOption.calibration, b.name()).load();
+        Instant correctionsAt = corrections == null || corrections.channels() == null ? null
+                : Instant.parse(corrections.channels().measuredAt());
+        CheckStandardLog log = new CheckStandardLog(runsOption.runs, b.name());
+        Instant now = Instant.now();
+        String refusal = log.gate(b.checkStandard(), now, correctionsAt);
+        if (refusal == null) {
+            return;
+        }
+        if (overrideCheck == null || overrideCheck.isBlank()) {
+            throw new BadInputException("lot " + lot + " not started: " + refusal
+                    + " (or start anyway with --override-check REASON, recorded)");
+        }
+        Path record = log.override(now, lot, operatorName(), overrideCheck, refusal);
+        System.out.println("warning: starting although " + refusal + "; override recorded in " + record);
+    }
+
     @SuppressWarnings("try") // a resource held only for its close(): installed handlers, a running server
     private int runLot() throws Exception {
         if (serial != null || sim != null || reason != null) {
@@ -286,6 +322,7 @@ final class RunCommand implements Callable<Integer> {
             throw new BadInputException(plan + ": a lot run needs the plan's sampling section (level, AQL per class)");
         }
         Inputs.requireFit(p, b, benchOptions.loader());
+        checkGate(b);
         SimLot tray = null;
         List<String> serials = null;
         if (simLot != null) {

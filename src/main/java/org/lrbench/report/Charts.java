@@ -284,6 +284,28 @@ final class Charts {
         return png(c);
     }
 
+    /** An individuals chart: readings in order, the centre (solid) and the control limits (dashed). */
+    static String individuals(String title, Dimension unit, double[] values, double centre, double lower, double upper)
+            throws IOException {
+        XYSeries s = new XYSeries("reading", false);
+        for (int i = 0; i < values.length; i++) {
+            s.add(i + 1, values[i]);
+        }
+        JFreeChart c = ChartFactory.createScatterPlot(title, "check (in order)", axisLabel(unit),
+                new XYSeriesCollection(s), PlotOrientation.VERTICAL, false, false, false);
+        XYPlot p = c.getXYPlot();
+        p.getDomainAxis().setStandardTickUnits(NumberAxis.createIntegerTickUnits());
+        p.setRangeAxis(siAxis(axisLabel(unit), unit));
+        XYLineAndShapeRenderer r = new XYLineAndShapeRenderer(true, true);
+        r.setSeriesPaint(0, DATA);
+        r.setSeriesShape(0, PASS_SHAPE);
+        p.setRenderer(r);
+        mark(p, centre, MODEL, false, false);
+        mark(p, lower, FAIL, true, false);
+        mark(p, upper, FAIL, true, false);
+        return png(c);
+    }
+
     private static String axisLabel(Dimension unit) {
         return unit == null || unit == Dimension.NONE ? "value" : "value (" + unit.symbol() + ")";
     }

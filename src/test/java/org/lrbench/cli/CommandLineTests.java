@@ -422,6 +422,53 @@ class CommandLineTests {
     }
 
     @Test
+    void aLotRunOnABenchWithACheckStandardWaitsForAnInControlCheck(@TempDir Path dir) throws Exception {
+        String bench = HOME.resolve("simulator/bench-checked.yaml").toString();
+        String lotFile = HOME.resolve("simulator/demo-lot.yaml").toString();
+        String runs = dir.resolve("runs").toString();
+        String cal = dir.resolve("cal").toString();
+        String data = dir.resolve("data").toString();
+        String[] lotRun = {"run", PLAN, "--bench", bench, "--lot", "C1", "--lot-size", "40", "--sim-lot", lotFile,
+            "--runs", runs, "--calibration", cal, "--data", data};
+        // no check yet: refused before any instrument is touched, saying why and what to do
+        Outcome first = run(lotRun);
+        assertThat(first.code()).isEqualTo(2);
+        assertThat(first.err()).contains("not started").contains("QFD-REF-0001 has not been measured").contains("lrbench standard");
+        assertThat(run("calibrate", PLAN, "--bench", bench, "--sim", HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(),
+                "--calibration", cal).code()).isZero();
+        Outcome check = run("standard", "--bench", bench, "--runs", runs, "--calibration", cal);
+        assertThat(check.code()).as(check.out() + check.err()).isZero();
+        assertThat(check.out()).contains("in control").contains("En =");
+        assertThat(dir.resolve("runs/check-standard/sim-bench-checked/chart.html")).exists();
+        Outcome second = run(lotRun);
+        assertThat(second.code()).as(second.out() + second.err()).isIn(0, 1);
+        assertThat(second.out()).contains("disposition");
+        // a bench whose certificate disagrees with what it measures: out of control, lot refused, override recorded
+        Path off = dir.resolve("bench-off.yaml");
+        Files.writeString(off, Files.readString(Path.of(bench)).replace("inductance: 1.0000 mH", "inductance: 1.0200 mH")
+                .replace("plan: ../plans/", "plan: " + HOME.resolve("plans") + "/")
+                .replace("part: parts/", "part: " + HOME.resolve("simulator/parts") + "/"));
+        String[] offRun = lotRun.clone();
+        offRun[3] = off.toString();
+        offRun[5] = "C2";
+        Outcome bad = run("standard", "--bench", off.toString(), "--runs", runs, "--calibration", cal);
+        assertThat(bad.code()).isEqualTo(1);
+        assertThat(bad.out()).contains("OUT OF CONTROL");
+        Outcome refused = run(offRun);
+        assertThat(refused.code()).isEqualTo(2);
+        assertThat(refused.err()).contains("was out of control");
+        String[] overridden = java.util.Arrays.copyOf(offRun, offRun.length + 2);
+        overridden[offRun.length] = "--override-check";
+        overridden[offRun.length + 1] = "reference part sent for recertification";
+        Outcome anyway = run(overridden);
+        assertThat(anyway.code()).as(anyway.out() + anyway.err()).isIn(0, 1);
+        assertThat(anyway.out()).contains("override recorded");
+        try (var files = Files.list(dir.resolve("runs/check-standard/sim-bench-checked/overrides"))) {
+            assertThat(Files.readString(files.findFirst().orElseThrow())).contains("recertification").contains("C2");
+        }
+    }
+
+    @Test
     void theWindingResistanceLimitIsJudgedAtTheReferenceTemperature(@TempDir Path dir) throws Exception {
         // R at the plan's bench temperature of 23 C is R / (1 + 0.00393 x 3) at the specification's 20 C
         // (copper, IACS alpha at 20 C, NBS Handbook 100): 2.62 ohm there is 2.5898 ohm here
