@@ -64,7 +64,11 @@ final class StandardCommand implements Callable<Integer> {
         var limit = p.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst()
                 .orElseThrow(() -> new BadInputException(planFile + ": the check standard's plan needs an inductance limit"));
         SimBench sim = null;
+        CheckStandardLog log = new CheckStandardLog(runs.runs, b.name());
+        List<CheckStandardLog.Entry> before = log.entries();
         if (b.simulation() != null) {
+            // each check its own noise, as each check on a real bench has
+            b = b.withSeedOffset(7919L * (before.size() + 1));
             Path part = benchDir.resolve(cs.simulatedPart());
             Inputs.requireFile(part, "simulated check standard");
             sim = new SimBench(b.simulation(), p.wiring(), PartFile.load(part));
@@ -87,8 +91,6 @@ final class StandardCommand implements Callable<Integer> {
             return ExitCodes.INSTRUMENT;
         }
         var reading = r.limits().stream().filter(l -> l.name().equals(limit.name())).findFirst().orElseThrow();
-        CheckStandardLog log = new CheckStandardLog(runs.runs, b.name());
-        List<CheckStandardLog.Entry> before = log.entries();
         List<ControlChart.Reading> history = new ArrayList<>(CheckStandardLog.readings(before));
         history.add(new ControlChart.Reading(reading.value(), reading.expandedUncertainty()));
         ControlChart.State state = ControlChart.of(history, cs.certifiedHenry(), cs.certifiedExpandedHenry(), cs.historyPoints());
@@ -100,10 +102,11 @@ final class StandardCommand implements Callable<Integer> {
         Path chart = log.folder().resolve("chart.html");
         ResultFiles.writeAtomically(chart, ControlChartPage.html(b.name(), cs.serial(), cs.certifiedHenry(),
                 cs.certifiedExpandedHenry(), times, values, state).getBytes(StandardCharsets.UTF_8));
-        System.out.printf(Locale.ROOT, "check standard %s on %s: %s %s +/- %s (k = 2); certified %s +/- %s%n", cs.serial(),
-                b.name(), limit.name(), Units.format(reading.value(), Dimension.INDUCTANCE),
-                Units.format(reading.expandedUncertainty(), Dimension.INDUCTANCE),
-                Units.format(cs.certifiedHenry(), Dimension.INDUCTANCE), Units.format(cs.certifiedExpandedHenry(), Dimension.INDUCTANCE));
+        System.out.printf(Locale.ROOT, "check standard %s on %s: %s %s (U, k = 2); certified %s; reading less certified %s%n",
+                cs.serial(), b.name(), limit.name(),
+                Units.formatWithUncertainty(reading.value(), reading.expandedUncertainty(), Dimension.INDUCTANCE),
+                Units.formatWithUncertainty(cs.certifiedHenry(), cs.certifiedExpandedHenry(), Dimension.INDUCTANCE),
+                Units.format(reading.value() - cs.certifiedHenry(), Dimension.INDUCTANCE));
         System.out.println((state.inControl() ? "in control: " : "OUT OF CONTROL (lot runs on this bench are refused): ")
                 + state.reason());
         System.out.println("record: " + record + "; chart: " + chart);

@@ -284,25 +284,37 @@ final class Charts {
         return png(c);
     }
 
-    /** An individuals chart: readings in order, the centre (solid) and the control limits (dashed). */
+    /**
+     * An individuals chart: readings in order less the centre, zero (solid) and the control limits
+     * (dashed), the axis wide enough to show the limits.
+     */
     static String individuals(String title, Dimension unit, double[] values, double centre, double lower, double upper)
             throws IOException {
         XYSeries s = new XYSeries("reading", false);
+        double lo = lower - centre;
+        double hi = upper - centre;
         for (int i = 0; i < values.length; i++) {
-            s.add(i + 1, values[i]);
+            s.add(i + 1, values[i] - centre);
+            lo = Math.min(lo, values[i] - centre);
+            hi = Math.max(hi, values[i] - centre);
         }
-        JFreeChart c = ChartFactory.createScatterPlot(title, "check (in order)", axisLabel(unit),
+        JFreeChart c = ChartFactory.createScatterPlot(title, "check (in order)", "reading less the centre",
                 new XYSeriesCollection(s), PlotOrientation.VERTICAL, false, false, false);
         XYPlot p = c.getXYPlot();
         p.getDomainAxis().setStandardTickUnits(NumberAxis.createIntegerTickUnits());
-        p.setRangeAxis(siAxis(axisLabel(unit), unit));
+        NumberAxis y = siAxis("reading less the centre (" + unit.symbol() + ")", unit);
+        double pad = 0.1 * (hi - lo);
+        if (pad > 0) {
+            y.setRange(lo - pad, hi + pad);
+        }
+        p.setRangeAxis(y);
         XYLineAndShapeRenderer r = new XYLineAndShapeRenderer(true, true);
         r.setSeriesPaint(0, DATA);
         r.setSeriesShape(0, PASS_SHAPE);
         p.setRenderer(r);
-        mark(p, centre, MODEL, false, false);
-        mark(p, lower, FAIL, true, false);
-        mark(p, upper, FAIL, true, false);
+        mark(p, 0, MODEL, false, false);
+        mark(p, lower - centre, FAIL, true, false);
+        mark(p, upper - centre, FAIL, true, false);
         return png(c);
     }
 

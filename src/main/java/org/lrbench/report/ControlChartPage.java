@@ -20,8 +20,8 @@ public final class ControlChartPage {
                 .append("table{border-collapse:collapse}td,th{border:1px solid #bbb;padding:.2rem .5rem}")
                 .append(".ok{color:#1b4f8c;font-weight:bold}.no{color:#7b2d8e;font-weight:bold}</style></head><body>");
         h.append("<h1>Check standard ").append(LotReport.esc(serial)).append(" on bench ").append(LotReport.esc(bench)).append("</h1>");
-        h.append("<p>Certified ").append(Units.format(certified, Dimension.INDUCTANCE)).append(" &plusmn; ")
-                .append(Units.format(certifiedExpanded, Dimension.INDUCTANCE)).append(" (k = 2). Limits ")
+        h.append("<p>Certified ").append(LotReport.esc(Units.formatWithUncertainty(certified, certifiedExpanded,
+                Dimension.INDUCTANCE))).append(" (U, k = 2). Limits ")
                 .append(state.fromHistory() ? "from the check's own history (individuals chart)" : "from the certificate"
                         + " and each reading's uncertainty (normalized error)").append(": ")
                 .append(Units.format(state.lower(), Dimension.INDUCTANCE)).append(" to ")
@@ -31,10 +31,11 @@ public final class ControlChartPage {
                 .append("</p><p>").append(LotReport.esc(state.reason())).append("</p>");
         h.append("<img alt=\"individuals chart\" src=\"").append(Charts.individuals("Check standard " + serial,
                 Dimension.INDUCTANCE, values, state.centre(), state.lower(), state.upper())).append("\">");
-        h.append("<table><tr><th>#</th><th>taken at</th><th>inductance</th></tr>");
+        h.append("<table><tr><th>#</th><th>taken at</th><th>inductance</th><th>less the certified value</th></tr>");
         for (int i = 0; i < values.length; i++) {
             h.append("<tr><td>").append(i + 1).append("</td><td>").append(LotReport.esc(takenAt.get(i))).append("</td><td>")
-                    .append(Units.format(values[i], Dimension.INDUCTANCE)).append("</td></tr>");
+                    .append(Units.format(values[i], Dimension.INDUCTANCE)).append("</td><td>")
+                    .append(Units.format(values[i] - certified, Dimension.INDUCTANCE)).append("</td></tr>");
         }
         return h.append("</table></body></html>\n").toString();
     }

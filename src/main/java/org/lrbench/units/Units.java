@@ -106,6 +106,12 @@ public final class Units {
         exp3 = Math.max(-4, Math.min(3, exp3));
         double scaled = value / Math.pow(10, exp3 * 3);
         String digits = String.format(Locale.ROOT, "%.4g", scaled);
+        if (exp3 < 3 && Math.abs(Double.parseDouble(digits)) >= 1000) {
+            // 999.97 u rounds to 1000 u: that is 1.000 m
+            exp3++;
+            scaled = value / Math.pow(10, exp3 * 3);
+            digits = String.format(Locale.ROOT, "%.4g", scaled);
+        }
         if (digits.contains("e")) {
             digits = String.format(Locale.ROOT, "%.3f", scaled);
         }

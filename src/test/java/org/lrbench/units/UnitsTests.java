@@ -40,6 +40,9 @@ class UnitsTests {
     void formatsWithEngineeringPrefixes() {
         assertThat(Units.format(0.0010059, Dimension.INDUCTANCE)).isEqualTo("1.006 mH");
         assertThat(Units.format(883.1e-6, Dimension.INDUCTANCE)).isEqualTo("883.1 uH");
+        // a value that rounds up to the next prefix is written with it (common practice, no source)
+        assertThat(Units.format(999.97e-6, Dimension.INDUCTANCE)).isEqualTo("1.000 mH");
+        assertThat(Units.format(-999.99, Dimension.FREQUENCY)).isEqualTo("-1.000 kHz");
         assertThat(Units.format(20000, Dimension.FREQUENCY)).isEqualTo("20.00 kHz");
     }
 }
