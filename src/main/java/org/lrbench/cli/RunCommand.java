@@ -287,11 +287,9 @@ final class RunCommand implements Callable<Integer> {
             return;
         }
         Calibration corrections = new CalibrationStore(calibrationOption.calibration, b.name()).load();
-        Instant correctionsAt = corrections == null || corrections.channels() == null ? null
-                : Instant.parse(corrections.channels().measuredAt());
-        CheckStandardLog log = new CheckStandardLog(runsOption.runs, b.name());
         Instant now = Instant.now();
-        String refusal = log.gate(b.checkStandard(), now, correctionsAt);
+        String refusal = CheckStandardLog.gate(b, runsOption.runs, corrections, now);
+        CheckStandardLog log = new CheckStandardLog(runsOption.runs, b.name());
         if (refusal == null) {
             return;
         }

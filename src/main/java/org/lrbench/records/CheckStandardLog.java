@@ -115,6 +115,21 @@ public final class CheckStandardLog {
         return null;
     }
 
+    /**
+     * The gate for a bench: null when it has no check standard or a lot run may start, else why not.
+     *
+     * @param corrections the corrections in force (null: none)
+     */
+    public static String gate(org.lrbench.bench.BenchConfig bench, Path runs, org.lrbench.calibration.Calibration corrections,
+                              Instant now) throws IOException {
+        if (bench.checkStandard() == null) {
+            return null;
+        }
+        Instant at = corrections == null || corrections.channels() == null ? null
+                : Instant.parse(corrections.channels().measuredAt());
+        return new CheckStandardLog(runs, bench.name()).gate(bench.checkStandard(), now, at);
+    }
+
     /** Records that a lot run started although the gate said no, with who and why. */
     public Path override(Instant at, String lot, String operator, String reason, String refusal) throws IOException {
         ObjectNode o = ResultFiles.JSON.createObjectNode();

@@ -4,10 +4,12 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.security.MessageDigest;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.HexFormat;
 import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
@@ -18,7 +20,7 @@ import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
-import java.util.Locale;
+import org.lrbench.records.CheckStandardLog;
 import org.lrbench.records.StoreLedger;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
@@ -112,6 +114,28 @@ public final class BenchService implements AutoCloseable {
      * other terms (409, naming each), a decided lot without a re-inspection reason (409, with its
      * disposition), a simulated bench without a tray (400).
      */
+    /** The bench's state for the page: its name, and with a check standard the last check and whether a lot may start. */
+    public Map<String, Object> benchState() throws IOException {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("bench", bench.name());
+        m.put("simulated", bench.simulation() != null);
+        if (bench.checkStandard() != null) {
+            CheckStandardLog log = new CheckStandardLog(config.runs(), bench.name());
+            List<CheckStandardLog.Entry> e = log.entries();
+            Map<String, Object> c = new LinkedHashMap<>();
+            c.put("serial", bench.checkStandard().serial());
+            c.put("last_at", e.isEmpty() ? null : e.get(e.size() - 1).at().toString());
+            c.put("last_in_control", e.isEmpty() ? null : e.get(e.size() - 1).inControl());
+            c.put("last_reason", e.isEmpty() ? null : e.get(e.size() - 1).reason());
+            m.put("check_standard", c);
+        }
+        String refusal = CheckStandardLog.gate(bench, config.runs(),
+                new CalibrationStore(config.calibration(), bench.name()).load(), Instant.now());
+        m.put("lot_may_start", refusal == null);
+        m.put("refusal", refusal);
+        return m;
+    }
+
     public synchronized Run start(StartRequest q) throws Exception {
         if (current != null && current.state.equals("running")) {
             throw new ServiceException(409, "a run is already going on this bench: lot " + current.lot
@@ -138,6 +162,13 @@ public final class BenchService implements AutoCloseable {
             } catch (ProblemsException e) {
                 throw new ServiceException(400, "tray: " + e.getMessage());
             }
+        }
+        // a bench with a check standard starts a lot only while the check is in control and recent
+        String refusal = CheckStandardLog.gate(bench, config.runs(),
+                new CalibrationStore(config.calibration(), bench.name()).load(), Instant.now());
+        if (refusal != null) {
+            throw new ServiceException(409, "lot " + q.lot() + " not started: " + refusal
+                    + " (an override is recorded from the command line: lrbench run --override-check REASON)");
         }
         String sha = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(planFile)));
         PartRun.Request template = new PartRun.Request(plan, sha, bench, q.lot(), "-", tray != null,

@@ -169,6 +169,8 @@ public final class HttpApi implements AutoCloseable {
             List<String> parts = List.of(path.replaceAll("^/+|/+$", "").split("/"));
             if (m == HttpMethod.GET && (path.equals("/") || path.equals("/index.html"))) {
                 send(ctx, HttpResponseStatus.OK, "text/html; charset=utf-8", page());
+            } else if (m == HttpMethod.GET && path.equals("/api/bench")) {
+                json(ctx, HttpResponseStatus.OK, service.benchState());
             } else if (m == HttpMethod.GET && path.equals("/api/plans")) {
                 json(ctx, HttpResponseStatus.OK, Map.of("plans", service.plans()));
             } else if (m == HttpMethod.POST && path.equals("/api/runs")) {

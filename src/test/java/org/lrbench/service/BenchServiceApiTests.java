@@ -81,6 +81,31 @@ class BenchServiceApiTests {
     }
 
     @Test
+    void onABenchWithACheckStandardTheServiceSaysWhyALotCannotStart(@TempDir Path dir) throws Exception {
+        ServiceConfig checked = new ServiceConfig(HOME.resolve("simulator/bench-checked.yaml"), HOME.resolve("drivers"),
+                HOME.resolve("plans"), HOME.resolve("simulator"), dir.resolve("data"), dir.resolve("runs"), dir.resolve("cal"),
+                "test");
+        try (BenchService service = new BenchService(checked);
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            JsonNode state = json(call(port, "GET", "/api/bench", null, null));
+            assertThat(state.get("bench").asText()).isEqualTo("sim-bench-checked");
+            assertThat(state.get("lot_may_start").asBoolean()).isFalse();
+            assertThat(state.get("refusal").asText()).contains("has not been measured");
+            assertThat(state.get("check_standard").get("serial").asText()).isEqualTo("QFD-REF-0001");
+            HttpResponse<String> start = call(port, "POST", "/api/runs",
+                    "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"CS-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\",\"operator\":\"Tam\"}", null);
+            assertThat(start.statusCode()).as(start.body()).isEqualTo(409);
+            assertThat(json(start).get("error").asText()).contains("not started").contains("QFD-REF-0001");
+        }
+        // the shipped bench has no check standard: nothing stands in a lot's way
+        try (BenchService service = new BenchService(config(dir.resolve("plain")));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            assertThat(json(call(api.port(), "GET", "/api/bench", null, null)).get("lot_may_start").asBoolean()).isTrue();
+        }
+    }
+
+    @Test
     void aWholeLotRunWithPromptsStopResumeAndTheEventStream(@TempDir Path dir) throws Exception {
         String start = "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"API-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\",\"operator\":\"Tam\"}";
         List<String> serials = List.of("HC0417-0001", "HC0417-0002", "HC0417-0003", "HC0417-0004", "HC0417-0005",
