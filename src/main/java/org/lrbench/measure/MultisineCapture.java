@@ -59,15 +59,11 @@ public final class MultisineCapture {
         return Math.max(1, (int) Math.ceil(sweep.cycles() * d.baseHz() / lowest - 1e-9));
     }
 
-    /**
-     * Loads the waveform and sets its peak; the caller switches the output on. Returns the design.
-     */
-    static MultisineDesign.Design load(Generator generator, SineSweep sweep, int maxSamples) {
-        MultisineDesign.Design d = design(sweep, maxSamples);
+    /** Loads the waveform and sets its peak to the plan's amplitude; the caller switches the output on. */
+    static void load(Generator generator, MultisineDesign.Design d, SineSweep sweep) {
         generator.loadArbitrary(d.samples(), d.playbackRateHz());
         generator.setAmplitude(sweep.amplitudeVolt());
         generator.setOffset(sweep.offsetVolt());
-        return d;
     }
 
     /**

@@ -65,11 +65,12 @@ public final class SweepRunner {
         listener.sweepStarted();
         generator.prepare();
         digitizer.prepare();
-        MultisineDesign.Design[] multisine = {null};
+        MultisineDesign.Design multisine = sweep.multisine()
+                ? MultisineCapture.design(sweep, generator.maxArbitrarySamples()) : null;
         // the settings of each instrument in one message where its driver can
         generator.batch(() -> {
-            if (sweep.multisine()) {
-                multisine[0] = MultisineCapture.load(generator, sweep, generator.maxArbitrarySamples());
+            if (multisine != null) {
+                MultisineCapture.load(generator, multisine, sweep);
             } else {
                 generator.setWaveform(Waveform.SINE);
                 generator.setFrequency(sweep.frequenciesHz().get(0));
@@ -96,8 +97,8 @@ public final class SweepRunner {
         List<PointResult> points = new ArrayList<>();
         generator.outputOn();
         try {
-            if (multisine[0] != null) {
-                points.addAll(MultisineCapture.measure(plan, multisine[0], digitizer, ranger, sleeper,
+            if (multisine != null) {
+                points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, sleeper,
                         Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()),
                         openCircuit));
                 for (int i = 0; i < points.size(); i++) {
