@@ -3,16 +3,43 @@ package org.lrbench.calibration;
 import java.util.List;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.fixture.FixtureWiring;
 
 /**
  * The corrections in force on a bench: the channel match (or null) and the fixture compensation
  * (or null). Applied to every measured point before the model fit: Z / H(f) first, then the
  * open/short correction. A point's uncertainty is carried through both, with the short reading's
  * own uncertainty added where the short is subtracted.
+ * <p>
+ * With low-side wiring ({@code lowSideSenseOhm} above 0) channel 2 sees the part and the sense
+ * resistor, and the part's voltage is channel 2 less channel 1: channel 2's response must be taken
+ * out before the difference. As Z_m = R_s (V2 - V1) / V1, that is Z = (Z_m + R_s) / H - R_s.
  */
-public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
+public record Calibration(ChannelMatch channels, FixtureCompensation fixture, double lowSideSenseOhm) {
 
     public static final Calibration NONE = new Calibration(null, null);
+
+    /** Corrections for differential wiring. */
+    public Calibration(ChannelMatch channels, FixtureCompensation fixture) {
+        this(channels, fixture, 0);
+    }
+
+    /** The same corrections for a fixture wired low side with this sense resistor (0: differential). */
+    public Calibration forLowSide(double senseOhm) {
+        return new Calibration(channels, fixture, senseOhm);
+    }
+
+    /** These corrections for a plan's fixture wiring (null: differential, unity probes). */
+    public Calibration forWiring(FixtureWiring wiring) {
+        return wiring != null && wiring.topology() == FixtureWiring.Topology.LOW_SIDE ? forLowSide(wiring.senseOhm())
+                : forLowSide(0);
+    }
+
+    /** Z divided by channel 2's response as the wiring needs it. */
+    private Complex matched(double frequencyHz, Complex z) {
+        var ratio = channels.ratio(frequencyHz);
+        return lowSideSenseOhm > 0 ? z.add(lowSideSenseOhm).divide(ratio).subtract(lowSideSenseOhm) : z.divide(ratio);
+    }
 
     public List<ImpedancePoint> apply(List<ImpedancePoint> points) {
         return points.stream().map(this::apply).toList();
@@ -27,7 +54,7 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
         double omega = 2 * Math.PI * frequencyHz;
         var z = new Complex(resistanceOhm, omega * inductanceHenry);
         if (channels != null) {
-            z = z.divide(channels.ratio(frequencyHz));
+            z = matched(frequencyHz, z);
         }
         double r = z.getReal();
         double l = z.getImaginary() / omega;
@@ -43,9 +70,8 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture) {
         var z = p.impedanceOhm();
         double u = p.componentUncertaintyOhm();
         if (channels != null) {
-            var ratio = channels.ratio(p.frequencyHz());
-            z = z.divide(ratio);
-            u = u / ratio.abs();
+            z = matched(p.frequencyHz(), z);
+            u = u / channels.ratio(p.frequencyHz()).abs();
         }
         if (fixture != null) {
             double carried = fixture.uncertainty(p.frequencyHz(), z, u);

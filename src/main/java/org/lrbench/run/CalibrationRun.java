@@ -10,6 +10,7 @@ import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.FixtureCompensation;
 import org.lrbench.fixture.FixturePosition;
+import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Sleeper;
@@ -28,7 +29,17 @@ public final class CalibrationRun {
     }
 
     public static ChannelMatch channels(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper) {
-        List<PointResult> points = sweep(plan, inst, change, FixturePosition.CHANNEL_MATCH, sleeper, false);
+        // both channels on the sense resistor: their raw ratio, at the fixture (probe attenuations), so
+        // with low-side wiring channel 1 is not taken from channel 2 here
+        Plan raw = plan;
+        if (plan.wiring() != null && plan.wiring().topology() == FixtureWiring.Topology.LOW_SIDE) {
+            FixtureWiring w = plan.wiring();
+            raw = new Plan(plan.source(), plan.partNumber(), plan.description(), plan.senseResistanceOhm(), plan.sweep(),
+                    plan.triangle(), plan.limits(), plan.sampling(), new FixtureWiring(w.senseOhm(),
+                    FixtureWiring.Topology.DIFFERENTIAL, w.attenuation1(), w.attenuation2(), w.channel1Differential(),
+                    w.channel2Differential()), plan.dcResistance());
+        }
+        List<PointResult> points = sweep(raw, inst, change, FixturePosition.CHANNEL_MATCH, sleeper, false);
         double[] f = new double[points.size()];
         double[] u = new double[points.size()];
         List<Complex> ratio = new ArrayList<>();
@@ -53,7 +64,7 @@ public final class CalibrationRun {
     /** Short and open of the fixture, each corrected by the channel match when there is one. */
     public static FixtureCompensation fixture(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper,
                                               ChannelMatch channels) {
-        Calibration match = new Calibration(channels, null);
+        Calibration match = new Calibration(channels, null).forWiring(plan.wiring());
         List<PointResult> shorts = sweep(plan, inst, change, FixturePosition.SHORT, sleeper, false);
         List<PointResult> opens = sweep(plan, inst, change, FixturePosition.OPEN, sleeper, true);
         List<FixtureCompensation.Point> out = new ArrayList<>();

@@ -159,8 +159,10 @@ public final class PartRun {
                     TriangleExtraction.Result triangle, List<String> warnings) {
     }
 
-    static Analysis analyse(Plan plan, BenchConfig bench, Calibration calibration, List<PointResult> points,
+    static Analysis analyse(Plan plan, BenchConfig bench, Calibration corrections, List<PointResult> points,
                             TriangleExtraction.Result triangle) {
+        // the channel match taken out as the plan's wiring needs it (before the low side's difference)
+        Calibration calibration = corrections.forWiring(plan.wiring());
         if (calibration.fixture() != null) {
             for (PointResult p : points) {
                 if (!calibration.fixture().covers(p.impedance().frequencyHz())) {

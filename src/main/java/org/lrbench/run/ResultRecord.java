@@ -137,7 +137,7 @@ final class ResultRecord {
             return null;
         }
         try {
-            return request.calibration().apply(z);
+            return request.calibration().forWiring(request.plan().wiring()).apply(z);
         } catch (IllegalArgumentException e) {
             return null; // the fixture compensation has no reading at this frequency
         }

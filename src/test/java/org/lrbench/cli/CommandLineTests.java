@@ -1,6 +1,7 @@
 package org.lrbench.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
@@ -466,6 +467,34 @@ class CommandLineTests {
         try (var files = Files.list(dir.resolve("runs/check-standard/sim-bench-checked/overrides"))) {
             assertThat(Files.readString(files.findFirst().orElseThrow())).contains("recertification").contains("C2");
         }
+    }
+
+    @Test
+    void aLowSideFixtureIsCalibratedOnTheRawChannels(@TempDir Path dir) throws Exception {
+        // low side: channel 2 sees the part and the sense resistor; the channel match must compare the
+        // raw channels (not channel 2 less channel 1) and be taken out before the difference. Truth:
+        // the simulated bench's channel 2 reads 0.4 % high and its leads are 25 mohm (simulator/bench.yaml)
+        Path plan = dir.resolve("low-side.yaml");
+        Files.writeString(plan, Files.readString(Path.of(PLAN)).replaceFirst("(?m)^(\\s+)sense_resistor: (.*)$",
+                "$1sense_resistor: $2\n$1wiring: low_side\n$1probes: {channel1: {kind: single_ended, attenuation: 10},"
+                        + " channel2: {kind: single_ended, attenuation: 10}}"));
+        String part = HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString();
+        Outcome cal = run("calibrate", plan.toString(), "--sim", part, "--calibration", dir.resolve("cal").toString());
+        assertThat(cal.code()).as(cal.out() + cal.err()).isZero();
+        java.util.regex.Matcher gain = java.util.regex.Pattern.compile("channel 2 gain ([0-9.]+)").matcher(cal.out());
+        assertThat(gain.find()).as(cal.out()).isTrue();
+        assertThat(Double.parseDouble(gain.group(1))).isCloseTo(1.004, within(0.001));
+        java.util.regex.Matcher shortR = java.util.regex.Pattern.compile("short ([0-9.]+) mohm").matcher(cal.out());
+        assertThat(shortR.find()).as(cal.out()).isTrue();
+        assertThat(Double.parseDouble(shortR.group(1))).isCloseTo(25, within(10.0));
+        Outcome r = run("run", plan.toString(), "--lot", "LS", "--serial", "S1", "--sim", part, "--runs",
+                dir.resolve("runs").toString(), "--data", dir.resolve("data").toString(), "--calibration", dir.resolve("cal").toString(),
+                "--json", dir.resolve("r.json").toString());
+        assertThat(r.code()).as(r.out() + r.err()).isZero();
+        JsonNode j = new com.fasterxml.jackson.databind.ObjectMapper().readTree(dir.resolve("r.json").toFile());
+        // common practice, no source: within 0.5 % in L and 5 % in R of the simulated part (1 mH, 2.3 ohm)
+        assertThat(j.get("inductance_h").asDouble()).isCloseTo(1e-3, within(0.005e-3));
+        assertThat(j.get("series_resistance_ohm").asDouble()).isCloseTo(2.3, within(0.05 * 2.3));
     }
 
     @Test
