@@ -105,7 +105,8 @@ public final class BenchService implements AutoCloseable {
     }
 
     /** What an operator asks for when starting a lot run. */
-    public record StartRequest(String plan, String lot, int lotSize, String tray, String operator, String reinspectReason) {
+    public record StartRequest(String plan, String lot, int lotSize, String tray, String operator, String reinspectReason,
+                               String overrideCheckReason) {
     }
 
     /**
@@ -166,9 +167,13 @@ public final class BenchService implements AutoCloseable {
         // a bench with a check standard starts a lot only while the check is in control and recent
         String refusal = CheckStandardLog.gate(bench, config.runs(),
                 new CalibrationStore(config.calibration(), bench.name()).load(), Instant.now());
-        if (refusal != null) {
+        if (refusal != null && q.overrideCheckReason() == null) {
             throw new ServiceException(409, "lot " + q.lot() + " not started: " + refusal
-                    + " (an override is recorded from the command line: lrbench run --override-check REASON)");
+                    + " (start anyway with override_check_reason, recorded with the operator's name)");
+        }
+        if (refusal != null) {
+            new CheckStandardLog(config.runs(), bench.name()).override(Instant.now(), q.lot(), q.operator(),
+                    q.overrideCheckReason(), refusal);
         }
         String sha = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(planFile)));
         PartRun.Request template = new PartRun.Request(plan, sha, bench, q.lot(), "-", tray != null,

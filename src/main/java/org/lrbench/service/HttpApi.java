@@ -193,8 +193,12 @@ public final class HttpApi implements AutoCloseable {
                 if (reinspect != null && reinspect.isBlank()) {
                     throw new ServiceException(400, "reinspect_reason: a re-inspection needs a reason, in words");
                 }
+                String override = text(b, "override_check_reason", false);
+                if (override != null && override.isBlank()) {
+                    throw new ServiceException(400, "override_check_reason: starting despite the check needs a reason, in words");
+                }
                 var run = service.start(new BenchService.StartRequest(plan, lot, size.asInt(), text(b, "tray", false),
-                        operator, reinspect));
+                        operator, reinspect, override));
                 json(ctx, HttpResponseStatus.CREATED, run.status());
             } else if (m == HttpMethod.GET && path.equals("/api/runs/current")) {
                 json(ctx, HttpResponseStatus.OK, service.currentOr404().status());

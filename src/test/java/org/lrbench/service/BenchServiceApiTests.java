@@ -97,6 +97,15 @@ class BenchServiceApiTests {
                     "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"CS-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\",\"operator\":\"Tam\"}", null);
             assertThat(start.statusCode()).as(start.body()).isEqualTo(409);
             assertThat(json(start).get("error").asText()).contains("not started").contains("QFD-REF-0001");
+            // started anyway with a reason: the override is recorded with the operator's name
+            HttpResponse<String> anyway = call(port, "POST", "/api/runs",
+                    "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"CS-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\","
+                            + "\"operator\":\"Tam\",\"override_check_reason\":\"standard at the cal lab\"}", null);
+            assertThat(anyway.statusCode()).as(anyway.body()).isEqualTo(201);
+            call(port, "POST", "/api/runs/current/stop", null, null);
+            try (var files = Files.list(dir.resolve("runs/check-standard/sim-bench-checked/overrides"))) {
+                assertThat(Files.readString(files.findFirst().orElseThrow())).contains("standard at the cal lab").contains("Tam");
+            }
         }
         // the shipped bench has no check standard: nothing stands in a lot's way
         try (BenchService service = new BenchService(config(dir.resolve("plain")));
