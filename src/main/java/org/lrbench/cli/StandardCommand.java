@@ -34,9 +34,10 @@ import picocli.CommandLine.Mixin;
  * reading, judges it on the control chart and rewrites the chart page.
  */
 @Command(name = "standard", mixinStandardHelpOptions = true, description = {
-    "Measure the bench's check standard (bench file key check_standard), record the reading,",
-    "judge it on the control chart (against the certificate until the history has its readings,",
-    "then an individuals chart) and rewrite RUNS/check-standard/BENCH/chart.html.",
+    "Measure the bench's check standard and judge the reading on its control chart.",
+    "The standard is the bench file's check_standard. A reading is judged against the certificate"
+        + " (normalized error) until the history has its readings, then on an individuals chart;"
+        + " each reading is recorded and RUNS/check-standard/BENCH/chart.html rewritten.",
     "A lot run on this bench refuses to start while the last check is out of control or too old.",
     "Exit 0 in control, 1 out of control, 2 bad input, 3 instrument error."})
 final class StandardCommand implements Callable<Integer> {

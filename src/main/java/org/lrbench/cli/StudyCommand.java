@@ -36,10 +36,10 @@ import picocli.CommandLine.Parameters;
  * simulated bench: a crossed study (parts x benches x trials, ANOVA) and a type-1 study.
  */
 @Command(name = "study", mixinStandardHelpOptions = true, description = {
-    "Measurement system studies of a plan's inductance on the simulated bench:",
-    "a crossed study (the lot file's parts x benches x trials, analysis of variance) with %GRR",
-    "against the tolerance and the total variation and the number of distinct categories,",
-    "and a type-1 study (one reference part measured again and again: Cg, Cgk).",
+    "Measurement system studies of a plan's inductance on the simulated benches.",
+    "A crossed study (the lot file's parts x benches x trials, analysis of variance) with %GRR against"
+        + " the tolerance and the total variation and the number of distinct categories, and a type-1"
+        + " study (one reference part measured again and again: Cg, Cgk); both also as an HTML page.",
     "Exit 0 when %GRR of the tolerance is at most 10 %, ndc at least 5, and Cg and Cgk at least 1.33."})
 final class StudyCommand implements Callable<Integer> {
 
