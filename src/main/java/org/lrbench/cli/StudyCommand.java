@@ -14,6 +14,7 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.plan.Plan;
+import org.lrbench.records.StudyRecords;
 import org.lrbench.rehearsal.SimulatedStudy;
 import org.lrbench.report.StudyPage;
 import org.lrbench.results.Names;
@@ -60,6 +61,11 @@ final class StudyCommand implements Callable<Integer> {
     @Mixin
     FolderOptions.Runs runs = new FolderOptions.Runs();
 
+    @Option(names = "--records", paramLabel = "LOT",
+            description = "instead of simulating: the crossed study from the part records of RUNS/LOT (every serial"
+                    + " measured by every operator the same number of times with run --serial --operator)")
+    String records;
+
     @Option(names = "--trials", defaultValue = "3", paramLabel = "N", description = "trials per part and bench (default: ${DEFAULT-VALUE})")
     int trials;
 
@@ -73,6 +79,9 @@ final class StudyCommand implements Callable<Integer> {
         }
         if (repeats < 10 || repeats > 200) {
             throw new BadInputException("--repeats " + repeats + ": use 10 to 200");
+        }
+        if (records != null) {
+            return fromRecords();
         }
         Path root = Home.root();
         List<Path> files = benches != null ? benches : List.of(root.resolve("simulator/bench.yaml"),
@@ -108,21 +117,7 @@ final class StudyCommand implements Callable<Integer> {
         GaugeStudy.Result g = crossed.result();
         System.out.printf(Locale.ROOT, "crossed study of '%s' (plan %s): %d parts x %d benches x %d trials on the simulated bench%n",
                 crossed.limit(), plan, parts.size(), configs.size(), trials);
-        System.out.printf(Locale.ROOT, "  %-36s %4s %14s %14s %9s %9s%n", "source", "df", "SS (H^2)", "MS (H^2)", "F", "p");
-        for (GaugeStudy.Row r : g.table()) {
-            System.out.printf(Locale.ROOT, "  %-36s %4d %14.6g %14s %9s %9s%n", r.source(), r.df(), r.sumOfSquares(),
-                    Double.isNaN(r.meanSquare()) ? "" : String.format(Locale.ROOT, "%.6g", r.meanSquare()),
-                    Double.isNaN(r.f()) ? "" : String.format(Locale.ROOT, "%.3g", r.f()),
-                    Double.isNaN(r.p()) ? "" : String.format(Locale.ROOT, "%.3g", r.p()));
-        }
-        System.out.printf(Locale.ROOT, "  %-36s %14s %11s%n", "component", "sigma", "% of total");
-        line("repeatability", g.repeatability(), g);
-        line("reproducibility (benches)", g.appraiser(), g);
-        line("bench x part", g.interaction(), g);
-        line("GRR", g.grr(), g);
-        line("part to part", g.part(), g);
-        System.out.printf(Locale.ROOT, "  %%GRR of the tolerance (6 sigma over %s): %.2f %%; distinct categories: %d%n",
-                Units.format(g.tolerance(), Dimension.INDUCTANCE), g.percentOfTolerance(), g.distinctCategories());
+        table(g, "reproducibility (benches)", "bench x part");
         double truth = truth(p, ref);
         SimulatedStudy.TypeOne one = SimulatedStudy.typeOne(p, configs.get(0), drivers, ref, truth, repeats);
         TypeOneStudy.Result t = one.result();
@@ -133,15 +128,71 @@ final class StudyCommand implements Callable<Integer> {
         String stamp = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
         StudyPage.Content page = new StudyPage.Content(plan.toString(), crossed.limit(), true,
                 configs.stream().map(BenchConfig::name).toList(), crossed.readings(), g, one.readings(), truth, t, stamp);
-        Path out = runs.runs.resolve("studies").resolve((Names.valid(p.partNumber()) ? p.partNumber() : "study") + "-" + stamp.replace(":", "") + ".html");
-        Files.createDirectories(out.getParent());
-        ResultFiles.writeNew(out, StudyPage.html(page).getBytes(StandardCharsets.UTF_8));
-        System.out.println("study page: " + out + " (opens in any browser, offline)");
+        writePage(page, p.partNumber(), stamp);
         boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5 && t.capable();
         System.out.println(fit ? "the bench is fit for this plan's inductance (%GRR <= 10 % of the tolerance, ndc >= 5,"
                 + " Cg and Cgk >= 1.33)" : "the bench is not shown fit for this plan's inductance (want %GRR <= 10 % of the"
                 + " tolerance, ndc >= 5, Cg and Cgk >= 1.33)");
         return fit ? ExitCodes.PASS : ExitCodes.FAIL;
+    }
+
+    /** The crossed study from a lot folder's records: operators as the appraisers, no type-1 study. */
+    private int fromRecords() throws Exception {
+        BenchConfig b = Inputs.bench(benches != null && !benches.isEmpty() ? benches.get(0) : Home.defaultBench());
+        Plan p = Inputs.plan(plan, b);
+        var limit = p.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst()
+                .orElseThrow(() -> new BadInputException(plan + ": a study needs an inductance limit"));
+        Path folder = runs.runs.resolve(Inputs.name("--records", records));
+        if (!Files.isDirectory(folder)) {
+            throw new BadInputException("--records " + records + ": no folder " + folder);
+        }
+        StudyRecords.Layout layout;
+        GaugeStudy.Result g;
+        try {
+            layout = StudyRecords.read(folder, limit.name());
+            g = GaugeStudy.analyse(layout.readings(),
+                    Double.isFinite(limit.lower()) && Double.isFinite(limit.upper()) ? limit.upper() - limit.lower() : 0);
+        } catch (IllegalArgumentException e) {
+            throw new BadInputException(e.getMessage());
+        }
+        System.out.printf(Locale.ROOT, "crossed study of '%s' from the records of %s: %d parts x %d operators (%s) x %d trials%n",
+                limit.name(), folder, layout.serials().size(), layout.operators().size(), String.join(", ", layout.operators()),
+                layout.readings()[0][0].length);
+        table(g, "reproducibility (operators)", "operator x part");
+        String stamp = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
+        writePage(new StudyPage.Content(plan.toString(), limit.name(), false, layout.operators(), layout.readings(), g,
+                null, Double.NaN, null, stamp), p.partNumber(), stamp);
+        boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5;
+        System.out.println(fit ? "the measurement system is fit for this plan's inductance (%GRR <= 10 % of the tolerance,"
+                + " ndc >= 5; no type-1 study here)" : "the measurement system is not shown fit for this plan's inductance"
+                + " (want %GRR <= 10 % of the tolerance, ndc >= 5)");
+        return fit ? ExitCodes.PASS : ExitCodes.FAIL;
+    }
+
+    private static void table(GaugeStudy.Result g, String reproducibility, String interaction) {
+        System.out.printf(Locale.ROOT, "  %-36s %4s %14s %14s %9s %9s%n", "source", "df", "SS (H^2)", "MS (H^2)", "F", "p");
+        for (GaugeStudy.Row r : g.table()) {
+            System.out.printf(Locale.ROOT, "  %-36s %4d %14.6g %14s %9s %9s%n", r.source(), r.df(), r.sumOfSquares(),
+                    Double.isNaN(r.meanSquare()) ? "" : String.format(Locale.ROOT, "%.6g", r.meanSquare()),
+                    Double.isNaN(r.f()) ? "" : String.format(Locale.ROOT, "%.3g", r.f()),
+                    Double.isNaN(r.p()) ? "" : String.format(Locale.ROOT, "%.3g", r.p()));
+        }
+        System.out.printf(Locale.ROOT, "  %-36s %14s %11s%n", "component", "sigma", "% of total");
+        line("repeatability", g.repeatability(), g);
+        line(reproducibility, g.appraiser(), g);
+        line(interaction, g.interaction(), g);
+        line("GRR", g.grr(), g);
+        line("part to part", g.part(), g);
+        System.out.printf(Locale.ROOT, "  %%GRR of the tolerance (6 sigma over %s): %.2f %%; distinct categories: %d%n",
+                Units.format(g.tolerance(), Dimension.INDUCTANCE), g.percentOfTolerance(), g.distinctCategories());
+    }
+
+    private void writePage(StudyPage.Content page, String partNumber, String stamp) throws Exception {
+        Path out = runs.runs.resolve("studies").resolve((Names.valid(partNumber) ? partNumber : "study") + "-"
+                + stamp.replace(":", "") + ".html");
+        Files.createDirectories(out.getParent());
+        ResultFiles.writeNew(out, StudyPage.html(page).getBytes(StandardCharsets.UTF_8));
+        System.out.println("study page: " + out + " (opens in any browser, offline)");
     }
 
     private static void line(String name, double variance, GaugeStudy.Result g) {

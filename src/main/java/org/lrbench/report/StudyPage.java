@@ -42,7 +42,7 @@ public final class StudyPage {
                     + " instruments, not a real bench.</p>");
         }
         h.append("<p>Characteristic <b>").append(LotReport.esc(c.characteristic())).append("</b> of plan ")
-                .append(LotReport.esc(c.plan())).append("; appraisers (benches): ").append(LotReport.esc(String.join(", ", c.benches())))
+                .append(LotReport.esc(c.plan())).append("; appraisers: ").append(LotReport.esc(String.join(", ", c.benches())))
                 .append("; ").append(c.readings().length).append(" parts, ").append(c.readings()[0][0].length)
                 .append(" trials each; ").append(LotReport.esc(c.when())).append(".</p>");
         h.append("<h2>Crossed study (analysis of variance)</h2><table><tr><th>source</th><th>df</th><th>SS (H&sup2;)</th>"
@@ -56,16 +56,17 @@ public final class StudyPage {
         h.append("<table><tr><th>component</th><th>standard deviation</th><th>% of total variation</th>"
                 + "<th>% of tolerance (6 sigma)</th></tr>");
         component(h, "repeatability", g.repeatability(), g);
-        component(h, "reproducibility (benches)", g.appraiser(), g);
-        component(h, "bench &times; part", g.interaction(), g);
+        component(h, "reproducibility (appraisers)", g.appraiser(), g);
+        component(h, "appraiser &times; part", g.interaction(), g);
         component(h, "GRR", g.grr(), g);
         component(h, "part to part", g.part(), g);
         h.append("</table><p>Number of distinct categories: <b>").append(g.distinctCategories()).append("</b>")
-                .append(g.interactionPooled() ? "; the bench &times; part interaction was not significant (p &gt; 0.25)"
+                .append(g.interactionPooled() ? "; the appraiser &times; part interaction was not significant (p &gt; 0.25)"
                         + " and is pooled into repeatability" : "").append(".</p>");
         h.append("<img alt=\"readings by part and bench\" src=\"")
                 .append(Charts.byPart("Readings by part and bench", Dimension.INDUCTANCE, c.benches(), c.readings()))
                 .append("\">");
+        if (t != null) {
         h.append("<h2>Type-1 study</h2><p>").append(t.n()).append(" readings of a reference part of ")
                 .append(Units.format(c.reference(), Dimension.INDUCTANCE)).append(" on ").append(LotReport.esc(c.benches().get(0)))
                 .append(": mean ").append(Units.format(t.mean(), Dimension.INDUCTANCE)).append(", s ")
@@ -78,11 +79,13 @@ public final class StudyPage {
                         + Units.format(0.1 * g.tolerance(), Dimension.INDUCTANCE) + ")", Dimension.INDUCTANCE,
                         c.typeOneReadings(), c.reference(), 0.1 * g.tolerance()))
                 .append("\">");
-        boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5 && t.capable();
+        }
+        boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5 && (t == null || t.capable());
         h.append("<h2>Acceptance</h2><p class=\"").append(fit ? "ok" : "no").append("\">")
                 .append(fit ? "Fit for this characteristic" : "Not shown fit for this characteristic")
-                .append("</p><p>Wanted: %GRR of the tolerance at most 10 %, at least 5 distinct categories, Cg and Cgk at"
-                        + " least 1.33 (the usual acceptance; a lab may set its own).</p></body></html>\n");
+                .append("</p><p>Wanted: %GRR of the tolerance at most 10 %, at least 5 distinct categories")
+                .append(t == null ? " (no type-1 study in this page)" : ", Cg and Cgk at least 1.33")
+                .append(" (the usual acceptance; a lab may set its own).</p></body></html>\n");
         return h.toString();
     }
 

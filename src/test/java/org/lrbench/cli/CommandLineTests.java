@@ -498,6 +498,37 @@ class CommandLineTests {
     }
 
     @Test
+    void aStudyFromRecordsArrangesPartsOperatorsAndTrials(@TempDir Path dir) throws Exception {
+        // the real-bench path: each part measured by each operator twice with run --serial --operator
+        String runs = dir.resolve("runs").toString();
+        String[] parts = {"simulator/parts/qfd-ind-1m0-nominal.yaml", "simulator/parts/qfd-ref-1m0.yaml"};
+        for (int i = 0; i < parts.length; i++) {
+            for (String operator : new String[] {"Ada", "Ben"}) {
+                for (int trial = 0; trial < 2; trial++) {
+                    List<String> args = new java.util.ArrayList<>(List.of("run", PLAN, "--lot", "GRR-1", "--serial", "P" + i,
+                            "--operator", operator, "--sim", HOME.resolve(parts[i]).toString(), "--runs", runs,
+                            "--data", dir.resolve("data").toString(), "--calibration", dir.resolve("none").toString()));
+                    if (operator.equals("Ben") || trial > 0) {
+                        args.addAll(List.of("--reason", "study trial"));
+                    }
+                    assertThat(run(args.toArray(String[]::new)).code()).isIn(0, 1);
+                }
+            }
+        }
+        Outcome o = run("study", PLAN, "--records", "GRR-1", "--runs", runs);
+        assertThat(o.code()).as(o.out() + o.err()).isIn(0, 1);
+        assertThat(o.out()).contains("2 parts x 2 operators (Ada, Ben) x 2 trials").contains("%GRR of the tolerance")
+                .contains("study page:");
+        // an unbalanced study is refused, naming the cell
+        assertThat(run("run", PLAN, "--lot", "GRR-1", "--serial", "P0", "--operator", "Ada", "--sim",
+                HOME.resolve(parts[0]).toString(), "--runs", runs, "--data", dir.resolve("data").toString(), "--calibration",
+                dir.resolve("none").toString(), "--reason", "one more").code()).isIn(0, 1);
+        Outcome bad = run("study", PLAN, "--records", "GRR-1", "--runs", runs);
+        assertThat(bad.code()).isEqualTo(2);
+        assertThat(bad.err()).contains("not balanced").contains("P0/Ada 3, P0/Ben 2, P1/Ada 2, P1/Ben 2");
+    }
+
+    @Test
     void theWindingResistanceLimitIsJudgedAtTheReferenceTemperature(@TempDir Path dir) throws Exception {
         // R at the plan's bench temperature of 23 C is R / (1 + 0.00393 x 3) at the specification's 20 C
         // (copper, IACS alpha at 20 C, NBS Handbook 100): 2.62 ohm there is 2.5898 ohm here
