@@ -84,6 +84,12 @@ public final class MultisineDesign {
         return new Design(base, bins, snapped, phases, samples, n * base, crest, 1 / peak);
     }
 
+    /** Whole common periods that hold {@code cycles} cycles of the lowest tone (at least one). */
+    public static int periods(Design d, int cycles) {
+        double lowest = Arrays.stream(d.frequenciesHz()).min().orElseThrow();
+        return Math.max(1, (int) Math.ceil(cycles * d.baseHz() / lowest - 1e-9));
+    }
+
     /**
      * Samples per common period for a capture with {@code perLowestCycle} samples per cycle of the
      * lowest tone, and at least {@value #MIN_CAPTURE_SAMPLES_PER_TOP_CYCLE} per cycle of the highest.

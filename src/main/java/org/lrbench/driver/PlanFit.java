@@ -94,8 +94,7 @@ public final class PlanFit {
             return;
         }
         int top = Arrays.stream(design.bins()).max().orElseThrow();
-        double lowest = Arrays.stream(design.frequenciesHz()).min().orElseThrow();
-        long periods = Math.max(1, (long) Math.ceil(plan.sweep().cycles() * design.baseHz() / lowest - 1e-9));
+        long periods = MultisineDesign.periods(design, plan.sweep().cycles());
         int perPeriod = MultisineDesign.captureSamplesPerPeriod(design, plan.sweep().samplesPerCycle());
         long samples = periods * perPeriod + 2;
         double interval = 1 / (design.baseHz() * perPeriod);

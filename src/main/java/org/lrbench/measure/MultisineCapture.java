@@ -55,8 +55,7 @@ public final class MultisineCapture {
 
     /** Whole periods of the common period that hold the plan's cycles of the lowest tone. */
     static int periods(SineSweep sweep, MultisineDesign.Design d) {
-        double lowest = Arrays.stream(d.frequenciesHz()).min().orElseThrow();
-        return Math.max(1, (int) Math.ceil(sweep.cycles() * d.baseHz() / lowest - 1e-9));
+        return MultisineDesign.periods(d, sweep.cycles());
     }
 
     /** Loads the waveform and sets its peak to the plan's amplitude; the caller switches the output on. */
