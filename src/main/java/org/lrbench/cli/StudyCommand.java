@@ -9,7 +9,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
-import org.lrbench.analysis.LumpedModel;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Characteristic;
@@ -22,7 +21,6 @@ import org.lrbench.results.ResultFiles;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimLot;
-import org.lrbench.sim.SkinEffect;
 import org.lrbench.study.GaugeStudy;
 import org.lrbench.study.TypeOneStudy;
 import org.lrbench.units.Dimension;
@@ -129,7 +127,7 @@ final class StudyCommand implements Callable<Integer> {
         StudyPage.Content page = new StudyPage.Content(plan.toString(), crossed.limit(), true,
                 configs.stream().map(BenchConfig::name).toList(), crossed.readings(), g, one.readings(), truth, t, stamp);
         writePage(page, p.partNumber(), stamp);
-        boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5 && t.capable();
+        boolean fit = g.acceptable() && t.capable();
         System.out.println(fit ? "the bench is fit for this plan's inductance (%GRR <= 10 % of the tolerance, ndc >= 5,"
                 + " Cg and Cgk >= 1.33)" : "the bench is not shown fit for this plan's inductance (want %GRR <= 10 % of the"
                 + " tolerance, ndc >= 5, Cg and Cgk >= 1.33)");
@@ -162,7 +160,7 @@ final class StudyCommand implements Callable<Integer> {
         String stamp = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
         writePage(new StudyPage.Content(plan.toString(), limit.name(), false, layout.operators(), layout.readings(), g,
                 null, Double.NaN, null, stamp), p.partNumber(), stamp);
-        boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5;
+        boolean fit = g.acceptable();
         System.out.println(fit ? "the measurement system is fit for this plan's inductance (%GRR <= 10 % of the tolerance,"
                 + " ndc >= 5; no type-1 study here)" : "the measurement system is not shown fit for this plan's inductance"
                 + " (want %GRR <= 10 % of the tolerance, ndc >= 5)");
@@ -200,12 +198,13 @@ final class StudyCommand implements Callable<Integer> {
                 100 * Math.sqrt(variance / g.total()));
     }
 
-    /** The reference part's inductance as the plan's limit reads it (apparent at its frequency, if any). */
+    /** The reference part's true inductance as the plan's limit reads it: apparent at its frequency, if any. */
     private static double truth(Plan p, PartModel ref) {
         var limit = p.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst().orElseThrow();
-        double[] q = {ref.seriesResistanceOhm(), ref.inductanceHenry(), ref.parallelCapacitanceFarad(),
-            ref.wireDiameterMetre() > 0 ? SkinEffect.coefficient(ref.wireDiameterMetre()) : 0,
-            ref.parallelResistanceOhm() > 0 ? 1 / ref.parallelResistanceOhm() : 0};
-        return limit.atFrequencyHz() == null ? ref.inductanceHenry() : LumpedModel.apparentInductance(q, limit.atFrequencyHz());
+        if (limit.atFrequencyHz() == null) {
+            return ref.inductanceHenry();
+        }
+        double omega = 2 * Math.PI * limit.atFrequencyHz();
+        return ref.impedance(omega).getImaginary() / omega;
     }
 }

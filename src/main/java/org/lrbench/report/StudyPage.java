@@ -80,7 +80,7 @@ public final class StudyPage {
                         c.typeOneReadings(), c.reference(), 0.1 * g.tolerance()))
                 .append("\">");
         }
-        boolean fit = g.percentOfTolerance() <= 10 && g.distinctCategories() >= 5 && (t == null || t.capable());
+        boolean fit = g.acceptable() && (t == null || t.capable());
         h.append("<h2>Acceptance</h2><p class=\"").append(fit ? "ok" : "no").append("\">")
                 .append(fit ? "Fit for this characteristic" : "Not shown fit for this characteristic")
                 .append("</p><p>Wanted: %GRR of the tolerance at most 10 %, at least 5 distinct categories")

@@ -54,6 +54,11 @@ public final class GaugeStudy {
             return tolerance > 0 ? 100 * 6 * Math.sqrt(grr()) / tolerance : Double.NaN;
         }
 
+        /** The usual acceptance (AIAG MSA, from memory): %GRR of the tolerance at most 10 % and ndc at least 5. */
+        public boolean acceptable() {
+            return percentOfTolerance() <= 10 && distinctCategories() >= 5;
+        }
+
         /** The number of distinct categories: whole part of 1.41 sigma_part / sigma_GRR, at least 1. */
         public int distinctCategories() {
             return grr() > 0 ? Math.max(1, (int) Math.floor(1.41 * Math.sqrt(part / grr()))) : Integer.MAX_VALUE;
