@@ -13,6 +13,9 @@ import org.lrbench.judge.CharacteristicClass;
  * lot size; the first n of its class's measured parts count; the class rejects at Re nonconforming
  * parts or more, accepts with n parts measured and at most Ac nonconforming, and is still open
  * otherwise. The lot is rejected when any class rejects and accepted when every class accepts.
+ * The plans are those of the scheme's severity (normal: Table II-A; tightened or reduced: the
+ * lab's table); a reduced plan with a gap accepts a lot with more than Ac nonconforming but fewer
+ * than Re, and {@link SwitchingRules} then reinstates normal inspection.
  */
 public final class LotDisposition {
 
@@ -32,7 +35,8 @@ public final class LotDisposition {
     /** The plans for a lot size; the sample is as large as the largest of them. */
     public static Map<CharacteristicClass, SamplingPlan> plans(int lotSize, SamplingScheme scheme) {
         Map<CharacteristicClass, SamplingPlan> out = new EnumMap<>(CharacteristicClass.class);
-        scheme.aql().forEach((c, aql) -> out.put(c, SingleSampling.plan(lotSize, scheme.level(), aql)));
+        scheme.aql().forEach((c, aql) -> out.put(c, scheme.severity() == Severity.NORMAL
+                ? SingleSampling.plan(lotSize, scheme.level(), aql) : scheme.table().plan(lotSize, scheme.level(), aql)));
         return out;
     }
 

@@ -66,6 +66,20 @@ public final class SingleSampling {
         return new SamplingPlan(lotSize, level, aql, letter, LETTERS.charAt(row), all ? lotSize : n, ac, ac + 1, all);
     }
 
+    /**
+     * The acceptance number of the next tighter AQL at the same sample size (the plan letter's row,
+     * arrows not followed), for the switching score of ISO 2859-1:1999 clause 9.3.3.2; -1 where that
+     * cell is an arrow or there is no tighter AQL.
+     */
+    public static int tighterAcceptance(char planLetter, double aql) {
+        int a = aqlIndex(aql);
+        if (a == 0) {
+            return -1;
+        }
+        int c = cell(index(planLetter), a - 1);
+        return Math.max(c, -1);
+    }
+
     /** The cell of Table II-A: an Ac number, or -1 for a down arrow and -2 for an up arrow. */
     static int cell(int row, int a) {
         int zero = 14 - a;

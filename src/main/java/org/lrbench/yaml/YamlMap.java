@@ -199,6 +199,16 @@ public final class YamlMap {
         return quantityOf(item.node(), item.path(), dimension);
     }
 
+    /** Reads a sequence item as a single non-empty text. */
+    public String asText(Item item) {
+        return scalar(item.node(), item.path());
+    }
+
+    /** Records a problem at a sequence item. */
+    public void problem(Item item, String message) {
+        problems.add(item.node(), item.path(), message);
+    }
+
     /** Records a problem at a key's value (or at this mapping when the key is absent). */
     public void problem(String key, String message) {
         NodeTuple tuple = entries.get(key);
