@@ -75,7 +75,7 @@ class SeverityTableTests {
     @Test
     void everyCellProblemIsPositioned() throws IOException {
         String bad = tableIIA("reduced").replaceFirst("0/1", "1/1").replace("  - aql: 0.025\n", "  - aql: 0.02\n");
-        bad = bad.replace("cells: [down, down, down, down, down, down, down, down, down, down, down, down, 0/1, up, down, 1/2]",
+        bad = bad.replace("cells: [down, down, down, down, down, down, down, down, down, down, down, 0/1, up, down, 1/2, 2/3]",
                 "cells: [down, down, maybe]");
         Files.writeString(dir.resolve("reduced.yaml"), bad);
         assertThatThrownBy(() -> SeverityTableLoader.read(dir.resolve("reduced.yaml")))
