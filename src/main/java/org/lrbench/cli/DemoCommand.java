@@ -16,6 +16,7 @@ import org.lrbench.report.LotReport;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.LotRunner;
+import org.lrbench.run.LotScheme;
 import org.lrbench.run.PartRun;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.SimLot;
@@ -39,6 +40,9 @@ final class DemoCommand implements Callable<Integer> {
 
     @Mixin
     FolderOptions.Runs runsOption;
+
+    @Mixin
+    FolderOptions.Tables tablesOption;
 
     @Option(names = "--lot-file", paramLabel = "LOT.yaml", description = "simulated lot (default: simulator/demo-lot.yaml)")
     Path lotFile;
@@ -87,9 +91,6 @@ final class DemoCommand implements Callable<Integer> {
         if (plan.sampling() == null || lotSize == null) {
             throw new BadInputException(lotPath + ": the demo needs a lot_size and a plan with a sampling section");
         }
-        ResultText.samplingPlans(System.out, lotSize, plan.sampling());
-        System.out.println();
-        ResultText.tableHeader(System.out, qAt);
         LotSummary summary;
         try (ResultStore store = location.open()) {
             // the demo measures its invented lot afresh each time (a real lot resumes where it stopped
@@ -97,8 +98,13 @@ final class DemoCommand implements Callable<Integer> {
             store.deleteLot(lot.lot());
             removeDemoRecords(runsOption.runs.resolve(lot.lot()));
             PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
-            LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, new StoreLedger(store, runsOption.runs, true))
-                    .withOperator("demo");
+            LotRunner.Setup setup = LotRunner.resolved(LotRunner.Setup.of(template, lotSize, drivers,
+                    new StoreLedger(store, runsOption.runs, true)).withOperator("demo")
+                    .withScheme(LotScheme.of(plan.supplier(), tablesOption.tables)));
+            ResultText.severity(System.out, setup.scheme());
+            ResultText.samplingPlans(System.out, lotSize, setup.sampling());
+            System.out.println();
+            ResultText.tableHeader(System.out, qAt);
             LotRunner.Outcome outcome = RunCommand.runTray(setup, b, lot, r -> ResultText.tableRow(System.out, r, qAt));
             summary = LotSummaries.of(outcome, store.attempts(lot.lot()).size(), store.chainHead(lot.lot()));
             Path report = runsOption.runs.resolve(lot.lot()).resolve("report.html");

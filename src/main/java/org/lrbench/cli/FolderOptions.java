@@ -26,6 +26,14 @@ final class FolderOptions {
         }
     }
 
+    /** {@code --sampling-tables}: the lab's transcriptions of ISO 2859-1 Tables II-B and II-C. */
+    static final class Tables {
+        @Option(names = "--sampling-tables", paramLabel = "DIR", defaultValue = "sampling",
+                description = "the lab's tightened.yaml and reduced.yaml (ISO 2859-1 Tables II-B, II-C) for the"
+                        + " switching rules (default: ${DEFAULT-VALUE})")
+        Path tables;
+    }
+
     /** {@code --runs}: the result files, DIR/LOT/SERIAL.json. */
     static final class Runs {
         @Option(names = "--runs", paramLabel = "DIR", defaultValue = "runs",

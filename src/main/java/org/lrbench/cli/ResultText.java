@@ -11,6 +11,7 @@ import org.lrbench.plan.Plan;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.PartResult;
 import org.lrbench.sampling.LotDisposition;
+import org.lrbench.run.LotScheme;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
@@ -112,10 +113,16 @@ final class ResultText {
         }
     }
 
+    /** The severity a lot is inspected under, the supplier's scheme and why, one line. */
+    static void severity(PrintStream out, LotScheme scheme) {
+        out.printf(Locale.ROOT, "%s inspection (scheme: %s): %s%n", scheme.severity().word(),
+                scheme.supplier().isEmpty() ? "no supplier named" : "supplier " + scheme.supplier(), scheme.why());
+    }
+
     /** The lot's sampling plans per class, one line. */
     static void samplingPlans(PrintStream out, int lotSize, SamplingScheme scheme) {
         StringBuilder sb = new StringBuilder(String.format(Locale.ROOT, "lot size %d, inspection level %s (ISO 2859-1,"
-                + " normal, single):", lotSize, scheme.level()));
+                + " %s, single):", lotSize, scheme.level(), scheme.severity().word()));
         List<String> parts = new ArrayList<>();
         LotDisposition.plans(lotSize, scheme).forEach((c, p) -> parts.add(String.format(Locale.ROOT,
                 "%s AQL %s: letter %c%s, n = %d, Ac %d, Re %d%s", c.name().toLowerCase(Locale.ROOT), p.aql(),

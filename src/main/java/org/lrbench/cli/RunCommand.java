@@ -33,11 +33,13 @@ import org.lrbench.results.ResultFiles;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.ConsoleFeeder;
 import org.lrbench.run.LotRunner;
+import org.lrbench.run.LotScheme;
 import org.lrbench.run.LotStop;
 import org.lrbench.run.PartFeeder;
 import org.lrbench.run.PartRun;
 import org.lrbench.run.SwitchFeeder;
 import org.lrbench.run.TrayFeeder;
+import org.lrbench.yaml.ProblemsException;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
@@ -70,6 +72,9 @@ final class RunCommand implements Callable<Integer> {
 
     @Mixin
     FolderOptions.Runs runsOption;
+
+    @Mixin
+    FolderOptions.Tables tablesOption;
 
     @Parameters(index = "0", paramLabel = "PLAN", description = "the plan file (YAML)")
     Path plan;
@@ -121,6 +126,11 @@ final class RunCommand implements Callable<Integer> {
             description = "with --lot-size on a bench with a check standard: start although the check refuses,"
                     + " for this reason (recorded with the operator's name)")
     String overrideCheck;
+
+    @Option(names = "--supplier", paramLabel = "NAME",
+            description = "with --lot-size: the lot's supplier, whose scheme (ISO 2859-1 switching rules) gives the"
+                    + " severity (default: the plan's supplier key)")
+    String supplier;
 
     @Option(names = "--json", paramLabel = "OUT.json", description = "also write the result to this file")
     Path json;
@@ -332,7 +342,6 @@ final class RunCommand implements Callable<Integer> {
             }
             serials = readSerials(traySerials);
         }
-        ResultText.samplingPlans(System.out, lotSize, p.sampling());
         double qAt = ResultText.qFrequency(p);
         PartRun.Request template = new PartRun.Request(p, Inputs.sha256(plan), b, lot, "-", tray != null, Home.version(),
                 new CalibrationStore(calibrationOption.calibration, b.name()).load());
@@ -343,10 +352,14 @@ final class RunCommand implements Callable<Integer> {
         try (ResultStore store = location.open()) {
             StoreLedger ledger = new StoreLedger(store, runsOption.runs, keepTraces());
             LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, ledger).withOperator(operatorName())
-                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL).withStop(stop);
+                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL).withStop(stop)
+                    .withScheme(LotScheme.of(supplier != null ? supplier : p.supplier(), tablesOption.tables));
             if (reinspect != null) {
                 setup = setup.reinspecting(reinspect);
             }
+            setup = LotRunner.resolved(setup);
+            ResultText.severity(System.out, setup.scheme());
+            ResultText.samplingPlans(System.out, lotSize, setup.sampling());
             Integer closed = refuseOrReport(setup);
             if (closed != null) {
                 return closed;
@@ -397,7 +410,7 @@ final class RunCommand implements Callable<Integer> {
      * one is closed, so its disposition is printed, nothing is measured, and its exit code returned.
      * Null when the run may go on.
      */
-    private static Integer refuseOrReport(LotRunner.Setup setup) {
+    private static Integer refuseOrReport(LotRunner.Setup setup) throws ProblemsException {
         var i = LotRunner.preflight(setup);
         if (i == null) {
             return null;

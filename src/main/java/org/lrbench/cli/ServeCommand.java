@@ -34,6 +34,9 @@ final class ServeCommand implements Callable<Integer> {
     @Mixin
     FolderOptions.Runs runsOption;
 
+    @Mixin
+    FolderOptions.Tables tablesOption;
+
     @Option(names = "--port", paramLabel = "N", defaultValue = "8750", description = "port (default: ${DEFAULT-VALUE}; 0 picks one)")
     int port;
 
@@ -58,8 +61,8 @@ final class ServeCommand implements Callable<Integer> {
         }
         String token = address.isLoopbackAddress() ? null : token(location.data);
         ServiceConfig cfg = new ServiceConfig(benchOptions.benchFile(), benchOptions.driverFolder(),
-                Home.root().resolve("plans"), Home.root().resolve("simulator"), location.data, runsOption.runs, calibrationOption.calibration, Home.version(),
-                location.url);
+                Home.root().resolve("plans"), Home.root().resolve("simulator"), location.data, runsOption.runs,
+                calibrationOption.calibration, Home.version(), location.url, tablesOption.tables);
         CountDownLatch stop = new CountDownLatch(1);
         try (BenchService service = new BenchService(cfg); HttpApi api = new HttpApi(service, address, port, token)) {
             System.out.println("bench service for " + service.benchName() + " listening on http://"

@@ -49,7 +49,7 @@ public final class PlanLoader {
     public static Plan load(Path file, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(file.toString());
         YamlMap root = YamlFile.read(file, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "triangle_check", "sampling", "dc_resistance", "limits");
+                "sine_sweep", "triangle_check", "sampling", "dc_resistance", "limits", "supplier");
         return read(root, file.toString(), maxAmplitudeVolt);
     }
 
@@ -57,7 +57,7 @@ public final class PlanLoader {
     public static Plan parse(String text, String name, double maxAmplitudeVolt) throws ProblemsException {
         Problems problems = new Problems(name);
         YamlMap root = YamlFile.parse(text, problems, "plan_format", "part_number", "description", "fixture",
-                "sine_sweep", "triangle_check", "sampling", "dc_resistance", "limits");
+                "sine_sweep", "triangle_check", "sampling", "dc_resistance", "limits", "supplier");
         return read(root, name, maxAmplitudeVolt);
     }
 
@@ -65,6 +65,10 @@ public final class PlanLoader {
         root.integer("plan_format", true, 1, 1);
         String partNumber = root.text("part_number", true);
         String description = root.text("description", false);
+        String supplier = root.text("supplier", false);
+        if (supplier != null && (supplier.length() > 200 || supplier.chars().anyMatch(Character::isISOControl))) {
+            root.problem("supplier", "a supplier's name is one line of at most 200 characters");
+        }
         Double sense = null;
         FixtureWiring wiring = null;
         YamlMap fixture = root.map("fixture", true, "sense_resistor", "wiring", "probes");
@@ -83,7 +87,7 @@ public final class PlanLoader {
         DcResistanceStep dc = readDcResistance(root);
         root.problems().throwIfAny();
         return new Plan(source, partNumber, description == null ? "" : description, sense, sweep, triangle,
-                List.copyOf(limits), sampling, wiring, dc);
+                List.copyOf(limits), sampling, wiring, dc, supplier == null ? null : supplier.trim());
     }
 
     private static DcResistanceStep readDcResistance(YamlMap root) {

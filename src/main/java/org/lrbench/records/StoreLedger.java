@@ -19,6 +19,7 @@ import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.LotLedger;
 import org.lrbench.store.Canonical;
+import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.store.ResultStore;
 import org.lrbench.store.StoreException;
 import org.lrbench.traces.TraceArchive;
@@ -122,8 +123,14 @@ public final class StoreLedger implements LotLedger {
     }
 
     @Override
-    public boolean decide(String lot, int round, String disposition, String reason, String now) {
-        return store.decide(lot, round, disposition, reason, now);
+    public boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+                          Boolean reinstatesNormal, String now) {
+        return store.decide(lot, round, disposition, reason, switchingStep, reinstatesNormal, now);
+    }
+
+    @Override
+    public SwitchingRules.State scheme(String partNumber, String supplier) {
+        return SwitchingRules.replay(store.schemeHistory(partNumber, supplier));
     }
 
     /**

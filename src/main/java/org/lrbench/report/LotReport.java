@@ -72,6 +72,11 @@ public final class LotReport {
         row(h, "disposition", "<span class=\"" + esc(disp) + "\">" + esc(disp.toUpperCase(Locale.ROOT)) + "</span>"
                 + (l.dispositionReason() == null ? "" : " &mdash; " + esc(l.dispositionReason())));
         row(h, "lot size / sample", l.lotSize() + " / " + l.sampleSize());
+        if (l.severity() != null) {
+            row(h, "supplier", l.supplier().isEmpty() ? "none named" : esc(l.supplier()));
+            row(h, "inspection severity", "<span id=\"severity\">" + esc(l.severity()) + "</span> &mdash; "
+                    + esc(l.severityReason()) + " (ISO 2859-1 switching rules)");
+        }
         if (l.round() > 1) {
             row(h, "inspection", "re-inspection " + l.round() + " &mdash; " + esc(l.reason()));
         }
@@ -184,8 +189,9 @@ public final class LotReport {
 
     /**
      * The sampling the lot was inspected under: level and AQL per class from the stored terms,
-     * each class's code letter, sample size and Ac/Re from ISO 2859-1 (normal inspection,
-     * single sampling: lrbench does not switch severity yet).
+     * each class's code letter, sample size and Ac/Re from ISO 2859-1 Table II-A (normal inspection,
+     * single sampling). Tightened and reduced plans come from the lab's tables, which the store does
+     * not hold: their plans are shown as the disposition recorded them.
      */
     private static void sampling(StringBuilder h, LotRecord l) {
         h.append("<h2>Sampling</h2>\n");
@@ -193,7 +199,15 @@ public final class LotReport {
             h.append("<p>No sampling plan: parts measured one by one.</p>\n");
             return;
         }
-        h.append("<p>").append(esc(l.sampling())).append("; ISO 2859-1, single sampling, normal inspection.</p>\n");
+        String severity = l.severity() == null ? "normal" : l.severity();
+        h.append("<p>").append(esc(l.sampling())).append("; ISO 2859-1, single sampling, ").append(esc(severity))
+                .append(" inspection.</p>\n");
+        if (!severity.equals("normal")) {
+            h.append("<p>Plans from the lab's transcription of Table ").append(severity.equals("tightened") ? "II-B" : "II-C")
+                    .append(", as the disposition recorded them: ").append(esc(l.dispositionReason() == null
+                            ? "not decided yet" : l.dispositionReason())).append(".</p>\n");
+            return;
+        }
         Matcher level = Pattern.compile("level (\\S+);").matcher(l.sampling());
         Matcher aqls = Pattern.compile("(\\w+) ([0-9.]+)").matcher(l.sampling().replaceFirst(".*AQL ", ""));
         if (!level.find()) {

@@ -6,11 +6,21 @@ import java.util.Objects;
 
 /**
  * What a lot's inspection is held to, fixed when it starts: the plan (by content), the bench, the
- * lot size, the sample size and the sampling (inspection level and AQL per class) the plan gave,
- * and the operator who started it. Resuming with any term different is refused.
+ * lot size, the sample size and the sampling (inspection level, AQL per class and severity) the
+ * plan and the supplier's scheme gave, the operator who started it, the supplier ("" when none is
+ * named), the severity (normal, tightened, reduced) and why the scheme was at it. Resuming with any
+ * term different is refused. Supplier and severity are null on inspections stored before the
+ * switching rules (all of them normal).
  */
 public record LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench,
-                       Integer lotSize, Integer sampleSize, String sampling, String operator) {
+                       Integer lotSize, Integer sampleSize, String sampling, String operator, String supplier,
+                       String severity, String severityReason) {
+
+    /** Terms without a supplier or severity (records from before the switching rules, tests). */
+    public LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench, Integer lotSize,
+                    Integer sampleSize, String sampling, String operator) {
+        this(lot, partNumber, planPath, planSha256, bench, lotSize, sampleSize, sampling, operator, null, null, null);
+    }
 
     /** The terms that must match to continue an inspection, each as "term: stored X, given Y". */
     public List<String> differences(LotTerms given) {
@@ -21,6 +31,9 @@ public record LotTerms(String lot, String partNumber, String planPath, String pl
         differ(out, "lot size", lotSize, given.lotSize);
         differ(out, "sample size", sampleSize, given.sampleSize);
         differ(out, "sampling", sampling, given.sampling);
+        if (supplier != null) {
+            differ(out, "supplier", supplier, given.supplier);
+        }
         return out;
     }
 

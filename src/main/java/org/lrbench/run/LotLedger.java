@@ -9,6 +9,7 @@ import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotTerms;
 import org.lrbench.results.PartResult;
+import org.lrbench.sampling.SwitchingRules;
 
 /**
  * Where a lot run's records go: the runner's one path to the store, the result files and the
@@ -42,6 +43,14 @@ public interface LotLedger {
         return keep(result, position, traces, senseOhm, null);
     }
 
-    /** Records an inspection's disposition once; false when it was decided already. */
-    boolean decide(String lot, int round, String disposition, String reason, String now);
+    /**
+     * Records an inspection's disposition once, with what it means for the switching rules (the
+     * score's step, whether it reinstates normal inspection; null where it does not count); false
+     * when it was decided already.
+     */
+    boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+                   Boolean reinstatesNormal, String now);
+
+    /** Where a part number's scheme with a supplier stands under the switching rules. */
+    SwitchingRules.State scheme(String partNumber, String supplier);
 }

@@ -28,7 +28,13 @@ import org.lrbench.results.Inspection;
 import org.lrbench.results.LotTerms;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
+import java.util.Optional;
 import org.lrbench.sampling.LotDisposition;
+import org.lrbench.sampling.SamplingScheme;
+import org.lrbench.sampling.Severity;
+import org.lrbench.sampling.SeverityTable;
+import org.lrbench.sampling.SeverityTableLoader;
+import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.transport.inproc.PeerSet;
 import org.lrbench.yaml.ProblemsException;
 
@@ -49,49 +55,60 @@ public final class LotRunner {
     /** Everything a lot run needs besides the feeder. */
     public record Setup(PartRun.Request template, int lotSize, String operator, String reinspectReason,
                         DriverLoader drivers, LotLedger ledger, Sleeper sleeper, SweepListener listener,
-                        BenchInstruments shared, LotStop stop) {
+                        BenchInstruments shared, LotStop stop, LotScheme scheme) {
 
         public static Setup of(PartRun.Request template, int lotSize, DriverLoader drivers, LotLedger ledger) {
             return new Setup(template, lotSize, System.getProperty("user.name", "unknown"), null, drivers, ledger,
-                    Sleeper.NONE, SweepListener.NONE, null, new LotStop());
+                    Sleeper.NONE, SweepListener.NONE, null, new LotStop(), LotScheme.of(template.plan().supplier(), null));
         }
 
         public Setup withOperator(String name) {
-            return new Setup(template, lotSize, name, reinspectReason, drivers, ledger, sleeper, listener, shared, stop);
+            return new Setup(template, lotSize, name, reinspectReason, drivers, ledger, sleeper, listener, shared, stop, scheme);
         }
 
         /** A re-inspection of a decided lot, with its reason. */
         public Setup reinspecting(String reason) {
-            return new Setup(template, lotSize, operator, reason, drivers, ledger, sleeper, listener, shared, stop);
+            return new Setup(template, lotSize, operator, reason, drivers, ledger, sleeper, listener, shared, stop, scheme);
         }
 
         public Setup withSleeper(Sleeper s) {
-            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, s, listener, shared, stop);
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, s, listener, shared, stop, scheme);
         }
 
         public Setup withListener(SweepListener l) {
-            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, l, shared, stop);
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, l, shared, stop, scheme);
         }
 
         /** The bench's instruments, open for the whole lot (a switch unit changes parts). */
         public Setup withShared(BenchInstruments instruments) {
             return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, listener,
-                    instruments, stop);
+                    instruments, stop, scheme);
+        }
+
+        /** The supplier's scheme (supplier and the lab's table folder); resolved by {@link LotRunner#resolved}. */
+        public Setup withScheme(LotScheme x) {
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, listener, shared, stop, x);
+        }
+
+        /** The plan's sampling under the scheme's severity. */
+        public SamplingScheme sampling() {
+            return scheme.sampling(template.plan().sampling());
         }
 
         public Setup withStop(LotStop s) {
-            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, listener, shared, s);
+            return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, sleeper, listener, shared, s, scheme);
         }
 
         /** The terms this run holds the lot to. */
         public LotTerms terms() {
             var plan = template.plan();
             return new LotTerms(template.lot(), plan.partNumber(), plan.source(), template.planSha256(),
-                    template.bench().name(), lotSize, sampleSize(), plan.sampling().describe(), operator);
+                    template.bench().name(), lotSize, sampleSize(), sampling().describe(), operator, scheme.supplier(),
+                    scheme.severity() == null ? null : scheme.severity().word(), scheme.why());
         }
 
         public int sampleSize() {
-            return LotDisposition.judge(lotSize, template.plan().sampling(), List.of()).sampleSize();
+            return LotDisposition.judge(lotSize, sampling(), List.of()).sampleSize();
         }
     }
 
@@ -122,7 +139,8 @@ public final class LotRunner {
      * Throws {@link Refused} for an open inspection under other terms (naming each stored and given
      * term) or a re-inspection asked for while the inspection is open.
      */
-    public static Inspection preflight(Setup s) {
+    public static Inspection preflight(Setup setup) throws ProblemsException {
+        Setup s = resolved(setup);
         var latest = s.ledger().latest(s.template().lot());
         if (latest.isEmpty()) {
             return null;
@@ -143,12 +161,13 @@ public final class LotRunner {
         return s.reinspectReason() != null ? null : i;
     }
 
-    public static Outcome run(Setup s, PartFeeder feeder, Consumer<PartResult> onPart) throws IOException, ProblemsException {
-        PartRun.Request t = s.template();
+    public static Outcome run(Setup setup, PartFeeder feeder, Consumer<PartResult> onPart) throws IOException, ProblemsException {
+        PartRun.Request t = setup.template();
         if (t.plan().sampling() == null) {
             throw new IllegalArgumentException(t.plan().source() + ": the plan has no sampling section; a lot run needs"
                     + " one (level and AQL per class)");
         }
+        Setup s = resolved(setup);
         String lot = t.lot();
         Inspection inspection = s.ledger().open(s.terms(), s.reinspectReason());
         if (inspection.decided()) {
@@ -242,7 +261,11 @@ public final class LotRunner {
                     "stopped before the sample was complete; so far " + d.reason());
         }
         if (d.state() != LotDisposition.State.OPEN) {
-            s.ledger().decide(lot, round, d.state().name().toLowerCase(Locale.ROOT), d.reason(),
+            Severity sev = s.scheme().severity();
+            // what an original inspection means for the switching rules (re-inspections do not count)
+            Integer step = round == 1 && sev == Severity.NORMAL ? SwitchingRules.scoreStep(d) : null;
+            Boolean reinstates = round == 1 && sev == Severity.REDUCED ? SwitchingRules.reinstatesNormal(d) : null;
+            s.ledger().decide(lot, round, d.state().name().toLowerCase(Locale.ROOT), d.reason(), step, reinstates,
                     Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
         }
         return new Outcome(inspection, List.copyOf(kept), counting, d, false, stopped);
@@ -284,6 +307,52 @@ public final class LotRunner {
         return new Measured(r, List.copyOf(points));
     }
 
+    /**
+     * The setup with its scheme resolved: a lot already started keeps the severity it was started
+     * under (older records: normal); a new lot takes the supplier's scheme as the rules leave it.
+     * Refused when inspection is discontinued, or the severity's table is not in the lab's folder.
+     */
+    public static Setup resolved(Setup s) throws ProblemsException {
+        LotScheme sc = s.scheme();
+        if (sc.resolved()) {
+            return s;
+        }
+        var plan = s.template().plan();
+        var latest = s.ledger().latest(s.template().lot());
+        Severity sev;
+        String why;
+        if (latest.isPresent()) {
+            LotTerms stored = latest.get().terms();
+            sev = stored.severity() == null ? Severity.NORMAL : Severity.of(stored.severity());
+            why = stored.severity() == null ? "started before the switching rules were recorded (normal inspection)"
+                    : stored.severityReason();
+        } else {
+            SwitchingRules.State st = s.ledger().scheme(plan.partNumber(), sc.supplier());
+            if (st.severity() == Severity.DISCONTINUED) {
+                throw new Refused("inspection of " + plan.partNumber() + schemeName(sc) + " is discontinued: " + st.why()
+                        + ". A new lot starts only after a recorded decision restarts inspection (lrbench scheme "
+                        + plan.partNumber() + " --set tightened --reason ...)");
+            }
+            sev = st.severity();
+            why = st.why();
+        }
+        SeverityTable table = null;
+        if (sev != Severity.NORMAL) {
+            String file = SeverityTableLoader.fileName(sev);
+            table = (sc.tables() == null ? Optional.<SeverityTable>empty() : SeverityTableLoader.find(sc.tables(), sev))
+                    .orElseThrow(() -> new Refused("lot " + s.template().lot() + " is to be inspected under " + sev.word()
+                            + " inspection (" + why + "), whose plans come from ISO 2859-1 Table "
+                            + (sev == Severity.TIGHTENED ? "II-B" : "II-C") + ". lrbench does not carry that table: put the"
+                            + " lab's transcription in " + (sc.tables() == null ? "the sampling folder" : sc.tables())
+                            + "/" + file + " (see the README), or record a decision on the scheme"));
+        }
+        return s.withScheme(sc.at(sev, why, table));
+    }
+
+    private static String schemeName(LotScheme sc) {
+        return sc.supplier().isEmpty() ? "" : " from " + sc.supplier();
+    }
+
     /** The disposition from the attempts that count, in measuring order. */
     public static LotDisposition.Result disposition(Setup s, int lotSize, List<Attempt> counting) {
         Map<String, Limit> byName = new HashMap<>();
@@ -307,7 +376,7 @@ public final class LotRunner {
             }
             failed.add(classes);
         }
-        return LotDisposition.judge(lotSize, s.template().plan().sampling(), failed);
+        return LotDisposition.judge(lotSize, s.sampling(), failed);
     }
 
     private static PartResult skipped(PartRun.Request t, String serial) {

@@ -26,6 +26,8 @@ import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.PartResult;
 import org.lrbench.run.LotRunner;
+import org.lrbench.run.LotScheme;
+import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.run.PartRun;
 import org.lrbench.sampling.LotDisposition;
 import org.lrbench.sim.SimLot;
@@ -83,10 +85,13 @@ public final class BenchService implements AutoCloseable {
         return bench.name();
     }
 
-    /** The plans folder's plans: file name, part number, description. */
+    /**
+     * The plans folder's plans: file name, part number, description, and for a plan with lot
+     * sampling its supplier's scheme: the severity the next new lot is inspected under and why.
+     */
     public List<Map<String, Object>> plans() throws IOException {
         List<Map<String, Object>> out = new ArrayList<>();
-        try (var files = Files.list(config.plans())) {
+        try (var files = Files.list(config.plans()); ResultStore store = openStore()) {
             for (Path f : files.filter(p -> p.toString().endsWith(".yaml")).sorted().toList()) {
                 Map<String, Object> m = new LinkedHashMap<>();
                 m.put("name", f.getFileName().toString());
@@ -95,6 +100,14 @@ public final class BenchService implements AutoCloseable {
                     m.put("part_number", p.partNumber());
                     m.put("description", p.description());
                     m.put("lot_sampling", p.sampling() != null);
+                    if (p.sampling() != null) {
+                        String supplier = p.supplier() == null ? "" : p.supplier();
+                        SwitchingRules.State s = SwitchingRules.replay(store.schemeHistory(p.partNumber(), supplier));
+                        m.put("supplier", supplier);
+                        m.put("severity", s.severity().word());
+                        m.put("severity_reason", s.why());
+                        m.put("switching_score", s.score());
+                    }
                 } catch (ProblemsException e) {
                     m.put("problems", e.problems().stream().map(Object::toString).toList());
                 }
@@ -106,7 +119,12 @@ public final class BenchService implements AutoCloseable {
 
     /** What an operator asks for when starting a lot run. */
     public record StartRequest(String plan, String lot, int lotSize, String tray, String operator, String reinspectReason,
-                               String overrideCheckReason) {
+                               String overrideCheckReason, String supplier) {
+
+        public StartRequest(String plan, String lot, int lotSize, String tray, String operator, String reinspectReason,
+                            String overrideCheckReason) {
+            this(plan, lot, lotSize, tray, operator, reinspectReason, overrideCheckReason, null);
+        }
     }
 
     /**
@@ -184,10 +202,12 @@ public final class BenchService implements AutoCloseable {
         try {
             setup = LotRunner.Setup.of(template, q.lotSize(), new DriverLoader(config.drivers()),
                     new StoreLedger(store, config.runs(), true)).withOperator(q.operator())
-                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL);
+                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL)
+                    .withScheme(LotScheme.of(q.supplier() != null ? q.supplier() : plan.supplier(), config.samplingTables()));
             if (q.reinspectReason() != null) {
                 setup = setup.reinspecting(q.reinspectReason());
             }
+            setup = LotRunner.resolved(setup);
             Inspection closed = LotRunner.preflight(setup);
             if (closed != null) {
                 throw new ServiceException(409, "lot " + closed.lot() + " is closed: inspection " + closed.round()
@@ -198,6 +218,9 @@ public final class BenchService implements AutoCloseable {
         } catch (LotRunner.Refused e) {
             store.close();
             throw new ServiceException(409, e.getMessage());
+        } catch (ProblemsException e) {
+            store.close();
+            throw new ServiceException(409, "sampling table: " + e.getMessage());
         } catch (RuntimeException e) {
             store.close();
             throw e;
@@ -216,7 +239,9 @@ public final class BenchService implements AutoCloseable {
             }
         };
         r.events.add("run_started", Map.of("lot", q.lot(), "plan", q.plan(), "lot_size", q.lotSize(),
-                "sample_size", r.sampleSize, "already_measured", r.partsDone, "operator", q.operator()));
+                "sample_size", r.sampleSize, "already_measured", r.partsDone, "operator", q.operator(),
+                "severity", setup.scheme().severity().word(), "severity_reason", setup.scheme().why(),
+                "supplier", setup.scheme().supplier()));
         LotRunner.Setup go = setup.withListener(points);
         r.thread = new Thread(() -> {
             try (store) {

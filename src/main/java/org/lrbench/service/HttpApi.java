@@ -198,7 +198,7 @@ public final class HttpApi implements AutoCloseable {
                     throw new ServiceException(400, "override_check_reason: starting despite the check needs a reason, in words");
                 }
                 var run = service.start(new BenchService.StartRequest(plan, lot, size.asInt(), text(b, "tray", false),
-                        operator, reinspect, override));
+                        operator, reinspect, override, text(b, "supplier", false)));
                 json(ctx, HttpResponseStatus.CREATED, run.status());
             } else if (m == HttpMethod.GET && path.equals("/api/runs/current")) {
                 json(ctx, HttpResponseStatus.OK, service.currentOr404().status());

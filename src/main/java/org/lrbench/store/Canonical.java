@@ -30,6 +30,10 @@ public final class Canonical {
         ArrayNode a = COMPACT.createArrayNode().add("terms").add(t.lot()).add(i.round()).add(t.partNumber())
                 .add(t.planPath()).add(t.planSha256()).add(t.bench());
         a.add(t.lotSize()).add(t.sampleSize()).add(t.sampling()).add(t.operator()).add(i.reason()).add(i.createdAt());
+        if (t.severity() != null) {
+            // terms stored since the switching rules (schema 4); earlier terms keep their content
+            a.add(t.supplier()).add(t.severity()).add(t.severityReason());
+        }
         return text(a);
     }
 
@@ -43,8 +47,12 @@ public final class Canonical {
     }
 
     public static String decision(Inspection i) {
-        return text(COMPACT.createArrayNode().add("decision").add(i.lot()).add(i.round()).add(i.disposition())
-                .add(i.dispositionReason()).add(i.finishedAt()));
+        ArrayNode a = COMPACT.createArrayNode().add("decision").add(i.lot()).add(i.round()).add(i.disposition())
+                .add(i.dispositionReason()).add(i.finishedAt());
+        if (i.switchingStep() != null || i.reinstatesNormal() != null) {
+            a.add(i.switchingStep()).add(i.reinstatesNormal());
+        }
+        return text(a);
     }
 
     public static String chain(String previous, String contentSha256) {

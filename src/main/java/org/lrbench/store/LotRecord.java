@@ -4,9 +4,12 @@ package org.lrbench.store;
  * One inspection of a lot as the store holds it, counted by the attempt that counts for each
  * part: measured (pass, fail or error; skipped positions are never measured), passed, failed,
  * errors, skipped, and all attempts stored. The disposition is null while the inspection is open.
+ * Supplier and severity (with why the scheme was at it) are null on inspections stored before the
+ * switching rules.
  */
 public record LotRecord(String lot, int round, String partNumber, String planPath, String planSha256, String bench,
                         Integer lotSize, Integer sampleSize, String sampling, String operator, String reason,
                         String createdAt, String disposition, String dispositionReason, String finishedAt,
-                        int measured, int passed, int failed, int errors, int skipped, int attempts) {
+                        int measured, int passed, int failed, int errors, int skipped, int attempts, String supplier,
+                        String severity, String severityReason) {
 }

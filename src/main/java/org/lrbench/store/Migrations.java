@@ -59,5 +59,18 @@ final class Migrations {
                             + " attempt INTEGER, content_sha256 TEXT NOT NULL, previous_sha256 TEXT NOT NULL,"
                             + " record_sha256 TEXT NOT NULL, PRIMARY KEY (lot, seq))",
                     "DROP TABLE part_result",
-                    "DROP TABLE lot"));
+                    "DROP TABLE lot"),
+            // step 4: the switching rules of ISO 2859-1: each inspection's supplier and severity, what
+            // its decision means for the rules, and the decisions people record for a supplier's scheme
+            List.of(
+                    "ALTER TABLE inspection ADD COLUMN supplier TEXT",
+                    "ALTER TABLE inspection ADD COLUMN severity TEXT"
+                            + " CHECK (severity IN ('normal', 'tightened', 'reduced'))",
+                    "ALTER TABLE inspection ADD COLUMN severity_reason TEXT",
+                    "ALTER TABLE inspection ADD COLUMN switching_step INTEGER",
+                    "ALTER TABLE inspection ADD COLUMN reinstates_normal INTEGER",
+                    "CREATE TABLE scheme_decision (part_number TEXT NOT NULL, supplier TEXT NOT NULL,"
+                            + " seq INTEGER NOT NULL CHECK (seq >= 1), decided_at TEXT NOT NULL, severity TEXT NOT NULL"
+                            + " CHECK (severity IN ('normal', 'tightened', 'reduced', 'discontinued')), reason TEXT NOT NULL,"
+                            + " operator TEXT, override INTEGER NOT NULL, PRIMARY KEY (part_number, supplier, seq))"));
 }

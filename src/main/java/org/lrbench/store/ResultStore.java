@@ -9,8 +9,11 @@ import java.sql.PreparedStatement;
 import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.sql.Statement;
+import java.sql.Types;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
@@ -19,6 +22,8 @@ import java.util.Optional;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotTerms;
+import org.lrbench.sampling.Severity;
+import org.lrbench.sampling.SwitchingRules;
 import org.sqlite.SQLiteConfig;
 import org.sqlite.SQLiteOpenMode;
 
@@ -376,8 +381,8 @@ public final class ResultStore implements AutoCloseable {
     private Inspection insertInspection(Inspection i) throws SQLException {
         LotTerms t = i.terms();
         try (PreparedStatement p = db.prepareStatement("INSERT INTO inspection (lot, round, part_number, plan_path,"
-                + " plan_sha256, bench, lot_size, sample_size, sampling, operator, reason, created_at)"
-                + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                + " plan_sha256, bench, lot_size, sample_size, sampling, operator, reason, created_at, supplier, severity,"
+                + " severity_reason) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
             p.setString(1, t.lot());
             p.setInt(2, i.round());
             p.setString(3, t.partNumber());
@@ -390,6 +395,9 @@ public final class ResultStore implements AutoCloseable {
             p.setString(10, t.operator());
             p.setString(11, i.reason());
             p.setString(12, i.createdAt());
+            p.setString(13, t.supplier());
+            p.setString(14, t.severity());
+            p.setString(15, t.severityReason());
             p.executeUpdate();
         }
         chain.append(t.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
@@ -407,7 +415,8 @@ public final class ResultStore implements AutoCloseable {
     }
 
     private static final String INSPECTION_COLUMNS = "lot, round, part_number, plan_path, plan_sha256, bench, lot_size,"
-            + " sample_size, sampling, operator, reason, created_at, disposition, disposition_reason, finished_at";
+            + " sample_size, sampling, operator, reason, created_at, disposition, disposition_reason, finished_at, supplier,"
+            + " severity, severity_reason, switching_step, reinstates_normal";
 
     private List<Inspection> inspections(String lot) throws SQLException {
         String sql = "SELECT " + INSPECTION_COLUMNS + " FROM inspection" + (lot == null ? "" : " WHERE lot = ?")
@@ -428,9 +437,11 @@ public final class ResultStore implements AutoCloseable {
 
     private static Inspection inspection(ResultSet r) throws SQLException {
         LotTerms t = new LotTerms(r.getString(1), r.getString(3), r.getString(4), r.getString(5), r.getString(6),
-                whole(r, 7), whole(r, 8), r.getString(9), r.getString(10));
+                whole(r, 7), whole(r, 8), r.getString(9), r.getString(10), r.getString(16), r.getString(17),
+                r.getString(18));
+        Integer reinstates = whole(r, 20);
         return new Inspection(t, r.getInt(2), r.getString(11), r.getString(12), r.getString(13), r.getString(14),
-                r.getString(15));
+                r.getString(15), whole(r, 19), reinstates == null ? null : reinstates != 0);
     }
 
     /**
@@ -438,17 +449,29 @@ public final class ResultStore implements AutoCloseable {
      * the inspection was already decided.
      */
     public boolean decide(String lot, int round, String disposition, String reason, String now) {
+        return decide(lot, round, disposition, reason, null, null, now);
+    }
+
+    /**
+     * As above, with what the decision means for the switching rules (an original inspection under
+     * a supplier's scheme): the switching score's step and whether it reinstates normal inspection.
+     */
+    public boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+                          Boolean reinstatesNormal, String now) {
         try {
             return inTransaction(() -> {
                 chain.lock(lot);
                 int n;
                 try (PreparedStatement p = db.prepareStatement("UPDATE inspection SET disposition = ?,"
-                        + " disposition_reason = ?, finished_at = ? WHERE lot = ? AND round = ? AND disposition IS NULL")) {
+                        + " disposition_reason = ?, finished_at = ?, switching_step = ?, reinstates_normal = ?"
+                        + " WHERE lot = ? AND round = ? AND disposition IS NULL")) {
                     p.setString(1, disposition);
                     p.setString(2, reason);
                     p.setString(3, now);
-                    p.setString(4, lot);
-                    p.setInt(5, round);
+                    setWhole(p, 4, switchingStep);
+                    setWhole(p, 5, reinstatesNormal == null ? null : reinstatesNormal ? 1 : 0);
+                    p.setString(6, lot);
+                    p.setInt(7, round);
                     n = p.executeUpdate();
                 }
                 if (n == 0) {
@@ -461,6 +484,143 @@ public final class ResultStore implements AutoCloseable {
         } catch (SQLException e) {
             throw new StoreException("recording the disposition of lot " + lot + " failed: " + StoreErrors.describe(e), e);
         }
+    }
+
+    private static void setWhole(PreparedStatement p, int column, Integer v) throws SQLException {
+        if (v == null) {
+            p.setNull(column, Types.INTEGER);
+        } else {
+            p.setInt(column, v);
+        }
+    }
+
+    // ---- the switching rules of a supplier's scheme -------------------------------------------
+
+    /**
+     * The history of one part number's scheme with one supplier ("" for none named): its original
+     * inspections decided under the switching rules and the decisions people recorded, in time
+     * order (a lot before a decision at the same instant).
+     */
+    public List<SwitchingRules.Event> schemeHistory(String partNumber, String supplier) {
+        try {
+            return schemeEvents(partNumber, supplier);
+        } catch (SQLException e) {
+            throw new StoreException("reading the inspection scheme of " + partNumber + " failed: "
+                    + StoreErrors.describe(e), e);
+        }
+    }
+
+    private List<SwitchingRules.Event> schemeEvents(String partNumber, String supplier) throws SQLException {
+        List<SwitchingRules.Event> lots = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement("SELECT lot, finished_at, severity, disposition, switching_step,"
+                + " reinstates_normal FROM inspection WHERE part_number = ? AND supplier = ? AND round = 1"
+                + " AND disposition IS NOT NULL AND severity IS NOT NULL")) {
+            q.setString(1, partNumber);
+            q.setString(2, supplier);
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    Integer step = whole(r, 5);
+                    Integer reinstates = whole(r, 6);
+                    lots.add(new SwitchingRules.LotOutcome(r.getString(2), r.getString(1), Severity.of(r.getString(3)),
+                            "accept".equals(r.getString(4)), step == null ? 0 : step, reinstates != null && reinstates != 0));
+                }
+            }
+        }
+        List<SwitchingRules.Event> decisions = new ArrayList<>();
+        try (PreparedStatement q = db.prepareStatement("SELECT decided_at, severity, reason, operator, override"
+                + " FROM scheme_decision WHERE part_number = ? AND supplier = ? ORDER BY seq")) {
+            q.setString(1, partNumber);
+            q.setString(2, supplier);
+            try (ResultSet r = q.executeQuery()) {
+                while (r.next()) {
+                    decisions.add(new SwitchingRules.Decision(r.getString(1), Severity.of(r.getString(2)), r.getString(3),
+                            r.getString(4), r.getInt(5) != 0));
+                }
+            }
+        }
+        List<SwitchingRules.Event> all = new ArrayList<>(lots);
+        all.sort(Comparator.comparing((SwitchingRules.Event e) -> Instant.parse(e.at())));
+        // decisions in their own order, each after every lot decided at or before its instant
+        for (SwitchingRules.Event d : decisions) {
+            Instant at = Instant.parse(d.at());
+            int k = 0;
+            while (k < all.size() && !Instant.parse(all.get(k).at()).isAfter(at)) {
+                k++;
+            }
+            all.add(k, d);
+        }
+        return all;
+    }
+
+    private static final long SCHEME_LOCK = 0x6c72_6263_0000_0000L;
+
+    /**
+     * Records a decision on a supplier's scheme: the severity a person sets, why, and whether it
+     * overrides the rules. Without override the rules must allow it ({@link SwitchingRules#refusal});
+     * otherwise nothing is written and the reason is thrown. Decisions are never changed or removed.
+     */
+    public SwitchingRules.State decideScheme(String partNumber, String supplier, Severity to, String reason,
+                                             String operator, boolean override, String now) {
+        if (reason == null || reason.isBlank()) {
+            throw new IllegalArgumentException("a decision on the inspection scheme needs a reason");
+        }
+        String key = "scheme " + partNumber + " / " + supplier;
+        try {
+            return inTransaction(() -> {
+                if (postgres) {
+                    // two benches deciding on one scheme take turns (SQLite's writes are serialized already)
+                    try (PreparedStatement l = db.prepareStatement("SELECT pg_advisory_xact_lock(?)")) {
+                        l.setLong(1, SCHEME_LOCK ^ key.hashCode());
+                        l.execute();
+                    }
+                }
+                SwitchingRules.State before = SwitchingRules.replay(schemeEvents(partNumber, supplier));
+                String refusal = SwitchingRules.refusal(before, to);
+                if (refusal != null && !override) {
+                    throw new IllegalArgumentException("not recorded: " + refusal);
+                }
+                int seq;
+                try (PreparedStatement q = db.prepareStatement("SELECT COALESCE(MAX(seq), 0) + 1 FROM scheme_decision"
+                        + " WHERE part_number = ? AND supplier = ?")) {
+                    q.setString(1, partNumber);
+                    q.setString(2, supplier);
+                    try (ResultSet r = q.executeQuery()) {
+                        r.next();
+                        seq = r.getInt(1);
+                    }
+                }
+                try (PreparedStatement p = db.prepareStatement("INSERT INTO scheme_decision (part_number, supplier, seq,"
+                        + " decided_at, severity, reason, operator, override) VALUES (?, ?, ?, ?, ?, ?, ?, ?)")) {
+                    p.setString(1, partNumber);
+                    p.setString(2, supplier);
+                    p.setInt(3, seq);
+                    p.setString(4, now);
+                    p.setString(5, to.word());
+                    p.setString(6, reason);
+                    p.setString(7, operator);
+                    p.setInt(8, override ? 1 : 0);
+                    p.executeUpdate();
+                }
+                return SwitchingRules.replay(schemeEvents(partNumber, supplier));
+            });
+        } catch (SQLException e) {
+            throw new StoreException("recording a decision on " + key + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    /** Every (part number, supplier) with a scheme: inspections under the rules or decisions. */
+    public List<String[]> schemes() {
+        List<String[]> out = new ArrayList<>();
+        try (Statement s = db.createStatement(); ResultSet r = s.executeQuery("SELECT part_number, supplier FROM inspection"
+                + " WHERE supplier IS NOT NULL UNION SELECT part_number, supplier FROM scheme_decision"
+                + " ORDER BY 1, 2")) {
+            while (r.next()) {
+                out.add(new String[] {r.getString(1), r.getString(2)});
+            }
+        } catch (SQLException e) {
+            throw new StoreException("listing inspection schemes failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
     }
 
     // ---- attempts ----------------------------------------------------------------------------
@@ -735,7 +895,8 @@ public final class ResultStore implements AutoCloseable {
         LotTerms t = i.terms();
         return new LotRecord(t.lot(), i.round(), t.partNumber(), t.planPath(), t.planSha256(), t.bench(), t.lotSize(),
                 t.sampleSize(), t.sampling(), t.operator(), i.reason(), i.createdAt(), i.disposition(),
-                i.dispositionReason(), i.finishedAt(), passed + failed + errors, passed, failed, errors, skipped, all.size());
+                i.dispositionReason(), i.finishedAt(), passed + failed + errors, passed, failed, errors, skipped, all.size(),
+                t.supplier(), t.severity(), t.severityReason());
     }
 
     private static int count(List<Attempt> as, String verdict) {

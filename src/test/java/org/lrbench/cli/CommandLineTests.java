@@ -121,7 +121,7 @@ class CommandLineTests {
         Files.writeString(plan, Files.readString(Path.of(PLAN)).replace("sense_resistor: 100 ohm", "sense_resistor: 100 V"));
         Outcome check = run("check", plan.toString());
         assertThat(check.code()).isEqualTo(2);
-        assertThat(check.err()).contains(plan + ":7:19: fixture.sense_resistor: '100 V' is voltage (V); expected resistance (ohm)");
+        assertThat(check.err()).contains(plan + ":8:19: fixture.sense_resistor: '100 V' is voltage (V); expected resistance (ohm)");
         Outcome runIt = run("run", plan.toString(), "--lot", "L", "--serial", "S", "--runs", dir.toString());
         assertThat(runIt.code()).isEqualTo(2);
         assertThat(run("check", PLAN).code()).isZero();
@@ -233,6 +233,34 @@ class CommandLineTests {
                 "--data", dir.resolve("data").toString(), "--calibration", dir.resolve("none").toString());
         assertThat(single.code()).isEqualTo(2);
         assertThat(single.err()).contains("lot X1 is inspected by sampling");
+    }
+
+    @Test
+    void theSchemeCommandShowsTheSwitchAndRecordsOnlyDecisionsTheRulesAllow(@TempDir Path dir) throws Exception {
+        // the demo tray's lot is rejected under normal inspection (ISO 2859-1 Table II-A: D, n 8, Ac 1);
+        // two rejected lots within five tighten the supplier's scheme (ISO 2859-1:1999 9.3.1)
+        String data = dir.resolve("data").toString();
+        assertThat(lotRun(dir, "S1", "40", "--supplier", "Brackwater").code()).isEqualTo(1);
+        assertThat(lotRun(dir, "S2", "40", "--supplier", "Brackwater").code()).isEqualTo(1);
+        Outcome shown = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--data", data);
+        assertThat(shown.code()).isZero();
+        assertThat(shown.out()).contains("tightened inspection").contains("lots S1 and S2 not accepted")
+                .contains("normal -> tightened");
+        Outcome next = lotRun(dir, "S3", "40", "--supplier", "Brackwater", "--sampling-tables",
+                dir.resolve("none").toString());
+        assertThat(next.code()).isEqualTo(2);
+        assertThat(next.err()).contains("tightened inspection").contains("Table II-B");
+        Outcome refused = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--set", "reduced", "--reason",
+                "asked for", "--data", data);
+        assertThat(refused.code()).isEqualTo(2);
+        assertThat(refused.err()).contains("not recorded").contains("--override");
+        Outcome override = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--set", "normal", "--reason",
+                "supplier audit passed, QA decision 2026-12", "--override", "--operator", "Ines", "--data", data);
+        assertThat(override.code()).isZero();
+        assertThat(override.out()).contains("normal inspection").contains("override by Ines");
+        assertThat(lotRun(dir, "S3", "40", "--supplier", "Brackwater").out()).contains("normal inspection");
+        Outcome list = run("scheme", "--data", data);
+        assertThat(list.out()).contains("Brackwater").contains("normal");
     }
 
     @Test

@@ -110,7 +110,7 @@ class LotReportTests {
             var withMatch = new org.lrbench.run.PartRun.Request(t.plan(), t.planSha256(), t.bench(), t.lot(), t.serial(),
                     t.simulated(), t.programVersion(), new org.lrbench.calibration.Calibration(match, null));
             LotRunner.Setup setup = new LotRunner.Setup(withMatch, base.lotSize(), base.operator(), null, base.drivers(),
-                    base.ledger(), base.sleeper(), base.listener(), null, base.stop());
+                    base.ledger(), base.sleeper(), base.listener(), null, base.stop(), base.scheme());
             LotRunner.run(setup, new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
             Element identity = Jsoup.parse(LotReport.html(store, "LOT-1")).getElementById("identity");
             // measured 2026-11-29, the lot started today: days before, and the fixture compensation missing

@@ -19,7 +19,7 @@ import org.lrbench.yaml.ProblemsException;
  * every lot size and AQL must give the plan the built-in Table II-A gives (ISO 2859-1:1999 Table
  * II-A, checked cell by cell in {@link SingleSamplingTests}).
  */
-class SeverityTableTests {
+public class SeverityTableTests {
     private static final int ROWS = 16;
     private static final int FIRST_AQL = 2;
 
@@ -31,7 +31,7 @@ class SeverityTableTests {
      * AQLs from 0.025 (where the built-in structure's row R leads off the table for 0.015, a row level
      * II never reaches).
      */
-    static String tableIIA(String severity) {
+    public static String tableIIA(String severity) {
         StringBuilder y = new StringBuilder("table_format: 1\nseverity: " + severity + "\n"
                 + "source: ISO 2859-1:1999 Table II-A written in the table format (a test)\nsample_sizes: {");
         for (int i = 0; i < ROWS; i++) {

@@ -184,6 +184,21 @@ public class ResultStoreTests {
     }
 
     @Test
+    void recordsWrittenBeforeTheSwitchingRulesKeepTheirCanonicalContent() {
+        // a chain sealed by schema 3 must verify after schema 4: terms and decisions without a supplier,
+        // severity or switching step have exactly the content they had (common practice, no source)
+        LotTerms old = new LotTerms("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "level II; AQL major 1", "op");
+        Inspection i = new Inspection(old, 1, null, "t0", "accept", "0 major", "t1");
+        assertThat(Canonical.terms(i)).isEqualTo("[\"terms\",\"L1\",1,\"P-1\",\"p.yaml\",\"" + "ab".repeat(32)
+                + "\",\"b\",40,8,\"level II; AQL major 1\",\"op\",null,\"t0\"]");
+        assertThat(Canonical.decision(i)).isEqualTo("[\"decision\",\"L1\",1,\"accept\",\"0 major\",\"t1\"]");
+        LotTerms now = new LotTerms("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "level II; AQL major 1", "op",
+                "Halvern", "tightened", "lots A and B not accepted");
+        assertThat(Canonical.terms(new Inspection(now, 1, null, "t0", null, null, null)))
+                .endsWith(",\"Halvern\",\"tightened\",\"lots A and B not accepted\"]");
+    }
+
+    @Test
     void aStoreOfAnEarlierSchemaIsMigratedAndSealed(@TempDir Path dir) throws Exception {
         Path db = dir.resolve("old.db");
         try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {

@@ -12,7 +12,9 @@ import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.Supplier;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import java.time.Instant;
 import org.lrbench.results.Attempt;
+import org.lrbench.sampling.Severity;
 
 /**
  * Two benches writing one store at once, on SQLite and on a real PostgreSQL server. The PostgreSQL
@@ -31,7 +33,7 @@ class SharedStoreTests {
     static void reset(String url) throws Exception {
         try (var c = DriverManager.getConnection(url); var s = c.createStatement()) {
             for (String table : List.of("chain_record", "lot_chain", "attempt", "inspection", "part_result", "lot",
-                    "schema_version")) {
+                    "scheme_decision", "schema_version")) {
                 s.execute("DROP TABLE IF EXISTS " + table);
             }
         }
@@ -51,6 +53,40 @@ class SharedStoreTests {
         try (ResultStore s = ResultStore.openUrl(url)) {
             assertThat(s.version()).isEqualTo(Migrations.STEPS.size());
             assertThat(s.history("P-1")).hasSize(1);
+        }
+    }
+
+    @Test
+    void postgresKeepsEveryDecisionOnASchemeWhenTwoBenchesDecideAtOnce() throws Exception {
+        String url = postgres();
+        reset(url);
+        try (ResultStore s = ResultStore.openUrl(url)) {
+            assertThat(s.schemeHistory("P-1", "S")).isEmpty();
+        }
+        List<Thread> threads = new ArrayList<>();
+        AtomicInteger failures = new AtomicInteger();
+        for (int bench = 0; bench < 2; bench++) {
+            int b = bench;
+            threads.add(new Thread(() -> {
+                try (ResultStore s = ResultStore.openUrl(url)) {
+                    for (int i = 0; i < 10; i++) {
+                        s.decideScheme("P-1", "S", i % 2 == 0 ? Severity.TIGHTENED
+                                : Severity.NORMAL, "bench " + b + " decision " + i, "qa", true,
+                                Instant.now().toString());
+                    }
+                } catch (RuntimeException e) {
+                    failures.incrementAndGet();
+                }
+            }));
+        }
+        threads.forEach(Thread::start);
+        for (Thread t : threads) {
+            t.join();
+        }
+        assertThat(failures.get()).isZero();
+        try (ResultStore s = ResultStore.openUrl(url)) {
+            // 20 decisions, none lost or replaced (each keeps its own sequence number)
+            assertThat(s.schemeHistory("P-1", "S")).hasSize(20);
         }
     }
 

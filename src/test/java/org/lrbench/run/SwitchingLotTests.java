@@ -1,0 +1,105 @@
+package org.lrbench.run;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lrbench.bench.SimulatedPart;
+import org.lrbench.records.RecordCheck;
+import org.lrbench.records.StoreLedger;
+import org.lrbench.sampling.LotDisposition;
+import org.lrbench.sampling.SeverityTableTests;
+import org.lrbench.sampling.Severity;
+import org.lrbench.sim.SimLot;
+import org.lrbench.store.LotRecord;
+import org.lrbench.store.ResultStore;
+
+/**
+ * The switching rules end to end on the simulated bench: the demo tray's lot is rejected under
+ * normal inspection (lot 40, level II: D, n = 8; AQL 6.5: Ac 1, Re 2, ISO 2859-1 Tables I and II-A),
+ * so two such lots put the supplier's scheme at tightened (ISO 2859-1:1999 9.3.1).
+ */
+class SwitchingLotTests {
+
+    private static LotRunner.Setup lot(ResultStore store, Path dir, String name, String supplier) throws Exception {
+        LotRunner.Setup s = LotRunTests.setup(store, dir);
+        PartRun.Request t = s.template();
+        PartRun.Request named = new PartRun.Request(t.plan(), t.planSha256(), t.bench(), name, "-", true, "test");
+        return LotRunner.Setup.of(named, 40, s.drivers(), s.ledger()).withOperator("tester")
+                .withScheme(LotScheme.of(supplier, dir.resolve("sampling")));
+    }
+
+    private static LotRunner.Outcome run(LotRunner.Setup s, SimLot tray) throws Exception {
+        return LotRunner.run(s, new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
+    }
+
+    @Test
+    void twoRejectedLotsTightenTheSuppliersSchemeAndTheNextLotIsInspectedUnderIt(@TempDir Path dir) throws Exception {
+        SimLot tray = LotRunTests.tray();
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
+            // a lot started under normal inspection and left open before the switch
+            LotRunner.run(lot(store, dir, "A0", "Halvern"), LotRunTests.stoppingAfter(
+                    new TrayFeeder(SimulatedPart.tray(tray.parts())), 2), r -> { });
+            assertThat(run(lot(store, dir, "A1", "Halvern"), tray).disposition().state())
+                    .isEqualTo(LotDisposition.State.REJECT);
+            assertThat(run(lot(store, dir, "A2", "Halvern"), tray).disposition().state())
+                    .isEqualTo(LotDisposition.State.REJECT);
+            var scheme = new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern");
+            assertThat(scheme.severity()).isEqualTo(Severity.TIGHTENED);
+            assertThat(scheme.why()).contains("A1").contains("A2");
+
+            // lrbench carries no Table II-B: the next lot is refused before anything is stored
+            assertThatThrownBy(() -> run(lot(store, dir, "A3", "Halvern"), tray)).isInstanceOf(LotRunner.Refused.class)
+                    .hasMessageContaining("tightened inspection").hasMessageContaining("II-B");
+            assertThat(store.latestInspection("A3")).isEmpty();
+
+            // another supplier's scheme is its own: still normal
+            assertThat(LotRunner.resolved(lot(store, dir, "B1", "Other Co")).scheme().severity())
+                    .isEqualTo(Severity.NORMAL);
+
+            // with the lab's table (here Table II-A written in the table format) the lot runs, and records it
+            Files.createDirectories(dir.resolve("sampling"));
+            Files.writeString(dir.resolve("sampling/tightened.yaml"), SeverityTableTests.tableIIA("tightened"));
+            run(lot(store, dir, "A3", "Halvern"), tray);
+            LotRecord a3 = store.lot("A3").get(0);
+            assertThat(a3.severity()).isEqualTo("tightened");
+            assertThat(a3.supplier()).isEqualTo("Halvern");
+            assertThat(a3.sampling()).endsWith("; tightened inspection");
+            assertThat(a3.severityReason()).contains("A1").contains("A2");
+            assertThat(RecordCheck.findings(store, dir, "A3")).isEmpty();
+            assertThat(RecordCheck.findings(store, dir, "A1")).isEmpty();
+
+            // the open lot resumes under the severity it started with; its decision is kept but not counted
+            LotRunner.Setup resumed = LotRunner.resolved(lot(store, dir, "A0", "Halvern"));
+            assertThat(resumed.scheme().severity()).isEqualTo(Severity.NORMAL);
+            run(resumed, tray);
+            assertThat(store.lot("A0").get(0).severity()).isEqualTo("normal");
+            var after = new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern");
+            assertThat(after.notCounted()).anyMatch(n -> n.contains("A0"));
+            assertThat(after.severity()).isEqualTo(Severity.TIGHTENED);
+        }
+    }
+
+    @Test
+    void aDiscontinuedSchemeRefusesNewLotsUntilADecisionRestartsIt(@TempDir Path dir) throws Exception {
+        SimLot tray = LotRunTests.tray();
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
+            store.decideScheme("QFD-IND-1M0", "", Severity.DISCONTINUED, "supplier's process changed without notice",
+                    "qa", true, "2026-01-01T00:00:00Z");
+            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRunner.Refused.class)
+                    .hasMessageContaining("discontinued").hasMessageContaining("supplier's process changed");
+            assertThat(store.latestInspection("D1")).isEmpty();
+            // without override the rules allow only a restart at tightened from here (ISO 2859-1:1999 9.4)
+            assertThatThrownBy(() -> store.decideScheme("QFD-IND-1M0", "", Severity.NORMAL, "asked", "qa", false,
+                    "2026-01-02T00:00:00Z")).isInstanceOf(IllegalArgumentException.class).hasMessageContaining("not recorded");
+            store.decideScheme("QFD-IND-1M0", "", Severity.TIGHTENED, "supplier's corrective action 8D-17 verified", "qa",
+                    false, "2026-01-03T00:00:00Z");
+            assertThat(store.schemeHistory("QFD-IND-1M0", "")).hasSize(2);
+            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRunner.Refused.class)
+                    .hasMessageContaining("II-B");
+        }
+    }
+}
