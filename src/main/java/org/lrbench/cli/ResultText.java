@@ -115,7 +115,7 @@ final class ResultText {
 
     /** The severity a lot is inspected under, the supplier's scheme and why, one line. */
     static void severity(PrintStream out, LotScheme scheme) {
-        out.printf(Locale.ROOT, "%s inspection (scheme: %s): %s%n", scheme.severity().word(),
+        out.printf(Locale.ROOT, "%s inspection, %s: %s%n", scheme.severity().word(),
                 scheme.supplier().isEmpty() ? "no supplier named" : "supplier " + scheme.supplier(), scheme.why());
     }
 

@@ -75,7 +75,7 @@ public final class LotReport {
         if (l.severity() != null) {
             row(h, "supplier", l.supplier().isEmpty() ? "none named" : esc(l.supplier()));
             row(h, "inspection severity", "<span id=\"severity\">" + esc(l.severity()) + "</span> &mdash; "
-                    + esc(l.severityReason()) + " (ISO 2859-1 switching rules)");
+                    + esc(l.severityReason()));
         }
         if (l.round() > 1) {
             row(h, "inspection", "re-inspection " + l.round() + " &mdash; " + esc(l.reason()));

@@ -137,7 +137,7 @@ public final class SwitchingRules {
     private static final class Fold {
         Severity severity = Severity.NORMAL;
         int score;
-        String why = "normal inspection at the start of the scheme";
+        String why = "a scheme starts at normal inspection (ISO 2859-1:1999 9.2)";
         final Deque<LotOutcome> window = new ArrayDeque<>();
         int consecutiveAccepted;
         int notAcceptedTightened;
