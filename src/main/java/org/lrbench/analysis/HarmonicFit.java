@@ -32,9 +32,13 @@ public final class HarmonicFit {
         if (y.length <= p) {
             throw new IllegalArgumentException("a " + kMax + "-harmonic fit needs more than " + p + " samples");
         }
-        double[][] m = new double[p][p];
+        // the normal equations from sums of single harmonics: a product of two harmonics j and k is
+        // half the sum of harmonics j + k and |j - k| (angle addition), so the Gram matrix needs the
+        // sums of cos(m w t_i) and sin(m w t_i) for m = 0 .. 2K only: O(N K) instead of O(N K^2)
+        int mMax = 2 * kMax;
+        double[] sumCos = new double[mMax + 1];
+        double[] sumSin = new double[mMax + 1];
         double[] v = new double[p];
-        double[] row = new double[p];
         double omegaDt = 2 * Math.PI * frequencyHz * intervalSecond;
         double c1 = 1;
         double s1 = 0;
@@ -48,29 +52,41 @@ public final class HarmonicFit {
             // harmonics by the angle-addition recurrence from the fundamental
             double ck = c1;
             double sk = s1;
-            for (int k = 1; k <= kMax; k++) {
-                row[2 * k - 2] = ck;
-                row[2 * k - 1] = sk;
+            double yi = y[i];
+            for (int k = 1; k <= mMax; k++) {
+                sumCos[k] += ck;
+                sumSin[k] += sk;
+                if (k <= kMax) {
+                    v[2 * k - 2] += ck * yi;
+                    v[2 * k - 1] += sk * yi;
+                }
                 double nc = ck * c1 - sk * s1;
                 sk = sk * c1 + ck * s1;
                 ck = nc;
             }
-            row[p - 1] = 1.0;
-            for (int r = 0; r < p; r++) {
-                v[r] += row[r] * y[i];
-                for (int k = r; k < p; k++) {
-                    m[r][k] += row[r] * row[k];
-                }
-            }
+            v[p - 1] += yi;
             double nc = c1 * cs - s1 * sn;
             s1 = s1 * cs + c1 * sn;
             c1 = nc;
         }
-        for (int r = 0; r < p; r++) {
-            for (int k = 0; k < r; k++) {
-                m[r][k] = m[k][r];
+        sumCos[0] = y.length;
+        double[][] m = new double[p][p];
+        for (int j = 1; j <= kMax; j++) {
+            for (int k = 1; k <= kMax; k++) {
+                int d = Math.abs(j - k);
+                double sd = j >= k ? sumSin[d] : -sumSin[d];
+                m[2 * j - 2][2 * k - 2] = 0.5 * (sumCos[d] + sumCos[j + k]);
+                m[2 * j - 1][2 * k - 1] = 0.5 * (sumCos[d] - sumCos[j + k]);
+                // cos(j x) sin(k x) = (sin((j + k) x) - sin((j - k) x)) / 2
+                m[2 * j - 2][2 * k - 1] = 0.5 * (sumSin[j + k] - sd);
+                m[2 * j - 1][2 * k - 2] = 0.5 * (sumSin[j + k] + sd);
             }
+            m[2 * j - 2][p - 1] = sumCos[j];
+            m[p - 1][2 * j - 2] = sumCos[j];
+            m[2 * j - 1][p - 1] = sumSin[j];
+            m[p - 1][2 * j - 1] = sumSin[j];
         }
+        m[p - 1][p - 1] = y.length;
         DecompositionSolver solver = new QRDecomposition(new Array2DRowRealMatrix(m, false), 1e-15).getSolver();
         if (!solver.isNonSingular()) {
             throw new IllegalArgumentException("harmonic fit is singular: record too short for " + kMax + " harmonics");

@@ -39,9 +39,17 @@ public final class SweepRunner {
     private final Sleeper sleeper;
 
     private final boolean openCircuit;
+    private final RangeMemory memory;
+    /** Set once the output is off after the last capture (the part is no longer driven). */
+    private boolean outputOff;
 
     public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper) {
         this(generator, digitizer, sleeper, false);
+    }
+
+    /** A sweep runner that ranges from, and keeps for the next part, what a part of the same plan showed. */
+    public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, RangeMemory memory) {
+        this(generator, digitizer, sleeper, false, memory);
     }
 
 
@@ -50,10 +58,16 @@ public final class SweepRunner {
      *                    a reading (its impedance NaN: beyond what the bench can see), not an error
      */
     public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, boolean openCircuit) {
+        this(generator, digitizer, sleeper, openCircuit, null);
+    }
+
+    private SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, boolean openCircuit,
+                        RangeMemory memory) {
         this.generator = generator;
         this.digitizer = digitizer;
         this.sleeper = sleeper;
         this.openCircuit = openCircuit;
+        this.memory = openCircuit ? null : memory;
     }
 
     /** The sweep points and, when the plan asks for it, the triangle-wave check. */
@@ -96,6 +110,7 @@ public final class SweepRunner {
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         List<PointResult> points = new ArrayList<>();
         generator.outputOn();
+        outputOff = false;
         try {
             if (multisine != null) {
                 points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, sleeper,
@@ -105,50 +120,95 @@ public final class SweepRunner {
                     listener.pointMeasured(i, points.size(), points.get(i));
                 }
                 TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
-                        : triangle(plan, points.get(points.size() - 1).impedance());
+                        : triangle(plan, points.get(points.size() - 1).impedance(), new double[2]);
                 return new Measurement(points, triangle);
             }
             int count = sweep.frequenciesHz().size();
-            for (int i = 0; i < count; i++) {
-                double f = sweep.frequenciesHz().get(i);
-                if (!points.isEmpty() && sweep.offsetVolt() == 0 && !openCircuit) {
-                    double[] peaks = RangePrediction.next(points.get(points.size() - 1).impedance(),
-                            sweep.amplitudeVolt(), plan.senseResistanceOhm(), f);
-                    if (peaks != null) {
-                        ranger.expect(peaks[0], peaks[1]);
+            ImpedancePoint remembered = memory == null ? null : memory.firstPoint(plan);
+            // each point is analysed while the instruments move on to the next (its frequency change
+            // and settle), so lrbench's own work overlaps the instruments' time
+            try (PointWork work = new PointWork()) {
+                for (int i = 0; i < count; i++) {
+                    double f = sweep.frequenciesHz().get(i);
+                    generator.setFrequency(f);
+                    // the settle runs from here: the wait for the last point's analysis is part of it
+                    long changed = System.nanoTime();
+                    if (work.pending()) {
+                        PointResult done = work.result();
+                        points.add(done);
+                        listener.pointMeasured(i - 1, count, done);
                     }
+                    // ranges from the point before, or at the first point from the part before
+                    ImpedancePoint basis = !points.isEmpty() ? points.get(points.size() - 1).impedance()
+                            : i == 0 ? remembered : null;
+                    boolean predicted = false;
+                    if (basis != null && sweep.offsetVolt() == 0 && !openCircuit) {
+                        double[] peaks = RangePrediction.next(basis, sweep.amplitudeVolt(), plan.senseResistanceOhm(), f);
+                        if (peaks != null) {
+                            ranger.expect(peaks[0], peaks[1]);
+                            predicted = true;
+                        }
+                    }
+                    Captured c = capturePoint(plan, f, ranger,
+                            points.isEmpty() ? null : points.get(points.size() - 1).impedance(), predicted, changed);
+                    work.submit(() -> analysePoint(plan, c));
                 }
-                PointResult point = measurePoint(plan, f, ranger,
-                        points.isEmpty() ? null : points.get(points.size() - 1).impedance());
-                points.add(point);
-                listener.pointMeasured(i, count, point);
+                if (plan.triangle() != null && !openCircuit) {
+                    // the triangle's settings go out while the last point is analysed
+                    setTriangle(plan.triangle());
+                }
+                PointResult last = work.result();
+                points.add(last);
+                listener.pointMeasured(count - 1, count, last);
             }
+            double[] trianglePeaks = new double[2];
             TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
-                    : triangle(plan, points.get(points.size() - 1).impedance());
+                    : triangle(plan, points.get(points.size() - 1).impedance(), trianglePeaks);
+            if (memory != null) {
+                memory.remember(plan, points.get(0).impedance(), triangle == null ? null : trianglePeaks);
+            }
             return new Measurement(points, triangle);
         } finally {
-            generator.outputOff();
+            if (!outputOff) {
+                generator.outputOff();
+            }
         }
     }
 
-    /** Drives the triangle, captures both channels and extracts R and L in the time domain. */
-    private TriangleExtraction.Result triangle(Plan plan, ImpedancePoint last) {
-        TriangleCheck t = plan.triangle();
+    private void setTriangle(TriangleCheck t) {
         generator.batch(() -> {
             generator.setWaveform(Waveform.TRIANGLE);
             generator.setAmplitude(t.amplitudeVolt());
             generator.setFrequency(t.frequencyHz());
         });
+    }
+
+    /** Drives the triangle, captures both channels and extracts R and L in the time domain. */
+    /** @param peaks filled with the capture's peak on each channel (channel volts), for the next part */
+    private TriangleExtraction.Result triangle(Plan plan, ImpedancePoint last, double[] peaks) {
+        TriangleCheck t = plan.triangle();
+        if (plan.sweep().multisine()) {
+            setTriangle(t);
+        }
         double start = 2.2 * t.amplitudeVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
+        double[] known = memory == null ? null : memory.trianglePeaks(plan);
+        if (known != null) {
+            ranger.expect(known[0], known[1]);
+        }
         sleeper.sleep(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond()));
-        if (t.cycles() > RANGING_CYCLES) {
+        if (known == null && t.cycles() > RANGING_CYCLES) {
             // the ranges found on short records first, as at the sweep's first point
             TimeBase.set(digitizer, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
             ranger.acquire();
         }
         Timing timing = TimeBase.set(digitizer, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
         AutoRanger.Capture capture = ranger.acquire();
+        // the last capture: the part is not driven while its time-domain values are worked out
+        generator.outputOff();
+        outputOff = true;
+        peaks[0] = peak(capture.sense().volts());
+        peaks[1] = peak(capture.part().volts());
         double[][] v = volts(plan, capture);
         return TriangleExtraction.extract(v[0], v[1], timing.sampleIntervalSecond(),
                 t.frequencyHz(), plan.senseResistanceOhm(), t.harmonics());
@@ -179,23 +239,54 @@ public final class SweepRunner {
         return new double[][] {sense, part};
     }
 
-    private PointResult measurePoint(Plan plan, double f, AutoRanger ranger, ImpedancePoint previous) {
+    /** One point's capture, before its analysis. */
+    private record Captured(double f, AutoRanger.Capture capture, Timing timing) {
+    }
+
+    /** Captures one point with the generator already at its frequency: settle, time base, ranges, record. */
+    /** What is left of a settle that started at {@code since} ({@link System#nanoTime}). */
+    static double remaining(double settleSecond, long since) {
+        return Math.max(0, settleSecond - (System.nanoTime() - since) / 1e9);
+    }
+
+    private static double peak(double[] v) {
+        double m = 0;
+        for (double x : v) {
+            m = Math.max(m, Math.abs(x));
+        }
+        return m;
+    }
+
+    /**
+     * @param predicted the ranges were predicted (from the point or the part before): no ranging records
+     * @param changed when the generator reached the frequency ({@link System#nanoTime}): the settle counts from there
+     */
+    private Captured capturePoint(Plan plan, double f, AutoRanger ranger, ImpedancePoint previous, boolean predicted,
+                                  long changed) {
         SineSweep sweep = plan.sweep();
-        generator.setFrequency(f);
         int ranging = 0;
-        if (previous == null && sweep.cycles() > RANGING_CYCLES) {
+        if (previous == null && !predicted && sweep.cycles() > RANGING_CYCLES) {
             // nothing predicts the first point's ranges: find them on short records, then take the
             // plan's record once on ranges already right
             TimeBase.set(digitizer, f, RANGING_CYCLES, sweep.samplesPerCycle());
-            sleeper.sleep(Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()));
+            sleeper.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), null,
+                    generator.frequencySettleSecond()), changed));
             ranging = ranger.acquire().acquisitions();
         }
         Timing timing = TimeBase.set(digitizer, f, sweep.cycles(), sweep.samplesPerCycle());
         if (ranging == 0) {
-            sleeper.sleep(Settle.seconds(sweep, plan.senseResistanceOhm(), previous, generator.frequencySettleSecond()));
+            sleeper.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), previous,
+                    generator.frequencySettleSecond()), changed));
         }
         AutoRanger.Capture found = ranger.acquire();
-        AutoRanger.Capture capture = new AutoRanger.Capture(found.sense(), found.part(), found.acquisitions() + ranging);
+        return new Captured(f, new AutoRanger.Capture(found.sense(), found.part(), found.acquisitions() + ranging), timing);
+    }
+
+    /** A captured point's phasors, impedance and distortion: pure computing, no instrument. */
+    private PointResult analysePoint(Plan plan, Captured c) {
+        double f = c.f();
+        AutoRanger.Capture capture = c.capture();
+        Timing timing = c.timing();
         double[][] v = volts(plan, capture);
         FixtureWiring w = plan.wiring();
         FixturePhasors.Result phasors = FixturePhasors.of(capture.sense().volts(), capture.part().volts(),

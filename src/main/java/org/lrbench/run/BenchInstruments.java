@@ -18,6 +18,7 @@ import org.lrbench.instrument.Generator;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.instrument.Multimeter;
 import org.lrbench.instrument.Switch;
+import org.lrbench.measure.RangeMemory;
 import org.lrbench.scpi.ScpiSession;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.Transport;
@@ -28,6 +29,7 @@ import org.lrbench.yaml.ProblemsException;
 
 /** A bench's generator and digitizer, opened through their drivers and links; closes both links. */
 public final class BenchInstruments implements AutoCloseable {
+    private final RangeMemory rangeMemory = new RangeMemory();
     private final Generator generator;
     private final Digitizer digitizer;
     private final List<ScpiSession> sessions;
@@ -147,6 +149,11 @@ public final class BenchInstruments implements AutoCloseable {
         ScpiSession m = session("meter", bench.meter(), meterDriver, peers, simulated);
         sessions.add(m);
         meter = new ScpiMultimeter(m, meterDriver);
+    }
+
+    /** What the last part measured on these instruments showed, for ranging the next part of a lot at once. */
+    public RangeMemory rangeMemory() {
+        return rangeMemory;
     }
 
     public Generator generator() {

@@ -72,7 +72,8 @@ public final class PartRun {
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
-            SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper)
+            SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper,
+                    instruments.rangeMemory())
                     .run(plan, listener);
             points = m.points();
             triangle = m.triangle();

@@ -1,5 +1,7 @@
 package org.lrbench.sim;
 
+import org.lrbench.sim.scpi.SimulatedTime;
+
 import java.util.Locale;
 
 /**
@@ -43,14 +45,11 @@ public record SimTiming(String name, double messageSecond, double bytesPerSecond
 
     /** Sleeps {@code seconds} of simulated instrument time (nothing when 0). */
     public static void pass(double seconds) {
-        if (!(seconds > 0)) {
-            return;
-        }
-        long nanos = (long) (seconds * 1e9);
-        try {
-            Thread.sleep(nanos / 1_000_000, (int) (nanos % 1_000_000));
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-        }
+        SimulatedTime.passSince(System.nanoTime(), seconds);
+    }
+
+    /** As {@link SimulatedTime#passSince}: the simulator's computing since the start is hidden in it. */
+    public static void passSince(long startNanos, double seconds) {
+        SimulatedTime.passSince(startNanos, seconds);
     }
 }

@@ -195,21 +195,21 @@ public abstract class ScpiDevice implements InProcessPeer {
         this.bytesPerSecond = bytesPerSecond;
     }
 
-    /** Sleeps the simulated time of one message of {@code bytes} in and out. */
-    private void take(long bytes) {
+    /**
+     * Lets the simulated time of one message of {@code bytes} in and out pass, after the time its
+     * handlers simulated (an acquisition, a frequency change); the simulator's computing outside
+     * those is hidden inside the message's time.
+     */
+    private void take(long bytes, long startNanos, long simulatedBefore) {
         double seconds = messageSecond + (bytesPerSecond > 0 ? bytes / bytesPerSecond : 0);
-        if (seconds > 0) {
-            long nanos = (long) (seconds * 1e9);
-            try {
-                Thread.sleep(nanos / 1_000_000, (int) (nanos % 1_000_000));
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-            }
-        }
+        long computing = System.nanoTime() - startNanos - (SimulatedTime.simulatedNanos() - simulatedBefore);
+        SimulatedTime.passSince(System.nanoTime() - Math.max(0, computing), seconds);
     }
 
     /** Executes one whole program message. */
     public synchronized void execute(String message) {
+        long startNanos = System.nanoTime();
+        long simulatedBefore = SimulatedTime.simulatedNanos();
         if (outputPosition < output.length) {
             // IEEE 488.2 6.3.2.3: a new message before the response was read interrupts the query
             pushError(-410, "Query INTERRUPTED");
@@ -248,7 +248,7 @@ public abstract class ScpiDevice implements InProcessPeer {
             response.write('\n');
             output = response.toByteArray();
         }
-        take(message.length() + 1L + output.length);
+        take(message.length() + 1L + output.length, startNanos, simulatedBefore);
     }
 
     private record Parsed(Handler handler, Call call, List<HeaderPattern.Token> tokens, boolean common) {

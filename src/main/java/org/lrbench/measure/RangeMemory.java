@@ -1,0 +1,38 @@
+package org.lrbench.measure;
+
+import org.lrbench.analysis.ImpedancePoint;
+import org.lrbench.plan.Plan;
+
+/**
+ * What the previous part of the same plan showed, kept while the instruments stay open for a lot
+ * (a tray behind a switch): the first sweep point's impedance and the triangle capture's peaks. The
+ * next part is ranged from them at once instead of from short ranging records; the auto-ranger
+ * still judges every capture, so a part unlike the one before costs a capture again, never a wrong
+ * range. The first point's settle is the plan's in full: the memory only chooses ranges.
+ */
+public final class RangeMemory {
+    private Plan plan;
+    private ImpedancePoint firstPoint;
+    private double[] trianglePeaks;
+
+    /** The previous part's first point under this plan, or null. */
+    synchronized ImpedancePoint firstPoint(Plan p) {
+        return p.equals(plan) ? firstPoint : null;
+    }
+
+    /** The previous part's triangle peaks (channel volts) under this plan, or null. */
+    synchronized double[] trianglePeaks(Plan p) {
+        return p.equals(plan) && trianglePeaks != null ? trianglePeaks.clone() : null;
+    }
+
+    synchronized void remember(Plan p, ImpedancePoint first, double[] triangle) {
+        if (!p.equals(plan)) {
+            plan = p;
+            trianglePeaks = null;
+        }
+        firstPoint = first;
+        if (triangle != null) {
+            trianglePeaks = triangle.clone();
+        }
+    }
+}
