@@ -111,10 +111,11 @@ final class StoreCommands {
                             String.valueOf(l.lotSize()), String.valueOf(l.sampleSize()), String.valueOf(l.measured()),
                             String.valueOf(l.passed()), String.valueOf(l.failed()), String.valueOf(l.errors()),
                             String.valueOf(l.skipped()), String.valueOf(l.attempts()),
-                            l.disposition() == null ? "open" : l.disposition()));
+                            l.disposition() == null ? "open" : l.disposition(),
+                            l.severity() == null ? "normal" : l.severity(), l.supplier() == null ? "" : l.supplier()));
                 }
                 print(List.of("lot", "inspection", "part_number", "started", "lot_size", "sample", "measured", "pass",
-                        "fail", "error", "skipped", "attempts", "disposition"), rows);
+                        "fail", "error", "skipped", "attempts", "disposition", "severity", "supplier"), rows);
             }
             return ExitCodes.PASS;
         }

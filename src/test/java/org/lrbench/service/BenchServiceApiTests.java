@@ -24,6 +24,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
 import org.lrbench.cli.ServeTokens;
+import org.lrbench.sampling.Severity;
+import org.lrbench.store.ResultStore;
 
 /** The service's API with the JDK's HTTP client against a service on a free loopback port. */
 class BenchServiceApiTests {
@@ -111,6 +113,35 @@ class BenchServiceApiTests {
         try (BenchService service = new BenchService(config(dir.resolve("plain")));
              HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
             assertThat(json(call(api.port(), "GET", "/api/bench", null, null)).get("lot_may_start").asBoolean()).isTrue();
+        }
+    }
+
+    @Test
+    void thePageSeesTheSuppliersSeverityAndADiscontinuedSchemeRefusesALot(@TempDir Path dir) throws Exception {
+        try (BenchService service = new BenchService(config(dir));
+             HttpApi api = new HttpApi(service, InetAddress.getLoopbackAddress(), 0, null)) {
+            int port = api.port();
+            JsonNode plan = json(call(port, "GET", "/api/plans", null, null)).get("plans").get(0);
+            assertThat(plan.get("supplier").asText()).isEqualTo("Halvern Coil Co.");
+            assertThat(plan.get("severity").asText()).isEqualTo("normal");
+            try (ResultStore store = ResultStore.open(dir.resolve("data/lrbench.db"))) {
+                store.decideScheme("QFD-IND-1M0", "Halvern Coil Co.", Severity.DISCONTINUED, "supplier audit failed",
+                        "qa", true, "2026-12-01T08:00:00Z");
+            }
+            plan = json(call(port, "GET", "/api/plans", null, null)).get("plans").get(0);
+            assertThat(plan.get("severity").asText()).isEqualTo("discontinued");
+            assertThat(plan.get("severity_reason").asText()).contains("supplier audit failed");
+            HttpResponse<String> start = call(port, "POST", "/api/runs",
+                    "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"SW-1\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\","
+                            + "\"operator\":\"Tam\"}", null);
+            assertThat(start.statusCode()).as(start.body()).isEqualTo(409);
+            assertThat(json(start).get("error").asText()).contains("discontinued").contains("supplier audit failed");
+            // another supplier named for the lot has a scheme of its own
+            HttpResponse<String> other = call(port, "POST", "/api/runs",
+                    "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"SW-2\",\"lot_size\":40,\"tray\":\"demo-lot.yaml\","
+                            + "\"operator\":\"Tam\",\"supplier\":\"Brackwater\"}", null);
+            assertThat(other.statusCode()).as(other.body()).isEqualTo(201);
+            call(port, "POST", "/api/runs/current/stop", null, null);
         }
     }
 
