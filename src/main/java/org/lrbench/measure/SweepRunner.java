@@ -42,6 +42,8 @@ public final class SweepRunner {
     private final RangeMemory memory;
     /** Set once the output is off after the last capture (the part is no longer driven). */
     private boolean outputOff;
+    /** When the triangle's settings took effect ({@link System#nanoTime}). */
+    private long triangleSet;
 
     public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper) {
         this(generator, digitizer, sleeper, false);
@@ -154,8 +156,9 @@ public final class SweepRunner {
                     work.submit(() -> analysePoint(plan, c));
                 }
                 if (plan.triangle() != null && !openCircuit) {
-                    // the triangle's settings go out while the last point is analysed
+                    // the triangle's settings go out while the last point is analysed; its settle runs from here
                     setTriangle(plan.triangle());
+                    triangleSet = System.nanoTime();
                 }
                 PointResult last = work.result();
                 points.add(last);
@@ -189,6 +192,7 @@ public final class SweepRunner {
         TriangleCheck t = plan.triangle();
         if (plan.sweep().multisine()) {
             setTriangle(t);
+            triangleSet = System.nanoTime();
         }
         double start = 2.2 * t.amplitudeVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
@@ -196,7 +200,8 @@ public final class SweepRunner {
         if (known != null) {
             ranger.expect(known[0], known[1]);
         }
-        sleeper.sleep(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond()));
+        sleeper.sleep(remaining(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last,
+                generator.frequencySettleSecond()), triangleSet));
         if (known == null && t.cycles() > RANGING_CYCLES) {
             // the ranges found on short records first, as at the sweep's first point
             TimeBase.set(digitizer, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
