@@ -62,8 +62,7 @@ final class StandardCommand implements Callable<Integer> {
         Path planFile = benchDir.resolve(cs.plan());
         Plan p = Inputs.plan(planFile, b);
         Inputs.requireFit(p, b, benchOptions.loader());
-        var limit = p.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst()
-                .orElseThrow(() -> new BadInputException(planFile + ": the check standard's plan needs an inductance limit"));
+        var limit = p.firstLimit(Characteristic.INDUCTANCE).orElseThrow(() -> new BadInputException(planFile + ": the check standard's plan needs an inductance limit"));
         SimBench sim = null;
         CheckStandardLog log = new CheckStandardLog(runs.runs, b.name());
         List<CheckStandardLog.Entry> before = log.entries();

@@ -138,7 +138,7 @@ final class StudyCommand implements Callable<Integer> {
     private int fromRecords() throws Exception {
         BenchConfig b = Inputs.bench(benches != null && !benches.isEmpty() ? benches.get(0) : Home.defaultBench());
         Plan p = Inputs.plan(plan, b);
-        var limit = p.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst()
+        var limit = p.firstLimit(Characteristic.INDUCTANCE)
                 .orElseThrow(() -> new BadInputException(plan + ": a study needs an inductance limit"));
         Path folder = runs.runs.resolve(Inputs.name("--records", records));
         if (!Files.isDirectory(folder)) {
@@ -200,7 +200,7 @@ final class StudyCommand implements Callable<Integer> {
 
     /** The reference part's true inductance as the plan's limit reads it: apparent at its frequency, if any. */
     private static double truth(Plan p, PartModel ref) {
-        var limit = p.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst().orElseThrow();
+        var limit = p.firstLimit(Characteristic.INDUCTANCE).orElseThrow();
         if (limit.atFrequencyHz() == null) {
             return ref.inductanceHenry();
         }

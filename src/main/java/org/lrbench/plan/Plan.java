@@ -1,6 +1,8 @@
 package org.lrbench.plan;
 
 import java.util.List;
+import java.util.Optional;
+import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Limit;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.fixture.FixtureWiring;
@@ -20,6 +22,11 @@ public record Plan(String source, String partNumber, String description, double 
                 DcResistanceStep dcResistance) {
         this(source, partNumber, description, senseResistanceOhm, sweep, triangle, limits, sampling, wiring, dcResistance,
                 null);
+    }
+
+    /** The plan's first limit on a characteristic, if it has one (a study's or a check standard's reading). */
+    public Optional<Limit> firstLimit(Characteristic c) {
+        return limits.stream().filter(l -> l.characteristic() == c).findFirst();
     }
 
     /** The same plan with another sweep. */

@@ -69,8 +69,7 @@ public final class SimulatedStudy {
     }
 
     static Limit inductanceLimit(Plan plan) {
-        return plan.limits().stream().filter(l -> l.characteristic() == Characteristic.INDUCTANCE).findFirst()
-                .orElseThrow(() -> new IllegalArgumentException(plan.source() + ": a study needs an inductance limit"));
+        return plan.firstLimit(Characteristic.INDUCTANCE).orElseThrow(() -> new IllegalArgumentException(plan.source() + ": a study needs an inductance limit"));
     }
 
     /** The limit's width, or 0 for a one-sided limit (no %tolerance then). */
