@@ -323,6 +323,9 @@ final class RunCommand implements Callable<Integer> {
         if (reinspect != null && reinspect.isBlank()) {
             throw new BadInputException("--reinspect needs a reason, in words");
         }
+        if (Names.supplierProblem(supplier) != null) {
+            throw new BadInputException("--" + Names.supplierProblem(supplier));
+        }
         BenchConfig b = benchOptions.load();
         b = addresses.applyTo(b);
         Plan p = Inputs.plan(plan, b);

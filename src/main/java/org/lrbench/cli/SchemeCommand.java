@@ -3,6 +3,7 @@ package org.lrbench.cli;
 import java.time.Instant;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.lrbench.results.Names;
 import org.lrbench.sampling.Severity;
 import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.store.ResultStore;
@@ -59,6 +60,9 @@ final class SchemeCommand implements Callable<Integer> {
                 }
             }
             return ExitCodes.PASS;
+        }
+        if (Names.supplierProblem(supplier) != null) {
+            throw new BadInputException("--" + Names.supplierProblem(supplier));
         }
         String sup = supplier.trim();
         if (set == null) {

@@ -67,6 +67,7 @@ public final class PlanLoader {
         String description = root.text("description", false);
         String supplier = root.text("supplier", false);
         if (supplier != null && (supplier.length() > 200 || supplier.chars().anyMatch(Character::isISOControl))) {
+            // the same rule as a supplier named for a lot (results.Names.supplierProblem)
             root.problem("supplier", "a supplier's name is one line of at most 200 characters");
         }
         Double sense = null;

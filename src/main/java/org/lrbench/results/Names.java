@@ -27,4 +27,15 @@ public final class Names {
         String shown = name == null ? "nothing" : "'" + name.replace("\n", "\\n").replace("\r", "\\r") + "'";
         return what + " " + shown + ": use " + RULE;
     }
+
+    /** The longest supplier name kept. */
+    public static final int SUPPLIER_LENGTH = 200;
+
+    /** Why {@code name} cannot be a supplier's name (one line, at most 200 characters), or null when it can. */
+    public static String supplierProblem(String name) {
+        if (name == null || (name.length() <= SUPPLIER_LENGTH && name.chars().noneMatch(Character::isISOControl))) {
+            return null;
+        }
+        return "supplier: a supplier's name is one line of at most " + SUPPLIER_LENGTH + " characters";
+    }
 }

@@ -1,6 +1,7 @@
 package org.lrbench.run;
 
 import java.nio.file.Path;
+import org.lrbench.results.Names;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.sampling.Severity;
 import org.lrbench.sampling.SeverityTable;
@@ -14,6 +15,10 @@ public record LotScheme(String supplier, Path tables, Severity severity, String 
 
     /** A scheme not yet resolved for a supplier, with the folder of the lab's tables. */
     public static LotScheme of(String supplier, Path tables) {
+        String problem = Names.supplierProblem(supplier);
+        if (problem != null) {
+            throw new IllegalArgumentException(problem);
+        }
         return new LotScheme(supplier == null ? "" : supplier.trim(), tables, null, null, null);
     }
 

@@ -197,8 +197,12 @@ public final class HttpApi implements AutoCloseable {
                 if (override != null && override.isBlank()) {
                     throw new ServiceException(400, "override_check_reason: starting despite the check needs a reason, in words");
                 }
+                String supplier = text(b, "supplier", false);
+                if (Names.supplierProblem(supplier) != null) {
+                    throw new ServiceException(400, Names.supplierProblem(supplier));
+                }
                 var run = service.start(new BenchService.StartRequest(plan, lot, size.asInt(), text(b, "tray", false),
-                        operator, reinspect, override, text(b, "supplier", false)));
+                        operator, reinspect, override, supplier));
                 json(ctx, HttpResponseStatus.CREATED, run.status());
             } else if (m == HttpMethod.GET && path.equals("/api/runs/current")) {
                 json(ctx, HttpResponseStatus.OK, service.currentOr404().status());

@@ -261,6 +261,9 @@ class CommandLineTests {
         assertThat(lotRun(dir, "S3", "40", "--supplier", "Brackwater").out()).contains("normal inspection");
         Outcome list = run("scheme", "--data", data);
         assertThat(list.out()).contains("Brackwater").contains("normal");
+        Outcome twoLines = lotRun(dir, "S4", "40", "--supplier", "Brack\nwater");
+        assertThat(twoLines.code()).isEqualTo(2);
+        assertThat(twoLines.err()).contains("--supplier: a supplier's name is one line");
     }
 
     @Test
