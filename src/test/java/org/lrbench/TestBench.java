@@ -23,7 +23,12 @@ public final class TestBench {
     public final ScpiSession digitizerSession;
 
     public TestBench(SimSettings settings, double senseOhm, PartModel part, Path digitizerDriver) throws Exception {
-        sim = new SimBench(settings, senseOhm, part);
+        this(new SimBench(settings, senseOhm, part), digitizerDriver);
+    }
+
+    /** The generator and digitizer of a simulated bench built elsewhere (a tray behind its switch). */
+    public TestBench(SimBench bench, Path digitizerDriver) throws Exception {
+        sim = bench;
         DriverFile source = DriverLoader.read(home().resolve("drivers/generic-source.yaml"), "generic-source",
                 DriverKind.SOURCE, new Problems("generic-source.yaml"));
         DriverFile dig = DriverLoader.read(digitizerDriver, "digitizer", DriverKind.DIGITIZER,
