@@ -12,6 +12,58 @@ import org.junit.jupiter.api.Test;
 
 class GaugeStudyTests {
 
+    /**
+     * The published worked example of the ANOVA method: AIAG, Measurement Systems Analysis reference
+     * manual, 4th ed. (2010), the gauge study of 10 parts, appraisers A, B and C, 3 trials, and its
+     * ANOVA table (data and table from memory; that the sums of squares come out to every printed
+     * digit corroborates both). Rows: appraiser, trial; columns: parts 1 to 10.
+     */
+    private static final double[][][] MSA_EXAMPLE = {
+        {{0.29, -0.56, 1.34, 0.47, -0.80, 0.02, 0.59, -0.31, 2.26, -1.36},
+            {0.41, -0.68, 1.17, 0.50, -0.92, -0.11, 0.75, -0.20, 1.99, -1.25},
+            {0.64, -0.58, 1.27, 0.64, -0.84, -0.21, 0.66, -0.17, 2.01, -1.31}},
+        {{0.08, -0.47, 1.19, 0.01, -0.56, -0.20, 0.47, -0.63, 1.80, -1.68},
+            {0.25, -1.22, 0.94, 1.03, -1.20, 0.22, 0.55, 0.08, 2.12, -1.62},
+            {0.07, -0.68, 1.34, 0.20, -1.28, 0.06, 0.83, -0.34, 2.19, -1.50}},
+        {{0.04, -1.38, 0.88, 0.14, -1.46, -0.29, 0.02, -0.46, 1.77, -1.49},
+            {-0.11, -1.13, 1.09, 0.20, -1.07, -0.67, 0.01, -0.56, 1.45, -1.77},
+            {-0.15, -0.96, 0.67, 0.11, -1.45, -0.49, 0.21, -0.49, 1.87, -2.16}}};
+
+    @Test
+    void thePublishedWorkedExampleGivesItsAnovaTable() {
+        double[][][] y = new double[10][3][3];
+        for (int a = 0; a < 3; a++) {
+            for (int r = 0; r < 3; r++) {
+                for (int p = 0; p < 10; p++) {
+                    y[p][a][r] = MSA_EXAMPLE[a][r][p];
+                }
+            }
+        }
+        GaugeStudy.Result res = GaugeStudy.analyse(y, 0);
+        // the manual's table: appraiser 2 df, SS 3.1673, MS 1.58363; parts 9 df, SS 88.3619, MS 9.81799;
+        // appraiser by part 18 df, SS 0.3590; equipment 60 df, SS 2.7589; total 89 df, SS 94.6471
+        GaugeStudy.Row part = row(res, "part");
+        GaugeStudy.Row appraiser = row(res, "appraiser");
+        assertThat(part.df()).isEqualTo(9);
+        assertThat(part.sumOfSquares()).isCloseTo(88.3619, within(5e-5));
+        assertThat(part.meanSquare()).isCloseTo(9.81799, within(5e-6));
+        assertThat(appraiser.df()).isEqualTo(2);
+        assertThat(appraiser.sumOfSquares()).isCloseTo(3.1673, within(5e-5));
+        assertThat(appraiser.meanSquare()).isCloseTo(1.58363, within(5e-6));
+        assertThat(row(res, "total").sumOfSquares()).isCloseTo(94.6471, within(5e-5));
+        // the interaction (F = 0.434 in the manual) is not significant: pooled with the equipment's
+        // variation, 0.3590 + 2.7589 over 18 + 60 degrees of freedom
+        assertThat(res.interactionPooled()).isTrue();
+        GaugeStudy.Row pooled = res.table().stream().filter(r -> r.source().startsWith("repeatability")).findFirst()
+                .orElseThrow();
+        assertThat(pooled.df()).isEqualTo(78);
+        assertThat(pooled.sumOfSquares()).isCloseTo(0.3590 + 2.7589, within(1e-4));
+    }
+
+    private static GaugeStudy.Row row(GaugeStudy.Result r, String source) {
+        return r.table().stream().filter(x -> x.source().equals(source)).findFirst().orElseThrow();
+    }
+
     /** Parts x appraisers x trials with part, appraiser and interaction effects and noise. */
     private static double[][][] data(long seed, double appraiserSd, double interactionSd) {
         Random rnd = new Random(seed);
