@@ -162,6 +162,65 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public Timing setTiming(double sampleIntervalSecond, int wanted) {
+        TimingMessage m = timingMessage(sampleIntervalSecond, wanted);
+        List<String> replies = session.configure(m.command(), driver.errorQuery());
+        if (replies.size() != 2) {
+            throw new InstrumentException(session.instrument() + ": '" + m.command() + "' answered " + replies
+                    + "; expected the interval and the record length");
+        }
+        return acceptTiming(m, replies.get(0), replies.get(1));
+    }
+
+    /**
+     * The time base and the ranges of the channels whose request changed in one message (one round
+     * trip), each read back in the same reply.
+     */
+    @Override
+    public Timing setTimingAndRanges(double sampleIntervalSecond, int wanted, double peakToPeak1, double peakToPeak2,
+                                     double[] granted) {
+        TimingMessage m = timingMessage(sampleIntervalSecond, wanted);
+        StringBuilder message = new StringBuilder(m.command());
+        double[] requested = {peakToPeak1, peakToPeak2};
+        List<Integer> changing = new ArrayList<>();
+        List<String> queries = new ArrayList<>();
+        for (int ch = 1; ch <= 2; ch++) {
+            Double before = requestedRanges.get(ch);
+            if (before != null && before == requested[ch - 1] && ranges.containsKey(ch)) {
+                continue; // unchanged: not sent
+            }
+            Map<String, String> values = new HashMap<>(channel(ch));
+            values.put("range", ScpiNumbers.nr3(requested[ch - 1] * perPeakToPeak()));
+            String query = driver.command("range_query").render(channel(ch));
+            message.append(';').append(driver.command("range").render(values)).append(';').append(query);
+            changing.add(ch);
+            queries.add(query);
+        }
+        List<String> replies = session.configure(message.toString(), driver.errorQuery());
+        if (replies.size() != 2 + changing.size()) {
+            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
+                    + " replies; expected " + (2 + changing.size()));
+        }
+        Timing t = acceptTiming(m, replies.get(0), replies.get(1));
+        for (int i = 0; i < changing.size(); i++) {
+            int ch = changing.get(i);
+            double actual = number(queries.get(i), replies.get(2 + i).trim()) / perPeakToPeak();
+            if (!(actual > 0)) {
+                throw new InstrumentException(session.instrument() + ": '" + queries.get(i) + "' answered a range of "
+                        + actual);
+            }
+            ranges.put(ch, actual);
+            requestedRanges.put(ch, requested[ch - 1]);
+        }
+        granted[0] = ranges.get(1);
+        granted[1] = ranges.get(2);
+        return t;
+    }
+
+    /** A time-base request: the settings and their read-back queries, as one command string. */
+    private record TimingMessage(String command, String intervalQuery, String pointsQuery, boolean rate) {
+    }
+
+    private TimingMessage timingMessage(double sampleIntervalSecond, int wanted) {
         int requestedPoints = wanted;
         List<Integer> lengths = traits.timebase().recordLengths();
         if (!lengths.isEmpty()) {
@@ -170,23 +229,21 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         }
         String intervalQuery = driver.command("interval_query").render(Map.of());
         String pointsQuery = driver.command("points_query").render(Map.of());
-        boolean rate = traits.timebase().rate();
         String command = driver.command("interval").render(Map.of("interval", ScpiNumbers.nr3(sampleIntervalSecond),
                         "rate", ScpiNumbers.nr3(1 / sampleIntervalSecond),
                         "duration", ScpiNumbers.nr3(sampleIntervalSecond * requestedPoints)))
                 + ";" + driver.command("points").render(Map.of("points", ScpiNumbers.nr1(requestedPoints)))
                 + ";" + intervalQuery + ";" + pointsQuery;
-        List<String> replies = session.configure(command, driver.errorQuery());
-        if (replies.size() != 2) {
-            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies
-                    + "; expected the interval and the record length");
-        }
-        double answered = number(intervalQuery, replies.get(0));
+        return new TimingMessage(command, intervalQuery, pointsQuery, traits.timebase().rate());
+    }
+
+    private Timing acceptTiming(TimingMessage m, String intervalReply, String pointsReply) {
+        double answered = number(m.intervalQuery(), intervalReply);
         if (!(answered > 0)) {
-            throw new InstrumentException(session.instrument() + ": '" + intervalQuery + "' answered " + answered);
+            throw new InstrumentException(session.instrument() + ": '" + m.intervalQuery() + "' answered " + answered);
         }
-        interval = rate ? 1 / answered : answered;
-        double n = number(pointsQuery, replies.get(1));
+        interval = m.rate() ? 1 / answered : answered;
+        double n = number(m.pointsQuery(), pointsReply);
         if (n != Math.rint(n) || n < 1) {
             throw new InstrumentException(session.instrument() + ": record length reply " + n + " is not a count");
         }

@@ -38,6 +38,20 @@ public interface Digitizer {
     /** Sets sample interval and record length; returns the time base in effect. */
     Timing setTiming(double sampleIntervalSecond, int points);
 
+    /**
+     * The time base and both channels' ranges at once (a driver may send them in one message):
+     * returns the time base in effect and puts the ranges in effect in {@code granted} (channel 1,
+     * channel 2). By default one after the other.
+     */
+    default Timing setTimingAndRanges(double sampleIntervalSecond, int points, double peakToPeak1, double peakToPeak2,
+                                      double[] granted) {
+        Timing t = setTiming(sampleIntervalSecond, points);
+        double[] g = setRanges(peakToPeak1, peakToPeak2);
+        granted[0] = g[0];
+        granted[1] = g[1];
+        return t;
+    }
+
     void setTrigger(TriggerSource source, double levelVolt, boolean rising);
 
     /** Arms, waits for the trigger and the end of the record. */

@@ -8,6 +8,7 @@ import java.util.Locale;
 import java.util.Set;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.RangeLimits;
+import org.lrbench.instrument.Timing;
 import org.lrbench.instrument.Trace;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
@@ -44,6 +45,8 @@ public final class AutoRanger {
     private final double[] holds = new double[3];
     private final double[] lastAsked = {Double.NaN, Double.NaN, Double.NaN};
     private final double[] lastGranted = new double[3];
+    /** The present requests went with the time base: the next capture starts on them. */
+    private boolean preAsked;
     private final List<List<String>> history = List.of(new ArrayList<>(), new ArrayList<>(), new ArrayList<>());
     private final List<Set<Double>> asked = List.of(new HashSet<>(), new HashSet<>(), new HashSet<>());
 
@@ -64,7 +67,13 @@ public final class AutoRanger {
             holds[ch] = Double.POSITIVE_INFINITY;
             history.get(ch).clear();
             asked.get(ch).clear();
+            if (preAsked) {
+                // asked together with the time base just before this capture
+                asked.get(ch).add(lastAsked[ch]);
+                history.get(ch).add("asked " + volts(lastAsked[ch]) + " got " + volts(lastGranted[ch]));
+            }
         }
+        preAsked = false;
         double[] granted = new double[3];
         for (int attempt = 1; attempt <= MAX_ACQUISITIONS; attempt++) {
             askBoth();
@@ -87,6 +96,21 @@ public final class AutoRanger {
         }
         throw new MeasurementException("auto-ranging did not settle after " + MAX_ACQUISITIONS + " acquisitions: "
                 + "channel 1 " + String.join(", ", history.get(1)) + "; channel 2 " + String.join(", ", history.get(2)));
+    }
+
+    /**
+     * Asks for the time base and both channels' present requests in one message where the driver
+     * can; the capture that follows then starts on ranges already asked for.
+     */
+    Timing askWithTiming(double intervalSecond, int points) {
+        double[] g = new double[2];
+        Timing t = digitizer.setTimingAndRanges(intervalSecond, points, request[1], request[2], g);
+        for (int ch = 1; ch <= 2; ch++) {
+            lastAsked[ch] = request[ch];
+            lastGranted[ch] = g[ch - 1];
+        }
+        preAsked = true;
+        return t;
     }
 
     /** Sets the channel's requested range, stepping past any granted range known to be too small. */

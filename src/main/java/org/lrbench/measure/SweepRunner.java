@@ -207,7 +207,7 @@ public final class SweepRunner {
             TimeBase.set(digitizer, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
             ranger.acquire();
         }
-        Timing timing = TimeBase.set(digitizer, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
+        Timing timing = TimeBase.setWithRanges(digitizer, ranger, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
         AutoRanger.Capture capture = ranger.acquire();
         // the last capture: the part is not driven while its time-domain values are worked out
         generator.outputOff();
@@ -278,7 +278,8 @@ public final class SweepRunner {
                     generator.frequencySettleSecond()), changed));
             ranging = ranger.acquire().acquisitions();
         }
-        Timing timing = TimeBase.set(digitizer, f, sweep.cycles(), sweep.samplesPerCycle());
+        // the time base and the ranges go in one message (the ranges predicted, or found on short records)
+        Timing timing = TimeBase.setWithRanges(digitizer, ranger, f, sweep.cycles(), sweep.samplesPerCycle());
         if (ranging == 0) {
             sleeper.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), previous,
                     generator.frequencySettleSecond()), changed));

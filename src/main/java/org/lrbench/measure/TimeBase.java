@@ -14,6 +14,24 @@ final class TimeBase {
     }
 
     static Timing set(Digitizer digitizer, double f, int cycles, int samplesPerCycle) {
+        Request r = request(f, cycles, samplesPerCycle);
+        return check(digitizer, digitizer.setTiming(r.intervalSecond(), r.points()), f, cycles, samplesPerCycle);
+    }
+
+    /**
+     * Sets the time base and the ranger's ranges in one message where the driver can (one round trip
+     * instead of two), then checks the time base as {@link #set} does.
+     */
+    static Timing setWithRanges(Digitizer digitizer, AutoRanger ranger, double f, int cycles, int samplesPerCycle) {
+        Request r = request(f, cycles, samplesPerCycle);
+        return check(digitizer, ranger.askWithTiming(r.intervalSecond(), r.points()), f, cycles, samplesPerCycle);
+    }
+
+    /** The interval and record length asked for. */
+    record Request(double intervalSecond, int points) {
+    }
+
+    static Request request(double f, int cycles, int samplesPerCycle) {
         // cycles * samplesPerCycle + 1 samples over exactly `cycles` periods: the sample count and the
         // cycle count are co-prime, so no two samples fall on the same phase and the converter's
         // quantization error does not repeat cycle after cycle (IEEE Std 1241 coherent sampling)
@@ -22,7 +40,11 @@ final class TimeBase {
         // 1 % more samples, so an interval the digitizer rounds down by up to 1 % still captures the
         // cycles without a second round trip
         int points = exact + (int) Math.ceil(0.01 * exact) + 1;
-        Timing timing = digitizer.setTiming(interval, points);
+        return new Request(interval, points);
+    }
+
+    /** The time base granted, or a second one where it misses the cycles or the samples per cycle. */
+    private static Timing check(Digitizer digitizer, Timing timing, double f, int cycles, int samplesPerCycle) {
         double captured = timing.points() * timing.sampleIntervalSecond() * f;
         if (1.0 / (f * timing.sampleIntervalSecond()) < samplesPerCycle * (1 - 1e-9) || captured < cycles * (1 - 1e-9)) {
             Timing again = digitizer.setTiming(timing.sampleIntervalSecond(),

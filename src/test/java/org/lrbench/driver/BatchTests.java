@@ -47,4 +47,29 @@ class BatchTests {
         assertThat(b.digitizerSession.queries()).isEqualTo(again);
         assertThat(first.minVolt()).isPositive().isLessThan(first.maxVolt());
     }
+
+    @Test
+    void theTimeBaseAndTheRangesGoAsOneMessageAndGrantWhatSeparateMessagesGrant() throws Exception {
+        TestBench separate = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0),
+                TestBench.genericDigitizer());
+        TestBench together = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0),
+                TestBench.genericDigitizer());
+        separate.digitizer.prepare();
+        together.digitizer.prepare();
+        var t1 = separate.digitizer.setTiming(2.5e-6, 2023);
+        double[] r1 = separate.digitizer.setRanges(5.3, 0.27);
+        long before = together.digitizerSession.queries();
+        double[] r2 = new double[2];
+        var t2 = together.digitizer.setTimingAndRanges(2.5e-6, 2023, 5.3, 0.27, r2);
+        assertThat(together.digitizerSession.queries() - before).as("one round trip").isEqualTo(1);
+        assertThat(t2).isEqualTo(t1);
+        assertThat(r2).containsExactly(r1);
+        // a channel whose request did not change is not sent again; the other is
+        long again = together.digitizerSession.queries();
+        double[] r3 = new double[2];
+        together.digitizer.setTimingAndRanges(5e-6, 2023, 5.3, 0.5, r3);
+        assertThat(together.digitizerSession.queries() - again).isEqualTo(1);
+        assertThat(r3[0]).isEqualTo(r2[0]);
+        assertThat(r3[1]).isEqualTo(separate.digitizer.setRange(2, 0.5));
+    }
 }
