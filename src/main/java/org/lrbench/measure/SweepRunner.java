@@ -132,7 +132,10 @@ public final class SweepRunner {
             try (PointWork work = new PointWork()) {
                 for (int i = 0; i < count; i++) {
                     double f = sweep.frequenciesHz().get(i);
-                    generator.setFrequency(f);
+                    if (i > 0) {
+                        // the first frequency went with the waveform's settings, before the output came on
+                        generator.setFrequency(f);
+                    }
                     // the settle runs from here: the wait for the last point's analysis is part of it
                     long changed = System.nanoTime();
                     if (work.pending()) {
