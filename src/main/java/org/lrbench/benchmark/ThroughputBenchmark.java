@@ -90,21 +90,24 @@ public final class ThroughputBenchmark {
     }
 
     /**
-     * The same part swept stepped and as one multisine, per profile: the sweep's time (from its
-     * first instrument command to its last point), U (k = 2) of L and R, and the verdicts. Goals: the multisine sweep
+     * The same part swept stepped and as one multisine, per profile, each the last of {@value #TRAY}
+     * parts on instruments kept open: the sweep's time (from its first instrument command to its
+     * last point), U (k = 2) of L and R, and the verdicts. Goals: the multisine sweep
      * at least 3x faster, its U at most 1.5x the stepped sweep's, the same verdict.
      */
     static int excitations(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part,
                            List<SimTiming> profiles) throws Exception {
-        out.printf(Locale.ROOT, "%nstepped sweep against one multisine (settle rule of the plan), per profile%n");
+        out.printf(Locale.ROOT, "%nstepped sweep against one multisine (settle rule of the plan; the last of %d parts on"
+                + " instruments kept open), per profile%n", TRAY);
         out.printf(Locale.ROOT, "%-8s %-10s %10s %10s %12s %12s %-8s%n", "profile", "excitation", "sweep", "part", "U(L)",
                 "U(R)", "verdict");
         Plan stepped = plan.withSweep(plan.sweep().withMultisine(false));
         Plan multi = plan.withSweep(plan.sweep().withMultisine(true));
         int misses = 0;
         for (SimTiming t : profiles) {
-            Figures a = measure(bench, stepped, drivers, part, t);
-            Figures b = measure(bench, multi, drivers, part, t);
+            // as in the table above: a part after the first on instruments kept open
+            Figures a = measure(bench, stepped, drivers, part, t, TRAY);
+            Figures b = measure(bench, multi, drivers, part, t, TRAY);
             for (Figures f : List.of(a, b)) {
                 out.printf(Locale.ROOT, "%-8s %-10s %7.0f ms %7.0f ms %9.3f uH %9.3f mohm %-8s%n", t.name(),
                         f == a ? "stepped" : "multisine", 1e3 * f.sweepSecond(), 1e3 * f.partSecond(), 1e6 * f.inductanceU(),

@@ -81,17 +81,29 @@ public final class MultisineCapture {
      * {@code settleSecond} has passed since the output came on, probe included.
      */
     static List<PointResult> measure(Plan plan, MultisineDesign.Design d, Digitizer digitizer, AutoRanger ranger,
-                                     Sleeper sleeper, double settleSecond, boolean openCircuit) {
+                                     Sleeper sleeper, double settleSecond, boolean openCircuit, RangeMemory memory) {
         SineSweep sweep = plan.sweep();
         long on = System.nanoTime();
-        TimeBase.set(digitizer, d.baseHz(), 1, RANGING_SAMPLES_PER_TOP_CYCLE * top(d));
-        int ranging = ranger.probe();
+        double[] known = memory == null ? null : memory.multisinePeaks(plan);
+        int ranging = 0;
+        if (known != null) {
+            // ranges from the part before on instruments kept open: no probe
+            ranger.expect(known[0], known[1]);
+        } else {
+            TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), 1, RANGING_SAMPLES_PER_TOP_CYCLE * top(d));
+            ranging = ranger.probe();
+        }
         double left = settleSecond - (System.nanoTime() - on) / 1e9;
         if (left > 0) {
             sleeper.sleep(left);
         }
-        Timing timing = TimeBase.set(digitizer, d.baseHz(), periods(sweep, d), samplesPerPeriod(sweep, d));
+        // the record's time base and the ranges in one message
+        Timing timing = TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), periods(sweep, d), samplesPerPeriod(sweep, d));
         AutoRanger.Capture capture = ranger.acquire();
+        if (memory != null) {
+            memory.rememberMultisine(plan, new double[] {SweepRunner.peak(capture.sense().volts()),
+                SweepRunner.peak(capture.part().volts())});
+        }
         double[][] v = SweepRunner.volts(plan, capture);
         double dt = capture.sense().intervalSecond();
         double[] tones = d.frequenciesHz();

@@ -5,7 +5,8 @@ import org.lrbench.plan.Plan;
 
 /**
  * What the previous part of the same plan showed, kept while the instruments stay open for a lot
- * (a tray behind a switch): the first sweep point's impedance and the triangle capture's peaks. The
+ * (a tray behind a switch): the first sweep point's impedance, the multisine record's and the
+ * triangle capture's peaks. The
  * next part is ranged from them at once instead of from short ranging records; the auto-ranger
  * still judges every capture, so a part unlike the one before costs a capture again, never a wrong
  * range. The first point's settle is the plan's in full: the memory only chooses ranges.
@@ -14,6 +15,7 @@ public final class RangeMemory {
     private Plan plan;
     private ImpedancePoint firstPoint;
     private double[] trianglePeaks;
+    private double[] multisinePeaks;
 
     /** The previous part's first point under this plan, or null. */
     synchronized ImpedancePoint firstPoint(Plan p) {
@@ -25,14 +27,30 @@ public final class RangeMemory {
         return p.equals(plan) && trianglePeaks != null ? trianglePeaks.clone() : null;
     }
 
+    /** The previous part's multisine record peaks (channel volts) under this plan, or null. */
+    synchronized double[] multisinePeaks(Plan p) {
+        return p.equals(plan) && multisinePeaks != null ? multisinePeaks.clone() : null;
+    }
+
     synchronized void remember(Plan p, ImpedancePoint first, double[] triangle) {
-        if (!p.equals(plan)) {
-            plan = p;
-            trianglePeaks = null;
-        }
+        keyed(p);
         firstPoint = first;
         if (triangle != null) {
             trianglePeaks = triangle.clone();
+        }
+    }
+
+    synchronized void rememberMultisine(Plan p, double[] peaks) {
+        keyed(p);
+        multisinePeaks = peaks.clone();
+    }
+
+    private void keyed(Plan p) {
+        if (!p.equals(plan)) {
+            plan = p;
+            firstPoint = null;
+            trianglePeaks = null;
+            multisinePeaks = null;
         }
     }
 }

@@ -117,12 +117,16 @@ public final class SweepRunner {
             if (multisine != null) {
                 points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, sleeper,
                         Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()),
-                        openCircuit));
+                        openCircuit, memory));
                 for (int i = 0; i < points.size(); i++) {
                     listener.pointMeasured(i, points.size(), points.get(i));
                 }
+                double[] peaks = new double[2];
                 TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
-                        : triangle(plan, points.get(points.size() - 1).impedance(), new double[2]);
+                        : triangle(plan, points.get(points.size() - 1).impedance(), peaks);
+                if (memory != null && triangle != null) {
+                    memory.remember(plan, points.get(0).impedance(), peaks);
+                }
                 return new Measurement(points, triangle);
             }
             int count = sweep.frequenciesHz().size();
@@ -207,7 +211,7 @@ public final class SweepRunner {
                 generator.frequencySettleSecond()), triangleSet));
         if (known == null && t.cycles() > RANGING_CYCLES) {
             // the ranges found on short records first, as at the sweep's first point
-            TimeBase.set(digitizer, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
+            TimeBase.setWithRanges(digitizer, ranger, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
             ranger.acquire();
         }
         Timing timing = TimeBase.setWithRanges(digitizer, ranger, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
@@ -257,7 +261,7 @@ public final class SweepRunner {
         return Math.max(0, settleSecond - (System.nanoTime() - since) / 1e9);
     }
 
-    private static double peak(double[] v) {
+    static double peak(double[] v) {
         double m = 0;
         for (double x : v) {
             m = Math.max(m, Math.abs(x));
@@ -276,7 +280,7 @@ public final class SweepRunner {
         if (previous == null && !predicted && sweep.cycles() > RANGING_CYCLES) {
             // nothing predicts the first point's ranges: find them on short records, then take the
             // plan's record once on ranges already right
-            TimeBase.set(digitizer, f, RANGING_CYCLES, sweep.samplesPerCycle());
+            TimeBase.setWithRanges(digitizer, ranger, f, RANGING_CYCLES, sweep.samplesPerCycle());
             sleeper.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), null,
                     generator.frequencySettleSecond()), changed));
             ranging = ranger.acquire().acquisitions();

@@ -13,14 +13,10 @@ final class TimeBase {
     private TimeBase() {
     }
 
-    static Timing set(Digitizer digitizer, double f, int cycles, int samplesPerCycle) {
-        Request r = request(f, cycles, samplesPerCycle);
-        return check(digitizer, digitizer.setTiming(r.intervalSecond(), r.points()), f, cycles, samplesPerCycle);
-    }
-
     /**
-     * Sets the time base and the ranger's ranges in one message where the driver can (one round trip
-     * instead of two), then checks the time base as {@link #set} does.
+     * Sets the time base and the ranger's present ranges in one message where the driver can (one
+     * round trip instead of two), then checks the time base granted: where it misses the cycles or
+     * the samples per cycle, a second time base is asked for.
      */
     static Timing setWithRanges(Digitizer digitizer, AutoRanger ranger, double f, int cycles, int samplesPerCycle) {
         Request r = request(f, cycles, samplesPerCycle);

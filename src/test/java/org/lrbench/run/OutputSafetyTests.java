@@ -1,6 +1,7 @@
 package org.lrbench.run;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.mockito.ArgumentMatchers.any;
 import static org.mockito.ArgumentMatchers.anyDouble;
 import static org.mockito.ArgumentMatchers.anyInt;
 import static org.mockito.Mockito.atLeastOnce;
@@ -59,6 +60,7 @@ class OutputSafetyTests {
         when(dig.rangeLimits(anyInt())).thenReturn(new RangeLimits(0.01, 100));
         when(dig.setRange(anyInt(), anyDouble())).thenAnswer(a -> a.getArgument(1));
         when(dig.setRanges(anyDouble(), anyDouble())).thenCallRealMethod();
+        when(dig.setTimingAndRanges(anyDouble(), anyInt(), anyDouble(), anyDouble(), any())).thenCallRealMethod();
         when(dig.setTiming(anyDouble(), anyInt())).thenAnswer(a -> new Timing(a.getArgument(0), a.getArgument(1)));
         doThrow(new InstrumentException("digitizer: link lost")).when(dig).acquire();
 
