@@ -1,5 +1,7 @@
 package org.lrbench.sim.scpi;
 
+import java.util.concurrent.locks.LockSupport;
+
 /**
  * The time simulated instruments take, passed on the calling thread. An instrument's processing
  * happens inside its declared time; the simulator's own computing of an answer (a record, a
@@ -20,14 +22,22 @@ public final class SimulatedTime {
         }
         long nanos = (long) (seconds * 1e9);
         SIMULATED.get()[0] += nanos;
-        long left = startNanos + nanos - System.nanoTime();
-        if (left <= 0) {
-            return;
-        }
-        try {
-            Thread.sleep(left / 1_000_000, (int) (left % 1_000_000));
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
+        until(startNanos + nanos);
+    }
+
+    /**
+     * Waits until {@link System#nanoTime} reaches {@code deadline}. Parking has microsecond
+     * resolution where {@code Thread.sleep(ms, ns)} rounds a fraction of a millisecond up to a whole
+     * one (a 0.2 ms transfer would last 1.1 ms).
+     */
+    static void until(long deadline) {
+        long left;
+        while ((left = deadline - System.nanoTime()) > 0) {
+            LockSupport.parkNanos(left);
+            if (Thread.interrupted()) {
+                Thread.currentThread().interrupt();
+                return;
+            }
         }
     }
 
