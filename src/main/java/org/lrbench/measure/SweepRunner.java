@@ -26,7 +26,10 @@ import org.lrbench.plan.TriangleCheck;
  * Runs a plan's sine sweep on a generator and a digitizer: per frequency it sets the generator,
  * chooses a time base of the requested cycles at no fewer than the requested samples per cycle,
  * waits for settling, auto-ranges both channels, fits both traces at the known frequency and
- * turns the phasors into the part's impedance. The caller owns the generator output's safety:
+ * turns the phasors into the part's impedance. Each point is analysed on a worker thread while
+ * the instruments move on to the next ({@link PointWork}: computing only, no instrument); on
+ * instruments kept open the ranges of a part's first capture come from the part before
+ * ({@link RangeMemory}). The caller owns the generator output's safety:
  * this class switches it on and off, and the caller switches it off again on every exit path.
  */
 public final class SweepRunner {
@@ -193,8 +196,12 @@ public final class SweepRunner {
         });
     }
 
-    /** Drives the triangle, captures both channels and extracts R and L in the time domain. */
-    /** @param peaks filled with the capture's peak on each channel (channel volts), for the next part */
+    /**
+     * Drives the triangle, captures both channels, switches the output off (the last capture) and
+     * extracts R and L in the time domain.
+     *
+     * @param peaks filled with the capture's peak on each channel (channel volts), for the next part
+     */
     private TriangleExtraction.Result triangle(Plan plan, ImpedancePoint last, double[] peaks) {
         TriangleCheck t = plan.triangle();
         if (plan.sweep().multisine()) {
