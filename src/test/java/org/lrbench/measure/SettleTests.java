@@ -52,4 +52,16 @@ class SettleTests {
                 .hasMessageContaining("w.yaml:").hasMessageContaining("settle_rule")
                 .hasMessageContaining("allowed: circuit, fixed");
     }
+
+    @Test
+    void aSettleShorterThanAMillisecondIsWaitedInFull() {
+        // the circuit rule's settle for the 1 mH part above is 137 us: a bench must wait at least that
+        // long (rounding it to whole milliseconds waited nothing); only the lower bound is checked
+        double settle = 14 * 1e-3 / 102.3;
+        for (int i = 0; i < 20; i++) {
+            long t0 = System.nanoTime();
+            Sleeper.REAL.sleep(settle);
+            assertThat((System.nanoTime() - t0) / 1e9).isGreaterThanOrEqualTo(settle);
+        }
+    }
 }
