@@ -82,12 +82,14 @@ public final class SweepRunner {
     public Measurement run(Plan plan, SweepListener listener) {
         SineSweep sweep = plan.sweep();
         listener.sweepStarted();
-        generator.prepare();
-        digitizer.prepare();
+        // each instrument's identity is known (asked once per session) before its settings are batched
+        generator.identity();
+        digitizer.identity();
         MultisineDesign.Design multisine = sweep.multisine()
                 ? MultisineCapture.design(sweep, generator.maxArbitrarySamples()) : null;
-        // the settings of each instrument in one message where its driver can
+        // each instrument's reset and settings in one message where its driver can
         generator.batch(() -> {
+            generator.prepare();
             if (multisine != null) {
                 MultisineCapture.load(generator, multisine, sweep);
             } else {
@@ -98,6 +100,7 @@ public final class SweepRunner {
             }
         });
         digitizer.batch(() -> {
+            digitizer.prepare();
             for (int ch = 1; ch <= 2; ch++) {
                 digitizer.setCoupling(ch, Coupling.DC);
                 digitizer.setOffset(ch, 0.0);
