@@ -24,44 +24,60 @@ import org.lrbench.analysis.fit.LeastSquares;
  * <p>
  * An optional term is kept only when it improves the fit significantly: the extra-sum-of-squares
  * F test at the 5 % level (one added parameter against the residual variance of the fit with it).
- * A term with an unphysical (negative) estimate, one that leaves the covariance singular, and the
- * weakest term that fails the test are fixed at their null value in turn and the fit repeated; the
- * result says which were dropped and why, and keeps the fit that still had each one, so that the
- * budget can carry what leaving it out may cost ({@link SweepAnalysis}).
+ * A term with a negative estimate, one that leaves the covariance singular, and the weakest term
+ * that fails the test are fixed at their null value in turn and the fit repeated; the result says
+ * which were dropped and why. A term the test cannot decide on (it fails the test, whatever the
+ * sign of its estimate) may still be there: the result keeps the fit that still had it, and the
+ * reported values average the two ({@link SweepAnalysis}). Only a negative estimate the test finds
+ * significant is unphysical outright and left out with no such average.
  */
 public final class LumpedFit {
     /** Reduced chi-square above which the model does not describe the data and no value is reported. */
     public static final double CHI_LIMIT = 1000;
+    /** What a term the test cannot decide on does to the reported values ({@link SweepAnalysis}). */
+    static final String AVERAGED = "left out of the model; each reported value is the mean of the fits with and"
+            + " without it";
 
     private LumpedFit() {
     }
 
-    /** The fit: full parameter vector, its covariance (zero rows for fixed ones), dropped parameters. */
+    /**
+     * The fit: full parameter vector, its covariance (zero rows for fixed ones), dropped parameters,
+     * and the factor the covariance is scaled by: the reduced chi-square when above 1 (residuals
+     * wider than their uncertainties say: a dispersion nothing explains), unless the scatter that
+     * the bench's own effects leave explains it ({@link #withExpectedChiSquare}).
+     */
     public record Result(double[] parameters, double[][] covariance, Set<LumpedParameter> free,
                          List<String> dropped, double reducedChiSquare, int degreesOfFreedom,
-                         double capacitanceUpperBound, List<Omitted> omitted) {
+                         double capacitanceUpperBound, List<Omitted> omitted, double covarianceScale) {
 
         public double value(LumpedParameter p) {
             return parameters[p.ordinal()];
         }
 
-        /** Standard uncertainty from the fit (scaled by sqrt of the reduced chi-square when above 1). */
+        /** Standard uncertainty from the fit (its covariance scaled by {@link #covarianceScale}). */
         public double uncertainty(LumpedParameter p) {
-            double scale = reducedChiSquare > 1 ? reducedChiSquare : 1;
-            return Math.sqrt(covariance[p.ordinal()][p.ordinal()] * scale);
+            return Math.sqrt(covariance[p.ordinal()][p.ordinal()] * covarianceScale);
         }
 
         public double covariance(LumpedParameter a, LumpedParameter b) {
-            double scale = reducedChiSquare > 1 ? reducedChiSquare : 1;
-            return covariance[a.ordinal()][b.ordinal()] * scale;
+            return covariance[a.ordinal()][b.ordinal()] * covarianceScale;
+        }
+
+        /** The chi-square over its degrees of freedom that is expected once explained scatter is added. */
+        public Result withExpectedChiSquare(double expected) {
+            double scale = Math.max(1, reducedChiSquare * degreesOfFreedom / expected);
+            return new Result(parameters, covariance, free, dropped, reducedChiSquare, degreesOfFreedom,
+                    capacitanceUpperBound, omitted, scale);
         }
     }
 
     /**
-     * A model term the fit left out, with the parameters of the fit that still had it: what each
-     * reported quantity would have been with the term is what leaving it out may cost.
+     * A model term the test could not decide on, with the fit that still had it: its parameters,
+     * their covariance (unscaled), its free parameters, reduced chi-square and degrees of freedom.
      */
-    public record Omitted(LumpedParameter term, double[] parametersWith) {
+    public record Omitted(LumpedParameter term, double[] parametersWith, double[][] covarianceWith,
+                          Set<LumpedParameter> freeWith, double reducedChiSquareWith, int degreesOfFreedomWith) {
     }
 
     public static Result fit(List<ImpedancePoint> points, Set<LumpedParameter> wanted) {
@@ -107,11 +123,23 @@ public final class LumpedFit {
             String reason = null;
             LumpedParameter drop = null;
             double weakest = Double.POSITIVE_INFINITY;
+            boolean mayBeThere = false;
             for (LumpedParameter p : free) {
                 if (p.optional() && full[p.ordinal()] < 0) {
                     drop = p;
-                    reason = String.format(Locale.ROOT, "%s: %.4g +/- %.2g is unphysical (negative); fixed at 0",
-                            p.key(), full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate));
+                    Set<LumpedParameter> without = EnumSet.copyOf(free);
+                    without.remove(p);
+                    double f = fStatistic(points, without, full, scale, r);
+                    double critical = critical(r.degreesOfFreedom());
+                    // a negative estimate within the noise of zero: the term may still be there
+                    mayBeThere = f < critical;
+                    reason = mayBeThere
+                            ? String.format(Locale.ROOT, "%s: %.4g +/- %.2g is negative but within the noise of zero"
+                                    + " (F = %.3g < %.3g, extra-sum-of-squares test at 5 %%); %s", p.key(),
+                                    full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate), f, critical,
+                                    AVERAGED)
+                            : String.format(Locale.ROOT, "%s: %.4g +/- %.2g is unphysical (negative); fixed at 0",
+                                    p.key(), full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate));
                     break;
                 }
             }
@@ -128,15 +156,17 @@ public final class LumpedFit {
                         weakest = f;
                         drop = p;
                         reason = String.format(Locale.ROOT, "%s: %.4g +/- %.2g does not improve the fit significantly"
-                                + " (F = %.3g < %.3g, extra-sum-of-squares test at 5 %%); fixed at 0", p.key(),
-                                full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate), f, critical);
+                                + " (F = %.3g < %.3g, extra-sum-of-squares test at 5 %%); %s", p.key(),
+                                full[p.ordinal()], Math.sqrt(cov[p.ordinal()][p.ordinal()] * inflate), f, critical,
+                                AVERAGED);
                     }
                 }
             }
             if (drop != null) {
-                if (weakest < Double.POSITIVE_INFINITY) {
+                if (mayBeThere || weakest < Double.POSITIVE_INFINITY) {
                     // left out by the test, not for an unphysical sign: it may still be there
-                    omitted.add(new Omitted(drop, full.clone()));
+                    omitted.add(new Omitted(drop, full.clone(), cov, EnumSet.copyOf(free), chi,
+                            r.degreesOfFreedom()));
                 }
                 free.remove(drop);
                 dropped.add(reason);
@@ -144,7 +174,7 @@ public final class LumpedFit {
             }
             refuseUnphysical(full, chi, free);
             return new Result(full, cov, EnumSet.copyOf(free), List.copyOf(dropped), chi, r.degreesOfFreedom(), cUpper,
-                    List.copyOf(omitted));
+                    List.copyOf(omitted), Math.max(1, chi));
         }
     }
 
@@ -179,6 +209,28 @@ public final class LumpedFit {
         SeriesModel series = SeriesModelFit.fit(points);
         double[] scale = scales(points, series);
         return expand(fitOnce(points, free, from, scale).parameters(), free, scale);
+    }
+
+    /**
+     * Each point's residual (real and imaginary parts) from the model with these parameters, in
+     * units of the point's standard uncertainty as the fit weights it.
+     */
+    public static double[] weightedResiduals(List<ImpedancePoint> points, double[] parameters) {
+        int n = points.size();
+        double[] r = new double[2 * n];
+        for (int i = 0; i < n; i++) {
+            ImpedancePoint p = points.get(i);
+            Complex z = LumpedModel.impedance(parameters, p.frequencyHz());
+            double u = weightUncertainty(p);
+            r[i] = (p.resistanceOhm() - z.getReal()) / u;
+            r[n + i] = (p.reactanceOhm() - z.getImaginary()) / u;
+        }
+        return r;
+    }
+
+    /** The standard uncertainty of a point's components as the fit weights them (floored). */
+    private static double weightUncertainty(ImpedancePoint p) {
+        return Math.max(p.componentUncertaintyOhm(), SeriesModelFit.MIN_RELATIVE_UNCERTAINTY * p.impedanceOhm().abs());
     }
 
     private static double[] scales(List<ImpedancePoint> points, SeriesModel series) {
@@ -293,7 +345,7 @@ public final class LumpedFit {
             ImpedancePoint p = points.get(i);
             observed[i] = p.resistanceOhm();
             observed[n + i] = p.reactanceOhm();
-            double u = Math.max(p.componentUncertaintyOhm(), SeriesModelFit.MIN_RELATIVE_UNCERTAINTY * p.impedanceOhm().abs());
+            double u = weightUncertainty(p);
             weights[i] = 1 / (u * u);
             weights[n + i] = weights[i];
         }

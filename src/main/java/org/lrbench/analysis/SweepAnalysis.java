@@ -22,7 +22,10 @@ import org.lrbench.uncertainty.Distribution;
  * The sine fits estimate and remove each channel's offset, so the digitizer's offset accuracy has
  * no first-order effect and has no line. The repeatable part of quantization is corrected at each
  * point ({@link Quantization}); the correction's own uncertainty is a type-B line, the same sign at
- * every point (systematic).
+ * every point (systematic). Where the fit could not decide on a model term, each reported value is
+ * the mean of the fits with and without it, with the average's unconditional uncertainty: picking
+ * one of the two by the test alone biases the value, since the runs that leave a real term out are
+ * those whose noise hid it.
  */
 public final class SweepAnalysis {
     private static final double STEP = 1e-6;
@@ -78,20 +81,36 @@ public final class SweepAnalysis {
         // the fit far above its convergence tolerance, and the slope is the one that matters over
         // the range the input may take
         List<double[]> perturbed = new ArrayList<>();
+        // the scatter each effect leaves about the re-fitted model (what the model cannot absorb, such
+        // as a skew's rotation growing with frequency) adds to the chi-square expected from noise
+        double[] residuals = LumpedFit.weightedResiduals(points, p);
+        double explained = 0;
         for (Perturbation e : effects) {
             double u = e.distribution.standardUncertainty(e.halfWidth);
             double step = u > 0 ? u : e.unit.equals("s") ? 1e-12 : STEP;
             perturbed.add(new double[] {step});
-            perturbed.add(LumpedFit.refit(e.apply.apply(step), free, p));
-            perturbed.add(LumpedFit.refit(e.apply.apply(-step), free, p));
+            for (double sign : new double[] {1, -1}) {
+                List<ImpedancePoint> moved = e.apply.apply(sign * step);
+                double[] refitted = LumpedFit.refit(moved, free, p);
+                perturbed.add(refitted);
+                if (u > 0) {
+                    explained += squaredDistance(LumpedFit.weightedResiduals(moved, refitted), residuals) / 2;
+                }
+            }
         }
+        // residuals wider than noise and these effects explain scale the fit covariance (a Birge
+        // ratio over the expected chi-square); scatter they explain is counted once, in their lines
+        fit = fit.withExpectedChiSquare(fit.degreesOfFreedom() + explained);
         Map<String, Budget> budgets = new LinkedHashMap<>();
         double dof = fit.degreesOfFreedom();
+        double explainedScatter = explained;
+        LumpedFit.Result scaled = fit;
         for (Evaluation ev : evaluations) {
             double value = ev.at(p);
+            double uA = typeA(ev, p, scaled::covariance, free);
             List<Contribution> lines = new ArrayList<>();
             lines.add(new Contribution("noise and quantization, random part (fit covariance)", "A", Distribution.NORMAL,
-                    Double.NaN, "", 1.0, typeA(ev, fit), dof, 0));
+                    Double.NaN, "", 1.0, uA, dof, 0));
             for (int i = 0; i < effects.size(); i++) {
                 Perturbation e = effects.get(i);
                 double step = perturbed.get(3 * i)[0];
@@ -100,15 +119,34 @@ public final class SweepAnalysis {
                 lines.add(new Contribution(e.source, "B", e.distribution, u, e.unit, c, Math.abs(c) * u,
                         e.degreesOfFreedom, 0));
             }
-            for (LumpedFit.Omitted o : fit.omitted()) {
-                // the term might be there after all: the change it would make, as a rectangular
-                // half-width about the value without it (JCGM 100:2008 F.2.4.5)
-                double half = Math.abs(ev.at(o.parametersWith()) - value);
-                if (half > 0 && Double.isFinite(half)) {
-                    lines.add(new Contribution("model term " + o.term().key() + " left out", "B",
-                            Distribution.RECTANGULAR, Distribution.RECTANGULAR.standardUncertainty(half), ev.unit(), 1.0,
-                            Distribution.RECTANGULAR.standardUncertainty(half), Double.POSITIVE_INFINITY, 0));
+            // a term the test could not decide on: the models with and without it are averaged
+            // with equal weights, and the average's unconditional standard uncertainty (Buckland,
+            // Burnham and Augustin, Biometrics 53, 1997, eq. 9, from memory) is carried as the
+            // fit's line and this one in quadrature; terms left out one after another are taken
+            // from the last left out (whose "without" is the final fit) back to the first
+            List<LumpedFit.Omitted> omitted = fit.omitted();
+            double[] without = p;
+            double uCombined = uA;
+            for (int k = omitted.size() - 1; k >= 0; k--) {
+                LumpedFit.Omitted o = omitted.get(k);
+                double with = ev.at(o.parametersWith());
+                double change = with - ev.at(without);
+                without = o.parametersWith();
+                if (!Double.isFinite(change) || change == 0) {
+                    continue;
                 }
+                double scaleWith = Math.max(1, o.reducedChiSquareWith() * o.degreesOfFreedomWith()
+                        / (o.degreesOfFreedomWith() + explainedScatter));
+                double uWith = typeA(ev, o.parametersWith(),
+                        (x, y) -> o.covarianceWith()[x.ordinal()][y.ordinal()] * scaleWith, o.freeWith());
+                double half = Math.abs(change) / 2;
+                double averaged = (Math.hypot(uCombined, half) + Math.hypot(uWith, half)) / 2;
+                double line = Math.sqrt(Math.max(0, averaged * averaged - uCombined * uCombined));
+                value += change / 2;
+                lines.add(new Contribution("model term " + o.term().key() + " that the test could not decide on"
+                        + " (the models with and without it averaged)", "B", Distribution.NORMAL, line, ev.unit(),
+                        1.0, line, Double.POSITIVE_INFINITY, 0));
+                uCombined = averaged;
             }
             budgets.put(ev.name(), Budget.of(ev.name(), value, lines));
         }
@@ -119,14 +157,13 @@ public final class SweepAnalysis {
                                 double degreesOfFreedom, DoubleFunction<List<ImpedancePoint>> apply) {
     }
 
-    /** u from the fit covariance: gradient in the free parameters by central differences. */
-    private static double typeA(Evaluation ev, LumpedFit.Result fit) {
-        double[] p = fit.parameters();
+    /** u from a fit covariance: the quantity's gradient in the free parameters by central differences. */
+    private static double typeA(Evaluation ev, double[] p, Covariance cov, Set<LumpedParameter> free) {
         int m = p.length;
         double[] g = new double[m];
-        for (LumpedParameter q : fit.free()) {
+        for (LumpedParameter q : free) {
             int i = q.ordinal();
-            double h = Math.max(Math.abs(p[i]) * 1e-6, Math.sqrt(fit.covariance()[i][i]) * 1e-3);
+            double h = Math.max(Math.abs(p[i]) * 1e-6, Math.sqrt(cov.of(q, q)) * 1e-3);
             if (h == 0) {
                 continue;
             }
@@ -137,12 +174,16 @@ public final class SweepAnalysis {
             g[i] = (ev.at(up) - ev.at(down)) / (2 * h);
         }
         double var = 0;
-        for (LumpedParameter a : fit.free()) {
-            for (LumpedParameter b : fit.free()) {
-                var += g[a.ordinal()] * fit.covariance(a, b) * g[b.ordinal()];
+        for (LumpedParameter a : free) {
+            for (LumpedParameter b : free) {
+                var += g[a.ordinal()] * cov.of(a, b) * g[b.ordinal()];
             }
         }
         return Math.sqrt(Math.max(0, var));
+    }
+
+    private interface Covariance {
+        double of(LumpedParameter a, LumpedParameter b);
     }
 
     private static List<ImpedancePoint> scale(List<ImpedancePoint> points, double factor) {
@@ -157,6 +198,14 @@ public final class SweepAnalysis {
             return new ImpedancePoint(p.frequencyHz(), p.impedanceOhm().multiply(new Complex(Math.cos(phi), Math.sin(phi))),
                     p.componentUncertaintyOhm(), p.currentAmpere());
         });
+    }
+
+    private static double squaredDistance(double[] a, double[] b) {
+        double s = 0;
+        for (int i = 0; i < a.length; i++) {
+            s += (a[i] - b[i]) * (a[i] - b[i]);
+        }
+        return s;
     }
 
     private static double max(double[] v) {

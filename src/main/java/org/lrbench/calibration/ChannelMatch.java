@@ -69,9 +69,11 @@ public record ChannelMatch(String measuredAt, double gainRatio, double gainUncer
      * range where the signal is small counts for little), its standard uncertainty the larger of what
      * the points' own uncertainties give and what their scatter gives (the Birge ratio,
      * sqrt(chi^2 / (n - 1)), when above 1; R. T. Birge, Phys. Rev. 40, 1932, from memory), with
-     * n - 1 degrees of freedom; the skew as {@link #fit(String, double[], List)} finds it, from the
-     * points' scatter (weighted by the same uncertainties its uncertainty came out too small:
-     * the coverage benchmark's 22 mH part had R covered 92 %).
+     * n - 1 degrees of freedom; the skew the weighted least-squares line through the origin of
+     * phase against -2 pi f, each point's phase uncertainty its relative uncertainty, with its
+     * standard uncertainty found the same way (an unweighted slope follows the noisiest point, the
+     * highest frequency with the least signal: on the coverage benchmark's 22 mH part it erred by
+     * five times the uncertainty its scatter gave).
      */
     public static ChannelMatch fit(String measuredAt, double[] frequencyHz, List<Complex> ratio, double[] relativeU) {
         ChannelMatch alike = fit(measuredAt, frequencyHz, ratio);
@@ -88,17 +90,34 @@ public record ChannelMatch(String measuredAt, double gainRatio, double gainUncer
             return alike;
         }
         double g = sumG / sw;
-        double chi = 0;
+        // the skew: the weighted least-squares line through the origin of phase against
+        // omega = -2 pi f, each point's phase uncertainty its relative uncertainty (radians)
+        double swo = 0;
+        double swop = 0;
         for (int i = 0; i < n; i++) {
             double u = relativeU[i];
             if (u > 0 && Double.isFinite(u)) {
-                double d = (ratio.get(i).abs() / g - 1) / u;
-                chi += d * d;
+                double omega = -2 * Math.PI * frequencyHz[i];
+                swo += omega * omega / (u * u);
+                swop += omega * ratio.get(i).getArgument() / (u * u);
+            }
+        }
+        double tau = swop / swo;
+        double chiG = 0;
+        double chiP = 0;
+        for (int i = 0; i < n; i++) {
+            double u = relativeU[i];
+            if (u > 0 && Double.isFinite(u)) {
+                double dg = (ratio.get(i).abs() / g - 1) / u;
+                double dp = (ratio.get(i).getArgument() + 2 * Math.PI * frequencyHz[i] * tau) / u;
+                chiG += dg * dg;
+                chiP += dp * dp;
             }
         }
         // weights of relative u: the internal uncertainty 1 / sqrt(sum w) is relative
-        double ug = g / Math.sqrt(sw) * Math.max(1, Math.sqrt(chi / (n - 1)));
-        return new ChannelMatch(measuredAt, g, ug, alike.skewSecond(), alike.skewUncertaintySecond(), n);
+        double ug = g / Math.sqrt(sw) * Math.max(1, Math.sqrt(chiG / (n - 1)));
+        double uTau = 1 / Math.sqrt(swo) * Math.max(1, Math.sqrt(chiP / (n - 1)));
+        return new ChannelMatch(measuredAt, g, ug, tau, uTau, n);
     }
 
     /** The correction factor H(f) that a measured Z is divided by. */

@@ -237,9 +237,10 @@ public final class PartRun {
         if (triangle != null) {
             warnings.addAll(triangleCheck(triangle, sweep, calibration));
         }
-        if (sweep.fit().reducedChiSquare() > 4) {
-            warnings.add(String.format(Locale.ROOT, "the model leaves residuals %.1f times their expected variance:"
-                    + " uncertainties were scaled up; consider more model terms", sweep.fit().reducedChiSquare()));
+        if (sweep.fit().covarianceScale() > 4) {
+            warnings.add(String.format(Locale.ROOT, "the model leaves residuals %.1f times the variance that noise and"
+                    + " the bench's corrections explain: uncertainties were scaled up; consider more model terms",
+                    sweep.fit().covarianceScale()));
         }
         return new Analysis(sweep, judged, srf, srfAbove, triangle, warnings);
     }

@@ -61,6 +61,46 @@ class CorrectionTests {
         assertThat(ChannelMatch.fit("t", f, h).gainRatio()).isCloseTo(1.004 * (1 + 2e-2 / 5), within(1e-9));
     }
 
+    /**
+     * The skew is the weighted least-squares slope of phase against -2 pi f through the origin,
+     * each point weighted by its own phase uncertainty; its standard uncertainty is
+     * 1 / sqrt(sum w omega^2), or the scatter's when larger (weighted straight-line fit: Bevington
+     * and Robinson, Data Reduction and Error Analysis, 3rd ed., ch. 6, from memory). Over repeats
+     * with one noisy point (a small signal near a part's resonance), the stated uncertainty must
+     * describe the spread, and the estimate must not follow the noisy point.
+     */
+    @Test
+    void channelMatchSkewIsWeightedByEachPointsPhaseUncertainty() {
+        double[] f = new double[11];
+        double[] u = new double[11];
+        for (int i = 0; i < f.length; i++) {
+            f[i] = 50 * Math.pow(2000, i / 10.0);
+            u[i] = i == 10 ? 3e-2 : 2e-4;
+        }
+        double tau = 150e-12;
+        java.util.Random rnd = new java.util.Random(7);
+        int runs = 400;
+        double z2 = 0;
+        double weightedErr2 = 0;
+        double alikeErr2 = 0;
+        for (int k = 0; k < runs; k++) {
+            List<Complex> h = new ArrayList<>();
+            for (int i = 0; i < f.length; i++) {
+                double phase = -2 * Math.PI * f[i] * tau;
+                Complex exact = new Complex(1.004 * Math.cos(phase), 1.004 * Math.sin(phase));
+                h.add(exact.multiply(new Complex(1 + u[i] * rnd.nextGaussian(), u[i] * rnd.nextGaussian())));
+            }
+            ChannelMatch m = ChannelMatch.fit("t", f, h, u);
+            double z = (m.skewSecond() - tau) / m.skewUncertaintySecond();
+            z2 += z * z;
+            weightedErr2 += Math.pow(m.skewSecond() - tau, 2);
+            alikeErr2 += Math.pow(ChannelMatch.fit("t", f, h).skewSecond() - tau, 2);
+        }
+        // the Birge ratio only ever enlarges the uncertainty: rms z at most 1, and not far below
+        assertThat(Math.sqrt(z2 / runs)).isBetween(0.75, 1.1);
+        assertThat(Math.sqrt(weightedErr2 / runs)).isLessThan(Math.sqrt(alikeErr2 / runs) / 3);
+    }
+
     @Test
     void openShortCompensationInvertsTheFixtureModel() {
         // Open/short compensation (the usual series-residual, shunt-admittance fixture model, derived):
