@@ -52,14 +52,20 @@ public final class TriangleExtraction {
             double t = s * intervalSecond;
             double current = fit.offset();
             double slope = 0;
+            // cos and sin of k omega t by turning the fundamental's (angle addition), two trigonometric
+            // calls a sample instead of two a harmonic
+            double c1 = Math.cos(omega * t);
+            double s1 = Math.sin(omega * t);
+            double c = c1;
+            double sn = s1;
             for (int k = 1; k <= kMax; k++) {
-                if (!keep[k]) {
-                    continue;
+                if (keep[k]) {
+                    current += fit.cosine()[k] * c + fit.sine()[k] * sn;
+                    slope += k * omega * (-fit.cosine()[k] * sn + fit.sine()[k] * c);
                 }
-                double c = Math.cos(k * omega * t);
-                double sn = Math.sin(k * omega * t);
-                current += fit.cosine()[k] * c + fit.sine()[k] * sn;
-                slope += k * omega * (-fit.cosine()[k] * sn + fit.sine()[k] * c);
+                double next = c * c1 - sn * s1;
+                sn = sn * c1 + c * s1;
+                c = next;
             }
             i[s] = current / senseOhm;
             di[s] = slope / senseOhm;
@@ -93,8 +99,15 @@ public final class TriangleExtraction {
         for (int s = 0; s < y.length; s++) {
             double t = s * dt;
             double v = fit.offset();
+            double c1 = Math.cos(omega * t);
+            double s1 = Math.sin(omega * t);
+            double c = c1;
+            double sn = s1;
             for (int k = 1; k <= kMax; k++) {
-                v += fit.cosine()[k] * Math.cos(k * omega * t) + fit.sine()[k] * Math.sin(k * omega * t);
+                v += fit.cosine()[k] * c + fit.sine()[k] * sn;
+                double next = c * c1 - sn * s1;
+                sn = sn * c1 + c * s1;
+                c = next;
             }
             rss += (y[s] - v) * (y[s] - v);
         }

@@ -69,12 +69,14 @@ public final class PartRun {
         TriangleExtraction.Result triangle = null;
         String error = null;
         OutputGuard guard = new OutputGuard(instruments.generator());
+        // the sweep's fit starts once its last point is in, while the triangle and the meter are measured
+        FitAhead fitAhead = new FitAhead(listener, plan, request.bench(), request.calibration());
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
             SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper,
                     instruments.rangeMemory())
-                    .run(plan, listener);
+                    .run(plan, fitAhead);
             points = m.points();
             triangle = m.triangle();
         } catch (InstrumentException | MeasurementException | IllegalArgumentException e) {
@@ -105,7 +107,7 @@ public final class PartRun {
         Analysis analysis = null;
         if (error == null) {
             try {
-                analysis = analyse(plan, request.bench(), request.calibration(), points, triangle);
+                analysis = judge(plan, fitAhead.fit(points), triangle);
             } catch (FitException e) {
                 error = "the sweep could not be fitted: " + e.getMessage();
             }
@@ -162,6 +164,15 @@ public final class PartRun {
 
     static Analysis analyse(Plan plan, BenchConfig bench, Calibration corrections, List<PointResult> points,
                             TriangleExtraction.Result triangle) {
+        return judge(plan, fitSweep(plan, bench, corrections, points), triangle);
+    }
+
+    /** The sweep's corrected points and their model fit with budgets: pure computing, no instrument. */
+    record SweepFit(Calibration calibration, List<ImpedancePoint> corrected, SweepAnalysis.Result sweep,
+                    List<PointResult> points) {
+    }
+
+    static SweepFit fitSweep(Plan plan, BenchConfig bench, Calibration corrections, List<PointResult> points) {
         // the channel match taken out as the plan's wiring needs it (before the low side's difference)
         Calibration calibration = corrections.forWiring(plan.wiring());
         if (calibration.fixture() != null) {
@@ -185,6 +196,15 @@ public final class PartRun {
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), accuracy,
                 points.stream().mapToDouble(PointResult::quantizationRelativeUncertainty).toArray());
+        return new SweepFit(calibration, z, sweep, List.copyOf(points));
+    }
+
+    /** The limits judged on a sweep's fit, and the warnings of the cross-checks (the triangle's among them). */
+    static Analysis judge(Plan plan, SweepFit fitted, TriangleExtraction.Result triangle) {
+        SweepAnalysis.Result sweep = fitted.sweep();
+        List<ImpedancePoint> z = fitted.corrected();
+        Calibration calibration = fitted.calibration();
+        List<PointResult> points = fitted.points();
         double fMax = plan.sweep().highestHz();
         double l = sweep.fit().value(LumpedParameter.L);
         Double srf = null;

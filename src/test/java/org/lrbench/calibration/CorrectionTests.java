@@ -205,4 +205,38 @@ class CorrectionTests {
         // and the corrections are named in the record
         assertThat(corrected.corrections().channel2GainRatio()).isCloseTo(1.01, within(0.0005));
     }
+
+    /**
+     * The sweep's fit runs on a thread of its own while the triangle is measured; a fit that fails
+     * there must still make the part an error with the fit's reason, never a verdict: corrections
+     * measured with another plan's frequencies do not cover this sweep.
+     */
+    @Test
+    void aFitThatFailsAheadOfTheTriangleIsAnErrorWithItsReason() throws Exception {
+        BenchConfig bench = BenchLoader.load(TestBench.home().resolve("simulator/bench.yaml"));
+        String planText = """
+                plan_format: 1
+                part_number: T-3
+                fixture: {sense_resistor: 100 ohm}
+                sine_sweep:
+                  amplitude: 3 V
+                  log_sweep: {start: %s, stop: %s, points: 5}
+                  cycles: 10
+                  settle: 0 s
+                triangle_check: {amplitude: 3 V, frequency: 500 Hz, cycles: 5}
+                limits: [{characteristic: inductance, min: 1 uH}]
+                """;
+        Plan other = PlanLoader.parse(planText.formatted("1 kHz", "10 kHz"), "other.yaml", 5.0);
+        Plan plan = PlanLoader.parse(planText.formatted("200 Hz", "20 kHz"), "t.yaml", 5.0);
+        SimBench sim = new SimBench(bench.simulation(), plan.wiring(), new PartModel(1e-3, 2.3, 15e-12));
+        DriverLoader drivers = new DriverLoader(TestBench.home().resolve("drivers"));
+        try (BenchInstruments inst = BenchInstruments.open(bench, drivers, sim)) {
+            Calibration fromOther = CalibrationRun.calibrate(other, inst, sim::setPosition, Sleeper.NONE);
+            PartResult r = PartRun.measure(new PartRun.Request(plan, "0", bench, "L", "S", true, "t", fromOther), inst,
+                    Sleeper.NONE, SweepListener.NONE);
+            assertThat(r.verdict()).isEqualTo("error");
+            assertThat(r.error()).contains("could not be fitted").contains("has no reading at");
+            assertThat(r.limits()).isEmpty();
+        }
+    }
 }
