@@ -6,6 +6,7 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.TreeSet;
 import org.lrbench.instrument.Coupling;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.InstrumentException;
@@ -179,7 +180,71 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     public Timing setTimingAndRanges(double sampleIntervalSecond, int wanted, double peakToPeak1, double peakToPeak2,
                                      double[] granted) {
         TimingMessage m = timingMessage(sampleIntervalSecond, wanted);
-        StringBuilder message = new StringBuilder(m.command());
+        RangeMessage r = rangeMessage(peakToPeak1, peakToPeak2);
+        String message = m.command() + r.command();
+        List<String> replies = session.configure(message, driver.errorQuery());
+        if (replies.size() != 2 + r.channels().size()) {
+            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
+                    + " replies; expected " + (2 + r.channels().size()));
+        }
+        Timing t = acceptTiming(m, replies.get(0), replies.get(1));
+        acceptRanges(r, replies.subList(2, replies.size()), granted);
+        return t;
+    }
+
+    /**
+     * With a digitizer that answers *OPC? once its record is complete: the time base, the changed
+     * ranges, the arming, *OPC? and the scaling of every ranged channel in one message (one round
+     * trip where there would be two), each read back in the reply. Otherwise the settings, then
+     * {@link #acquire}.
+     */
+    @Override
+    public Timing setTimingAndRangesThenAcquire(double sampleIntervalSecond, int wanted, double peakToPeak1,
+                                                double peakToPeak2, double[] granted) {
+        if (traits.acquisition().complete() != DigitizerTraits.Completion.OPC) {
+            Timing t = setTimingAndRanges(sampleIntervalSecond, wanted, peakToPeak1, peakToPeak2, granted);
+            acquire();
+            return t;
+        }
+        TimingMessage m = timingMessage(sampleIntervalSecond, wanted);
+        RangeMessage r = rangeMessage(peakToPeak1, peakToPeak2);
+        // a new time base voids every channel's scaling: ask each ranged channel's after the record
+        List<Integer> scaled = new ArrayList<>();
+        if (traits.scaling().source() == DigitizerTraits.ScaleSource.SCALE_QUERY) {
+            TreeSet<Integer> channels = new TreeSet<>(ranges.keySet());
+            channels.addAll(r.channels());
+            scaled.addAll(channels);
+        }
+        StringBuilder message = new StringBuilder(m.command()).append(r.command()).append(';')
+                .append(driver.command("acquire").render(Map.of())).append(";*OPC?");
+        for (int ch : scaled) {
+            message.append(';').append(driver.command("scale_query").render(channel(ch)));
+        }
+        List<String> replies = session.configure(message.toString(), driver.errorQuery());
+        int expected = 2 + r.channels().size() + 1 + scaled.size();
+        if (replies.size() != expected) {
+            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
+                    + " replies; expected " + expected);
+        }
+        Timing t = acceptTiming(m, replies.get(0), replies.get(1));
+        acceptRanges(r, replies.subList(2, 2 + r.channels().size()), granted);
+        int at = 2 + r.channels().size();
+        String opc = replies.get(at).trim();
+        if (!opc.equals("1") && !opc.equals("+1")) {
+            throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
+        }
+        for (int i = 0; i < scaled.size(); i++) {
+            scales.put(scaled.get(i), parseScale(message.toString(), replies.get(at + 1 + i).trim()));
+        }
+        return t;
+    }
+
+    /** The range settings and read-back queries of the channels whose request changed, each after a ';'. */
+    private record RangeMessage(String command, List<Integer> channels, List<String> queries, double[] requested) {
+    }
+
+    private RangeMessage rangeMessage(double peakToPeak1, double peakToPeak2) {
+        StringBuilder message = new StringBuilder();
         double[] requested = {peakToPeak1, peakToPeak2};
         List<Integer> changing = new ArrayList<>();
         List<String> queries = new ArrayList<>();
@@ -195,25 +260,23 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             changing.add(ch);
             queries.add(query);
         }
-        List<String> replies = session.configure(message.toString(), driver.errorQuery());
-        if (replies.size() != 2 + changing.size()) {
-            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
-                    + " replies; expected " + (2 + changing.size()));
-        }
-        Timing t = acceptTiming(m, replies.get(0), replies.get(1));
-        for (int i = 0; i < changing.size(); i++) {
-            int ch = changing.get(i);
-            double actual = number(queries.get(i), replies.get(2 + i).trim()) / perPeakToPeak();
+        return new RangeMessage(message.toString(), changing, queries, requested);
+    }
+
+    /** The ranges read back for a {@link RangeMessage}; both channels' ranges in effect into {@code granted}. */
+    private void acceptRanges(RangeMessage r, List<String> replies, double[] granted) {
+        for (int i = 0; i < r.channels().size(); i++) {
+            int ch = r.channels().get(i);
+            double actual = number(r.queries().get(i), replies.get(i).trim()) / perPeakToPeak();
             if (!(actual > 0)) {
-                throw new InstrumentException(session.instrument() + ": '" + queries.get(i) + "' answered a range of "
+                throw new InstrumentException(session.instrument() + ": '" + r.queries().get(i) + "' answered a range of "
                         + actual);
             }
             ranges.put(ch, actual);
-            requestedRanges.put(ch, requested[ch - 1]);
+            requestedRanges.put(ch, r.requested()[ch - 1]);
         }
         granted[0] = ranges.get(1);
         granted[1] = ranges.get(2);
-        return t;
     }
 
     /** A time-base request: the settings and their read-back queries, as one command string. */

@@ -52,6 +52,19 @@ public interface Digitizer {
         return t;
     }
 
+    /**
+     * The time base and both channels' ranges, then one acquisition, at once (a driver may send them
+     * in one message, the record starting once the settings are in effect): returns the time base in
+     * effect and puts the ranges in {@code granted}, as {@link #setTimingAndRanges} does. By
+     * default the settings, then {@link #acquire}.
+     */
+    default Timing setTimingAndRangesThenAcquire(double sampleIntervalSecond, int points, double peakToPeak1,
+                                                 double peakToPeak2, double[] granted) {
+        Timing t = setTimingAndRanges(sampleIntervalSecond, points, peakToPeak1, peakToPeak2, granted);
+        acquire();
+        return t;
+    }
+
     void setTrigger(TriggerSource source, double levelVolt, boolean rising);
 
     /** Arms, waits for the trigger and the end of the record. */

@@ -6,6 +6,7 @@ import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Set;
+import java.util.function.Predicate;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.RangeLimits;
 import org.lrbench.instrument.Timing;
@@ -62,6 +63,40 @@ public final class AutoRanger {
     }
 
     public Capture acquire() {
+        begin();
+        return attempts(1);
+    }
+
+    /**
+     * A capture whose first acquisition goes in one message with the time base and both channels'
+     * present requests ({@link Digitizer#setTimingAndRangesThenAcquire}). The time base in effect
+     * goes into {@code timing}; when {@code enough} refuses it the acquisition is void and null is
+     * returned (nothing fetched): the caller sets a time base that holds and captures again.
+     */
+    Capture acquireWithTiming(double intervalSecond, int points, Predicate<Timing> enough, Timing[] timing) {
+        double[] g = new double[2];
+        timing[0] = digitizer.setTimingAndRangesThenAcquire(intervalSecond, points, request[1], request[2], g);
+        for (int ch = 1; ch <= 2; ch++) {
+            lastAsked[ch] = request[ch];
+            lastGranted[ch] = g[ch - 1];
+        }
+        preAsked = true;
+        begin();
+        if (!enough.test(timing[0])) {
+            return null;
+        }
+        Trace t1 = digitizer.fetch(1);
+        Trace t2 = digitizer.fetch(2);
+        boolean ok1 = judge(1, t1, lastGranted[1]);
+        boolean ok2 = judge(2, t2, lastGranted[2]);
+        if (ok1 && ok2) {
+            return new Capture(t1, t2, 1);
+        }
+        return attempts(2);
+    }
+
+    /** Clears what one capture learns; the requests asked with the time base count as asked. */
+    private void begin() {
         for (int ch = 1; ch <= 2; ch++) {
             tooSmall[ch] = 0;
             holds[ch] = Double.POSITIVE_INFINITY;
@@ -74,8 +109,12 @@ public final class AutoRanger {
             }
         }
         preAsked = false;
+    }
+
+    /** Acquisitions from attempt {@code first} on, until both channels are judged settled. */
+    private Capture attempts(int first) {
         double[] granted = new double[3];
-        for (int attempt = 1; attempt <= MAX_ACQUISITIONS; attempt++) {
+        for (int attempt = first; attempt <= MAX_ACQUISITIONS; attempt++) {
             askBoth();
             for (int ch = 1; ch <= 2; ch++) {
                 granted[ch] = set(ch);

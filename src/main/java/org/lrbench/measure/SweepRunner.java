@@ -217,15 +217,16 @@ public final class SweepRunner {
         if (known != null) {
             ranger.expect(known[0], known[1]);
         }
-        sleeper.sleep(remaining(Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last,
-                generator.frequencySettleSecond()), triangleSet));
+        double settle = Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond());
         if (known == null && t.cycles() > RANGING_CYCLES) {
             // the ranges found on short records first, as at the sweep's first point
+            sleeper.sleep(remaining(settle, triangleSet));
             TimeBase.setWithRanges(digitizer, ranger, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
             ranger.acquire();
         }
-        Timing timing = TimeBase.setWithRanges(digitizer, ranger, t.frequencyHz(), t.cycles(), t.samplesPerCycle());
-        AutoRanger.Capture capture = ranger.acquire();
+        Captured found = timedCapture(ranger, t.frequencyHz(), t.cycles(), t.samplesPerCycle(), settle, triangleSet);
+        Timing timing = found.timing();
+        AutoRanger.Capture capture = found.capture();
         // the last capture: the part is not driven while its time-domain values are worked out
         generator.outputOff();
         outputOff = true;
@@ -295,14 +296,40 @@ public final class SweepRunner {
                     generator.frequencySettleSecond()), changed));
             ranging = ranger.acquire().acquisitions();
         }
-        // the time base and the ranges go in one message (the ranges predicted, or found on short records)
-        Timing timing = TimeBase.setWithRanges(digitizer, ranger, f, sweep.cycles(), sweep.samplesPerCycle());
-        if (ranging == 0) {
-            sleeper.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), previous,
-                    generator.frequencySettleSecond()), changed));
+        double settle = ranging == 0 ? Settle.seconds(sweep, plan.senseResistanceOhm(), previous,
+                generator.frequencySettleSecond()) : 0;
+        Captured found = timedCapture(ranger, f, sweep.cycles(), sweep.samplesPerCycle(), settle, changed);
+        AutoRanger.Capture c = found.capture();
+        return new Captured(f, new AutoRanger.Capture(c.sense(), c.part(), c.acquisitions() + ranging), found.timing());
+    }
+
+    /**
+     * The time base, both ranges and the record, the settle (counted from {@code since}) waited
+     * before the record. A time base the digitizer granted as asked before (on instruments kept
+     * open) goes in the acquisition's own message once the settle is over (nothing would hide a
+     * message of its own; while the settle runs, one is hidden behind it and the acquisition's
+     * message stays short); any other is set first, in one message with the ranges, and checked,
+     * and remembered when it was granted as asked.
+     */
+    private Captured timedCapture(AutoRanger ranger, double f, int cycles, int samplesPerCycle, double settleSecond,
+                                  long since) {
+        TimeBase.Request r = TimeBase.request(f, cycles, samplesPerCycle);
+        if (memory != null && memory.grantedAsAsked(r) && remaining(settleSecond, since) == 0) {
+            sleeper.sleep(remaining(settleSecond, since));
+            Timing[] granted = new Timing[1];
+            AutoRanger.Capture c = ranger.acquireWithTiming(r.intervalSecond(), r.points(),
+                    t -> TimeBase.holds(t, f, cycles, samplesPerCycle), granted);
+            if (c != null) {
+                return new Captured(f, c, granted[0]);
+            }
+            // the digitizer granted another time base this time: set one that holds, and capture again
         }
-        AutoRanger.Capture found = ranger.acquire();
-        return new Captured(f, new AutoRanger.Capture(found.sense(), found.part(), found.acquisitions() + ranging), timing);
+        Timing timing = TimeBase.setWithRanges(digitizer, ranger, f, cycles, samplesPerCycle);
+        if (memory != null && TimeBase.holds(timing, f, cycles, samplesPerCycle)) {
+            memory.rememberGranted(r);
+        }
+        sleeper.sleep(remaining(settleSecond, since));
+        return new Captured(f, ranger.acquire(), timing);
     }
 
     /** A captured point's phasors, impedance and distortion: pure computing, no instrument. */

@@ -39,10 +39,15 @@ final class TimeBase {
         return new Request(interval, points);
     }
 
+    /** Whether a time base holds the cycles at no fewer than the samples per cycle. */
+    static boolean holds(Timing timing, double f, int cycles, int samplesPerCycle) {
+        double captured = timing.points() * timing.sampleIntervalSecond() * f;
+        return 1.0 / (f * timing.sampleIntervalSecond()) >= samplesPerCycle * (1 - 1e-9) && captured >= cycles * (1 - 1e-9);
+    }
+
     /** The time base granted, or a second one where it misses the cycles or the samples per cycle. */
     private static Timing check(Digitizer digitizer, Timing timing, double f, int cycles, int samplesPerCycle) {
-        double captured = timing.points() * timing.sampleIntervalSecond() * f;
-        if (1.0 / (f * timing.sampleIntervalSecond()) < samplesPerCycle * (1 - 1e-9) || captured < cycles * (1 - 1e-9)) {
+        if (!holds(timing, f, cycles, samplesPerCycle)) {
             Timing again = digitizer.setTiming(timing.sampleIntervalSecond(),
                     (int) Math.ceil(cycles / (f * timing.sampleIntervalSecond())));
             if (1.0 / (f * again.sampleIntervalSecond()) < samplesPerCycle * 0.999) {

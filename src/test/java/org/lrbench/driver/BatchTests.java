@@ -72,4 +72,39 @@ class BatchTests {
         assertThat(r3[0]).isEqualTo(r2[0]);
         assertThat(r3[1]).isEqualTo(separate.digitizer.setRange(2, 0.5));
     }
+
+    /**
+     * The time base, the ranges and the acquisition in one message: one round trip where the
+     * settings and then the acquisition take two, the same time base and ranges granted, and the
+     * same record (the simulated bench is seeded alike, so the traces agree sample for sample).
+     */
+    @Test
+    void theTimeBaseTheRangesAndTheAcquisitionGoAsOneMessageAndRecordWhatSeparateMessagesRecord() throws Exception {
+        TestBench separate = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0),
+                TestBench.genericDigitizer());
+        TestBench together = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0),
+                TestBench.genericDigitizer());
+        for (TestBench b : new TestBench[] {separate, together}) {
+            b.generator.prepare();
+            b.generator.setFrequency(1e3);
+            b.generator.setAmplitude(3);
+            b.generator.outputOn();
+            b.digitizer.prepare();
+        }
+        double[] r1 = new double[2];
+        var t1 = separate.digitizer.setTimingAndRanges(5e-6, 2023, 8, 8, r1);
+        long before = separate.digitizerSession.queries();
+        separate.digitizer.acquire();
+        long separateTrips = separate.digitizerSession.queries() - before;
+        double[] r2 = new double[2];
+        before = together.digitizerSession.queries();
+        var t2 = together.digitizer.setTimingAndRangesThenAcquire(5e-6, 2023, 8, 8, r2);
+        assertThat(together.digitizerSession.queries() - before).as("one round trip").isEqualTo(1);
+        assertThat(separateTrips).as("the acquisition alone").isEqualTo(1);
+        assertThat(t2).isEqualTo(t1);
+        assertThat(r2).containsExactly(r1);
+        for (int ch = 1; ch <= 2; ch++) {
+            assertThat(together.digitizer.fetch(ch).volts()).containsExactly(separate.digitizer.fetch(ch).volts());
+        }
+    }
 }

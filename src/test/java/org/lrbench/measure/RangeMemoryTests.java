@@ -58,4 +58,35 @@ class RangeMemoryTests {
         assertThat(model(unlike).inductanceHenry()).isCloseTo(10e-3, within(0.05e-3));
         assertThat(model(unlike).resistanceOhm()).isCloseTo(12, within(0.05 * 12));
     }
+
+    /**
+     * With a settle already over when a point is captured (the circuit rule's microseconds), a
+     * part after the first sends each point's time base in its acquisition's message: three round
+     * trips to the digitizer per point (acquire, two fetches) where the first part takes four, and
+     * the same L (common practice, no source: 0.5 % as above).
+     */
+    @Test
+    void aTimeBaseGrantedAsAskedBeforeGoesWithTheAcquisition() throws Exception {
+        Plan plan = PlanLoader.parse(PLAN.replace("settle: 1 ms", "settle: 0 s"), "t.yaml", 5.0);
+        SimBench sim = new SimBench(SimSettings.defaults().withSeed(12), 100, new PartModel(1e-3, 2.3, 0));
+        TestBench bench = new TestBench(sim, TestBench.genericDigitizer());
+        RangeMemory memory = new RangeMemory();
+        SweepRunner runner = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE, memory);
+        long[] trips = new long[2];
+        SweepRunner.Measurement[] parts = new SweepRunner.Measurement[2];
+        for (int k = 0; k < 2; k++) {
+            long[] atPoint = new long[3];
+            parts[k] = runner.run(plan, new SweepListener() {
+                @Override
+                public void pointMeasured(int index, int count, PointResult point) {
+                    atPoint[index] = bench.digitizerSession.queries();
+                }
+            });
+            // from the second point's report to the third's: one point's capture (reports come a point late)
+            trips[k] = atPoint[2] - atPoint[1];
+        }
+        assertThat(trips[0]).as("first part, time base on its own").isEqualTo(4);
+        assertThat(trips[1]).as("next part, time base with the acquisition").isEqualTo(3);
+        assertThat(model(parts[1]).inductanceHenry()).isCloseTo(1e-3, within(0.005e-3));
+    }
 }
