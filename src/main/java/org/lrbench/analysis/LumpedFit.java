@@ -1,6 +1,7 @@
 package org.lrbench.analysis;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.EnumSet;
 import java.util.List;
@@ -15,7 +16,7 @@ import org.lrbench.analysis.fit.LeastSquares;
 
 /**
  * Fits the {@link LumpedModel} to a sweep by weighted Levenberg-Marquardt (real and imaginary parts
- * of each point, weighted by the inverse variance of its components), from every start the data
+ * of each point, whitened by the covariance of the two), from every start the data
  * suggest, keeping the fit with the least chi-square: the series model, and, when the parallel
  * capacitance is wanted, the admittance: for a winding well above its R/L corner,
  * omega Im(1/Z) = -1/L + omega^2 C_p, a straight line in omega^2 whose intercept and slope give
@@ -212,8 +213,8 @@ public final class LumpedFit {
     }
 
     /**
-     * Each point's residual (real and imaginary parts) from the model with these parameters, in
-     * units of the point's standard uncertainty as the fit weights it.
+     * Each point's residual (real and imaginary parts) from the model with these parameters,
+     * whitened by the point's covariance as the fit weights it.
      */
     public static double[] weightedResiduals(List<ImpedancePoint> points, double[] parameters) {
         int n = points.size();
@@ -221,9 +222,7 @@ public final class LumpedFit {
         for (int i = 0; i < n; i++) {
             ImpedancePoint p = points.get(i);
             Complex z = LumpedModel.impedance(parameters, p.frequencyHz());
-            double u = weightUncertainty(p);
-            r[i] = (p.resistanceOhm() - z.getReal()) / u;
-            r[n + i] = (p.reactanceOhm() - z.getImaginary()) / u;
+            white(whitening(p), p.resistanceOhm() - z.getReal(), p.reactanceOhm() - z.getImaginary(), r, i, n);
         }
         return r;
     }
@@ -339,16 +338,18 @@ public final class LumpedFit {
                                      double[] scale) {
         List<LumpedParameter> order = new ArrayList<>(free);
         int n = points.size();
+        double[][] whiten = new double[n][];
+        for (int i = 0; i < n; i++) {
+            whiten[i] = whitening(points.get(i));
+        }
+        // each point's real and imaginary residuals whitened by its own covariance (unit weights)
         double[] observed = new double[2 * n];
-        double[] weights = new double[2 * n];
         for (int i = 0; i < n; i++) {
             ImpedancePoint p = points.get(i);
-            observed[i] = p.resistanceOhm();
-            observed[n + i] = p.reactanceOhm();
-            double u = weightUncertainty(p);
-            weights[i] = 1 / (u * u);
-            weights[n + i] = weights[i];
+            white(whiten[i], p.resistanceOhm(), p.reactanceOhm(), observed, i, n);
         }
+        double[] weights = new double[2 * n];
+        Arrays.fill(weights, 1.0);
         FitModel model = new FitModel() {
             @Override
             public double[] values(double[] q) {
@@ -356,8 +357,7 @@ public final class LumpedFit {
                 double[] v = new double[2 * n];
                 for (int i = 0; i < n; i++) {
                     Complex z = LumpedModel.impedance(full, points.get(i).frequencyHz());
-                    v[i] = z.getReal();
-                    v[n + i] = z.getImaginary();
+                    white(whiten[i], z.getReal(), z.getImaginary(), v, i, n);
                 }
                 return v;
             }
@@ -366,12 +366,14 @@ public final class LumpedFit {
             public double[][] jacobian(double[] q) {
                 double[] full = expand(q, free, scale);
                 double[][] j = new double[2 * n][order.size()];
+                double[] pair = new double[2 * n];
                 for (int i = 0; i < n; i++) {
                     Complex[] g = LumpedModel.gradient(full, points.get(i).frequencyHz());
                     for (int c = 0; c < order.size(); c++) {
                         int k = order.get(c).ordinal();
-                        j[i][c] = g[k].getReal() * scale[k];
-                        j[n + i][c] = g[k].getImaginary() * scale[k];
+                        white(whiten[i], g[k].getReal() * scale[k], g[k].getImaginary() * scale[k], pair, i, n);
+                        j[i][c] = pair[i];
+                        j[n + i][c] = pair[n + i];
                     }
                 }
                 return j;
@@ -383,6 +385,33 @@ public final class LumpedFit {
             start[c] = startFull[k] / scale[k];
         }
         return LeastSquares.fit(model, observed, weights, start);
+    }
+
+    /**
+     * The Cholesky factor {l11, l21, l22} of a point's covariance of its real and imaginary parts,
+     * each variance floored at the fit's least relative uncertainty and the correlation held within
+     * +/- 0.99: residuals multiplied by its inverse are independent with unit variance.
+     */
+    private static double[] whitening(ImpedancePoint p) {
+        double floor = SeriesModelFit.MIN_RELATIVE_UNCERTAINTY * p.impedanceOhm().abs();
+        double vr = Math.max(p.varianceR(), floor * floor);
+        double vx = Math.max(p.varianceX(), floor * floor);
+        double limit = 0.99 * Math.sqrt(vr * vx);
+        double k = Math.max(-limit, Math.min(limit, p.covarianceRX()));
+        if (!Double.isFinite(vr) || !Double.isFinite(vx) || !Double.isFinite(k)) {
+            double u = weightUncertainty(p);
+            return new double[] {u, 0, u};
+        }
+        double l11 = Math.sqrt(vr);
+        double l21 = k / l11;
+        return new double[] {l11, l21, Math.sqrt(vx - l21 * l21)};
+    }
+
+    /** The pair (r, x) through the inverse of the factor, into out[i] and out[n + i]. */
+    private static void white(double[] l, double r, double x, double[] out, int i, int n) {
+        double a = r / l[0];
+        out[i] = a;
+        out[n + i] = (x - l[1] * a) / l[2];
     }
 
     private static double[] expand(double[] q, Set<LumpedParameter> free, double[] scale) {

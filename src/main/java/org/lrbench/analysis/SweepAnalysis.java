@@ -187,16 +187,14 @@ public final class SweepAnalysis {
     }
 
     private static List<ImpedancePoint> scale(List<ImpedancePoint> points, double factor) {
-        return map(points, p -> new ImpedancePoint(p.frequencyHz(), p.impedanceOhm().multiply(factor),
-                p.componentUncertaintyOhm() * factor, p.currentAmpere()));
+        return map(points, p -> p.times(new Complex(factor, 0)));
     }
 
     /** Channel 2 late by tau against channel 1: the measured Z turns by -2 pi f tau. */
     private static List<ImpedancePoint> skew(List<ImpedancePoint> points, double tau) {
         return map(points, p -> {
             double phi = -2 * Math.PI * p.frequencyHz() * tau;
-            return new ImpedancePoint(p.frequencyHz(), p.impedanceOhm().multiply(new Complex(Math.cos(phi), Math.sin(phi))),
-                    p.componentUncertaintyOhm(), p.currentAmpere());
+            return p.times(new Complex(Math.cos(phi), Math.sin(phi)));
         });
     }
 
@@ -220,17 +218,13 @@ public final class SweepAnalysis {
     private static List<ImpedancePoint> scaleEach(List<ImpedancePoint> points, double[] q, double d) {
         List<ImpedancePoint> out = new ArrayList<>();
         for (int i = 0; i < points.size(); i++) {
-            ImpedancePoint p = points.get(i);
-            double k = 1 + d * q[i];
-            out.add(new ImpedancePoint(p.frequencyHz(), p.impedanceOhm().multiply(k), p.componentUncertaintyOhm() * k,
-                    p.currentAmpere()));
+            out.add(points.get(i).times(new Complex(1 + d * q[i], 0)));
         }
         return out;
     }
 
     private static List<ImpedancePoint> frequency(List<ImpedancePoint> points, double factor) {
-        return map(points, p -> new ImpedancePoint(p.frequencyHz() * factor, p.impedanceOhm(),
-                p.componentUncertaintyOhm(), p.currentAmpere()));
+        return map(points, p -> p.atFrequency(p.frequencyHz() * factor));
     }
 
     private static List<ImpedancePoint> map(List<ImpedancePoint> points, UnaryOperator<ImpedancePoint> f) {

@@ -1,6 +1,7 @@
 package org.lrbench.calibration;
 
 import java.util.List;
+import java.util.function.UnaryOperator;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.fixture.FixtureWiring;
@@ -67,17 +68,27 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
     }
 
     public ImpedancePoint apply(ImpedancePoint p) {
-        var z = p.impedanceOhm();
-        double u = p.componentUncertaintyOhm();
+        ImpedancePoint q = p;
         if (channels != null) {
-            z = matched(p.frequencyHz(), z);
-            u = u / channels.ratio(p.frequencyHz()).abs();
+            // matched(z) is holomorphic in z: its derivative turns and scales the covariance
+            Complex z = matched(p.frequencyHz(), p.impedanceOhm());
+            q = p.corrected(z, slope(x -> matched(p.frequencyHz(), x), p.impedanceOhm()), 0);
         }
         if (fixture != null) {
+            Complex z = q.impedanceOhm();
+            double u = q.componentUncertaintyOhm();
+            Complex slope = slope(x -> fixture.correct(p.frequencyHz(), x), z);
+            // what the short and open readings add, beyond the measured point's own carried through
             double carried = fixture.uncertainty(p.frequencyHz(), z, u);
-            z = fixture.correct(p.frequencyHz(), z);
-            u = carried;
+            double own = slope.abs() * u;
+            q = q.corrected(fixture.correct(p.frequencyHz(), z), slope, Math.max(0, carried * carried - own * own));
         }
-        return new ImpedancePoint(p.frequencyHz(), z, u, p.currentAmpere());
+        return q;
+    }
+
+    /** The derivative of a holomorphic correction at z, by a central difference along the real axis. */
+    private static Complex slope(UnaryOperator<Complex> f, Complex z) {
+        double h = Math.max(1e-12, 1e-6 * z.abs());
+        return f.apply(z.add(h)).subtract(f.apply(z.subtract(h))).divide(2 * h);
     }
 }
