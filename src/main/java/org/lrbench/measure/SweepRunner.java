@@ -87,18 +87,8 @@ public final class SweepRunner {
         digitizer.identity();
         MultisineDesign.Design multisine = sweep.multisine()
                 ? MultisineCapture.design(sweep, generator.maxArbitrarySamples()) : null;
-        // each instrument's reset and settings in one message where its driver can
-        generator.batch(() -> {
-            generator.prepare();
-            if (multisine != null) {
-                MultisineCapture.load(generator, multisine, sweep);
-            } else {
-                generator.setWaveform(Waveform.SINE);
-                generator.setFrequency(sweep.frequenciesHz().get(0));
-                generator.setAmplitude(sweep.amplitudeVolt());
-                generator.setOffset(sweep.offsetVolt());
-            }
-        });
+        // each instrument's reset and settings in one message where its driver can; the generator's
+        // output comes on in its message, last
         digitizer.batch(() -> {
             digitizer.prepare();
             for (int ch = 1; ch <= 2; ch++) {
@@ -117,9 +107,21 @@ public final class SweepRunner {
         double start = 2.2 * (sweep.amplitudeVolt() + Math.abs(sweep.offsetVolt()));
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         List<PointResult> points = new ArrayList<>();
-        generator.outputOn();
         outputOff = false;
         try {
+            generator.batch(() -> {
+                generator.prepare();
+                if (multisine != null) {
+                    MultisineCapture.load(generator, multisine, sweep);
+                } else {
+                    generator.setWaveform(Waveform.SINE);
+                    generator.setFrequency(sweep.frequenciesHz().get(0));
+                    generator.setAmplitude(sweep.amplitudeVolt());
+                    generator.setOffset(sweep.offsetVolt());
+                }
+                generator.outputOn();
+            });
+            long outputOnAt = System.nanoTime();
             if (multisine != null) {
                 points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, sleeper,
                         Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()),
@@ -147,7 +149,7 @@ public final class SweepRunner {
                         generator.setFrequency(f);
                     }
                     // the settle runs from here: the wait for the last point's analysis is part of it
-                    long changed = System.nanoTime();
+                    long changed = i == 0 ? outputOnAt : System.nanoTime();
                     if (work.pending()) {
                         PointResult done = work.result();
                         points.add(done);
@@ -306,15 +308,17 @@ public final class SweepRunner {
     /**
      * The time base, both ranges and the record, the settle (counted from {@code since}) waited
      * before the record. A time base the digitizer granted as asked before (on instruments kept
-     * open) goes in the acquisition's own message once the settle is over (nothing would hide a
-     * message of its own; while the settle runs, one is hidden behind it and the acquisition's
-     * message stays short); any other is set first, in one message with the ranges, and checked,
-     * and remembered when it was granted as asked.
+     * open) goes in the acquisition's own message when what is left of the settle would hide less
+     * than half of a message of its own (as long as the last one took); while more of the settle
+     * is left, a message of its own is hidden behind it and the acquisition's stays short. Any
+     * other time base is set first, in one message with the ranges, checked, and remembered when
+     * it was granted as asked.
      */
     private Captured timedCapture(AutoRanger ranger, double f, int cycles, int samplesPerCycle, double settleSecond,
                                   long since) {
         TimeBase.Request r = TimeBase.request(f, cycles, samplesPerCycle);
-        if (memory != null && memory.grantedAsAsked(r) && remaining(settleSecond, since) == 0) {
+        if (memory != null && memory.grantedAsAsked(r)
+                && remaining(settleSecond, since) < memory.timeBaseSecond() / 2) {
             sleeper.sleep(remaining(settleSecond, since));
             Timing[] granted = new Timing[1];
             AutoRanger.Capture c = ranger.acquireWithTiming(r.intervalSecond(), r.points(),
@@ -324,9 +328,13 @@ public final class SweepRunner {
             }
             // the digitizer granted another time base this time: set one that holds, and capture again
         }
+        long sent = System.nanoTime();
         Timing timing = TimeBase.setWithRanges(digitizer, ranger, f, cycles, samplesPerCycle);
-        if (memory != null && TimeBase.holds(timing, f, cycles, samplesPerCycle)) {
-            memory.rememberGranted(r);
+        if (memory != null) {
+            memory.rememberTimeBaseSecond((System.nanoTime() - sent) / 1e9);
+            if (TimeBase.holds(timing, f, cycles, samplesPerCycle)) {
+                memory.rememberGranted(r);
+            }
         }
         sleeper.sleep(remaining(settleSecond, since));
         return new Captured(f, ranger.acquire(), timing);

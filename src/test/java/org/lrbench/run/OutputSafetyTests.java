@@ -5,6 +5,7 @@ import static org.mockito.ArgumentMatchers.any;
 import static org.mockito.ArgumentMatchers.anyDouble;
 import static org.mockito.ArgumentMatchers.anyInt;
 import static org.mockito.Mockito.atLeastOnce;
+import static org.mockito.Mockito.doCallRealMethod;
 import static org.mockito.Mockito.doThrow;
 import static org.mockito.Mockito.inOrder;
 import static org.mockito.Mockito.mock;
@@ -54,6 +55,9 @@ class OutputSafetyTests {
     @Test
     void digitizerFaultMidSweepEndsInErrorWithOutputOff() throws Exception {
         Generator gen = mock(Generator.class);
+        // settings sent together run one after another, as the interface's default does (the output
+        // comes on in the generator's batch)
+        doCallRealMethod().when(gen).batch(any());
         Digitizer dig = mock(Digitizer.class);
         when(gen.identity()).thenReturn(new Identity("X", "G", "1", "1"));
         when(dig.identity()).thenReturn(new Identity("X", "D", "1", "1"));
