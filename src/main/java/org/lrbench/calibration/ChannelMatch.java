@@ -78,30 +78,28 @@ public record ChannelMatch(String measuredAt, double gainRatio, double gainUncer
     public static ChannelMatch fit(String measuredAt, double[] frequencyHz, List<Complex> ratio, double[] relativeU) {
         ChannelMatch alike = fit(measuredAt, frequencyHz, ratio);
         int n = frequencyHz.length;
+        // the gain: the weighted mean of the magnitudes; the skew: the weighted least-squares line
+        // through the origin of phase against omega = -2 pi f, each point's phase uncertainty its
+        // relative uncertainty (radians)
         double sw = 0;
         double sumG = 0;
-        for (int i = 0; i < n; i++) {
-            double u = relativeU[i];
-            double w = u > 0 && Double.isFinite(u) ? 1 / (u * u) : 0;
-            sw += w;
-            sumG += w * ratio.get(i).abs();
-        }
-        if (!(sw > 0)) {
-            return alike;
-        }
-        double g = sumG / sw;
-        // the skew: the weighted least-squares line through the origin of phase against
-        // omega = -2 pi f, each point's phase uncertainty its relative uncertainty (radians)
         double swo = 0;
         double swop = 0;
         for (int i = 0; i < n; i++) {
             double u = relativeU[i];
             if (u > 0 && Double.isFinite(u)) {
+                double w = 1 / (u * u);
                 double omega = -2 * Math.PI * frequencyHz[i];
-                swo += omega * omega / (u * u);
-                swop += omega * ratio.get(i).getArgument() / (u * u);
+                sw += w;
+                sumG += w * ratio.get(i).abs();
+                swo += w * omega * omega;
+                swop += w * omega * ratio.get(i).getArgument();
             }
         }
+        if (!(sw > 0)) {
+            return alike;
+        }
+        double g = sumG / sw;
         double tau = swop / swo;
         double chiG = 0;
         double chiP = 0;
