@@ -4,24 +4,21 @@ import org.apache.commons.math3.complex.Complex;
 
 /**
  * The part's impedance at one frequency with the covariance of its real and imaginary parts (ohm
- * squared), and the current through it. {@code componentUncertaintyOhm} is their mean standard
- * uncertainty, sqrt((u(R)^2 + u(X)^2) / 2), for what takes the two alike.
+ * squared), and the current through it.
  */
-public record ImpedancePoint(double frequencyHz, Complex impedanceOhm, double componentUncertaintyOhm,
-                             Complex currentAmpere, double varianceR, double varianceX, double covarianceRX) {
+public record ImpedancePoint(double frequencyHz, Complex impedanceOhm, Complex currentAmpere, double varianceR,
+                             double varianceX, double covarianceRX) {
 
     /** A point whose real and imaginary parts have the same standard uncertainty and do not correlate. */
     public ImpedancePoint(double frequencyHz, Complex impedanceOhm, double componentUncertaintyOhm,
                           Complex currentAmpere) {
-        this(frequencyHz, impedanceOhm, componentUncertaintyOhm, currentAmpere,
-                componentUncertaintyOhm * componentUncertaintyOhm, componentUncertaintyOhm * componentUncertaintyOhm, 0);
+        this(frequencyHz, impedanceOhm, currentAmpere, componentUncertaintyOhm * componentUncertaintyOhm,
+                componentUncertaintyOhm * componentUncertaintyOhm, 0);
     }
 
-    /** A point with the full covariance of its parts. */
-    public static ImpedancePoint withCovariance(double frequencyHz, Complex impedanceOhm, Complex currentAmpere,
-                                               double varianceR, double varianceX, double covarianceRX) {
-        return new ImpedancePoint(frequencyHz, impedanceOhm, Math.sqrt((varianceR + varianceX) / 2), currentAmpere,
-                varianceR, varianceX, covarianceRX);
+    /** The two parts' mean standard uncertainty, sqrt((u(R)^2 + u(X)^2) / 2), for what takes them alike. */
+    public double componentUncertaintyOhm() {
+        return Math.sqrt((varianceR + varianceX) / 2);
     }
 
     public double resistanceOhm() {
@@ -48,7 +45,7 @@ public record ImpedancePoint(double frequencyHz, Complex impedanceOhm, double co
      */
     public ImpedancePoint times(Complex c) {
         double[] v = turn(c, varianceR, varianceX, covarianceRX);
-        return withCovariance(frequencyHz, impedanceOhm.multiply(c), currentAmpere, v[0], v[1], v[2]);
+        return new ImpedancePoint(frequencyHz, impedanceOhm.multiply(c), currentAmpere, v[0], v[1], v[2]);
     }
 
     /**
@@ -58,13 +55,13 @@ public record ImpedancePoint(double frequencyHz, Complex impedanceOhm, double co
      */
     public ImpedancePoint corrected(Complex corrected, Complex slope, double addedVariance) {
         double[] v = turn(slope, varianceR, varianceX, covarianceRX);
-        return withCovariance(frequencyHz, corrected, currentAmpere, v[0] + addedVariance, v[1] + addedVariance, v[2]);
+        return new ImpedancePoint(frequencyHz, corrected, currentAmpere, v[0] + addedVariance, v[1] + addedVariance,
+                v[2]);
     }
 
     /** The same point at another frequency (a frequency scale error). */
     public ImpedancePoint atFrequency(double f) {
-        return new ImpedancePoint(f, impedanceOhm, componentUncertaintyOhm, currentAmpere, varianceR, varianceX,
-                covarianceRX);
+        return new ImpedancePoint(f, impedanceOhm, currentAmpere, varianceR, varianceX, covarianceRX);
     }
 
     /** M S M' for M = [[a, -b], [b, a]], c = a + j b, S = [[vr, k], [k, vx]]: {vr', vx', k'}. */

@@ -28,7 +28,7 @@ public final class PhasorImpedance {
                 -sense.covarianceCosineSine());
         double[] s2 = ImpedancePoint.turn(new Complex(senseOhm, 0).divide(v1), part.varianceCosine(),
                 part.varianceSine(), -part.covarianceCosineSine());
-        return ImpedancePoint.withCovariance(frequencyHz, z, v1.divide(senseOhm), s1[0] + s2[0], s1[1] + s2[1],
+        return new ImpedancePoint(frequencyHz, z, v1.divide(senseOhm), s1[0] + s2[0], s1[1] + s2[1],
                 s1[2] + s2[2]);
     }
 }

@@ -100,11 +100,9 @@ public final class SweepAnalysis {
         }
         // residuals wider than noise and these effects explain scale the fit covariance (a Birge
         // ratio over the expected chi-square); scatter they explain is counted once, in their lines
-        fit = fit.withExpectedChiSquare(fit.degreesOfFreedom() + explained);
+        LumpedFit.Result scaled = fit.withExpectedChiSquare(fit.degreesOfFreedom() + explained);
         Map<String, Budget> budgets = new LinkedHashMap<>();
         double dof = fit.degreesOfFreedom();
-        double explainedScatter = explained;
-        LumpedFit.Result scaled = fit;
         for (Evaluation ev : evaluations) {
             double value = ev.at(p);
             double uA = typeA(ev, p, scaled::covariance, free);
@@ -136,7 +134,7 @@ public final class SweepAnalysis {
                     continue;
                 }
                 double scaleWith = Math.max(1, o.reducedChiSquareWith() * o.degreesOfFreedomWith()
-                        / (o.degreesOfFreedomWith() + explainedScatter));
+                        / (o.degreesOfFreedomWith() + explained));
                 double uWith = typeA(ev, o.parametersWith(),
                         (x, y) -> o.covarianceWith()[x.ordinal()][y.ordinal()] * scaleWith, o.freeWith());
                 double half = Math.abs(change) / 2;
@@ -150,7 +148,7 @@ public final class SweepAnalysis {
             }
             budgets.put(ev.name(), Budget.of(ev.name(), value, lines));
         }
-        return new Result(fit, budgets);
+        return new Result(scaled, budgets);
     }
 
     private record Perturbation(String source, Distribution distribution, double halfWidth, String unit,

@@ -58,7 +58,7 @@ class ImpedanceCovarianceTests {
     @Test
     void aQuarterTurnSwapsTheVariancesAndNegatesTheCovariance() {
         // multiplying by j maps (R, X) to (-X, R): linear algebra, no source needed beyond that
-        ImpedancePoint p = ImpedancePoint.withCovariance(1e3, new Complex(2, 5), Complex.ONE, 4, 1, 0.5);
+        ImpedancePoint p = new ImpedancePoint(1e3, new Complex(2, 5), Complex.ONE, 4, 1, 0.5);
         ImpedancePoint q = p.times(Complex.I);
         assertThat(q.varianceR()).isCloseTo(1, within(1e-12));
         assertThat(q.varianceX()).isCloseTo(4, within(1e-12));
