@@ -127,7 +127,7 @@ public final class KillSoak {
     private static LotState state(Path work, String lot) {
         try (ResultStore s = ResultStore.open(work.resolve("data/lrbench.db"))) {
             Map<String, String> verdicts = new LinkedHashMap<>();
-            s.parts(lot).forEach(a -> verdicts.put(a.serial(), a.verdict()));
+            s.parts(lot).forEach(a -> verdicts.put(a.serial(), a.verdict().word()));
             String disposition = s.latestInspection(lot).map(i -> i.disposition()).orElse(null);
             return new LotState(verdicts, disposition, s.attempts(lot).size());
         }

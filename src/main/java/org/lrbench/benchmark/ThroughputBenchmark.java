@@ -255,7 +255,7 @@ public final class ThroughputBenchmark {
         }
         var uL = r.budgets().get("inductance");
         var uR = r.budgets().get("series_resistance_dc");
-        return new Figures(timing, seconds, minimum, perPoint, max, r.verdict(), (lastPoint[0] - started[0]) / 1e9,
+        return new Figures(timing, seconds, minimum, perPoint, max, r.verdict().word(), (lastPoint[0] - started[0]) / 1e9,
                 uL == null ? Double.NaN : uL.expandedUncertainty(), uR == null ? Double.NaN : uR.expandedUncertainty(),
                 seconds);
     }

@@ -7,17 +7,16 @@ import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
-import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
-import org.lrbench.measure.SweepListener;
+import org.lrbench.lot.LotEnd;
+import org.lrbench.lot.LotRefused;
+import org.lrbench.lot.LotRunner;
+import org.lrbench.lot.LotStart;
+import org.lrbench.lot.TrayRun;
 import org.lrbench.plan.Plan;
-import org.lrbench.records.StoreLedger;
 import org.lrbench.report.LotReport;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.ResultFiles;
-import org.lrbench.run.LotRunner;
-import org.lrbench.run.LotScheme;
-import org.lrbench.run.PartRun;
 import org.lrbench.sim.SimBench;
 import org.lrbench.sim.SimLot;
 import org.lrbench.store.ResultStore;
@@ -76,7 +75,6 @@ final class DemoCommand implements Callable<Integer> {
         Inputs.name("lot", lot.lot());
         BenchConfig b = benchOptions.load();
         Plan plan = Inputs.plan(lot.plan(), b);
-        String sha = Inputs.sha256(lot.plan());
         DriverLoader drivers = benchOptions.loader();
         double qAt = ResultText.qFrequency(plan);
         System.out.printf("lot %s: %d parts of %s (%s), plan %s, simulated bench %s%n%n", lot.lot(), lot.parts().size(),
@@ -85,7 +83,6 @@ final class DemoCommand implements Callable<Integer> {
         System.out.println("calibrating the simulated bench at the plan's frequencies:");
         CalibrateCommand.calibrate(plan, b, drivers, new SimBench(b.simulation(), plan.wiring(),
                 lot.parts().get(0).model()), calibrationOption.calibration);
-        Calibration corrections = new CalibrationStore(calibrationOption.calibration, b.name()).load();
         System.out.println();
         Integer lotSize = lot.lotSize();
         if (plan.sampling() == null || lotSize == null) {
@@ -97,22 +94,26 @@ final class DemoCommand implements Callable<Integer> {
             // and its records are never removed): its earlier demo records go first, store and files
             store.deleteLot(lot.lot());
             removeDemoRecords(runsOption.runs.resolve(lot.lot()));
-            PartRun.Request template = new PartRun.Request(plan, sha, b, lot.lot(), "-", true, Home.version(), corrections);
-            LotRunner.Setup setup = LotRunner.resolved(LotRunner.Setup.of(template, lotSize, drivers,
-                    new StoreLedger(store, runsOption.runs, true)).withOperator("demo")
-                    .withScheme(LotScheme.of(plan.supplier(), tablesOption.tables)));
+            LotStart.Ready ready;
+            try {
+                ready = LotStart.prepare(new LotStart.Request(lot.plan(), b, drivers, lot.lot(), lotSize, "demo", null,
+                        null, null, true, true, new LotStart.Folders(calibrationOption.calibration, runsOption.runs,
+                        tablesOption.tables), Home.version()), store);
+            } catch (LotRefused e) {
+                throw new BadInputException("demo lot " + lot.lot() + ": " + e.getMessage());
+            }
+            LotRunner.Setup setup = ready.setup();
             ResultText.severity(System.out, setup.scheme());
             ResultText.samplingPlans(System.out, lotSize, setup.sampling());
             System.out.println();
             ResultText.tableHeader(System.out, qAt);
-            LotRunner.Outcome outcome = RunCommand.runTray(setup, b, lot, r -> ResultText.tableRow(System.out, r, qAt));
-            summary = LotSummaries.of(outcome, store.attempts(lot.lot()).size(), store.chainHead(lot.lot()));
+            LotRunner.Outcome outcome = TrayRun.simulated(setup, lot, r -> ResultText.tableRow(System.out, r, qAt));
+            summary = LotEnd.summary(outcome, store);
             Path report = runsOption.runs.resolve(lot.lot()).resolve("report.html");
             ResultFiles.writeAtomically(report, LotReport.html(store, lot.lot())
                     .getBytes(StandardCharsets.UTF_8));
         }
-        Path summaryFile = runsOption.runs.resolve(lot.lot()).resolve("lot-summary.json");
-        ResultFiles.writeJson(summaryFile, summary);
+        LotEnd.write(runsOption.runs, summary);
         System.out.println();
         ResultText.summary(System.out, summary);
         System.out.println("store: " + (location.url != null ? location.url : location.file()));

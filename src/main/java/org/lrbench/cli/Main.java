@@ -2,7 +2,7 @@ package org.lrbench.cli;
 
 import java.io.IOException;
 import org.lrbench.instrument.InstrumentException;
-import org.lrbench.run.LotRunner;
+import org.lrbench.lot.LotRefused;
 import org.lrbench.store.StoreException;
 import org.lrbench.transport.AddressException;
 import org.lrbench.yaml.ProblemsException;
@@ -30,7 +30,7 @@ public final class Main implements Runnable {
                 ResultText.problems(commandLine.getErr(), p.problems());
                 return ExitCodes.BAD_INPUT;
             }
-            if (e instanceof BadInputException || e instanceof LotRunner.Refused
+            if (e instanceof BadInputException || e instanceof LotRefused
                     || e instanceof AddressException) {
                 commandLine.getErr().println("lrbench: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;

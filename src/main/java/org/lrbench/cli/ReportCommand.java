@@ -71,7 +71,7 @@ final class ReportCommand extends StoreCommands.StoreOptions implements Callable
     private static String row(Attempt a, boolean counts, String limit, String value, String u,
                               String zone, String pass) {
         return String.join(",", List.of(a.lot(), String.valueOf(a.round()), String.valueOf(a.position()),
-                a.serial(), String.valueOf(a.number()), String.valueOf(counts), a.verdict(), StoreCommands.csv(limit),
+                a.serial(), String.valueOf(a.number()), String.valueOf(counts), a.verdict().word(), StoreCommands.csv(limit),
                 value, u, zone, pass));
     }
 }

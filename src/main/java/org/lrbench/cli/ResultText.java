@@ -11,7 +11,7 @@ import org.lrbench.plan.Plan;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.PartResult;
 import org.lrbench.sampling.LotDisposition;
-import org.lrbench.run.LotScheme;
+import org.lrbench.lot.LotScheme;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
@@ -70,7 +70,7 @@ final class ResultText {
         if (r.error() != null) {
             out.println("  error: " + r.error());
         }
-        out.println("verdict: " + r.verdict().toUpperCase(Locale.ROOT));
+        out.println("verdict: " + r.verdict().word().toUpperCase(Locale.ROOT));
     }
 
     /** The frequency the table's Q column is headed with: the first Q limit's, else the top of the sweep. */

@@ -1,13 +1,11 @@
 package org.lrbench.cli;
 
-import org.lrbench.bench.SimulatedPart;
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.InputStreamReader;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Instant;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
@@ -18,28 +16,25 @@ import java.util.function.Consumer;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
-import org.lrbench.driver.DriverLoader;
-import org.lrbench.judge.Verdict;
+import org.lrbench.lot.ConsoleFeeder;
+import org.lrbench.lot.LotEnd;
+import org.lrbench.lot.LotRefused;
+import org.lrbench.lot.LotRunner;
+import org.lrbench.lot.LotStart;
+import org.lrbench.lot.LotStop;
+import org.lrbench.lot.PartFeeder;
+import org.lrbench.lot.TrayRun;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
-import org.lrbench.records.CheckStandardLog;
-import org.lrbench.records.StoreLedger;
 import org.lrbench.results.Attempt;
+import org.lrbench.results.Inspection;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.BenchInstruments;
-import org.lrbench.run.ConsoleFeeder;
-import org.lrbench.run.LotRunner;
-import org.lrbench.run.LotScheme;
-import org.lrbench.run.LotStop;
-import org.lrbench.run.PartFeeder;
 import org.lrbench.run.PartRun;
-import org.lrbench.run.SwitchFeeder;
-import org.lrbench.run.TrayFeeder;
-import org.lrbench.yaml.ProblemsException;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.PartModel;
 import org.lrbench.sim.SimBench;
@@ -193,25 +188,7 @@ final class RunCommand implements Callable<Integer> {
         if (result.error() != null) {
             System.err.println("lrbench: measurement error: " + result.error());
         }
-        return ExitCodes.of(Verdict.valueOf(result.verdict().toUpperCase(Locale.ROOT)));
-    }
-
-    /**
-     * A simulated tray measured unattended: on a bench with a switch unit, one simulated bench
-     * holds the whole tray and the switch changes parts; without one, each part is its own bench.
-     */
-    static LotRunner.Outcome runTray(LotRunner.Setup setup, BenchConfig b, SimLot tray,
-                                     Consumer<PartResult> onPart) throws Exception {
-        if (b.switchUnit() == null) {
-            return LotRunner.run(setup, new TrayFeeder(SimulatedPart.tray(tray.parts())), onPart);
-        }
-        SimBench bench = new SimBench(b.simulation(), setup.template().plan().wiring(),
-                tray.parts().stream().map(SimLot.Part::model).toList());
-        try (BenchInstruments inst = BenchInstruments.open(b, setup.drivers(), bench, true)) {
-            inst.switchUnit().prepare();
-            return LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(),
-                    tray.parts().stream().map(SimLot.Part::serial).toList()), onPart);
-        }
+        return ExitCodes.of(result.verdict());
     }
 
     private boolean keepTraces() {
@@ -285,55 +262,22 @@ final class RunCommand implements Callable<Integer> {
     }
 
     /** Lot mode: the sample one part after another, each attempt committed as it goes, resumable. */
-    /**
-     * On a bench with a check standard, a lot run starts only when its last check is in control and
-     * within its interval and the bench's corrections are within theirs; or with a recorded override.
-     */
-    private void checkGate(BenchConfig b) throws Exception {
-        if (b.checkStandard() == null) {
-            if (overrideCheck != null) {
-                throw new BadInputException("--override-check: bench " + b.name() + " has no check standard to override");
-            }
-            return;
-        }
-        Calibration corrections = new CalibrationStore(calibrationOption.calibration, b.name()).load();
-        Instant now = Instant.now();
-        String refusal = CheckStandardLog.gate(b, runsOption.runs, corrections, now);
-        CheckStandardLog log = new CheckStandardLog(runsOption.runs, b.name());
-        if (refusal == null) {
-            return;
-        }
-        if (overrideCheck == null || overrideCheck.isBlank()) {
-            throw new BadInputException("lot " + lot + " not started: " + refusal
-                    + " (or start anyway with --override-check REASON, recorded)");
-        }
-        Path record = log.override(now, lot, operatorName(), overrideCheck, refusal);
-        System.out.println("warning: starting although " + refusal + "; override recorded in " + record);
-    }
-
     @SuppressWarnings("try") // a resource held only for its close(): installed handlers, a running server
     private int runLot() throws Exception {
         if (serial != null || sim != null || reason != null) {
             throw new BadInputException("--lot-size runs the lot's sample: use --sim-lot for simulated parts, not"
                     + " --serial, --sim or --reason (a part is measured again at its prompt)");
         }
-        if (lotSize < 2) {
-            throw new BadInputException("--lot-size " + lotSize + ": ISO 2859-1 lots have at least 2 parts");
-        }
         if (reinspect != null && reinspect.isBlank()) {
             throw new BadInputException("--reinspect needs a reason, in words");
+        }
+        if (overrideCheck != null && overrideCheck.isBlank()) {
+            throw new BadInputException("--override-check needs a reason, in words");
         }
         if (Names.supplierProblem(supplier) != null) {
             throw new BadInputException("--" + Names.supplierProblem(supplier));
         }
-        BenchConfig b = benchOptions.load();
-        b = addresses.applyTo(b);
-        Plan p = Inputs.plan(plan, b);
-        if (p.sampling() == null) {
-            throw new BadInputException(plan + ": a lot run needs the plan's sampling section (level, AQL per class)");
-        }
-        Inputs.requireFit(p, b, benchOptions.loader());
-        checkGate(b);
+        BenchConfig b = addresses.applyTo(benchOptions.load());
         SimLot tray = null;
         List<String> serials = null;
         if (simLot != null) {
@@ -345,56 +289,49 @@ final class RunCommand implements Callable<Integer> {
             }
             serials = readSerials(traySerials);
         }
-        double qAt = ResultText.qFrequency(p);
-        PartRun.Request template = new PartRun.Request(p, Inputs.sha256(plan), b, lot, "-", tray != null, Home.version(),
-                new CalibrationStore(calibrationOption.calibration, b.name()).load());
-        DriverLoader drivers = benchOptions.loader();
+        LotStart.Request request = new LotStart.Request(plan, b, benchOptions.loader(), lot, lotSize, operatorName(),
+                supplier, reinspect, overrideCheck, tray != null, keepTraces(), new LotStart.Folders(
+                calibrationOption.calibration, runsOption.runs, tablesOption.tables), Home.version());
         LotStop stop = new LotStop();
         LotRunner.Outcome outcome;
         LotSummary summary;
         try (ResultStore store = location.open()) {
-            StoreLedger ledger = new StoreLedger(store, runsOption.runs, keepTraces());
-            LotRunner.Setup setup = LotRunner.Setup.of(template, lotSize, drivers, ledger).withOperator(operatorName())
-                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL).withStop(stop)
-                    .withScheme(LotScheme.of(supplier != null ? supplier : p.supplier(), tablesOption.tables));
-            if (reinspect != null) {
-                setup = setup.reinspecting(reinspect);
-            }
-            setup = LotRunner.resolved(setup);
+            LotStart.Ready ready = start(request, store);
+            LotRunner.Setup setup = ready.setup().withStop(stop);
             ResultText.severity(System.out, setup.scheme());
             ResultText.samplingPlans(System.out, lotSize, setup.sampling());
-            Integer closed = refuseOrReport(setup);
-            if (closed != null) {
-                return closed;
+            if (ready.isClosed()) {
+                return closed(ready.closed());
             }
-            List<Attempt> before = store.parts(lot);
-            long judged = before.stream().filter(Attempt::judged).count();
-            if (!before.isEmpty() && reinspect == null) {
-                System.out.println("resuming lot " + lot + ": " + judged + " part(s) already measured are not measured again");
+            if (ready.override() != null) {
+                System.out.println("warning: starting although " + ready.override() + "; override recorded in "
+                        + ready.overrideRecord());
             }
+            if (ready.alreadyMeasured() > 0 && reinspect == null) {
+                System.out.println("resuming lot " + lot + ": " + ready.alreadyMeasured()
+                        + " part(s) already measured are not measured again");
+            }
+            double qAt = ResultText.qFrequency(ready.plan());
             ResultText.tableHeader(System.out, qAt);
             Consumer<PartResult> row = r -> ResultText.tableRow(System.out, r, qAt);
             try (StopSignals signals = StopSignals.install(stop, lot, System.err);
-                 LotProgress progress = LotProgress.start((int) Math.max(0, setup.sampleSize() - judged),
-                         p.sweep().frequenciesHz().size())) {
+                 LotProgress progress = LotProgress.start(Math.max(0, setup.sampleSize() - ready.alreadyMeasured()),
+                         ready.plan().sweep().frequenciesHz().size())) {
                 setup = setup.withListener(progress);
                 if (tray != null) {
-                    outcome = runTray(setup, b, tray, row);
+                    outcome = TrayRun.simulated(setup, tray, row);
                 } else if (serials != null) {
-                    try (BenchInstruments inst = BenchInstruments.open(b, drivers, null, true)) {
-                        inst.switchUnit().prepare();
-                        outcome = LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(), serials), row);
-                    }
+                    outcome = TrayRun.switched(setup, serials, row);
                 } else {
                     PartFeeder feeder = new ConsoleFeeder(new BufferedReader(new InputStreamReader(System.in,
                                     StandardCharsets.UTF_8)), System.out);
                     outcome = LotRunner.run(setup, feeder, row);
                 }
             }
-            ledger.repairs().forEach(m -> System.out.println("repaired: " + m));
-            summary = LotSummaries.of(outcome, store.attempts(lot).size(), store.chainHead(lot));
+            ready.ledger().repairs().forEach(m -> System.out.println("repaired: " + m));
+            summary = LotEnd.summary(outcome, store);
         }
-        ResultFiles.writeJson(runsOption.runs.resolve(lot).resolve("lot-summary.json"), summary);
+        LotEnd.write(runsOption.runs, summary);
         System.out.println();
         ResultText.summary(System.out, summary);
         if (outcome.stopped()) {
@@ -408,16 +345,19 @@ final class RunCommand implements Callable<Integer> {
         };
     }
 
-    /**
-     * Before any instrument is touched: an open inspection under other terms is refused; a decided
-     * one is closed, so its disposition is printed, nothing is measured, and its exit code returned.
-     * Null when the run may go on.
-     */
-    private static Integer refuseOrReport(LotRunner.Setup setup) throws ProblemsException {
-        var i = LotRunner.preflight(setup);
-        if (i == null) {
-            return null;
+    /** The lot started through {@link LotStart}, its refusals in this command's own option names. */
+    private static LotStart.Ready start(LotStart.Request request, ResultStore store) throws Exception {
+        try {
+            return LotStart.prepare(request, store);
+        } catch (LotRefused e) {
+            String hint = e.kind() == LotRefused.Kind.CHECK_REFUSED
+                    ? " (or start anyway with --override-check REASON, recorded)" : "";
+            throw new BadInputException(e.getMessage() + hint);
         }
+    }
+
+    /** A decided lot is closed: its disposition is printed, nothing is measured, and its exit code returned. */
+    private static int closed(Inspection i) {
         System.out.printf("lot %s is closed: inspection %d was decided on %s: %s (%s).%nNothing was measured. To inspect"
                         + " it again, give --reinspect REASON; the earlier inspection is kept.%n", i.lot(), i.round(),
                 i.finishedAt(), i.disposition().toUpperCase(Locale.ROOT), i.dispositionReason());

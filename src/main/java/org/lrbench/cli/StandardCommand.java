@@ -95,7 +95,7 @@ final class StandardCommand implements Callable<Integer> {
         history.add(new ControlChart.Reading(reading.value(), reading.expandedUncertainty()));
         ControlChart.State state = ControlChart.of(history, cs.certifiedHenry(), cs.certifiedExpandedHenry(), cs.historyPoints());
         Path record = log.append(at, cs.serial(), planFile.toString(), reading.value(), reading.expandedUncertainty(),
-                r.verdict(), state);
+                r.verdict().word(), state);
         List<String> times = new ArrayList<>(before.stream().map(e -> e.at().toString()).toList());
         times.add(at.toString());
         double[] values = history.stream().mapToDouble(ControlChart.Reading::value).toArray();

@@ -5,7 +5,7 @@ import java.lang.reflect.Method;
 import java.lang.reflect.Proxy;
 import java.util.ArrayList;
 import java.util.List;
-import org.lrbench.run.LotStop;
+import org.lrbench.lot.LotStop;
 
 /**
  * SIGTERM and SIGINT (Ctrl-C) during a lot run: the run is asked to stop ({@link LotStop}); the

@@ -138,7 +138,7 @@ final class StoreCommands {
                             continue;
                         }
                         rows.add(List.of(String.valueOf(p.round()), String.valueOf(p.position()), p.serial(),
-                                String.valueOf(p.number()), counting.contains(p) ? "yes" : "no", p.verdict(),
+                                String.valueOf(p.number()), counting.contains(p) ? "yes" : "no", p.verdict().word(),
                                 full(p.inductanceH()), full(p.seriesResistanceOhm()), p.measuredAt(),
                                 p.operator() == null ? "-" : p.operator(), p.reason() == null ? "" : p.reason()));
                     }

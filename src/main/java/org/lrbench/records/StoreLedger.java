@@ -17,7 +17,7 @@ import org.lrbench.results.Inspection;
 import org.lrbench.results.LotTerms;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
-import org.lrbench.run.LotLedger;
+import org.lrbench.results.LotLedger;
 import org.lrbench.store.Canonical;
 import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.store.ResultStore;

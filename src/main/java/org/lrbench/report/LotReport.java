@@ -98,7 +98,7 @@ public final class LotReport {
         int i = 1;
         for (PartResult p : parts) {
             h.append("<tr><td>").append(i++).append("</td><td>").append(esc(p.serial())).append("</td><td class=\"")
-                    .append(esc(p.verdict())).append("\">").append(esc(p.verdict())).append("</td>")
+                    .append(esc(p.verdict().word())).append("\">").append(esc(p.verdict().word())).append("</td>")
                     .append(withU(p.inductanceH(), p.inductanceExpandedUncertaintyH(), Dimension.INDUCTANCE))
                     .append(withU(p.seriesResistanceOhm(), p.seriesResistanceExpandedUncertaintyOhm(), Dimension.RESISTANCE))
                     .append("<td>").append(esc(p.error() != null ? p.error() : String.join("; ", p.failedLimits())))
@@ -294,7 +294,7 @@ public final class LotReport {
                 h.append("<tr><td>").append(a.round()).append("</td><td>").append(a.position()).append("</td><td>")
                         .append(esc(a.serial())).append("</td><td>").append(a.number()).append("</td><td>")
                         .append(counting.contains(a) ? "yes" : "no (superseded)").append("</td><td class=\"")
-                        .append(esc(a.verdict())).append("\">").append(esc(a.verdict())).append("</td><td>")
+                        .append(esc(a.verdict().word())).append("\">").append(esc(a.verdict().word())).append("</td><td>")
                         .append(si(a.inductanceH(), Dimension.INDUCTANCE)).append("</td><td>")
                         .append(si(a.seriesResistanceOhm(), Dimension.RESISTANCE))
                         .append("</td><td>").append(esc(a.measuredAt())).append("</td><td>")
@@ -380,8 +380,8 @@ public final class LotReport {
                 mm[i] = z.abs();
                 pm[i] = Math.toDegrees(z.getArgument());
             }
-            h.append("<h3>").append(esc(p.serial())).append(" <span class=\"").append(esc(p.verdict())).append("\">")
-                    .append(esc(p.verdict())).append("</span></h3><img alt=\"impedance of ").append(esc(p.serial()))
+            h.append("<h3>").append(esc(p.serial())).append(" <span class=\"").append(esc(p.verdict().word())).append("\">")
+                    .append(esc(p.verdict().word())).append("</span></h3><img alt=\"impedance of ").append(esc(p.serial()))
                     .append("\" src=\"").append(Charts.impedance(p.serial(), f, mag, ph, fm, mm, pm)).append("\">\n");
         }
     }

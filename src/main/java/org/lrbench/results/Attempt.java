@@ -4,22 +4,23 @@ import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import org.lrbench.judge.Verdict;
 
 /**
  * One stored measurement of a part: its number among the lot's measurements of that serial
  * (1, 2, ...), the inspection round it belongs to, its position in that round's sample, who
  * measured it and, for a measurement repeated, why. Attempts are only ever added.
  */
-public record Attempt(String lot, String serial, int number, int round, int position, String verdict,
+public record Attempt(String lot, String serial, int number, int round, int position, Verdict verdict,
                       Double inductanceH, Double seriesResistanceOhm, String measuredAt, String operator,
                       String reason, String resultJson, String jsonFile, String tracesFile, Long tracesBytes) {
 
     public boolean judged() {
-        return verdict.equals("pass") || verdict.equals("fail");
+        return verdict.judged();
     }
 
     public boolean skipped() {
-        return verdict.equals("skipped");
+        return verdict == Verdict.SKIPPED;
     }
 
     /**

@@ -1,5 +1,7 @@
 package org.lrbench.results;
 
+import org.lrbench.judge.Verdict;
+
 import java.util.List;
 import java.util.Map;
 
@@ -10,7 +12,7 @@ import java.util.Map;
  */
 public record PartResult(String schema, String programVersion, String lot, String serial, String partNumber,
                          String planPath, String planSha256, String bench, boolean simulated,
-                         String startedAt, String finishedAt, String verdict, String error,
+                         String startedAt, String finishedAt, Verdict verdict, String error,
                          List<String> failedLimits, List<String> warnings,
                          Double inductanceH, Double inductanceUncertaintyH, Double inductanceExpandedUncertaintyH,
                          Double seriesResistanceOhm, Double seriesResistanceUncertaintyOhm,

@@ -74,7 +74,7 @@ final class ResultRecord {
         return new PartResult(PartResult.SCHEMA, request.programVersion(), request.lot(), request.serial(),
                 request.plan().partNumber(), request.plan().source(), request.planSha256(), request.bench().name(),
                 request.simulated(), started.truncatedTo(ChronoUnit.MILLIS).toString(),
-                finished.truncatedTo(ChronoUnit.MILLIS).toString(), verdict.word(), error, failed,
+                finished.truncatedTo(ChronoUnit.MILLIS).toString(), verdict, error, failed,
                 have ? analysis.warnings() : List.of(),
                 have ? l.value() : null, have ? l.standardUncertainty() : null, have ? l.expandedUncertainty() : null,
                 have ? r.value() : null, have ? r.standardUncertainty() : null, have ? r.expandedUncertainty() : null,

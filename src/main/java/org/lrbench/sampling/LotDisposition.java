@@ -23,7 +23,14 @@ public final class LotDisposition {
     }
 
     /** Where a lot stands. */
-    public enum State { ACCEPT, REJECT, OPEN }
+    public enum State {
+        ACCEPT, REJECT, OPEN;
+
+        /** The state as records and the service write it: accept, reject, open. */
+        public String word() {
+            return name().toLowerCase(java.util.Locale.ROOT);
+        }
+    }
 
     /** The counts of one class against its plan. */
     public record ClassCount(String characteristicClass, SamplingPlan plan, int measured, int nonconforming, State state) {

@@ -3,10 +3,8 @@ package org.lrbench.service;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.security.MessageDigest;
 import java.time.Instant;
 import java.util.ArrayList;
-import java.util.HexFormat;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
@@ -15,21 +13,19 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
+import org.lrbench.lot.LotRefused;
+import org.lrbench.lot.LotRunner;
+import org.lrbench.lot.LotStart;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
 import org.lrbench.records.CheckStandardLog;
-import org.lrbench.records.StoreLedger;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.PartResult;
-import org.lrbench.run.LotRunner;
-import org.lrbench.run.LotScheme;
-import org.lrbench.sampling.SwitchingRules;
-import org.lrbench.run.PartRun;
 import org.lrbench.sampling.LotDisposition;
+import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.sim.SimLot;
 import org.lrbench.store.ResultStore;
 import org.lrbench.yaml.ProblemsException;
@@ -161,15 +157,6 @@ public final class BenchService implements AutoCloseable {
                     + "; stop it or wait for it to end");
         }
         Path planFile = inside(config.plans(), q.plan(), "plan");
-        Plan plan;
-        try {
-            plan = PlanLoader.load(planFile, bench.maxAmplitudeVolt());
-        } catch (ProblemsException e) {
-            throw new ServiceException(400, "plan: " + e.getMessage());
-        }
-        if (plan.sampling() == null) {
-            throw new ServiceException(400, "plan: " + q.plan() + " has no sampling section; a lot run needs one");
-        }
         if (q.tray() == null && "sim".equals(bench.generator().address().scheme())) {
             throw new ServiceException(400, "tray: this bench is the simulated one; choose a simulated tray (the"
                     + " parts the scanner picks from), such as demo-lot.yaml");
@@ -182,54 +169,42 @@ public final class BenchService implements AutoCloseable {
                 throw new ServiceException(400, "tray: " + e.getMessage());
             }
         }
-        // a bench with a check standard starts a lot only while the check is in control and recent
-        String refusal = CheckStandardLog.gate(bench, config.runs(),
-                new CalibrationStore(config.calibration(), bench.name()).load(), Instant.now());
-        if (refusal != null && q.overrideCheckReason() == null) {
-            throw new ServiceException(409, "lot " + q.lot() + " not started: " + refusal
-                    + " (start anyway with override_check_reason, recorded with the operator's name)");
-        }
-        if (refusal != null) {
-            new CheckStandardLog(config.runs(), bench.name()).override(Instant.now(), q.lot(), q.operator(),
-                    q.overrideCheckReason(), refusal);
-        }
-        String sha = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(planFile)));
-        PartRun.Request template = new PartRun.Request(plan, sha, bench, q.lot(), "-", tray != null,
-                config.programVersion(), new CalibrationStore(config.calibration(), bench.name()).load());
+        LotStart.Request request = new LotStart.Request(planFile, bench, new DriverLoader(config.drivers()), q.lot(),
+                q.lotSize(), q.operator(), q.supplier(), q.reinspectReason(), q.overrideCheckReason(), tray != null, true,
+                new LotStart.Folders(config.calibration(), config.runs(), config.samplingTables()), config.programVersion());
         ResultStore store = openStore();
-        Run r = new Run(q.lot(), q.plan());
-        LotRunner.Setup setup;
+        LotStart.Ready ready;
         try {
-            setup = LotRunner.Setup.of(template, q.lotSize(), new DriverLoader(config.drivers()),
-                    new StoreLedger(store, config.runs(), true)).withOperator(q.operator())
-                    .withSleeper(tray != null ? Sleeper.NONE : Sleeper.REAL)
-                    .withScheme(LotScheme.of(q.supplier() != null ? q.supplier() : plan.supplier(), config.samplingTables()));
-            if (q.reinspectReason() != null) {
-                setup = setup.reinspecting(q.reinspectReason());
-            }
-            setup = LotRunner.resolved(setup);
-            Inspection closed = LotRunner.preflight(setup);
-            if (closed != null) {
-                throw new ServiceException(409, "lot " + closed.lot() + " is closed: inspection " + closed.round()
-                        + " was decided on " + closed.finishedAt() + ": " + closed.disposition().toUpperCase(Locale.ROOT)
-                        + " (" + closed.dispositionReason() + "). Nothing was measured; to inspect it again give"
-                        + " reinspect_reason");
-            }
-        } catch (LotRunner.Refused e) {
+            ready = LotStart.prepare(request, store);
+        } catch (LotRefused e) {
             store.close();
-            throw new ServiceException(409, e.getMessage());
+            throw switch (e.kind()) {
+                case BAD_INPUT -> new ServiceException(400, e.getMessage());
+                case CONFLICT -> new ServiceException(409, e.getMessage());
+                case CHECK_REFUSED -> new ServiceException(409, e.getMessage()
+                        + " (start anyway with override_check_reason, recorded with the operator's name)");
+            };
         } catch (ProblemsException e) {
             store.close();
-            throw new ServiceException(409, "sampling table: " + e.getMessage());
-        } catch (RuntimeException e) {
+            throw new ServiceException(400, e.getMessage());
+        } catch (IOException | RuntimeException e) {
             store.close();
             throw e;
         }
+        if (ready.isClosed()) {
+            store.close();
+            Inspection closed = ready.closed();
+            throw new ServiceException(409, "lot " + closed.lot() + " is closed: inspection " + closed.round()
+                    + " was decided on " + closed.finishedAt() + ": " + closed.disposition().toUpperCase(Locale.ROOT)
+                    + " (" + closed.dispositionReason() + "). Nothing was measured; to inspect it again give"
+                    + " reinspect_reason");
+        }
+        LotRunner.Setup setup = ready.setup();
+        Run r = new Run(q.lot(), q.plan());
         PromptFeeder feeder = new PromptFeeder(r.events, tray);
         r.feeder = feeder;
         r.sampleSize = setup.sampleSize();
-        List<Attempt> before = store.parts(q.lot());
-        r.partsDone = (int) before.stream().filter(Attempt::judged).count();
+        r.partsDone = ready.alreadyMeasured();
         current = r;
         SweepListener points = new SweepListener() {
             @Override

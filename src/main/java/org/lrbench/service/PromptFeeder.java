@@ -4,7 +4,7 @@ import org.lrbench.bench.SimulatedPart;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import org.lrbench.results.Names;
-import org.lrbench.run.PartFeeder;
+import org.lrbench.lot.PartFeeder;
 import org.lrbench.sim.SimLot;
 
 /**

@@ -39,7 +39,7 @@ public final class Canonical {
 
     public static String attempt(Attempt x, String programVersion, String tracesSha256) {
         ArrayNode a = COMPACT.createArrayNode().add("attempt").add(x.lot()).add(x.serial()).add(x.number()).add(x.round())
-                .add(x.position()).add(x.verdict());
+                .add(x.position()).add(x.verdict().word());
         a.add(x.inductanceH()).add(x.seriesResistanceOhm()).add(x.measuredAt()).add(programVersion).add(x.operator())
                 .add(x.reason()).add(sha256(x.resultJson())).add(x.jsonFile()).add(x.tracesFile());
         a.add(x.tracesBytes()).add(tracesSha256);

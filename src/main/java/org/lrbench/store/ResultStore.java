@@ -19,6 +19,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
+import org.lrbench.judge.Verdict;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotTerms;
@@ -654,7 +655,7 @@ public final class ResultStore implements AutoCloseable {
                     p.setInt(3, a.number());
                     p.setInt(4, a.round());
                     p.setInt(5, a.position());
-                    p.setString(6, a.verdict());
+                    p.setString(6, a.verdict().word());
                     p.setObject(7, a.inductanceH());
                     p.setObject(8, a.seriesResistanceOhm());
                     p.setString(9, a.measuredAt());
@@ -731,7 +732,7 @@ public final class ResultStore implements AutoCloseable {
         if (r.wasNull()) {
             bytes = null;
         }
-        return new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5), r.getString(6),
+        return new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5), verdict(r, 6),
                 real(r, 7), real(r, 8), r.getString(9), r.getString(10), r.getString(11), r.getString(12),
                 r.getString(13), traces, bytes);
     }
@@ -817,7 +818,7 @@ public final class ResultStore implements AutoCloseable {
         if (r.wasNull()) {
             bytes = null;
         }
-        return new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5), r.getString(6),
+        return new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5), verdict(r, 6),
                 real(r, 7), real(r, 8), r.getString(9), r.getString(10), r.getString(11), r.getString(12),
                 r.getString(13), r.getString(14), bytes);
     }
@@ -878,7 +879,7 @@ public final class ResultStore implements AutoCloseable {
             try (ResultSet r = q.executeQuery()) {
                 while (r.next()) {
                     Attempt a = new Attempt(r.getString(1), r.getString(2), r.getInt(3), r.getInt(4), r.getInt(5),
-                            r.getString(6), real(r, 7), real(r, 8), r.getString(9), null, null, null, null, null, null);
+                            verdict(r, 6), real(r, 7), real(r, 8), r.getString(9), null, null, null, null, null, null);
                     out.computeIfAbsent(a.lot() + "\n" + a.round(), k -> new ArrayList<>()).add(a);
                 }
             }
@@ -888,10 +889,10 @@ public final class ResultStore implements AutoCloseable {
 
     private static LotRecord record(Inspection i, List<Attempt> all) {
         List<Attempt> counting = Attempt.counting(all);
-        int passed = count(counting, "pass");
-        int failed = count(counting, "fail");
-        int errors = count(counting, "error");
-        int skipped = count(counting, "skipped");
+        int passed = count(counting, Verdict.PASS);
+        int failed = count(counting, Verdict.FAIL);
+        int errors = count(counting, Verdict.ERROR);
+        int skipped = count(counting, Verdict.SKIPPED);
         LotTerms t = i.terms();
         return new LotRecord(t.lot(), i.round(), t.partNumber(), t.planPath(), t.planSha256(), t.bench(), t.lotSize(),
                 t.sampleSize(), t.sampling(), t.operator(), i.reason(), i.createdAt(), i.disposition(),
@@ -899,8 +900,8 @@ public final class ResultStore implements AutoCloseable {
                 t.supplier(), t.severity(), t.severityReason());
     }
 
-    private static int count(List<Attempt> as, String verdict) {
-        return (int) as.stream().filter(a -> a.verdict().equals(verdict)).count();
+    private static int count(List<Attempt> as, Verdict verdict) {
+        return (int) as.stream().filter(a -> a.verdict() == verdict).count();
     }
 
     /**
@@ -918,7 +919,7 @@ public final class ResultStore implements AutoCloseable {
                 }
                 List<Attempt> judged = Attempt.counting(byRound.getOrDefault(i.lot() + "\n" + i.round(), List.of()))
                         .stream().filter(Attempt::judged).toList();
-                int passed = count(judged, "pass");
+                int passed = count(judged, Verdict.PASS);
                 out.add(stats(i, judged, passed));
             }
         } catch (SQLException e) {
@@ -947,6 +948,17 @@ public final class ResultStore implements AutoCloseable {
         }
         double m = mean(xs);
         return Math.sqrt(Arrays.stream(xs).map(x -> (x - m) * (x - m)).sum() / (xs.length - 1));
+    }
+
+    /** A stored verdict; a word no lrbench writes is a store fault naming it, never a guess. */
+    private static Verdict verdict(ResultSet r, int column) throws SQLException {
+        String word = r.getString(column);
+        try {
+            return Verdict.of(word);
+        } catch (IllegalArgumentException e) {
+            throw new StoreException("an attempt's stored " + e.getMessage() + " (the store was changed outside lrbench;"
+                    + " run lrbench verify)", e);
+        }
     }
 
     private static Double real(ResultSet r, int column) throws SQLException {

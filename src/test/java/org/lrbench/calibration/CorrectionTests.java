@@ -1,5 +1,7 @@
 package org.lrbench.calibration;
 
+import org.lrbench.judge.Verdict;
+
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
@@ -234,7 +236,7 @@ class CorrectionTests {
             Calibration fromOther = CalibrationRun.calibrate(other, inst, sim::setPosition, Sleeper.NONE);
             PartResult r = PartRun.measure(new PartRun.Request(plan, "0", bench, "L", "S", true, "t", fromOther), inst,
                     Sleeper.NONE, SweepListener.NONE);
-            assertThat(r.verdict()).isEqualTo("error");
+            assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
             assertThat(r.error()).contains("could not be fitted").contains("has no reading at");
             assertThat(r.limits()).isEmpty();
         }

@@ -16,6 +16,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
+import org.lrbench.judge.Verdict;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.measure.PointResult;
@@ -155,7 +156,7 @@ class RecordsTests {
                         m -> assertThat(m).contains("never replaced")));
         try (ResultStore s = ResultStore.open(dir.resolve("s.db"))) {
             assertThat(s.attempts("L1")).singleElement().extracting(Attempt::verdict)
-                    .isEqualTo(winners.get(0).equals("A") ? "pass" : "fail");
+                    .isEqualTo(winners.get(0).equals("A") ? Verdict.PASS : Verdict.FAIL);
             assertThat(RecordCheck.findings(s, runs, "L1")).isEmpty();
         }
         try (var files = Files.list(runs.resolve("L1"))) {

@@ -12,9 +12,9 @@ import org.jsoup.nodes.Element;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
-import org.lrbench.run.LotRunTests;
-import org.lrbench.run.LotRunner;
-import org.lrbench.run.TrayFeeder;
+import org.lrbench.lot.LotRunTests;
+import org.lrbench.lot.LotRunner;
+import org.lrbench.lot.TrayFeeder;
 import org.lrbench.sim.SimLot;
 import org.lrbench.results.Attempt;
 import org.lrbench.store.ResultStore;
@@ -91,7 +91,7 @@ class LotReportTests {
                 Attempt p = stored.get(i);
                 var cells = rows.get(i + 1).select("td");
                 assertThat(cells.get(1).text()).isEqualTo(p.serial());
-                assertThat(cells.get(2).text()).isEqualTo(p.verdict());
+                assertThat(cells.get(2).text()).isEqualTo(p.verdict().word());
                 assertThat(Double.parseDouble(cells.get(3).attr("data-value"))).isCloseTo(p.inductanceH(), within(1e-12 * p.inductanceH()));
                 // shown with its prefix, unit and expanded uncertainty
                 assertThat(cells.get(3).text()).matches("[0-9.]+ ± [0-9.]+ [mu]H");

@@ -1,5 +1,7 @@
 package org.lrbench.run;
 
+import org.lrbench.judge.Verdict;
+
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.mockito.ArgumentMatchers.any;
 import static org.mockito.ArgumentMatchers.anyDouble;
@@ -72,7 +74,7 @@ class OutputSafetyTests {
         PartResult r = PartRun.measure(request(plan), new BenchInstruments(gen, dig, List.of()), Sleeper.NONE,
                 SweepListener.NONE);
 
-        assertThat(r.verdict()).isEqualTo("error");
+        assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
         assertThat(r.error()).contains("link lost");
         assertThat(r.inductanceH()).isNull();
         InOrder order = inOrder(gen);
@@ -106,7 +108,7 @@ class OutputSafetyTests {
         Plan plan = PlanLoader.parse(PLAN, "t.yaml", 5.0);
         PartResult r = PartRun.measure(request(plan), new BenchInstruments(flaky, bench.digitizer, List.of()),
                 Sleeper.NONE, SweepListener.NONE);
-        assertThat(r.verdict()).isEqualTo("error");
+        assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
         assertThat(r.error()).contains("could not switch the generator output off");
     }
 
@@ -119,7 +121,7 @@ class OutputSafetyTests {
                 .replace("cycles: 10", "cycles: 10, samples_per_cycle: 200"), "t.yaml", 5.0);
         PartResult r = PartRun.measure(request(plan), new BenchInstruments(bench.generator, bench.digitizer, List.of()),
                 Sleeper.NONE, SweepListener.NONE);
-        assertThat(r.verdict()).isEqualTo("error");
+        assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
         // the digitizer refuses the interval (SCPI -222), and that fault is reported as the error
         assertThat(r.error()).contains("TINTerval").contains("-222");
         assertThat(bench.sim.generator().isOutputOn()).isFalse();

@@ -1,5 +1,7 @@
 package org.lrbench.run;
 
+import org.lrbench.judge.Verdict;
+
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
@@ -56,10 +58,10 @@ class ResonanceTests {
         assertThat(below.error()).isNull();
         assertThat(below.inductanceH()).isCloseTo(100e-3, within(1e-3));
         assertThat(below.selfResonanceHz()).isNotNull().isCloseTo(64.97e3, within(1.3e3));
-        assertThat(below.verdict()).isEqualTo("pass");
+        assertThat(below.verdict()).isEqualTo(Verdict.PASS);
         // the same part against a minimum above its resonance fails on the measured resonance
         PartResult above = measure(100e3);
-        assertThat(above.verdict()).isEqualTo("fail");
+        assertThat(above.verdict()).isEqualTo(Verdict.FAIL);
         assertThat(above.failedLimits()).singleElement().asString().contains("resonance");
     }
 }

@@ -1,5 +1,6 @@
 package org.lrbench.store;
 
+import org.lrbench.judge.Verdict;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import static org.assertj.core.api.Assertions.within;
@@ -28,7 +29,7 @@ public class ResultStoreTests {
 
     static PartResult part(String lot, String serial, String verdict, double l, double r) {
         return new PartResult(PartResult.SCHEMA, "t", lot, serial, "P-1", "p.yaml", "ab".repeat(32), "b", true,
-                "2026-12-01T00:00:00Z", "2026-12-01T00:00:01Z", verdict, verdict.equals("error") ? "lost" : null,
+                "2026-12-01T00:00:00Z", "2026-12-01T00:00:01Z", Verdict.of(verdict), verdict.equals("error") ? "lost" : null,
                 List.of(), List.of(), l, 1e-6, 2e-6, r, 0.01, 0.02, null, 1e6, Map.of(), null, null, null, null,
                 List.of(), List.of(), Map.of(), Map.of(), null);
     }
@@ -67,9 +68,9 @@ public class ResultStoreTests {
             // "test until it passes" leaves its trace: the failing attempt stays, the re-measure has its reason
             store(s, 1, 2, 2, part("L1", "S2", "pass"), "bad contact seen");
             assertThat(s.attempts("L1")).extracting(Attempt::serial, Attempt::number, Attempt::verdict)
-                    .containsExactly(Tuple.tuple("S1", 1, "pass"),
-                            Tuple.tuple("S2", 1, "fail"),
-                            Tuple.tuple("S2", 2, "pass"));
+                    .containsExactly(Tuple.tuple("S1", 1, Verdict.PASS),
+                            Tuple.tuple("S2", 1, Verdict.FAIL),
+                            Tuple.tuple("S2", 2, Verdict.PASS));
             assertThat(s.parts("L1")).extracting(Attempt::serial, Attempt::number)
                     .containsExactly(Tuple.tuple("S1", 1), Tuple.tuple("S2", 2));
             // an attempt number is taken once: a second writer of attempt 2 is refused, nothing replaced

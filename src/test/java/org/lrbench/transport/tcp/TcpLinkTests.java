@@ -1,5 +1,7 @@
 package org.lrbench.transport.tcp;
 
+import org.lrbench.judge.Verdict;
+
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
@@ -78,7 +80,7 @@ class TcpLinkTests {
         PartResult local = measure(b, p, simBench(b, p));
         try (SimServer server = new SimServer(simBench(b, p), 0)) {
             PartResult remote = measure(b.withAddresses(tcp(server.generatorPort()), tcp(server.digitizerPort())), p, null);
-            assertThat(remote.verdict()).isEqualTo("pass");
+            assertThat(remote.verdict()).isEqualTo(Verdict.PASS);
             assertThat(remote.inductanceH()).isEqualTo(local.inductanceH());
             assertThat(remote.seriesResistanceOhm()).isEqualTo(local.seriesResistanceOhm());
             assertThat(remote.points()).isEqualTo(local.points());
@@ -94,7 +96,7 @@ class TcpLinkTests {
              DroppingProxy proxy = new DroppingProxy(server.digitizerPort(), "TRACe:DATA?", 700)) {
             PartResult r = measure(b.withAddresses(tcp(server.generatorPort()), tcp(proxy.port())), p, null);
             assertThat(proxy.hasDropped()).isTrue();
-            assertThat(r.verdict()).isEqualTo("error");
+            assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
             assertThat(r.error()).contains("digitizer").contains("TRACe:DATA? CH");
             assertThat(sim.generator().isOutputOn()).isFalse();
         }
@@ -110,7 +112,7 @@ class TcpLinkTests {
              DroppingProxy proxy = new DroppingProxy(server.generatorPort(), "FREQuency:FIXed 9.28", 0)) {
             PartResult r = measure(b.withAddresses(tcp(proxy.port()), tcp(server.digitizerPort())), p, null);
             assertThat(proxy.hasDropped()).isTrue();
-            assertThat(r.verdict()).isEqualTo("error");
+            assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
             assertThat(r.error()).contains("generator");
             // the output was on when the link dropped; the guard reconnected and switched it off
             assertThat(sim.generator().isOutputOn()).isFalse();

@@ -1,4 +1,6 @@
-package org.lrbench.run;
+package org.lrbench.lot;
+
+import org.lrbench.run.PartRun;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
@@ -52,7 +54,7 @@ class SwitchingLotTests {
             assertThat(scheme.why()).contains("A1").contains("A2");
 
             // lrbench carries no Table II-B: the next lot is refused before anything is stored
-            assertThatThrownBy(() -> run(lot(store, dir, "A3", "Halvern"), tray)).isInstanceOf(LotRunner.Refused.class)
+            assertThatThrownBy(() -> run(lot(store, dir, "A3", "Halvern"), tray)).isInstanceOf(LotRefused.class)
                     .hasMessageContaining("tightened inspection").hasMessageContaining("II-B");
             assertThat(store.latestInspection("A3")).isEmpty();
 
@@ -89,7 +91,7 @@ class SwitchingLotTests {
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
             store.decideScheme("QFD-IND-1M0", "", Severity.DISCONTINUED, "supplier's process changed without notice",
                     "qa", true, "2026-01-01T00:00:00Z");
-            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRunner.Refused.class)
+            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRefused.class)
                     .hasMessageContaining("discontinued").hasMessageContaining("supplier's process changed");
             assertThat(store.latestInspection("D1")).isEmpty();
             // without override the rules allow only a restart at tightened from here (ISO 2859-1:1999 9.4)
@@ -98,7 +100,7 @@ class SwitchingLotTests {
             store.decideScheme("QFD-IND-1M0", "", Severity.TIGHTENED, "supplier's corrective action 8D-17 verified", "qa",
                     false, "2026-01-03T00:00:00Z");
             assertThat(store.schemeHistory("QFD-IND-1M0", "")).hasSize(2);
-            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRunner.Refused.class)
+            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRefused.class)
                     .hasMessageContaining("II-B");
         }
     }

@@ -1,4 +1,4 @@
-package org.lrbench.run;
+package org.lrbench.lot;
 
 import static org.assertj.core.api.Assertions.assertThat;
 

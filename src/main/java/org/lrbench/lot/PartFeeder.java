@@ -1,4 +1,4 @@
-package org.lrbench.run;
+package org.lrbench.lot;
 
 import java.util.Set;
 import org.lrbench.bench.SimulatedPart;

@@ -1,4 +1,8 @@
-package org.lrbench.run;
+package org.lrbench.lot;
+
+import org.lrbench.run.PartRun;
+import org.lrbench.run.BenchInstruments;
+import org.lrbench.results.LotLedger;
 
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
@@ -20,6 +24,7 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.CharacteristicClass;
 import org.lrbench.judge.Limit;
+import org.lrbench.judge.Verdict;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Sleeper;
 import org.lrbench.measure.SweepListener;
@@ -124,19 +129,10 @@ public final class LotRunner {
     private LotRunner() {
     }
 
-    /** A lot run refused before anything was measured: other terms, or a re-inspection of an open lot. */
-    public static final class Refused extends RuntimeException {
-        private static final long serialVersionUID = 1L;
-
-        Refused(String message) {
-            super(message);
-        }
-    }
-
     /**
      * What a lot run would do, checked before any instrument is touched: returns the decided
      * inspection when the lot is closed (the run measures nothing), or null when the run may go on.
-     * Throws {@link Refused} for an open inspection under other terms (naming each stored and given
+     * Throws {@link LotRefused} for an open inspection under other terms (naming each stored and given
      * term) or a re-inspection asked for while the inspection is open.
      */
     public static Inspection preflight(Setup setup) throws ProblemsException {
@@ -148,12 +144,12 @@ public final class LotRunner {
         Inspection i = latest.get();
         if (!i.decided()) {
             if (s.reinspectReason() != null) {
-                throw new Refused("lot " + i.lot() + ": inspection " + i.round() + " is still open; finish it before"
+                throw new LotRefused(LotRefused.Kind.CONFLICT, "lot " + i.lot() + ": inspection " + i.round() + " is still open; finish it before"
                         + " re-inspecting");
             }
             List<String> diff = i.terms().differences(s.terms());
             if (!diff.isEmpty()) {
-                throw new Refused("lot " + i.lot() + " was started on " + i.createdAt() + " under other terms: "
+                throw new LotRefused(LotRefused.Kind.CONFLICT, "lot " + i.lot() + " was started on " + i.createdAt() + " under other terms: "
                         + String.join("; ", diff) + ". Continue it with its own terms, or use another lot number");
             }
             return null;
@@ -220,7 +216,7 @@ public final class LotRunner {
                 continue;
             }
             String reason = next.reason();
-            if (reason == null && before != null && before.verdict().equals("error")) {
+            if (reason == null && before != null && before.verdict() == Verdict.ERROR) {
                 reason = "measured again: attempt " + before.number() + " ended in error";
             }
             while (true) {
@@ -242,7 +238,7 @@ public final class LotRunner {
                 kept.add(a);
                 onPart.accept(r);
                 stop.waiting((int) Attempt.counting(s.ledger().attempts(lot, round)).stream().filter(Attempt::judged).count(), n);
-                reason = feeder.again(r.serial(), r.verdict());
+                reason = feeder.again(r.serial(), r.verdict().word());
                 stop.working();
                 if (stop.requested()) {
                     stopped = true;
@@ -329,7 +325,7 @@ public final class LotRunner {
         } else {
             SwitchingRules.State st = s.ledger().scheme(plan.partNumber(), sc.supplier());
             if (st.severity() == Severity.DISCONTINUED) {
-                throw new Refused("inspection of " + plan.partNumber() + schemeName(sc) + " is discontinued: " + st.why()
+                throw new LotRefused(LotRefused.Kind.CONFLICT, "inspection of " + plan.partNumber() + schemeName(sc) + " is discontinued: " + st.why()
                         + ". A new lot starts only after a recorded decision restarts inspection (lrbench scheme "
                         + plan.partNumber() + " --set tightened --reason ...)");
             }
@@ -340,7 +336,7 @@ public final class LotRunner {
         if (sev != Severity.NORMAL) {
             String file = SeverityTableLoader.fileName(sev);
             table = (sc.tables() == null ? Optional.<SeverityTable>empty() : SeverityTableLoader.find(sc.tables(), sev))
-                    .orElseThrow(() -> new Refused("lot " + s.template().lot() + " is to be inspected under " + sev.word()
+                    .orElseThrow(() -> new LotRefused(LotRefused.Kind.CONFLICT, "lot " + s.template().lot() + " is to be inspected under " + sev.word()
                             + " inspection (" + why + "), whose plans come from ISO 2859-1 Table "
                             + (sev == Severity.TIGHTENED ? "II-B" : "II-C") + ". lrbench does not carry that table: put the"
                             + " lab's transcription in " + (sc.tables() == null ? "the sampling folder" : sc.tables())
@@ -382,7 +378,7 @@ public final class LotRunner {
     private static PartResult skipped(PartRun.Request t, String serial) {
         String now = Instant.now().truncatedTo(ChronoUnit.MILLIS).toString();
         return new PartResult(PartResult.SCHEMA, t.programVersion(), t.lot(), serial, t.plan().partNumber(),
-                t.plan().source(), t.planSha256(), t.bench().name(), t.simulated(), now, now, "skipped",
+                t.plan().source(), t.planSha256(), t.bench().name(), t.simulated(), now, now, Verdict.SKIPPED,
                 "skipped by the operator: not measured", List.of(), List.of(), null, null, null, null, null, null,
                 null, null, Map.of(), null, null, null, null, List.of(), List.of(), Map.of(), Map.of(), null);
     }

@@ -1,4 +1,6 @@
-package org.lrbench.run;
+package org.lrbench.lot;
+
+import org.lrbench.run.PartRun;
 
 import org.lrbench.bench.SimulatedPart;
 import static org.assertj.core.api.Assertions.assertThat;
@@ -115,7 +117,7 @@ public class LotRunTests {
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
             LotRunner.run(setup(store, dir), stoppingAfter(new TrayFeeder(SimulatedPart.tray(tray.parts())), 2), r -> { });
             // a half-measured lot resumed with a smaller lot size (n = 2, Ac 0 by ISO 2859-1) is refused
-            assertThatThrownBy(() -> LotRunner.preflight(setup(store, dir, 5))).isInstanceOf(LotRunner.Refused.class)
+            assertThatThrownBy(() -> LotRunner.preflight(setup(store, dir, 5))).isInstanceOf(LotRefused.class)
                     .hasMessageContaining("lot size: stored 40, given 5");
             assertThatThrownBy(() -> LotRunner.run(setup(store, dir, 5), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { }))
                     .hasMessageContaining("lot size: stored 40, given 5");

@@ -1,4 +1,4 @@
-package org.lrbench.run;
+package org.lrbench.results;
 
 import org.lrbench.fixture.FixtureWiring;
 import java.io.IOException;

@@ -1,4 +1,4 @@
-package org.lrbench.run;
+package org.lrbench.lot;
 
 import java.nio.file.Path;
 import org.lrbench.results.Names;
