@@ -8,7 +8,7 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.InstrumentLink;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
@@ -80,7 +80,7 @@ public final class AccuracyBenchmark {
             SimBench sim = new SimBench(base.withSeed(1000 + k), rs, new PartModel(l, r, 0));
             List<PointResult> points;
             try (BenchInstruments inst = BenchInstruments.open(b, loader, sim)) {
-                points = new SweepRunner(inst.generator(), inst.digitizer(), Sleeper.NONE).run(plan, SweepListener.NONE)
+                points = new SweepRunner(inst.generator(), inst.digitizer(), BenchClock.NONE).run(plan, SweepListener.NONE)
                         .points();
             }
             for (int i = 0; i < nf; i++) {

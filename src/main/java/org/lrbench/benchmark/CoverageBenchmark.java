@@ -11,7 +11,7 @@ import org.lrbench.analysis.LumpedModel;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverLoader;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -158,13 +158,13 @@ public final class CoverageBenchmark {
         SimBench calBench = new SimBench(cal.simulation(), plan.wiring(), part);
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(cal, loader, calBench)) {
-            corrections = CalibrationRun.calibrate(plan, inst, calBench::setPosition, Sleeper.NONE);
+            corrections = CalibrationRun.calibrate(plan, inst, calBench::setPosition, BenchClock.NONE);
         }
         BenchConfig meas = b.withSimulation(b.simulation().withSeed(seed + 1));
         SimBench sim = new SimBench(meas.simulation(), plan.wiring(), part);
         try (BenchInstruments inst = BenchInstruments.open(meas, loader, sim)) {
             return PartRun.measure(new PartRun.Request(plan, "0", meas, "COV", "S" + seed, true, "benchmark", corrections),
-                    inst, Sleeper.NONE, SweepListener.NONE);
+                    inst, BenchClock.NONE, SweepListener.NONE);
         }
     }
 }

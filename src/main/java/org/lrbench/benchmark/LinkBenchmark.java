@@ -18,7 +18,7 @@ import java.util.Locale;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
@@ -131,7 +131,7 @@ public final class LinkBenchmark {
                 start[0] = System.nanoTime();
                 long q0 = queries(inst);
                 long io0 = io(inst);
-                PartResult r = PartRun.measure(req, inst, Sleeper.NONE, listener);
+                PartResult r = PartRun.measure(req, inst, BenchClock.NONE, listener);
                 out.printf(Locale.ROOT, "sweep of %s over loopback TCP: %d points, verdict %s%n",
                         plan.partNumber(), marks.size(), r.verdict());
                 long prevQ = -1;

@@ -14,7 +14,7 @@ import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.Settle;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
@@ -140,7 +140,7 @@ public final class ThroughputBenchmark {
             SimBench calBench = new SimBench(bench.simulation(), p.wiring(), lot.parts().get(0).model());
             Calibration corrections;
             try (BenchInstruments inst = BenchInstruments.open(bench, loader, calBench)) {
-                corrections = CalibrationRun.calibrate(p, inst, calBench::setPosition, Sleeper.NONE);
+                corrections = CalibrationRun.calibrate(p, inst, calBench::setPosition, BenchClock.NONE);
             }
             List<String> v = new ArrayList<>();
             int i = 0;
@@ -149,7 +149,7 @@ public final class ThroughputBenchmark {
                 SimBench sim = new SimBench(b.simulation(), p.wiring(), part.model());
                 try (BenchInstruments inst = BenchInstruments.open(b, loader, sim)) {
                     PartResult r = PartRun.measure(new PartRun.Request(p, "0", b, lot.lot(), part.serial(), true,
-                            "benchmark", corrections), inst, Sleeper.NONE, SweepListener.NONE);
+                            "benchmark", corrections), inst, BenchClock.NONE, SweepListener.NONE);
                     // the verdict and which limits failed (their values differ a little between methods)
                     List<String> failed = r.limits().stream().filter(l -> !l.pass()).map(PartResult.LimitRecord::name).toList();
                     v.add(r.verdict() + (failed.isEmpty() ? "" : " (" + String.join(", ", failed) + ")"));
@@ -220,7 +220,7 @@ public final class ThroughputBenchmark {
         PartRun.Request req = new PartRun.Request(plan, "0", b, "THROUGHPUT", "T-1", true, "benchmark");
         long q0 = queries(inst);
         long t0 = System.nanoTime();
-        PartResult r = PartRun.measure(req, inst, Sleeper.REAL, listener);
+        PartResult r = PartRun.measure(req, inst, BenchClock.REAL, listener);
         double seconds = (System.nanoTime() - t0) / 1e9;
         double minimum = 0;
         if (plan.sweep().multisine() && !points.isEmpty()) {

@@ -11,7 +11,7 @@ import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.FixtureCompensation;
 import org.lrbench.driver.DriverLoader;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.plan.Plan;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.CalibrationRun;
@@ -64,7 +64,7 @@ final class CalibrateCommand implements Callable<Integer> {
         FixtureChange change = simBench != null ? simBench::setPosition
                 : FixtureChange.console(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
                 System.out);
-        Sleeper sleeper = simBench != null ? Sleeper.NONE : Sleeper.REAL;
+        BenchClock sleeper = simBench != null ? BenchClock.NONE : BenchClock.REAL;
         CalibrationStore store = new CalibrationStore(dir, b.name());
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, simBench)) {
             ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper);

@@ -24,7 +24,7 @@ import org.lrbench.lot.LotStart;
 import org.lrbench.lot.LotStop;
 import org.lrbench.lot.PartFeeder;
 import org.lrbench.lot.TrayRun;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.Attempt;
@@ -165,7 +165,7 @@ final class RunCommand implements Callable<Integer> {
         PartResult result;
         TraceRecorder recorder = new TraceRecorder(SweepListener.NONE);
         try (BenchInstruments instruments = BenchInstruments.open(b, benchOptions.loader(), simBench)) {
-            result = PartRun.measure(request, instruments, sim != null ? Sleeper.NONE : Sleeper.REAL, recorder);
+            result = PartRun.measure(request, instruments, sim != null ? BenchClock.NONE : BenchClock.REAL, recorder);
         }
         result = result.withAttempt(new PartResult.AttemptRecord(1, number, operatorName(), reason));
         Path dir = runsOption.runs.resolve(lot);

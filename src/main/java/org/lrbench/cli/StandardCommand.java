@@ -12,7 +12,7 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.CheckStandard;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.judge.Characteristic;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.records.CheckStandardLog;
@@ -84,7 +84,7 @@ final class StandardCommand implements Callable<Integer> {
                 Home.version(), new CalibrationStore(calibration.calibration, b.name()).load());
         PartResult r;
         try (BenchInstruments inst = BenchInstruments.open(b, benchOptions.loader(), sim)) {
-            r = PartRun.measure(request, inst, sim != null ? Sleeper.NONE : Sleeper.REAL, SweepListener.NONE);
+            r = PartRun.measure(request, inst, sim != null ? BenchClock.NONE : BenchClock.REAL, SweepListener.NONE);
         }
         if (r.error() != null) {
             System.err.println("lrbench: the check standard's measurement ended in error (nothing recorded): " + r.error());

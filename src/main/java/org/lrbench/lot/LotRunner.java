@@ -1,9 +1,5 @@
 package org.lrbench.lot;
 
-import org.lrbench.run.PartRun;
-import org.lrbench.run.BenchInstruments;
-import org.lrbench.results.LotLedger;
-
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.PropertyNamingStrategies;
@@ -17,6 +13,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 import java.util.Set;
 import java.util.function.Consumer;
 import java.util.stream.Collectors;
@@ -25,15 +22,17 @@ import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.CharacteristicClass;
 import org.lrbench.judge.Limit;
 import org.lrbench.judge.Verdict;
-import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
+import org.lrbench.measure.MeasurementStopped;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
+import org.lrbench.results.LotLedger;
 import org.lrbench.results.LotTerms;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
-import java.util.Optional;
+import org.lrbench.run.BenchInstruments;
+import org.lrbench.run.PartRun;
 import org.lrbench.sampling.LotDisposition;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.sampling.Severity;
@@ -42,6 +41,8 @@ import org.lrbench.sampling.SeverityTableLoader;
 import org.lrbench.sampling.SwitchingRules;
 import org.lrbench.transport.inproc.PeerSet;
 import org.lrbench.yaml.ProblemsException;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 
 /**
  * Runs a lot's sample: parts one after another from a {@link PartFeeder}, each measurement kept
@@ -53,18 +54,19 @@ import org.lrbench.yaml.ProblemsException;
  * latest one in the inspection.
  */
 public final class LotRunner {
+    private static final Logger LOG = LoggerFactory.getLogger(LotRunner.class);
     private static final ObjectMapper READ = new ObjectMapper()
             .setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE)
             .configure(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES, false);
 
     /** Everything a lot run needs besides the feeder. */
     public record Setup(PartRun.Request template, int lotSize, String operator, String reinspectReason,
-                        DriverLoader drivers, LotLedger ledger, Sleeper sleeper, SweepListener listener,
+                        DriverLoader drivers, LotLedger ledger, BenchClock sleeper, SweepListener listener,
                         BenchInstruments shared, LotStop stop, LotScheme scheme) {
 
         public static Setup of(PartRun.Request template, int lotSize, DriverLoader drivers, LotLedger ledger) {
             return new Setup(template, lotSize, System.getProperty("user.name", "unknown"), null, drivers, ledger,
-                    Sleeper.NONE, SweepListener.NONE, null, new LotStop(), LotScheme.of(template.plan().supplier(), null));
+                    BenchClock.NONE, SweepListener.NONE, null, new LotStop(), LotScheme.of(template.plan().supplier(), null));
         }
 
         public Setup withOperator(String name) {
@@ -76,7 +78,7 @@ public final class LotRunner {
             return new Setup(template, lotSize, operator, reason, drivers, ledger, sleeper, listener, shared, stop, scheme);
         }
 
-        public Setup withSleeper(Sleeper s) {
+        public Setup withSleeper(BenchClock s) {
             return new Setup(template, lotSize, operator, reinspectReason, drivers, ledger, s, listener, shared, stop, scheme);
         }
 
@@ -126,6 +128,12 @@ public final class LotRunner {
                           LotDisposition.Result disposition, boolean closed, boolean stopped) {
     }
 
+    /**
+     * Seed offsets of simulated measurements are spread over this many values (a prime, so that
+     * serials and attempt numbers do not fold onto each other): each measurement its own noise.
+     */
+    private static final long SEED_SPREAD = 1_000_003L;
+
     private LotRunner() {
     }
 
@@ -135,7 +143,7 @@ public final class LotRunner {
      * Throws {@link LotRefused} for an open inspection under other terms (naming each stored and given
      * term) or a re-inspection asked for while the inspection is open.
      */
-    public static Inspection preflight(Setup setup) throws ProblemsException {
+    static Inspection preflight(Setup setup) throws ProblemsException {
         Setup s = resolved(setup);
         var latest = s.ledger().latest(s.template().lot());
         if (latest.isEmpty()) {
@@ -212,7 +220,7 @@ public final class LotRunner {
                     break;
                 }
                 kept.add(a);
-                onPart.accept(r);
+                tell(onPart, r);
                 continue;
             }
             String reason = next.reason();
@@ -221,10 +229,15 @@ public final class LotRunner {
             }
             while (true) {
                 int number = s.ledger().nextAttempt(lot, next.serial());
-                Measured m;
+                PartRun.Measured m;
                 try {
                     m = measure(s, next, number);
-                } catch (LotStop.Stopped dropped) {
+                } catch (MeasurementStopped dropped) {
+                    stopped = true;
+                    break;
+                }
+                if (stop.stopRequested()) {
+                    // asked while the part's last steps ran: the part in progress is dropped, never half kept
                     stopped = true;
                     break;
                 }
@@ -236,7 +249,7 @@ public final class LotRunner {
                     break;
                 }
                 kept.add(a);
-                onPart.accept(r);
+                tell(onPart, r);
                 stop.waiting((int) Attempt.counting(s.ledger().attempts(lot, round)).stream().filter(Attempt::judged).count(), n);
                 reason = feeder.again(r.serial(), r.verdict().word());
                 stop.working();
@@ -267,40 +280,25 @@ public final class LotRunner {
         return new Outcome(inspection, List.copyOf(kept), counting, d, false, stopped);
     }
 
-    private record Measured(PartResult result, List<PointResult> points) {
-    }
-
-    private static Measured measure(Setup s, PartFeeder.Next next, int attempt) throws ProblemsException {
+    /** One part measured; the stop token ends it between sweep points ({@link MeasurementStopped}). */
+    private static PartRun.Measured measure(Setup s, PartFeeder.Next next, int attempt) throws ProblemsException {
         PartRun.Request t = s.template();
         BenchConfig bench = t.bench();
         PeerSet sim = null;
         if (next.simulated() != null) {
             // each simulated measurement gets its own noise, the same however often the lot is resumed
-            long offset = Math.floorMod(31L * next.serial().hashCode() + attempt, 1_000_003L);
+            long offset = Math.floorMod(31L * next.serial().hashCode() + attempt, SEED_SPREAD);
             bench = bench.withSeedOffset(offset);
             sim = next.simulated().open(bench, t.plan().wiring());
         }
         PartRun.Request request = new PartRun.Request(t.plan(), t.planSha256(), bench, t.lot(), next.serial(),
                 t.simulated(), t.programVersion(), t.calibration());
-        List<PointResult> points = new ArrayList<>();
-        SweepListener listener = new SweepListener() {
-            @Override
-            public void pointMeasured(int index, int count, PointResult point) {
-                s.stop().check();
-                points.add(point);
-                s.listener().pointMeasured(index, count, point);
-            }
-        };
-        PartResult r;
         if (sim == null && s.shared() != null) {
-            r = PartRun.measure(request, s.shared(), s.sleeper(), listener);
-        } else {
-            try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
-                r = PartRun.measure(request, instruments, s.sleeper(), listener);
-            }
+            return PartRun.measure(request, s.shared(), s.sleeper(), s.listener(), s.stop());
         }
-        s.stop().check();
-        return new Measured(r, List.copyOf(points));
+        try (BenchInstruments instruments = BenchInstruments.open(bench, s.drivers(), sim)) {
+            return PartRun.measure(request, instruments, s.sleeper(), s.listener(), s.stop());
+        }
     }
 
     /**
@@ -308,7 +306,7 @@ public final class LotRunner {
      * under (older records: normal); a new lot takes the supplier's scheme as the rules leave it.
      * Refused when inspection is discontinued, or the severity's table is not in the lab's folder.
      */
-    public static Setup resolved(Setup s) throws ProblemsException {
+    static Setup resolved(Setup s) throws ProblemsException {
         LotScheme sc = s.scheme();
         if (sc.resolved()) {
             return s;
@@ -373,6 +371,20 @@ public final class LotRunner {
             failed.add(classes);
         }
         return LotDisposition.judge(lotSize, s.sampling(), failed);
+    }
+
+    /**
+     * Tells the caller of a part once it is kept: an observer, so whatever it throws is logged with
+     * its name and the lot goes on (the part is committed whatever the display does).
+     */
+    private static void tell(Consumer<PartResult> onPart, PartResult r) {
+        try {
+            onPart.accept(r);
+        } catch (RuntimeException e) {
+            LOG.warn("lot observer {} failed on {} ({}); the lot goes on without it", onPart.getClass().getName(),
+                    r.serial(), e.toString());
+            LOG.debug("the observer's failure", e);
+        }
     }
 
     private static PartResult skipped(PartRun.Request t, String serial) {

@@ -11,7 +11,7 @@ import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.PlanFit;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanIdentity;
 import org.lrbench.plan.PlanLoader;
@@ -83,7 +83,7 @@ public final class LotStart {
                 q.simulated(), q.programVersion(), corrections);
         StoreLedger ledger = new StoreLedger(store, q.folders().runs(), q.keepTraces());
         LotRunner.Setup setup = LotRunner.Setup.of(template, q.lotSize(), q.drivers(), ledger).withOperator(q.operator())
-                .withSleeper(q.simulated() ? Sleeper.NONE : Sleeper.REAL)
+                .withSleeper(q.simulated() ? BenchClock.NONE : BenchClock.REAL)
                 .withScheme(LotScheme.of(q.supplier() != null ? q.supplier() : plan.supplier(), q.folders().samplingTables()));
         if (q.reinspectReason() != null) {
             setup = setup.reinspecting(q.reinspectReason());

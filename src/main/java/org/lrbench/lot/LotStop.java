@@ -1,27 +1,19 @@
 package org.lrbench.lot;
 
 import java.io.IOException;
+import org.lrbench.measure.StopToken;
 
 /**
  * A request to stop a lot run from outside its thread (SIGTERM, Ctrl-C). The part in progress is
- * dropped (its sweep ends at the next point, the output goes off, nothing of it is stored); a part
+ * dropped (the sweep checks this token before each point and ends there, the output goes off, nothing of it is stored); a part
  * being committed is committed whole first. While the runner waits for the operator nothing is in
  * progress, so the one who asked may end the process at once.
  */
-public final class LotStop {
+public final class LotStop implements StopToken {
     private boolean requested;
     private boolean waiting;
     private int done;
     private int of;
-
-    /** Thrown out of a sweep when a stop was requested. */
-    public static final class Stopped extends RuntimeException {
-        private static final long serialVersionUID = 1L;
-
-        Stopped() {
-            super("stop requested", null, false, false);
-        }
-    }
 
     /**
      * Asks the run to stop; waits for a commit in progress. Returns true when the runner is
@@ -51,11 +43,9 @@ public final class LotStop {
         waiting = false;
     }
 
-    /** Throws {@link Stopped} when a stop was requested (between sweep points). */
-    void check() {
-        if (requested()) {
-            throw new Stopped();
-        }
+    @Override
+    public boolean stopRequested() {
+        return requested();
     }
 
     /** Work that must not be cut in half by a stop: a commit and what follows it. */

@@ -81,9 +81,9 @@ public final class MultisineCapture {
      * {@code settleSecond} has passed since the output came on, probe included.
      */
     static List<PointResult> measure(Plan plan, MultisineDesign.Design d, Digitizer digitizer, AutoRanger ranger,
-                                     Sleeper sleeper, double settleSecond, boolean openCircuit, RangeMemory memory) {
+                                     BenchClock clock, double settleSecond, boolean openCircuit, RangeMemory memory) {
         SineSweep sweep = plan.sweep();
-        long on = System.nanoTime();
+        long on = clock.nanoTime();
         double[] known = memory == null ? null : memory.multisinePeaks(plan);
         int ranging = 0;
         if (known != null) {
@@ -93,9 +93,9 @@ public final class MultisineCapture {
             TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), 1, RANGING_SAMPLES_PER_TOP_CYCLE * top(d));
             ranging = ranger.probe();
         }
-        double left = settleSecond - (System.nanoTime() - on) / 1e9;
+        double left = settleSecond - (clock.nanoTime() - on) / 1e9;
         if (left > 0) {
-            sleeper.sleep(left);
+            clock.sleep(left);
         }
         // the record's time base and the ranges in one message
         Timing timing = TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), periods(sweep, d), samplesPerPeriod(sweep, d));

@@ -39,22 +39,22 @@ public final class SweepRunner {
     static final int RANGING_CYCLES = 2;
     private final Generator generator;
     private final Digitizer digitizer;
-    private final Sleeper sleeper;
+    private final BenchClock clock;
 
     private final boolean openCircuit;
     private final RangeMemory memory;
     /** Set once the output is off after the last capture (the part is no longer driven). */
     private boolean outputOff;
-    /** When the triangle's settings took effect ({@link System#nanoTime}). */
+    /** When the triangle's settings took effect (the bench clock's time). */
     private long triangleSet;
 
-    public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper) {
-        this(generator, digitizer, sleeper, false);
+    public SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock) {
+        this(generator, digitizer, clock, false);
     }
 
     /** A sweep runner that ranges from, and keeps for the next part, what a part of the same plan showed. */
-    public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, RangeMemory memory) {
-        this(generator, digitizer, sleeper, false, memory);
+    public SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock, RangeMemory memory) {
+        this(generator, digitizer, clock, false, memory);
     }
 
 
@@ -62,15 +62,15 @@ public final class SweepRunner {
      * @param openCircuit true when the fixture is open: a point whose current is lost in noise is then
      *                    a reading (its impedance NaN: beyond what the bench can see), not an error
      */
-    public SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, boolean openCircuit) {
-        this(generator, digitizer, sleeper, openCircuit, null);
+    public SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock, boolean openCircuit) {
+        this(generator, digitizer, clock, openCircuit, null);
     }
 
-    private SweepRunner(Generator generator, Digitizer digitizer, Sleeper sleeper, boolean openCircuit,
+    private SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock, boolean openCircuit,
                         RangeMemory memory) {
         this.generator = generator;
         this.digitizer = digitizer;
-        this.sleeper = sleeper;
+        this.clock = clock;
         this.openCircuit = openCircuit;
         this.memory = openCircuit ? null : memory;
     }
@@ -80,7 +80,18 @@ public final class SweepRunner {
     }
 
     public Measurement run(Plan plan, SweepListener listener) {
+        return run(plan, listener, StopToken.NEVER, AfterSweep.NOTHING);
+    }
+
+    /**
+     * Runs the sweep and the triangle check. {@code observer} hears each point (isolated: it cannot
+     * change the measurement); {@code stop} is checked before each capture, and a stop requested ends
+     * the run with {@link MeasurementStopped}; {@code afterSweep} gets the sweep's points once they are
+     * all in, before the triangle check.
+     */
+    public Measurement run(Plan plan, SweepListener observer, StopToken stop, AfterSweep afterSweep) {
         SineSweep sweep = plan.sweep();
+        SweepListener listener = SweepListener.isolated(observer);
         listener.sweepStarted();
         // each instrument's identity is known (asked once per session) before its settings are batched
         generator.identity();
@@ -121,14 +132,17 @@ public final class SweepRunner {
                 }
                 generator.outputOn();
             });
-            long outputOnAt = System.nanoTime();
+            long outputOnAt = clock.nanoTime();
             if (multisine != null) {
-                points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, sleeper,
+                stop.checkpoint();
+                points.addAll(MultisineCapture.measure(plan, multisine, digitizer, ranger, clock,
                         Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()),
                         openCircuit, memory));
                 for (int i = 0; i < points.size(); i++) {
                     listener.pointMeasured(i, points.size(), points.get(i));
                 }
+                afterSweep.sweepComplete(List.copyOf(points));
+                stop.checkpoint();
                 double[] peaks = new double[2];
                 TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
                         : triangle(plan, points.get(points.size() - 1).impedance(), peaks);
@@ -143,13 +157,14 @@ public final class SweepRunner {
             // and settle), so lrbench's own work overlaps the instruments' time
             try (PointWork work = new PointWork()) {
                 for (int i = 0; i < count; i++) {
+                    stop.checkpoint();
                     double f = sweep.frequenciesHz().get(i);
                     if (i > 0) {
                         // the first frequency went with the waveform's settings, before the output came on
                         generator.setFrequency(f);
                     }
                     // the settle runs from here: the wait for the last point's analysis is part of it
-                    long changed = i == 0 ? outputOnAt : System.nanoTime();
+                    long changed = i == 0 ? outputOnAt : clock.nanoTime();
                     if (work.pending()) {
                         PointResult done = work.result();
                         points.add(done);
@@ -173,12 +188,14 @@ public final class SweepRunner {
                 if (plan.triangle() != null && !openCircuit) {
                     // the triangle's settings go out while the last point is analysed; its settle runs from here
                     setTriangle(plan.triangle());
-                    triangleSet = System.nanoTime();
+                    triangleSet = clock.nanoTime();
                 }
                 PointResult last = work.result();
                 points.add(last);
                 listener.pointMeasured(count - 1, count, last);
             }
+            afterSweep.sweepComplete(List.copyOf(points));
+            stop.checkpoint();
             double[] trianglePeaks = new double[2];
             TriangleExtraction.Result triangle = plan.triangle() == null || openCircuit ? null
                     : triangle(plan, points.get(points.size() - 1).impedance(), trianglePeaks);
@@ -211,7 +228,7 @@ public final class SweepRunner {
         TriangleCheck t = plan.triangle();
         if (plan.sweep().multisine()) {
             setTriangle(t);
-            triangleSet = System.nanoTime();
+            triangleSet = clock.nanoTime();
         }
         double start = 2.2 * t.amplitudeVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
@@ -222,7 +239,7 @@ public final class SweepRunner {
         double settle = Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), last, generator.frequencySettleSecond());
         if (known == null && t.cycles() > RANGING_CYCLES) {
             // the ranges found on short records first, as at the sweep's first point
-            sleeper.sleep(remaining(settle, triangleSet));
+            clock.sleep(remaining(settle, triangleSet));
             TimeBase.setWithRanges(digitizer, ranger, t.frequencyHz(), RANGING_CYCLES, t.samplesPerCycle());
             ranger.acquire();
         }
@@ -268,10 +285,9 @@ public final class SweepRunner {
     private record Captured(double f, AutoRanger.Capture capture, Timing timing) {
     }
 
-    /** Captures one point with the generator already at its frequency: settle, time base, ranges, record. */
-    /** What is left of a settle that started at {@code since} ({@link System#nanoTime}). */
-    static double remaining(double settleSecond, long since) {
-        return Math.max(0, settleSecond - (System.nanoTime() - since) / 1e9);
+    /** What is left of a settle that started at {@code since} (the bench clock's time). */
+    private double remaining(double settleSecond, long since) {
+        return clock.remaining(settleSecond, since);
     }
 
     static double peak(double[] v) {
@@ -283,8 +299,10 @@ public final class SweepRunner {
     }
 
     /**
+     * Captures one point with the generator already at its frequency: settle, time base, ranges, record.
+     *
      * @param predicted the ranges were predicted (from the point or the part before): no ranging records
-     * @param changed when the generator reached the frequency ({@link System#nanoTime}): the settle counts from there
+     * @param changed when the generator reached the frequency (the bench clock's time): the settle counts from there
      */
     private Captured capturePoint(Plan plan, double f, AutoRanger ranger, ImpedancePoint previous, boolean predicted,
                                   long changed) {
@@ -294,7 +312,7 @@ public final class SweepRunner {
             // nothing predicts the first point's ranges: find them on short records, then take the
             // plan's record once on ranges already right
             TimeBase.setWithRanges(digitizer, ranger, f, RANGING_CYCLES, sweep.samplesPerCycle());
-            sleeper.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), null,
+            clock.sleep(remaining(Settle.seconds(sweep, plan.senseResistanceOhm(), null,
                     generator.frequencySettleSecond()), changed));
             ranging = ranger.acquire().acquisitions();
         }
@@ -319,7 +337,7 @@ public final class SweepRunner {
         TimeBase.Request r = TimeBase.request(f, cycles, samplesPerCycle);
         if (memory != null && memory.grantedAsAsked(r)
                 && remaining(settleSecond, since) < memory.timeBaseSecond() / 2) {
-            sleeper.sleep(remaining(settleSecond, since));
+            clock.sleep(remaining(settleSecond, since));
             Timing[] granted = new Timing[1];
             AutoRanger.Capture c = ranger.acquireWithTiming(r.intervalSecond(), r.points(),
                     t -> TimeBase.holds(t, f, cycles, samplesPerCycle), granted);
@@ -328,15 +346,15 @@ public final class SweepRunner {
             }
             // the digitizer granted another time base this time: set one that holds, and capture again
         }
-        long sent = System.nanoTime();
+        long sent = clock.nanoTime();
         Timing timing = TimeBase.setWithRanges(digitizer, ranger, f, cycles, samplesPerCycle);
         if (memory != null) {
-            memory.rememberTimeBaseSecond((System.nanoTime() - sent) / 1e9);
+            memory.rememberTimeBaseSecond((clock.nanoTime() - sent) / 1e9);
             if (TimeBase.holds(timing, f, cycles, samplesPerCycle)) {
                 memory.rememberGranted(r);
             }
         }
-        sleeper.sleep(remaining(settleSecond, since));
+        clock.sleep(remaining(settleSecond, since));
         return new Captured(f, ranger.acquire(), timing);
     }
 

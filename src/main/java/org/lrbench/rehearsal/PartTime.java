@@ -2,7 +2,7 @@ package org.lrbench.rehearsal;
 
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverLoader;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.run.BenchInstruments;
@@ -50,7 +50,7 @@ public final class PartTime {
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
             long t0 = System.nanoTime();
             PartRun.measure(new PartRun.Request(plan, "rehearsal", b, "REHEARSAL", "TIMING", true, "rehearsal"), inst,
-                    Sleeper.REAL, SweepListener.NONE);
+                    BenchClock.REAL, SweepListener.NONE);
             return (System.nanoTime() - t0) / 1e9;
         }
     }

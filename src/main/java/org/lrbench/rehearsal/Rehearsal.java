@@ -13,7 +13,7 @@ import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.DecisionRule;
 import org.lrbench.judge.Limit;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
@@ -58,8 +58,8 @@ public final class Rehearsal {
         SimBench calBench = new SimBench(bench.simulation(), plan.wiring(), nominal);
         Calibration calibration;
         try (BenchInstruments inst = BenchInstruments.open(bench, drivers, calBench)) {
-            ChannelMatch m = CalibrationRun.channels(plan, inst, calBench::setPosition, Sleeper.NONE);
-            FixtureCompensation f = CalibrationRun.fixture(plan, inst, calBench::setPosition, Sleeper.NONE, m);
+            ChannelMatch m = CalibrationRun.channels(plan, inst, calBench::setPosition, BenchClock.NONE);
+            FixtureCompensation f = CalibrationRun.fixture(plan, inst, calBench::setPosition, BenchClock.NONE, m);
             calibration = new Calibration(m, f);
         }
         List<RehearsalCase> cases = cases(plan, nominal);
@@ -83,7 +83,7 @@ public final class Rehearsal {
                 PartResult r;
                 try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
                     r = PartRun.measure(new PartRun.Request(plan, "rehearsal", b, "REHEARSAL", c.where().replace(' ', '-'),
-                            true, "rehearsal", calibration), inst, Sleeper.NONE, SweepListener.NONE);
+                            true, "rehearsal", calibration), inst, BenchClock.NONE, SweepListener.NONE);
                 }
                 int[] n = counts.get(c.limit());
                 n[0]++;

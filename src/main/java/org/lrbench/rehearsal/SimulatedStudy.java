@@ -6,7 +6,7 @@ import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Limit;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
@@ -81,7 +81,7 @@ public final class SimulatedStudy {
             throws Exception {
         SimBench sim = new SimBench(bench.simulation(), plan.wiring(), part);
         try (BenchInstruments inst = BenchInstruments.open(bench, drivers, sim)) {
-            return CalibrationRun.calibrate(plan, inst, sim::setPosition, Sleeper.NONE);
+            return CalibrationRun.calibrate(plan, inst, sim::setPosition, BenchClock.NONE);
         }
     }
 
@@ -91,7 +91,7 @@ public final class SimulatedStudy {
         PartResult r;
         try (BenchInstruments inst = BenchInstruments.open(bench, drivers, sim)) {
             r = PartRun.measure(new PartRun.Request(plan, "study", bench, "STUDY", "P", true, "study", cal), inst,
-                    Sleeper.NONE, SweepListener.NONE);
+                    BenchClock.NONE, SweepListener.NONE);
         }
         if (r.error() != null) {
             throw new IllegalStateException("a study measurement ended in error: " + r.error());

@@ -13,7 +13,7 @@ import org.lrbench.fixture.FixturePosition;
 import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
@@ -28,7 +28,7 @@ public final class CalibrationRun {
     private CalibrationRun() {
     }
 
-    public static ChannelMatch channels(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper) {
+    public static ChannelMatch channels(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper) {
         // both channels on the sense resistor: their raw ratio, at the fixture (probe attenuations), so
         // with low-side wiring channel 1 is not taken from channel 2 here
         Plan raw = plan;
@@ -56,13 +56,13 @@ public final class CalibrationRun {
     }
 
     /** Both corrections in turn: the channel match, then the fixture measured with it in force. */
-    public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper) {
+    public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper) {
         ChannelMatch m = channels(plan, inst, change, sleeper);
         return new Calibration(m, fixture(plan, inst, change, sleeper, m));
     }
 
     /** Short and open of the fixture, each corrected by the channel match when there is one. */
-    public static FixtureCompensation fixture(Plan plan, BenchInstruments inst, FixtureChange change, Sleeper sleeper,
+    public static FixtureCompensation fixture(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper,
                                               ChannelMatch channels) {
         Calibration match = new Calibration(channels, null).forWiring(plan.wiring());
         List<PointResult> shorts = sweep(plan, inst, change, FixturePosition.SHORT, sleeper, false);
@@ -135,7 +135,7 @@ public final class CalibrationRun {
     }
 
     private static List<PointResult> sweep(Plan plan, BenchInstruments inst, FixtureChange change,
-                                           FixturePosition position, Sleeper sleeper, boolean open) {
+                                           FixturePosition position, BenchClock sleeper, boolean open) {
         OutputGuard guard = new OutputGuard(inst.generator());
         try {
             guard.switchOff();

@@ -22,9 +22,11 @@ import org.lrbench.judge.Judge;
 import org.lrbench.judge.Limit;
 import org.lrbench.judge.LimitResult;
 import org.lrbench.judge.Verdict;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.MeasurementException;
+import org.lrbench.measure.MeasurementStopped;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.StopToken;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
@@ -55,8 +57,21 @@ public final class PartRun {
     private PartRun() {
     }
 
-    public static PartResult measure(Request request, BenchInstruments instruments, Sleeper sleeper,
+    public static PartResult measure(Request request, BenchInstruments instruments, BenchClock clock,
                                      SweepListener listener) {
+        return measure(request, instruments, clock, listener, StopToken.NEVER).result();
+    }
+
+    /** A part's result with the sweep points it was made from (their traces are what an archive keeps). */
+    public record Measured(PartResult result, List<PointResult> points) {
+    }
+
+    /**
+     * Measures one part; {@code stop} is checked between sweep points, and a stop requested ends
+     * the measurement with {@link MeasurementStopped} (the output off, nothing of it kept).
+     */
+    public static Measured measure(Request request, BenchInstruments instruments, BenchClock clock,
+                                   SweepListener listener, StopToken stop) {
         Plan plan = request.plan();
         double peak = plan.sweep().amplitudeVolt() + Math.abs(plan.sweep().offsetVolt());
         if (peak > request.bench().maxAmplitudeVolt()) {
@@ -70,13 +85,13 @@ public final class PartRun {
         String error = null;
         OutputGuard guard = new OutputGuard(instruments.generator());
         // the sweep's fit starts once its last point is in, while the triangle and the meter are measured
-        FitAhead fitAhead = new FitAhead(listener, plan, request.bench(), request.calibration());
+        FitAhead fitAhead = new FitAhead(plan, request.bench(), request.calibration());
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
-            SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), sleeper,
+            SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), clock,
                     instruments.rangeMemory())
-                    .run(plan, fitAhead);
+                    .run(plan, listener, stop, fitAhead);
             points = m.points();
             triangle = m.triangle();
         } catch (InstrumentException | MeasurementException | IllegalArgumentException e) {
@@ -107,7 +122,7 @@ public final class PartRun {
         Analysis analysis = null;
         if (error == null) {
             try {
-                analysis = judge(plan, fitAhead.fit(points), triangle);
+                analysis = judge(plan, fitAhead.fit(), triangle);
             } catch (FitException e) {
                 error = "the sweep could not be fitted: " + e.getMessage();
             }
@@ -135,7 +150,8 @@ public final class PartRun {
                         Units.format(r.value(), Dimension.RESISTANCE), Units.format(combined, Dimension.RESISTANCE)));
             }
         }
-        return ResultRecord.of(request, started, Instant.now(), verdict, error, analysis, points, identities, dc);
+        return new Measured(ResultRecord.of(request, started, Instant.now(), verdict, error, analysis, points, identities, dc),
+                points);
     }
 
     /** A sweep judged again from archived points: the verdict, each limit's result, the warnings. */

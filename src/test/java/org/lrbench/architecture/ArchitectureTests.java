@@ -3,10 +3,16 @@ package org.lrbench.architecture;
 import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
 import static com.tngtech.archunit.library.dependencies.SlicesRuleDefinition.slices;
 
+import com.tngtech.archunit.core.domain.JavaCall;
+import com.tngtech.archunit.core.domain.JavaClass;
+import com.tngtech.archunit.core.domain.properties.HasOwner;
 import com.tngtech.archunit.core.importer.ImportOption;
 import com.tngtech.archunit.junit.AnalyzeClasses;
 import com.tngtech.archunit.junit.ArchTest;
 import com.tngtech.archunit.lang.ArchRule;
+import org.lrbench.lot.LotRunner;
+import org.lrbench.records.CheckStandardLog;
+import org.lrbench.records.StoreLedger;
 
 /**
  * The dependency rules of DEVELOPERS.md's architecture map, as code: a change that breaks one
@@ -64,6 +70,17 @@ class ArchitectureTests {
             .resideOutsideOfPackages("org.lrbench.cli..", "org.lrbench.benchmark..")
             .should().accessField(System.class, "out").orShould().accessField(System.class, "err")
             .because("below the command line, output goes to listeners, sinks, a given stream or the log");
+
+    @ArchTest
+    static final ArchRule onlyTheLotPackageStartsALot = noClasses().that().resideOutsideOfPackage("org.lrbench.lot..")
+            .should().callConstructorWhere(JavaCall.Predicates.target(HasOwner.Predicates.With.owner(
+                    JavaClass.Predicates.equivalentTo(LotRunner.Setup.class))))
+            .orShould().callConstructorWhere(JavaCall.Predicates.target(HasOwner.Predicates.With.owner(
+                    JavaClass.Predicates.equivalentTo(StoreLedger.class))))
+            .orShould().callMethod(CheckStandardLog.class, "override", java.time.Instant.class, String.class,
+                    String.class, String.class, String.class)
+            .because("a lot starts in one place, lot.LotStart (validation, check gate, corrections, plan identity,"
+                    + " scheme, preflight), whoever asks for it: the command line, the demo or the service");
 
     @ArchTest
     static final ArchRule noPackageCycles = slices().matching("org.lrbench.(*)..").should().beFreeOfCycles();

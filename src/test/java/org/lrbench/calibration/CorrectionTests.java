@@ -15,7 +15,7 @@ import org.lrbench.TestBench;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.driver.DriverLoader;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -189,14 +189,14 @@ class CorrectionTests {
         PartResult raw;
         PartResult corrected;
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            raw = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "raw", true, "t"), inst, Sleeper.NONE,
+            raw = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "raw", true, "t"), inst, BenchClock.NONE,
                     SweepListener.NONE);
-            ChannelMatch m = CalibrationRun.channels(plan, inst, sim::setPosition, Sleeper.NONE);
-            FixtureCompensation fx = CalibrationRun.fixture(plan, inst, sim::setPosition, Sleeper.NONE, m);
+            ChannelMatch m = CalibrationRun.channels(plan, inst, sim::setPosition, BenchClock.NONE);
+            FixtureCompensation fx = CalibrationRun.fixture(plan, inst, sim::setPosition, BenchClock.NONE, m);
             assertThat(m.gainRatio()).isCloseTo(1.01, within(0.0005));
             assertThat(m.skewSecond()).isCloseTo(2e-9, within(0.3e-9));
             corrected = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "cor", true, "t", new Calibration(m, fx)),
-                    inst, Sleeper.NONE, SweepListener.NONE);
+                    inst, BenchClock.NONE, SweepListener.NONE);
         }
         double rawErr = Math.abs(raw.seriesResistanceOhm() - 0.5);
         double corErr = Math.abs(corrected.seriesResistanceOhm() - 0.5);
@@ -233,9 +233,9 @@ class CorrectionTests {
         SimBench sim = new SimBench(bench.simulation(), plan.wiring(), new PartModel(1e-3, 2.3, 15e-12));
         DriverLoader drivers = new DriverLoader(TestBench.home().resolve("drivers"));
         try (BenchInstruments inst = BenchInstruments.open(bench, drivers, sim)) {
-            Calibration fromOther = CalibrationRun.calibrate(other, inst, sim::setPosition, Sleeper.NONE);
+            Calibration fromOther = CalibrationRun.calibrate(other, inst, sim::setPosition, BenchClock.NONE);
             PartResult r = PartRun.measure(new PartRun.Request(plan, "0", bench, "L", "S", true, "t", fromOther), inst,
-                    Sleeper.NONE, SweepListener.NONE);
+                    BenchClock.NONE, SweepListener.NONE);
             assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
             assertThat(r.error()).contains("could not be fitted").contains("has no reading at");
             assertThat(r.limits()).isEmpty();

@@ -18,7 +18,7 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.bench.InstrumentLink;
 import org.lrbench.calibration.Calibration;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -64,19 +64,19 @@ class PersonalityTests {
         DriverLoader drivers = new DriverLoader(HOME.resolve("drivers"));
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            corrections = CalibrationRun.calibrate(plan, inst, sim::setPosition, Sleeper.NONE);
+            corrections = CalibrationRun.calibrate(plan, inst, sim::setPosition, BenchClock.NONE);
         }
         PartRun.Request request = new PartRun.Request(plan, "0", b, "L", "S", true, "test", corrections);
         PartResult local;
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            local = PartRun.measure(request, inst, Sleeper.NONE, SweepListener.NONE);
+            local = PartRun.measure(request, inst, BenchClock.NONE, SweepListener.NONE);
         }
         PartResult tcp;
         try (SimServer server = new SimServer(sim, 0)) {
             BenchConfig overTcp = b.withAddresses(Address.parse("tcp://127.0.0.1:" + server.generatorPort()),
                     Address.parse("tcp://127.0.0.1:" + server.digitizerPort()));
             try (BenchInstruments inst = BenchInstruments.open(overTcp, drivers, null)) {
-                tcp = PartRun.measure(request, inst, Sleeper.NONE, SweepListener.NONE);
+                tcp = PartRun.measure(request, inst, BenchClock.NONE, SweepListener.NONE);
             }
         }
         for (PartResult r : List.of(local, tcp)) {
@@ -128,11 +128,11 @@ class PersonalityTests {
         DriverLoader drivers = new DriverLoader(HOME.resolve("drivers"));
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            corrections = CalibrationRun.calibrate(plan, inst, sim::setPosition, Sleeper.NONE);
+            corrections = CalibrationRun.calibrate(plan, inst, sim::setPosition, BenchClock.NONE);
         }
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
             PartResult r = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "S", true, "test", corrections), inst,
-                    Sleeper.NONE, SweepListener.NONE);
+                    BenchClock.NONE, SweepListener.NONE);
             assertThat(r.error()).isNull();
             assertThat(r.inductanceH()).isCloseTo(truth.inductanceHenry(), within(1e-3 * truth.inductanceHenry()));
             assertThat(r.seriesResistanceOhm()).isCloseTo(truth.seriesResistanceOhm(),

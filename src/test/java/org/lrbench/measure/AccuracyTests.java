@@ -31,7 +31,7 @@ class AccuracyTests {
                     sine_sweep: {amplitude: 3 V, frequencies: [1 kHz], cycles: 10, settle: 1 ms}
                     limits: [{characteristic: inductance, nominal: 1 mH, tolerance: 10 %}]
                     """, "t.yaml", 5.0);
-            List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE)
+            List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, BenchClock.NONE)
                     .run(plan, SweepListener.NONE).points();
             SeriesModel m = SeriesModelFit.fit(points.stream().map(PointResult::impedance).toList());
             assertThat(m.inductanceHenry()).as("seed %d", seed).isCloseTo(1e-3, within(0.005e-3));

@@ -40,7 +40,7 @@ class MultisineSweepTests {
             TestBench bench = new TestBench(SimSettings.defaults().withSeed(seed), 100,
                     new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());
             Plan plan = plan("multisine");
-            List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE)
+            List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, BenchClock.NONE)
                     .run(plan, SweepListener.NONE).points();
             assertThat(points).hasSize(7);
             for (int i = 0; i < points.size(); i++) {
@@ -65,11 +65,11 @@ class MultisineSweepTests {
     void pointUncertaintyComesFromTheFitAndIsNearTheSteppedSweeps() throws Exception {
         TestBench a = new TestBench(SimSettings.defaults().withSeed(4), 100, new PartModel(1e-3, 2.3, 0),
                 TestBench.genericDigitizer());
-        List<PointResult> multi = new SweepRunner(a.generator, a.digitizer, Sleeper.NONE)
+        List<PointResult> multi = new SweepRunner(a.generator, a.digitizer, BenchClock.NONE)
                 .run(plan("multisine"), SweepListener.NONE).points();
         TestBench b = new TestBench(SimSettings.defaults().withSeed(4), 100, new PartModel(1e-3, 2.3, 0),
                 TestBench.genericDigitizer());
-        List<PointResult> stepped = new SweepRunner(b.generator, b.digitizer, Sleeper.NONE)
+        List<PointResult> stepped = new SweepRunner(b.generator, b.digitizer, BenchClock.NONE)
                 .run(plan("stepped"), SweepListener.NONE).points();
         for (int i = 0; i < 7; i++) {
             double um = Math.sqrt(multi.get(i).partFit().componentVariance()) / multi.get(i).partFit().amplitude();

@@ -43,7 +43,7 @@ class RangeMemoryTests {
         SimBench sim = new SimBench(settings, 100, tray);
         TestBench bench = new TestBench(sim, TestBench.genericDigitizer());
         RangeMemory memory = new RangeMemory();
-        SweepRunner runner = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE, memory);
+        SweepRunner runner = new SweepRunner(bench.generator, bench.digitizer, BenchClock.NONE, memory);
         sim.switchUnit().execute(":ROUTe:CLOSe (@101)");
         SweepRunner.Measurement first = runner.run(plan, SweepListener.NONE);
         assertThat(first.points().get(0).acquisitions()).as("the first part finds its ranges on short records")
@@ -71,7 +71,7 @@ class RangeMemoryTests {
         SimBench sim = new SimBench(SimSettings.defaults().withSeed(12), 100, new PartModel(1e-3, 2.3, 0));
         TestBench bench = new TestBench(sim, TestBench.genericDigitizer());
         RangeMemory memory = new RangeMemory();
-        SweepRunner runner = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE, memory);
+        SweepRunner runner = new SweepRunner(bench.generator, bench.digitizer, BenchClock.NONE, memory);
         long[] trips = new long[2];
         SweepRunner.Measurement[] parts = new SweepRunner.Measurement[2];
         for (int k = 0; k < 2; k++) {

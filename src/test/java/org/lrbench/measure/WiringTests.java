@@ -50,7 +50,7 @@ class WiringTests {
                 Duration.ofSeconds(1)), source);
         var d = new ScpiDigitizer(new ScpiSession("d", new InProcessTransport("sim://d", sim.digitizer()),
                 Duration.ofSeconds(1)), dig);
-        List<PointResult> pts = new SweepRunner(gen, d, Sleeper.NONE).run(plan, SweepListener.NONE).points();
+        List<PointResult> pts = new SweepRunner(gen, d, BenchClock.NONE).run(plan, SweepListener.NONE).points();
         return SeriesModelFit.fit(pts.stream().map(PointResult::impedance).toList());
     }
 

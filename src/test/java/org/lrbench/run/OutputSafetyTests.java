@@ -25,7 +25,7 @@ import org.lrbench.instrument.InstrumentException;
 import org.lrbench.instrument.RangeLimits;
 import org.lrbench.instrument.Timing;
 import org.lrbench.instrument.Waveform;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -71,7 +71,7 @@ class OutputSafetyTests {
         doThrow(new InstrumentException("digitizer: link lost")).when(dig).acquire();
 
         Plan plan = PlanLoader.parse(PLAN, "t.yaml", 5.0);
-        PartResult r = PartRun.measure(request(plan), new BenchInstruments(gen, dig, List.of()), Sleeper.NONE,
+        PartResult r = PartRun.measure(request(plan), new BenchInstruments(gen, dig, List.of()), BenchClock.NONE,
                 SweepListener.NONE);
 
         assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
@@ -107,7 +107,7 @@ class OutputSafetyTests {
         };
         Plan plan = PlanLoader.parse(PLAN, "t.yaml", 5.0);
         PartResult r = PartRun.measure(request(plan), new BenchInstruments(flaky, bench.digitizer, List.of()),
-                Sleeper.NONE, SweepListener.NONE);
+                BenchClock.NONE, SweepListener.NONE);
         assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
         assertThat(r.error()).contains("could not switch the generator output off");
     }
@@ -120,7 +120,7 @@ class OutputSafetyTests {
         Plan plan = PlanLoader.parse(PLAN.replace("[1 kHz, 2 kHz]", "[1 kHz, 10 MHz]")
                 .replace("cycles: 10", "cycles: 10, samples_per_cycle: 200"), "t.yaml", 5.0);
         PartResult r = PartRun.measure(request(plan), new BenchInstruments(bench.generator, bench.digitizer, List.of()),
-                Sleeper.NONE, SweepListener.NONE);
+                BenchClock.NONE, SweepListener.NONE);
         assertThat(r.verdict()).isEqualTo(Verdict.ERROR);
         // the digitizer refuses the interval (SCPI -222), and that fault is reported as the error
         assertThat(r.error()).contains("TINTerval").contains("-222");
@@ -134,7 +134,7 @@ class OutputSafetyTests {
         BenchConfig low = new BenchConfig("b.yaml", "low", 4.0, null, null, SimSettings.defaults(), BenchAccuracy.defaults());
         Assertions.assertThatThrownBy(() -> PartRun.measure(
                 new PartRun.Request(plan, "0", low, "L", "S", true, "t"),
-                new BenchInstruments(gen, mock(Digitizer.class), List.of()), Sleeper.NONE, SweepListener.NONE))
+                new BenchInstruments(gen, mock(Digitizer.class), List.of()), BenchClock.NONE, SweepListener.NONE))
                 .hasMessageContaining("exceeds the bench's maximum");
         Mockito.verifyNoInteractions(gen);
     }

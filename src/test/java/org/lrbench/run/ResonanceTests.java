@@ -11,7 +11,7 @@ import org.lrbench.TestBench;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.driver.DriverLoader;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -47,7 +47,7 @@ class ResonanceTests {
                 """.replace("MINIMUM", minResonanceHz + " Hz"), "t.yaml", b.maxAmplitudeVolt());
         SimBench sim = new SimBench(b.simulation(), plan.wiring(), new PartModel(100e-3, 50, 60e-12));
         try (BenchInstruments inst = BenchInstruments.open(b, new DriverLoader(HOME.resolve("drivers")), sim)) {
-            return PartRun.measure(new PartRun.Request(plan, "0", b, "L", "S", true, "test"), inst, Sleeper.NONE,
+            return PartRun.measure(new PartRun.Request(plan, "0", b, "L", "S", true, "test"), inst, BenchClock.NONE,
                     SweepListener.NONE);
         }
     }

@@ -10,7 +10,7 @@ import org.lrbench.TestBench;
 import org.lrbench.analysis.SeriesModel;
 import org.lrbench.analysis.SeriesModelFit;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
@@ -57,7 +57,7 @@ class CircuitTheoryTests {
                 limits:
                   - {characteristic: series_resistance, max: 10 ohm}
                 """, "t.yaml", 5.0);
-        List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, Sleeper.NONE)
+        List<PointResult> points = new SweepRunner(bench.generator, bench.digitizer, BenchClock.NONE)
                 .run(plan, SweepListener.NONE).points();
         for (PointResult p : points) {
             double w = 2 * Math.PI * p.impedance().frequencyHz();

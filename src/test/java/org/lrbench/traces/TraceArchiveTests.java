@@ -15,7 +15,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.lrbench.TestBench;
 import org.lrbench.cli.Main;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
@@ -35,7 +35,7 @@ public class TraceArchiveTests {
                 limits: [{characteristic: series_resistance, max: 10 ohm}]
                 """, "t.yaml", 5.0);
         TraceRecorder rec = new TraceRecorder(SweepListener.NONE);
-        new SweepRunner(b.generator, b.digitizer, Sleeper.NONE).run(plan, rec);
+        new SweepRunner(b.generator, b.digitizer, BenchClock.NONE).run(plan, rec);
         return rec.points();
     }
 

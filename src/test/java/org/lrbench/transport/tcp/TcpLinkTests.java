@@ -17,7 +17,7 @@ import org.lrbench.cli.Main;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.instrument.Identity;
 import org.lrbench.instrument.InstrumentException;
-import org.lrbench.measure.Sleeper;
+import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -51,7 +51,7 @@ class TcpLinkTests {
     static PartResult measure(BenchConfig b, Plan p, SimBench inProcess) throws Exception {
         PartRun.Request req = new PartRun.Request(p, "0", b, "L", "S", inProcess != null, "test");
         try (BenchInstruments inst = BenchInstruments.open(b, new DriverLoader(HOME.resolve("drivers")), inProcess)) {
-            return PartRun.measure(req, inst, Sleeper.NONE, SweepListener.NONE);
+            return PartRun.measure(req, inst, BenchClock.NONE, SweepListener.NONE);
         }
     }
 
