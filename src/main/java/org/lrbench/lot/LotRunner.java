@@ -33,6 +33,7 @@ import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.PartRun;
+import org.lrbench.sampling.ClassPlan;
 import org.lrbench.sampling.LotDisposition;
 import org.lrbench.sampling.SamplingScheme;
 import org.lrbench.sampling.Severity;
@@ -111,7 +112,8 @@ public final class LotRunner {
             var plan = template.plan();
             return new LotTerms(template.lot(), plan.partNumber(), plan.source(), template.planSha256(),
                     template.bench().name(), lotSize, sampleSize(), sampling().describe(), operator, scheme.supplier(),
-                    scheme.severity() == null ? null : scheme.severity().word(), scheme.why());
+                    scheme.severity() == null ? null : scheme.severity().word(), scheme.why(),
+                    ClassPlan.of(lotSize, sampling()));
         }
 
         public int sampleSize() {

@@ -4,6 +4,7 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.PropertyNamingStrategies;
 import java.io.IOException;
+import java.math.BigDecimal;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
@@ -11,21 +12,18 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.LumpedModel;
 import org.lrbench.analysis.LumpedParameter;
+import org.lrbench.results.Attempt;
 import org.lrbench.results.PartResult;
-import org.lrbench.sampling.InspectionLevel;
+import org.lrbench.sampling.ClassPlan;
 import org.lrbench.sampling.SamplingPlan;
-import org.lrbench.sampling.SingleSampling;
 import org.lrbench.store.LotRecord;
 import org.lrbench.store.LotStatistics;
-import org.lrbench.results.Attempt;
+import org.lrbench.store.ResultStore;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
-import org.lrbench.store.ResultStore;
 
 /**
  * One self-contained HTML file per lot, built from the results store alone: the lot and its
@@ -188,10 +186,10 @@ public final class LotReport {
     }
 
     /**
-     * The sampling the lot was inspected under: level and AQL per class from the stored terms,
-     * each class's code letter, sample size and Ac/Re from ISO 2859-1 Table II-A (normal inspection,
-     * single sampling). Tightened and reduced plans come from the lab's tables, which the store does
-     * not hold: their plans are shown as the disposition recorded them.
+     * The sampling the lot was inspected under, from the class plans its terms keep as data: per
+     * class the AQL, code letter, n, Ac and Re under the severity the lot was inspected at
+     * (ISO 2859-1 Table II-A for normal inspection, the lab's Table II-B or II-C otherwise).
+     * Inspections stored before the plans were kept show their sampling line and say so.
      */
     private static void sampling(StringBuilder h, LotRecord l) {
         h.append("<h2>Sampling</h2>\n");
@@ -201,32 +199,23 @@ public final class LotReport {
         }
         String severity = l.severity() == null ? "normal" : l.severity();
         h.append("<p>").append(esc(l.sampling())).append("; ISO 2859-1, single sampling, ").append(esc(severity))
-                .append(" inspection.</p>\n");
-        if (!severity.equals("normal")) {
-            h.append("<p>Plans from the lab's transcription of Table ").append(severity.equals("tightened") ? "II-B" : "II-C")
-                    .append(", as the disposition recorded them: ").append(esc(l.dispositionReason() == null
-                            ? "not decided yet" : l.dispositionReason())).append(".</p>\n");
-            return;
-        }
-        Matcher level = Pattern.compile("level (\\S+);").matcher(l.sampling());
-        Matcher aqls = Pattern.compile("(\\w+) ([0-9.]+)").matcher(l.sampling().replaceFirst(".*AQL ", ""));
-        if (!level.find()) {
-            return;
-        }
-        InspectionLevel lv;
-        try {
-            lv = InspectionLevel.valueOf(level.group(1));
-        } catch (IllegalArgumentException e) {
+                .append(" inspection").append(severity.equals("normal") ? "" : ", plans from the lab's transcription of"
+                        + " Table " + (severity.equals("tightened") ? "II-B" : "II-C")).append(".</p>\n");
+        if (l.classPlans() == null) {
+            h.append("<p>The plan of each class was not kept with this inspection (stored by an earlier lrbench);"
+                    + " the disposition's reason gives the counts it was decided on.</p>\n");
             return;
         }
         h.append("<table id=\"sampling\"><tr><th>class</th><th>AQL</th><th>code letter</th><th>n</th><th>Ac</th><th>Re</th>"
                 + "<th>severity</th></tr>");
-        while (aqls.find()) {
-            SamplingPlan sp = SingleSampling.plan(l.lotSize(), lv, Double.parseDouble(aqls.group(2)));
-            h.append("<tr><td>").append(esc(aqls.group(1))).append("</td><td>").append(esc(aqls.group(2))).append("</td><td>")
+        for (ClassPlan c : l.classPlans()) {
+            SamplingPlan sp = c.plan();
+            h.append("<tr><td>").append(esc(c.classWord())).append("</td><td>")
+                    .append(BigDecimal.valueOf(sp.aql()).stripTrailingZeros().toPlainString()).append("</td><td>")
                     .append(sp.codeLetter()).append(sp.planLetter() != sp.codeLetter() ? " &rarr; " + sp.planLetter() : "")
                     .append("</td><td>").append(sp.sampleSize()).append("</td><td>").append(sp.acceptance())
-                    .append("</td><td>").append(sp.rejection()).append("</td><td>normal</td></tr>");
+                    .append("</td><td>").append(sp.rejection()).append("</td><td>").append(esc(c.severity().word()))
+                    .append("</td></tr>");
         }
         h.append("</table>\n");
     }

@@ -3,6 +3,7 @@ package org.lrbench.results;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Objects;
+import org.lrbench.sampling.ClassPlan;
 
 /**
  * What a lot's inspection is held to, fixed when it starts: the plan (by content), the bench, the
@@ -10,11 +11,20 @@ import java.util.Objects;
  * plan and the supplier's scheme gave, the operator who started it, the supplier ("" when none is
  * named), the severity (normal, tightened, reduced) and why the scheme was at it. Resuming with any
  * term different is refused. Supplier and severity are null on inspections stored before the
- * switching rules (all of them normal).
+ * switching rules (all of them normal). The class plans (each class's n, Ac and Re for the lot size
+ * under the severity) are the sampling as data; null on inspections stored before they were kept.
  */
 public record LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench,
                        Integer lotSize, Integer sampleSize, String sampling, String operator, String supplier,
-                       String severity, String severityReason) {
+                       String severity, String severityReason, List<ClassPlan> classPlans) {
+
+    /** Terms without the class plans as data (records from before they were kept). */
+    public LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench, Integer lotSize,
+                    Integer sampleSize, String sampling, String operator, String supplier, String severity,
+                    String severityReason) {
+        this(lot, partNumber, planPath, planSha256, bench, lotSize, sampleSize, sampling, operator, supplier, severity,
+                severityReason, null);
+    }
 
     /** Terms without a supplier or severity (records from before the switching rules, tests). */
     public LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench, Integer lotSize,

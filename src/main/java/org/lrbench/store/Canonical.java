@@ -34,6 +34,10 @@ public final class Canonical {
             // terms stored since the switching rules (schema 4); earlier terms keep their content
             a.add(t.supplier()).add(t.severity()).add(t.severityReason());
         }
+        if (t.classPlans() != null) {
+            // terms stored since the class plans are kept as data (schema 5); earlier terms keep their content
+            a.add(ClassPlansJson.text(t.classPlans()));
+        }
         return text(a);
     }
 

@@ -72,5 +72,8 @@ final class Migrations {
                     "CREATE TABLE scheme_decision (part_number TEXT NOT NULL, supplier TEXT NOT NULL,"
                             + " seq INTEGER NOT NULL CHECK (seq >= 1), decided_at TEXT NOT NULL, severity TEXT NOT NULL"
                             + " CHECK (severity IN ('normal', 'tightened', 'reduced', 'discontinued')), reason TEXT NOT NULL,"
-                            + " operator TEXT, override INTEGER NOT NULL, PRIMARY KEY (part_number, supplier, seq))"));
+                            + " operator TEXT, override INTEGER NOT NULL, PRIMARY KEY (part_number, supplier, seq))"),
+            // step 5: each inspection's sampling plans per class as data (n, Ac, Re under its severity)
+            List.of(
+                    "ALTER TABLE inspection ADD COLUMN class_plans TEXT"));
 }

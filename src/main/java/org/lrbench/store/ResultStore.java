@@ -383,7 +383,7 @@ public final class ResultStore implements AutoCloseable {
         LotTerms t = i.terms();
         try (PreparedStatement p = db.prepareStatement("INSERT INTO inspection (lot, round, part_number, plan_path,"
                 + " plan_sha256, bench, lot_size, sample_size, sampling, operator, reason, created_at, supplier, severity,"
-                + " severity_reason) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                + " severity_reason, class_plans) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
             p.setString(1, t.lot());
             p.setInt(2, i.round());
             p.setString(3, t.partNumber());
@@ -399,6 +399,7 @@ public final class ResultStore implements AutoCloseable {
             p.setString(13, t.supplier());
             p.setString(14, t.severity());
             p.setString(15, t.severityReason());
+            p.setString(16, ClassPlansJson.text(t.classPlans()));
             p.executeUpdate();
         }
         chain.append(t.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
@@ -417,7 +418,7 @@ public final class ResultStore implements AutoCloseable {
 
     private static final String INSPECTION_COLUMNS = "lot, round, part_number, plan_path, plan_sha256, bench, lot_size,"
             + " sample_size, sampling, operator, reason, created_at, disposition, disposition_reason, finished_at, supplier,"
-            + " severity, severity_reason, switching_step, reinstates_normal";
+            + " severity, severity_reason, switching_step, reinstates_normal, class_plans";
 
     private List<Inspection> inspections(String lot) throws SQLException {
         String sql = "SELECT " + INSPECTION_COLUMNS + " FROM inspection" + (lot == null ? "" : " WHERE lot = ?")
@@ -439,7 +440,7 @@ public final class ResultStore implements AutoCloseable {
     private static Inspection inspection(ResultSet r) throws SQLException {
         LotTerms t = new LotTerms(r.getString(1), r.getString(3), r.getString(4), r.getString(5), r.getString(6),
                 whole(r, 7), whole(r, 8), r.getString(9), r.getString(10), r.getString(16), r.getString(17),
-                r.getString(18));
+                r.getString(18), ClassPlansJson.read(r.getString(21), r.getString(1)));
         Integer reinstates = whole(r, 20);
         return new Inspection(t, r.getInt(2), r.getString(11), r.getString(12), r.getString(13), r.getString(14),
                 r.getString(15), whole(r, 19), reinstates == null ? null : reinstates != 0);
@@ -897,7 +898,7 @@ public final class ResultStore implements AutoCloseable {
         return new LotRecord(t.lot(), i.round(), t.partNumber(), t.planPath(), t.planSha256(), t.bench(), t.lotSize(),
                 t.sampleSize(), t.sampling(), t.operator(), i.reason(), i.createdAt(), i.disposition(),
                 i.dispositionReason(), i.finishedAt(), passed + failed + errors, passed, failed, errors, skipped, all.size(),
-                t.supplier(), t.severity(), t.severityReason());
+                t.supplier(), t.severity(), t.severityReason(), t.classPlans());
     }
 
     private static int count(List<Attempt> as, Verdict verdict) {

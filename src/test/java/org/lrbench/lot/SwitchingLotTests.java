@@ -71,6 +71,20 @@ class SwitchingLotTests {
             assertThat(a3.supplier()).isEqualTo("Halvern");
             assertThat(a3.sampling()).endsWith("; tightened inspection");
             assertThat(a3.severityReason()).contains("A1").contains("A2");
+            // the plan each class was inspected under is kept as data with the terms: the lab's table here is
+            // Table II-A relabelled, so lot 40 at level II is D, n = 8, and AQL 6.5 (the plan's major and minor) is Ac 1, Re 2
+            // (ISO 2859-1 Tables I and II-A)
+            assertThat(a3.classPlans()).hasSize(2).allSatisfy(c -> {
+                assertThat(c.severity()).isEqualTo(Severity.TIGHTENED);
+                assertThat(c.plan().codeLetter()).isEqualTo('D');
+                assertThat(c.plan().sampleSize()).isEqualTo(8);
+                assertThat(c.plan().acceptance()).isEqualTo(1);
+                assertThat(c.plan().rejection()).isEqualTo(2);
+            });
+            // and the report shows that data, whatever the sampling line says
+            var report = org.jsoup.Jsoup.parse(org.lrbench.report.LotReport.html(store, "A3"));
+            assertThat(report.select("#sampling tr").get(1).select("td").eachText())
+                    .containsExactly("major", "6.5", "D", "8", "1", "2", "tightened");
             assertThat(RecordCheck.findings(store, dir, "A3")).isEmpty();
             assertThat(RecordCheck.findings(store, dir, "A1")).isEmpty();
 
