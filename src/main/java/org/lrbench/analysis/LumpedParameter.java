@@ -31,4 +31,9 @@ public enum LumpedParameter {
     public boolean optional() {
         return optional;
     }
+
+    /** This parameter's value in a model parameter vector (ordered as this enum, as the fit returns it). */
+    public double in(double[] parameters) {
+        return parameters[ordinal()];
+    }
 }

@@ -21,6 +21,11 @@ public interface SimulatedPart {
         return (bench, wiring) -> new SimBench(bench.simulation(), wiring, model);
     }
 
+    /** The simulated part of a part file (problems at their positions). */
+    static SimulatedPart load(java.nio.file.Path partFile) throws org.lrbench.yaml.ProblemsException {
+        return of(org.lrbench.sim.PartFile.load(partFile));
+    }
+
     /** A serial and the simulated part in that tray position. */
     record Slot(String serial, SimulatedPart part) {
     }

@@ -8,6 +8,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import org.lrbench.analysis.LumpedModel;
+import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverLoader;
@@ -140,13 +141,13 @@ public final class CoverageBenchmark {
         for (var l : plan.limits()) {
             if (l.name().equals(quantity)) {
                 return switch (l.characteristic()) {
-                    case INDUCTANCE -> l.atFrequencyHz() == null ? p[1] : LumpedModel.apparentInductance(p, l.atFrequencyHz());
-                    case SERIES_RESISTANCE -> p[0];
+                    case INDUCTANCE -> l.atFrequencyHz() == null ? LumpedParameter.L.in(p) : LumpedModel.apparentInductance(p, l.atFrequencyHz());
+                    case SERIES_RESISTANCE -> LumpedParameter.R_DC.in(p);
                     case QUALITY_FACTOR -> {
                         var z = LumpedModel.impedance(p, l.atFrequencyHz());
                         yield z.getImaginary() / z.getReal();
                     }
-                    case SELF_RESONANCE -> LumpedModel.selfResonanceHz(p[1], p[2]);
+                    case SELF_RESONANCE -> LumpedModel.selfResonanceHz(LumpedParameter.L.in(p), LumpedParameter.C_P.in(p));
                 };
             }
         }

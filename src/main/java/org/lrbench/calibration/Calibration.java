@@ -32,7 +32,7 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
 
     /** These corrections for a plan's fixture wiring (null: differential, unity probes). */
     public Calibration forWiring(FixtureWiring wiring) {
-        return wiring != null && wiring.topology() == FixtureWiring.Topology.LOW_SIDE ? forLowSide(wiring.senseOhm())
+        return FixtureWiring.lowSide(wiring) ? forLowSide(wiring.senseOhm())
                 : forLowSide(0);
     }
 

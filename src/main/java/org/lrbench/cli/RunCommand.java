@@ -14,6 +14,7 @@ import java.util.Set;
 import java.util.concurrent.Callable;
 import java.util.function.Consumer;
 import org.lrbench.bench.BenchConfig;
+import org.lrbench.bench.SimulatedPart;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.lot.ConsoleFeeder;
@@ -24,24 +25,17 @@ import org.lrbench.lot.LotStart;
 import org.lrbench.lot.LotStop;
 import org.lrbench.lot.PartFeeder;
 import org.lrbench.lot.TrayRun;
-import org.lrbench.measure.BenchClock;
-import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
-import org.lrbench.results.Attempt;
+import org.lrbench.plan.PlanIdentity;
+import org.lrbench.records.SinglePart;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotSummary;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
-import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.PartRun;
-import org.lrbench.sim.PartFile;
-import org.lrbench.sim.PartModel;
-import org.lrbench.sim.SimBench;
 import org.lrbench.sim.SimLot;
 import org.lrbench.store.ResultStore;
-import org.lrbench.traces.TraceArchive;
-import org.lrbench.traces.TraceRecorder;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -145,7 +139,6 @@ final class RunCommand implements Callable<Integer> {
         }
         Inputs.name("--serial", serial);
         refuseSampledLot();
-        int number = singleAttemptNumber();
         BenchConfig b = benchOptions.load();
         if (sim != null && addresses.any()) {
             throw new BadInputException("--sim measures on the in-process simulated bench; it cannot be combined"
@@ -154,36 +147,28 @@ final class RunCommand implements Callable<Integer> {
         b = addresses.applyTo(b);
         Plan p = Inputs.plan(plan, b);
         Inputs.requireFit(p, b, benchOptions.loader());
-        SimBench simBench = null;
+        SimulatedPart simulated = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
-            PartModel part = PartFile.load(sim);
-            simBench = new SimBench(b.simulation(), p.wiring(), part);
+            simulated = SimulatedPart.load(sim);
         }
-        PartRun.Request request = new PartRun.Request(p, Inputs.sha256(plan), b, lot, serial, sim != null, Home.version(),
-                new CalibrationStore(calibrationOption.calibration, b.name()).load());
-        PartResult result;
-        TraceRecorder recorder = new TraceRecorder(SweepListener.NONE);
-        try (BenchInstruments instruments = BenchInstruments.open(b, benchOptions.loader(), simBench)) {
-            result = PartRun.measure(request, instruments, sim != null ? BenchClock.NONE : BenchClock.REAL, recorder);
+        PartRun.Request request = new PartRun.Request(p, PlanIdentity.sha256(plan), b, lot, serial, sim != null,
+                Home.version(), new CalibrationStore(calibrationOption.calibration, b.name()).load());
+        SinglePart.Outcome o;
+        try {
+            o = SinglePart.measure(new SinglePart.Request(request, benchOptions.loader(), simulated, operatorName(),
+                    reason, keepTraces(), runsOption.runs));
+        } catch (SinglePart.Refused e) {
+            throw new BadInputException(e.getMessage());
         }
-        result = result.withAttempt(new PartResult.AttemptRecord(1, number, operatorName(), reason));
-        Path dir = runsOption.runs.resolve(lot);
-        Path archive = dir.resolve(Attempt.fileName(serial, number, "lrtraces"));
-        byte[] traces = keepTraces() ? TraceArchive.encode(lot, serial, p.partNumber(),
-                p.senseResistanceOhm(), p.wiring(), ResultFiles.JSON.valueToTree(result.instruments()), recorder.points()) : null;
-        if (traces != null) {
-            ResultFiles.writeNew(archive, traces);
-        }
-        Path record = dir.resolve(Attempt.fileName(serial, number, "json"));
-        ResultFiles.writeNew(record, ResultFiles.JSON.writeValueAsBytes(result));
+        PartResult result = o.result();
         if (json != null) {
             ResultFiles.writeJson(json, result);
         }
         ResultText.part(System.out, result);
-        System.out.println("record: " + record + (number > 1 ? " (attempt " + number + "; earlier ones kept)" : ""));
-        if (traces != null) {
-            System.out.printf("traces kept in %s (%d bytes)%n", archive, traces.length);
+        System.out.println("record: " + o.record() + (o.attempt() > 1 ? " (attempt " + o.attempt() + "; earlier ones kept)" : ""));
+        if (o.archive() != null) {
+            System.out.printf("traces kept in %s (%d bytes)%n", o.archive(), o.archiveBytes());
         }
         if (result.error() != null) {
             System.err.println("lrbench: measurement error: " + result.error());
@@ -214,27 +199,6 @@ final class RunCommand implements Callable<Integer> {
                         + " another lot number");
             }
         }
-    }
-
-    /**
-     * One part's attempt number from the records already in its lot's folder: a part measured
-     * before is measured again only with --reason, and gets the next free file names.
-     */
-    private int singleAttemptNumber() {
-        Path dir = runsOption.runs.resolve(lot);
-        int number = 1;
-        while (Files.exists(dir.resolve(Attempt.fileName(serial, number, "json")))) {
-            number++;
-        }
-        if (number > 1 && (reason == null || reason.isBlank())) {
-            throw new BadInputException(dir.resolve(Attempt.fileName(serial, 1, "json")) + " exists: " + serial
-                    + " was measured before in lot " + lot + " (" + (number - 1) + " record(s)). To measure it again"
-                    + " give --reason TEXT; every earlier record is kept");
-        }
-        if (number == 1 && reason != null) {
-            throw new BadInputException("--reason is for a part measured again; " + serial + " has no record in " + dir);
-        }
-        return number;
     }
 
     /** Serials of a tray file: one per line, blank lines and # comments ignored, each checked. */

@@ -1,29 +1,9 @@
 package org.lrbench.cli;
 
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Path;
-import java.time.Instant;
-import java.time.temporal.ChronoUnit;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
-import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.CheckStandard;
-import org.lrbench.calibration.CalibrationStore;
-import org.lrbench.judge.Characteristic;
-import org.lrbench.measure.BenchClock;
-import org.lrbench.measure.SweepListener;
-import org.lrbench.plan.Plan;
-import org.lrbench.records.CheckStandardLog;
-import org.lrbench.report.ControlChartPage;
-import org.lrbench.results.PartResult;
-import org.lrbench.results.ResultFiles;
-import org.lrbench.run.BenchInstruments;
-import org.lrbench.run.PartRun;
-import org.lrbench.sim.PartFile;
-import org.lrbench.sim.SimBench;
-import org.lrbench.study.ControlChart;
+import org.lrbench.records.StandardCheck;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
 import picocli.CommandLine.Command;
@@ -53,63 +33,36 @@ final class StandardCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        BenchConfig b = benchOptions.load();
-        CheckStandard cs = b.checkStandard();
-        if (cs == null) {
-            throw new BadInputException(b.source() + ": the bench file names no check_standard");
+        StandardCheck.Prepared q;
+        try {
+            q = StandardCheck.prepare(benchOptions.load(), benchOptions.loader(), runs.runs, calibration.calibration,
+                    Home.version());
+        } catch (StandardCheck.Refused e) {
+            throw new BadInputException(e.getMessage());
         }
-        Path benchDir = Path.of(b.source()).toAbsolutePath().getParent();
-        Path planFile = benchDir.resolve(cs.plan());
-        Plan p = Inputs.plan(planFile, b);
-        Inputs.requireFit(p, b, benchOptions.loader());
-        var limit = p.firstLimit(Characteristic.INDUCTANCE).orElseThrow(() -> new BadInputException(planFile + ": the check standard's plan needs an inductance limit"));
-        SimBench sim = null;
-        CheckStandardLog log = new CheckStandardLog(runs.runs, b.name());
-        List<CheckStandardLog.Entry> before = log.entries();
-        if (b.simulation() != null) {
-            // each check its own noise, as each check on a real bench has
-            b = b.withSeedOffset(7919L * (before.size() + 1));
-            Path part = benchDir.resolve(cs.simulatedPart());
-            Inputs.requireFile(part, "simulated check standard");
-            sim = new SimBench(b.simulation(), p.wiring(), PartFile.load(part));
-        } else {
+        CheckStandard cs = q.standard();
+        if (q.simulated() == null) {
             System.out.println("Place the check standard " + cs.serial() + " in the fixture, then press Enter"
                     + " (the generator output is off).");
             if (System.in.read() < 0) {
                 throw new BadInputException("no answer on the console: the check standard was not placed");
             }
         }
-        Instant at = Instant.now().truncatedTo(ChronoUnit.MILLIS);
-        PartRun.Request request = new PartRun.Request(p, Inputs.sha256(planFile), b, "CHECK", cs.serial(), sim != null,
-                Home.version(), new CalibrationStore(calibration.calibration, b.name()).load());
-        PartResult r;
-        try (BenchInstruments inst = BenchInstruments.open(b, benchOptions.loader(), sim)) {
-            r = PartRun.measure(request, inst, sim != null ? BenchClock.NONE : BenchClock.REAL, SweepListener.NONE);
-        }
-        if (r.error() != null) {
-            System.err.println("lrbench: the check standard's measurement ended in error (nothing recorded): " + r.error());
+        StandardCheck.Outcome o = StandardCheck.measure(q);
+        if (o.state() == null) {
+            System.err.println("lrbench: the check standard's measurement ended in error (nothing recorded): "
+                    + o.result().error());
             return ExitCodes.INSTRUMENT;
         }
-        var reading = r.limits().stream().filter(l -> l.name().equals(limit.name())).findFirst().orElseThrow();
-        List<ControlChart.Reading> history = new ArrayList<>(CheckStandardLog.readings(before));
-        history.add(new ControlChart.Reading(reading.value(), reading.expandedUncertainty()));
-        ControlChart.State state = ControlChart.of(history, cs.certifiedHenry(), cs.certifiedExpandedHenry(), cs.historyPoints());
-        Path record = log.append(at, cs.serial(), planFile.toString(), reading.value(), reading.expandedUncertainty(),
-                r.verdict().word(), state);
-        List<String> times = new ArrayList<>(before.stream().map(e -> e.at().toString()).toList());
-        times.add(at.toString());
-        double[] values = history.stream().mapToDouble(ControlChart.Reading::value).toArray();
-        Path chart = log.folder().resolve("chart.html");
-        ResultFiles.writeAtomically(chart, ControlChartPage.html(b.name(), cs.serial(), cs.certifiedHenry(),
-                cs.certifiedExpandedHenry(), times, values, state).getBytes(StandardCharsets.UTF_8));
+        var reading = o.reading();
         System.out.printf(Locale.ROOT, "check standard %s on %s: %s %s (U, k = 2); certified %s; reading less certified %s%n",
-                cs.serial(), b.name(), limit.name(),
+                cs.serial(), q.bench().name(), q.limit().name(),
                 Units.formatWithUncertainty(reading.value(), reading.expandedUncertainty(), Dimension.INDUCTANCE),
                 Units.formatWithUncertainty(cs.certifiedHenry(), cs.certifiedExpandedHenry(), Dimension.INDUCTANCE),
                 Units.format(reading.value() - cs.certifiedHenry(), Dimension.INDUCTANCE));
-        System.out.println((state.inControl() ? "in control: " : "OUT OF CONTROL (lot runs on this bench are refused): ")
-                + state.reason());
-        System.out.println("record: " + record + "; chart: " + chart);
-        return state.inControl() ? ExitCodes.PASS : ExitCodes.FAIL;
+        System.out.println((o.state().inControl() ? "in control: " : "OUT OF CONTROL (lot runs on this bench are refused): ")
+                + o.state().reason());
+        System.out.println("record: " + o.record() + "; chart: " + o.chart());
+        return o.state().inControl() ? ExitCodes.PASS : ExitCodes.FAIL;
     }
 }

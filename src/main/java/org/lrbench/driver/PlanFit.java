@@ -43,7 +43,7 @@ public final class PlanFit {
                         + " declares");
             }
         }
-        double peak = plan.sweep().amplitudeVolt() + Math.abs(plan.sweep().offsetVolt());
+        double peak = plan.sweep().peakEmfVolt();
         if (plan.triangle() != null) {
             peak = Math.max(peak, plan.triangle().amplitudeVolt());
         }

@@ -111,7 +111,7 @@ public final class MultisineCapture {
         // fitted again with the empty bins at the tones' harmonics for the distortion figure
         FixturePhasors.Result[] fits = refit(capture.sense().volts(), capture.part().volts(), dt, tones,
                 SweepRunner.attenuation(plan, 1), SweepRunner.attenuation(plan, 2),
-                plan.wiring() != null && plan.wiring().topology() == FixtureWiring.Topology.LOW_SIDE);
+                FixtureWiring.lowSide(plan.wiring()));
         Map<Integer, Integer> watched = watchedBins(d, 0.45 / dt);
         double[] distortion = new double[tones.length];
         if (!watched.isEmpty()) {

@@ -115,7 +115,7 @@ public final class SweepRunner {
             }
         });
         // no node of this passive circuit exceeds the source EMF: start both channels above it
-        double start = 2.2 * (sweep.amplitudeVolt() + Math.abs(sweep.offsetVolt()));
+        double start = 2.2 * sweep.peakEmfVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         List<PointResult> points = new ArrayList<>();
         outputOff = false;
@@ -269,7 +269,7 @@ public final class SweepRunner {
         FixtureWiring w = plan.wiring();
         double a1 = w == null ? 1 : w.attenuation1();
         double a2 = w == null ? 1 : w.attenuation2();
-        boolean lowSide = w != null && w.topology() == FixtureWiring.Topology.LOW_SIDE;
+        boolean lowSide = FixtureWiring.lowSide(w);
         double[] s = capture.sense().volts();
         double[] p = capture.part().volts();
         double[] sense = new double[s.length];
@@ -288,6 +288,15 @@ public final class SweepRunner {
     /** What is left of a settle that started at {@code since} (the bench clock's time). */
     private double remaining(double settleSecond, long since) {
         return clock.remaining(settleSecond, since);
+    }
+
+    /**
+     * The current's total harmonic distortion (harmonics 2 to {@value #THD_HARMONICS}) from the sense
+     * resistor's voltage at the fixture: the figure each stepped point records, and a re-analysis
+     * of its archived trace works out again.
+     */
+    public static double currentThd(double[] senseVolts, double intervalSecond, double frequencyHz) {
+        return HarmonicFit.fit(senseVolts, intervalSecond, frequencyHz, THD_HARMONICS).thd();
     }
 
     static double peak(double[] v) {
@@ -367,7 +376,7 @@ public final class SweepRunner {
         FixtureWiring w = plan.wiring();
         FixturePhasors.Result phasors = FixturePhasors.of(capture.sense().volts(), capture.part().volts(),
                 capture.sense().intervalSecond(), f, attenuation(plan, 1), attenuation(plan, 2),
-                w != null && w.topology() == FixtureWiring.Topology.LOW_SIDE);
+                FixtureWiring.lowSide(w));
         SineFitResult sense = phasors.sense();
         SineFitResult part = phasors.part();
         if (sense.amplitude() <= 3 * sense.residualRms() * Math.sqrt(2.0 / sense.samples())) {
@@ -383,7 +392,7 @@ public final class SweepRunner {
                     "no measurable current at %.6g Hz: the sense-resistor voltage is lost in noise (open fixture?)", f));
         }
         ImpedancePoint z = PhasorImpedance.of(f, sense, part, plan.senseResistanceOhm());
-        double thd = HarmonicFit.fit(v[0], capture.sense().intervalSecond(), f, THD_HARMONICS).thd();
+        double thd = currentThd(v[0], capture.sense().intervalSecond(), f);
         return new PointResult(z, sense, part, capture.sense().rangeVolt() * attenuation(plan, 1),
                 capture.part().rangeVolt() * attenuation(plan, 2),
                 timing.sampleIntervalSecond(), capture.sense().length(), capture.acquisitions(), thd,

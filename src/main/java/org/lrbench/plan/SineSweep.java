@@ -50,6 +50,14 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
                 distortionLimit, settleFromCircuit, asMultisine, multisineTolerance);
     }
 
+    /**
+     * The generator's peak open-circuit voltage (EMF) this sweep asks for: amplitude plus |offset|.
+     * The one place it is worked out; the bench's {@code max_amplitude} ceiling is on this value.
+     */
+    public double peakEmfVolt() {
+        return amplitudeVolt + Math.abs(offsetVolt);
+    }
+
     public double lowestHz() {
         return frequenciesHz.stream().mapToDouble(Double::doubleValue).min().orElse(Double.NaN);
     }

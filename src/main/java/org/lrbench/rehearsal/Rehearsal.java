@@ -151,7 +151,7 @@ public final class Rehearsal {
         double source = bench.simulation().sourceImpedanceOhm();
         double sense = plan.senseResistanceOhm();
         double amplitude = plan.sweep().amplitudeVolt();
-        boolean atCeiling = amplitude + Math.abs(plan.sweep().offsetVolt()) >= bench.maxAmplitudeVolt() * 0.999;
+        boolean atCeiling = plan.sweep().peakEmfVolt() >= bench.maxAmplitudeVolt() * 0.999;
         String raise = atCeiling ? "the amplitude is already at the bench's ceiling ("
                 + Units.format(bench.maxAmplitudeVolt(), Dimension.VOLTAGE) + ")"
                 : "raise the amplitude (the bench allows up to " + Units.format(bench.maxAmplitudeVolt(), Dimension.VOLTAGE) + ")";

@@ -32,7 +32,7 @@ public final class CalibrationRun {
         // both channels on the sense resistor: their raw ratio, at the fixture (probe attenuations), so
         // with low-side wiring channel 1 is not taken from channel 2 here
         Plan raw = plan;
-        if (plan.wiring() != null && plan.wiring().topology() == FixtureWiring.Topology.LOW_SIDE) {
+        if (FixtureWiring.lowSide(plan.wiring())) {
             FixtureWiring w = plan.wiring();
             raw = new Plan(plan.source(), plan.partNumber(), plan.description(), plan.senseResistanceOhm(), plan.sweep(),
                     plan.triangle(), plan.limits(), plan.sampling(), new FixtureWiring(w.senseOhm(),

@@ -73,7 +73,7 @@ public final class PartRun {
     public static Measured measure(Request request, BenchInstruments instruments, BenchClock clock,
                                    SweepListener listener, StopToken stop) {
         Plan plan = request.plan();
-        double peak = plan.sweep().amplitudeVolt() + Math.abs(plan.sweep().offsetVolt());
+        double peak = plan.sweep().peakEmfVolt();
         if (peak > request.bench().maxAmplitudeVolt()) {
             throw new IllegalArgumentException("plan amplitude " + peak + " V exceeds the bench's maximum "
                     + request.bench().maxAmplitudeVolt() + " V");
@@ -174,8 +174,8 @@ public final class PartRun {
     }
 
     /** The model fit, budgets, judged limits and warnings of a completed sweep. */
-    record Analysis(SweepAnalysis.Result sweep, List<LimitResult> judged, Double srfHz, Double srfAboveHz,
-                    TriangleExtraction.Result triangle, List<String> warnings) {
+    record Analysis(SweepAnalysis.Result sweep, List<ImpedancePoint> corrected, List<LimitResult> judged, Double srfHz,
+                    Double srfAboveHz, TriangleExtraction.Result triangle, List<String> warnings) {
     }
 
     static Analysis analyse(Plan plan, BenchConfig bench, Calibration corrections, List<PointResult> points,
@@ -278,7 +278,7 @@ public final class PartRun {
                     + " the bench's corrections explain: uncertainties were scaled up; consider more model terms",
                     sweep.fit().covarianceScale()));
         }
-        return new Analysis(sweep, judged, srf, srfAbove, triangle, warnings);
+        return new Analysis(sweep, z, judged, srf, srfAbove, triangle, warnings);
     }
 
     /**
@@ -291,11 +291,10 @@ public final class PartRun {
         // the triangle's R and L corrected like the sweep (channel match, leads), so that only a real
         // disagreement warns
         double[] corrected = calibration.correctSeries(t.frequencyHz(), t.resistanceOhm(), t.inductanceHenry());
-        double[] p = sweep.fit().parameters();
         String[][] pairs = {{Readings.INDUCTANCE, "inductance"}, {Readings.RESISTANCE, "resistance"}};
         for (String[] pair : pairs) {
             boolean inductance = pair[1].equals("inductance");
-            double model = inductance ? p[1] : p[0];
+            double model = sweep.fit().value(inductance ? LumpedParameter.L : LumpedParameter.R_DC);
             double tri = inductance ? corrected[1] : corrected[0];
             double uTri = inductance ? t.inductanceUncertainty() : t.resistanceUncertainty();
             double uModel = sweep.budgets().get(pair[0]).contributions().get(0).contribution();
@@ -322,7 +321,7 @@ public final class PartRun {
             double omega = 2 * Math.PI * z.frequencyHz();
             double model = LumpedModel.apparentInductance(p, z.frequencyHz());
             double uPoint = z.componentUncertaintyOhm() / omega;
-            double combined = Budget.K * Math.hypot(uPoint, uModel * model / p[1]);
+            double combined = Budget.K * Math.hypot(uPoint, uModel * model / LumpedParameter.L.in(p));
             if (Math.abs(z.inductanceHenry() - model) > combined && Math.abs(z.inductanceHenry() - model) > 1e-4 * model) {
                 out.add(String.format(Locale.ROOT, "at %s the point's phasor inductance %s and the sweep model's %s"
                         + " differ by more than their combined expanded uncertainty %s",

@@ -5,6 +5,7 @@ import java.util.List;
 import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.Evaluation;
 import org.lrbench.analysis.LumpedModel;
+import org.lrbench.analysis.LumpedParameter;
 import org.lrbench.judge.Limit;
 
 /**
@@ -22,8 +23,8 @@ final class Readings {
     /** The model's L and R_dc first, then one evaluation per limit (named after the limit). */
     static List<Evaluation> evaluations(List<Limit> limits) {
         List<Evaluation> out = new ArrayList<>();
-        out.add(new Evaluation(INDUCTANCE, "H", p -> p[1]));
-        out.add(new Evaluation(RESISTANCE, "ohm", p -> p[0]));
+        out.add(new Evaluation(INDUCTANCE, "H", p -> LumpedParameter.L.in(p)));
+        out.add(new Evaluation(RESISTANCE, "ohm", p -> LumpedParameter.R_DC.in(p)));
         for (Limit l : limits) {
             out.add(of(l));
         }
@@ -34,13 +35,13 @@ final class Readings {
         Double at = limit.atFrequencyHz();
         return switch (limit.characteristic()) {
             case INDUCTANCE -> new Evaluation(limit.name(), "H",
-                    at == null ? p -> p[1] : p -> LumpedModel.apparentInductance(p, at));
-            case SERIES_RESISTANCE -> new Evaluation(limit.name(), "ohm", p -> p[0]);
+                    at == null ? p -> LumpedParameter.L.in(p) : p -> LumpedModel.apparentInductance(p, at));
+            case SERIES_RESISTANCE -> new Evaluation(limit.name(), "ohm", p -> LumpedParameter.R_DC.in(p));
             case QUALITY_FACTOR -> new Evaluation(limit.name(), "", p -> {
                 Complex z = LumpedModel.impedance(p, at);
                 return z.getImaginary() / z.getReal();
             });
-            case SELF_RESONANCE -> new Evaluation(limit.name(), "Hz", p -> LumpedModel.selfResonanceHz(p[1], p[2]));
+            case SELF_RESONANCE -> new Evaluation(limit.name(), "Hz", p -> LumpedModel.selfResonanceHz(LumpedParameter.L.in(p), LumpedParameter.C_P.in(p)));
         };
     }
 }

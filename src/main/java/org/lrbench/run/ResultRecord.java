@@ -62,9 +62,13 @@ final class ResultRecord {
             }
         }
         List<PartResult.PointRecord> pointRecords = new ArrayList<>();
-        for (PointResult p : points) {
+        // the corrected points are the ones the model was fitted to, corrected once (PartRun.fitSweep);
+        // without a fit there are none
+        List<ImpedancePoint> corrected = have ? analysis.corrected() : null;
+        for (int i = 0; i < points.size(); i++) {
+            PointResult p = points.get(i);
             ImpedancePoint z = p.impedance();
-            ImpedancePoint c = corrected(request, z);
+            ImpedancePoint c = corrected == null || !Double.isFinite(z.resistanceOhm()) ? null : corrected.get(i);
             pointRecords.add(new PartResult.PointRecord(z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm(),
                     z.inductanceHenry(), z.qualityFactor(), z.componentUncertaintyOhm(), z.currentAmpere().abs(),
                     p.currentThd(), p.senseRangeVolt(), p.partRangeVolt(), p.sampleIntervalSecond(), p.samples(),
@@ -129,17 +133,5 @@ final class ResultRecord {
 
     static Double finite(double v) {
         return Double.isFinite(v) ? v : null;
-    }
-
-    /** The point after the bench's corrections (what the model was fitted to), or null where they do not apply. */
-    private static ImpedancePoint corrected(PartRun.Request request, ImpedancePoint z) {
-        if (request.calibration() == null || !Double.isFinite(z.resistanceOhm())) {
-            return null;
-        }
-        try {
-            return request.calibration().forWiring(request.plan().wiring()).apply(z);
-        } catch (IllegalArgumentException e) {
-            return null; // the fixture compensation has no reading at this frequency
-        }
     }
 }

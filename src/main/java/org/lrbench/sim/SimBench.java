@@ -150,7 +150,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
                     : omega == 0 ? new Complex(1e15, 0) : fixtureImpedance(omega);
             Complex current = h.amplitude().divide(load.add(circuit.sourceOhm() + circuit.senseOhm()));
             Complex sense = current.multiply(circuit.senseOhm());
-            boolean lowSide = wiring.topology() == FixtureWiring.Topology.LOW_SIDE;
+            boolean lowSide = FixtureWiring.lowSide(wiring);
             double att = wiring.attenuation(channel);
             if (channel == 1) {
                 out.add(new Harmonic(h.k(), sense.divide(att)));

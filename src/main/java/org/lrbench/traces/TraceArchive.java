@@ -59,7 +59,7 @@ public final class TraceArchive {
         h.put("sense_resistor_ohm", senseOhm);
         // how the traces became the fixture's voltages (archives without it: differential, unity probes)
         ObjectNode w = h.putObject("wiring");
-        w.put("low_side", wiring != null && wiring.topology() == FixtureWiring.Topology.LOW_SIDE);
+        w.put("low_side", FixtureWiring.lowSide(wiring));
         w.put("attenuation_1", wiring == null ? 1 : wiring.attenuation1());
         w.put("attenuation_2", wiring == null ? 1 : wiring.attenuation2());
         h.set("instruments", identities);
