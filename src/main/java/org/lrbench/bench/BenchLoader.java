@@ -46,6 +46,13 @@ public final class BenchLoader {
         InstrumentLink generator = link(root, "generator");
         InstrumentLink digitizer = link(root, "digitizer");
         InstrumentLink switchUnit = root.has("switch") ? link(root, "switch") : null;
+        if (switchUnit != null) {
+            YamlMap s = root.map("switch", true, "driver", "address", "first_channel");
+            Integer first = s == null ? null : s.integer("first_channel", false, 0, 999_999);
+            if (first != null) {
+                switchUnit = new InstrumentLink(switchUnit.driver(), switchUnit.address(), first);
+            }
+        }
         InstrumentLink meter = root.has("meter") ? link(root, "meter") : null;
         SimSettings sim = simulation(root);
         BenchAccuracy accuracy = accuracy(root);
@@ -175,7 +182,7 @@ public final class BenchLoader {
     }
 
     private static InstrumentLink link(YamlMap root, String key) {
-        YamlMap m = root.map(key, true, "driver", "address");
+        YamlMap m = root.map(key, true, "driver", "address", "first_channel");
         if (m == null) {
             return null;
         }

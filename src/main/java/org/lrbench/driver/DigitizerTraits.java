@@ -11,7 +11,7 @@ import java.util.Map;
  * peak-to-peak, plus-minus full scale, or volts per division over a number of divisions) and,
  * optionally, the instrument's list of ranges in that unit;</li>
  * <li>{@link Scaling}: how trace codes become volts (four numbers from {@code scale_query}, fields
- * picked by position from a preamble, one query per field, a fixed formula, or none when the data
+ * picked by position from the scale query's reply, one query per field, a fixed formula, or none when the data
  * are volts already),
  * and which codes mean clipped;</li>
  * <li>{@link Timebase}: whether {@code {interval}} and its reply are a sample interval or a sample rate;</li>
@@ -47,10 +47,10 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
     }
 
     /** Where the code-to-volts scaling comes from. */
-    public enum ScaleSource { SCALE_QUERY, PREAMBLE, QUERIES, FORMULA, NONE }
+    public enum ScaleSource { SCALE_QUERY, REPLY_FIELDS, QUERIES, FORMULA, NONE }
 
     /**
-     * @param fields         preamble: field name ({@code x_increment}, {@code x_origin},
+     * @param fields         reply_fields: field name ({@code x_increment}, {@code x_origin},
      *                       {@code y_increment}, {@code y_origin}, {@code y_reference}) to its 1-based
      *                       position in the reply
      * @param queries        queries: the same field names to the query that answers each one

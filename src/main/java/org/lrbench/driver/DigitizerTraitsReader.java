@@ -13,7 +13,7 @@ import org.lrbench.yaml.YamlMap;
 
 /** Reads a digitizer driver's {@code vertical}, {@code scaling}, {@code timebase} and {@code acquisition} sections. */
 final class DigitizerTraitsReader {
-    static final Set<String> PREAMBLE_FIELDS = Set.of("x_increment", "x_origin", "y_increment", "y_origin", "y_reference");
+    static final Set<String> REPLY_FIELDS = Set.of("x_increment", "x_origin", "y_increment", "y_origin", "y_reference");
 
     private DigitizerTraitsReader() {
     }
@@ -47,31 +47,33 @@ final class DigitizerTraitsReader {
         DigitizerTraits.Scaling scaling = g.scaling();
         YamlMap s = root.map("scaling", false, "source", "fields", "queries", "zero_code", "full_scale_codes", "clip_codes");
         if (s != null) {
-            DigitizerTraits.ScaleSource source = s.choice("source", true, Map.of(
+            // "preamble" is this format's earlier word for reply_fields: driver files written with it still load
+            DigitizerTraits.ScaleSource source = "preamble".equals(s.text("source", false))
+                    ? DigitizerTraits.ScaleSource.REPLY_FIELDS : s.choice("source", true, Map.of(
                     "scale_query", DigitizerTraits.ScaleSource.SCALE_QUERY,
-                    "preamble", DigitizerTraits.ScaleSource.PREAMBLE,
+                    "reply_fields", DigitizerTraits.ScaleSource.REPLY_FIELDS,
                     "queries", DigitizerTraits.ScaleSource.QUERIES,
                     "formula", DigitizerTraits.ScaleSource.FORMULA,
                     "none", DigitizerTraits.ScaleSource.NONE));
             Map<String, Integer> fields = new LinkedHashMap<>();
-            YamlMap f = s.map("fields", source == DigitizerTraits.ScaleSource.PREAMBLE,
-                    PREAMBLE_FIELDS.stream().sorted().toArray(String[]::new));
+            YamlMap f = s.map("fields", source == DigitizerTraits.ScaleSource.REPLY_FIELDS,
+                    REPLY_FIELDS.stream().sorted().toArray(String[]::new));
             if (f != null) {
-                for (String name : PREAMBLE_FIELDS) {
+                for (String name : REPLY_FIELDS) {
                     Integer pos = f.integer(name, name.equals("y_increment"), 1, 64);
                     if (pos != null) {
                         fields.put(name, pos);
                     }
                 }
-                if (source != DigitizerTraits.ScaleSource.PREAMBLE) {
-                    s.problem("fields", "only a preamble has fields");
+                if (source != DigitizerTraits.ScaleSource.REPLY_FIELDS) {
+                    s.problem("fields", "only source: reply_fields has fields (positions in the scale query's reply)");
                 }
             }
             Map<String, CommandTemplate> queries = new LinkedHashMap<>();
             YamlMap q = s.map("queries", source == DigitizerTraits.ScaleSource.QUERIES,
-                    PREAMBLE_FIELDS.stream().sorted().toArray(String[]::new));
+                    REPLY_FIELDS.stream().sorted().toArray(String[]::new));
             if (q != null) {
-                for (String name : PREAMBLE_FIELDS) {
+                for (String name : REPLY_FIELDS) {
                     String text = q.text(name, name.equals("y_increment"));
                     if (text != null) {
                         try {
@@ -112,7 +114,7 @@ final class DigitizerTraitsReader {
                 }
             }
             if (source == DigitizerTraits.ScaleSource.NONE && encoding != null && encoding.isInteger()) {
-                s.problem("source", "an integer trace format needs scaling: scale_query, preamble or formula");
+                s.problem("source", "an integer trace format needs scaling: scale_query, reply_fields, queries or formula");
             }
             scaling = new DigitizerTraits.Scaling(source == null ? DigitizerTraits.ScaleSource.SCALE_QUERY : source,
                     Map.copyOf(fields), Map.copyOf(queries), zero == null ? 0 : zero, full == null ? 0 : full, clipLow, clipHigh);

@@ -428,13 +428,13 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     /**
      * The channel's scaling as {x increment, x origin, y increment, y origin}, volts = y origin +
-     * y increment * code: from the instrument (four numbers or a preamble), from the declared
+     * y increment * code: from the instrument (four numbers or the scale query's reply), from the declared
      * formula, or the identity for data in volts.
      */
     private double[] scale(int channel, double range, double offset) {
         DigitizerTraits.Scaling sc = traits.scaling();
         return switch (sc.source()) {
-            case SCALE_QUERY, PREAMBLE -> {
+            case SCALE_QUERY, REPLY_FIELDS -> {
                 if (!scales.containsKey(channel)) {
                     queryScales(channel);
                 }
@@ -487,7 +487,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     private double[] parseScale(String command, String reply) {
-        if (traits.scaling().source() == DigitizerTraits.ScaleSource.PREAMBLE) {
+        if (traits.scaling().source() == DigitizerTraits.ScaleSource.REPLY_FIELDS) {
             return parsePreamble(command, reply);
         }
         String[] parts = reply.split(",");
@@ -531,7 +531,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         return scaleFrom(v, command.toString());
     }
 
-    /** Fields picked by position from a preamble: volts = (code - y reference) * y increment + y origin. */
+    /** Fields picked by position from the scale query's reply: volts = (code - y reference) * y increment + y origin. */
     private double[] parsePreamble(String command, String reply) {
         String[] parts = reply.split(",");
         Map<String, Integer> fields = traits.scaling().fields();

@@ -4,18 +4,20 @@ import java.util.List;
 import org.lrbench.instrument.Switch;
 
 /**
- * A multi-position fixture behind a switch unit: position i of the tray (serials in tray order)
- * is connected by closing channel 101 + i, so a whole tray is measured unattended. Serials already
- * measured in the inspection are passed over.
+ * A multi-position fixture behind a switch unit: the tray's positions (serials in tray order) are
+ * on consecutive channels from the bench's first channel (bench file key {@code switch.first_channel}),
+ * each connected in turn, so a whole tray is measured unattended. Serials already measured in the
+ * inspection are passed over.
  */
 public final class SwitchFeeder implements PartFeeder {
-    public static final int FIRST_CHANNEL = 101;
     private final Switch unit;
+    private final int firstChannel;
     private final List<String> serials;
     private int next;
 
-    public SwitchFeeder(Switch unit, List<String> serials) {
+    public SwitchFeeder(Switch unit, int firstChannel, List<String> serials) {
         this.unit = unit;
+        this.firstChannel = firstChannel;
         this.serials = serials;
     }
 
@@ -29,7 +31,7 @@ public final class SwitchFeeder implements PartFeeder {
             return Next.stop();
         }
         int position = next++;
-        unit.connect(FIRST_CHANNEL + position);
+        unit.connect(firstChannel + position);
         return Next.measure(serials.get(position), null);
     }
 }

@@ -30,16 +30,18 @@ public final class TrayRun {
         try (BenchInstruments inst = BenchInstruments.open(b, setup.drivers(), bench, true)) {
             inst.switchUnit().prepare();
             return LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(),
-                    tray.parts().stream().map(SimLot.Part::serial).toList()), onPart);
+                    b.switchUnit().firstChannel(), tray.parts().stream().map(SimLot.Part::serial).toList()), onPart);
         }
     }
 
     /** A real tray in the switch unit's positions, serials in position order. */
     public static LotRunner.Outcome switched(LotRunner.Setup setup, List<String> serials, Consumer<PartResult> onPart)
             throws Exception {
-        try (BenchInstruments inst = BenchInstruments.open(setup.template().bench(), setup.drivers(), null, true)) {
+        BenchConfig b = setup.template().bench();
+        try (BenchInstruments inst = BenchInstruments.open(b, setup.drivers(), null, true)) {
             inst.switchUnit().prepare();
-            return LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(), serials), onPart);
+            return LotRunner.run(setup.withShared(inst), new SwitchFeeder(inst.switchUnit(),
+                    b.switchUnit().firstChannel(), serials), onPart);
         }
     }
 }

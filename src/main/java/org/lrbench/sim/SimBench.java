@@ -43,7 +43,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
 
     /**
      * A tray of parts in a multi-position fixture behind a switch unit: the part at the one closed
-     * channel (101 for the first position) is connected; with none closed the fixture is open.
+     * channel (1 for the first position) is connected; with none closed the fixture is open.
      */
     public SimBench(SimSettings settings, double senseOhm, List<PartModel> tray) {
         this(settings, FixtureWiring.differential(senseOhm), tray.get(0), tray);

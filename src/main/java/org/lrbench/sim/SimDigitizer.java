@@ -56,39 +56,34 @@ public final class SimDigitizer extends ScpiDevice {
         }
     }
 
-    /** The volts per division of the {@code per-division-8} personality: 1-2-5 from 1 mV to 10 V. */
-    static final double[] PER_DIVISION = {0.001, 0.002, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10};
-    static final int DIVISIONS = 10;
-
-    /** The plus-minus ranges of the {@code plus-minus-12} personality: 1-2-5 from 5 mV to 50 V. */
-    static final double[] PLUS_MINUS_RANGES = {0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10, 20, 50};
     public static final int CHANNELS = 2;
     public static final double MIN_RANGE = 10e-3;
     public static final double MAX_RANGE = 100.0;
     public static final double CLOCK_INTERVAL = 1e-9;
     public static final int MAX_POINTS = 16 * 1024 * 1024;
 
-    private enum Format { ASCII, INT8, INT16, REAL32, REAL64 }
+    enum Format { ASCII, INT8, INT16, REAL32, REAL64 }
 
     private final AnalogInputs inputs;
     private final SimSettings settings;
     private final Random random;
-    private final double[] range = new double[CHANNELS + 1];
-    private final double[] offset = new double[CHANNELS + 1];
-    private final boolean[] acCoupled = new boolean[CHANNELS + 1];
-    private double interval;
-    private int points;
-    private String triggerSource;
-    private double triggerLevel;
-    private boolean triggerRising;
-    private Format format;
-    private boolean littleEndian;
-    private double[][] record;
-    private double firstSampleAfterTrigger;
+    final double[] range = new double[CHANNELS + 1];
+    final double[] offset = new double[CHANNELS + 1];
+    final boolean[] acCoupled = new boolean[CHANNELS + 1];
+    double interval;
+    int points;
+    String triggerSource;
+    double triggerLevel;
+    boolean triggerRising;
+    Format format;
+    boolean littleEndian;
+    double[][] record;
+    double firstSampleAfterTrigger;
     /** Encoded replies of the current record, per channel: the instrument's transfer buffer. */
-    private final Object[] encoded = new Object[CHANNELS + 1];
+    final Object[] encoded = new Object[CHANNELS + 1];
     private final Personality personality;
-    private boolean acquiring;
+    /** What each dialect resets of its own on *RST. */
+    private final java.util.List<Runnable> resets = new java.util.ArrayList<>();
 
     public SimDigitizer(AnalogInputs inputs, SimSettings settings) {
         super(switch (settings.digitizer()) {
@@ -102,314 +97,36 @@ public final class SimDigitizer extends ScpiDevice {
         this.random = new Random(settings.seed());
         reset();
         switch (personality) {
-            case PLUS_MINUS_12 -> registerPlusMinus();
-            case PER_DIVISION_8 -> registerPerDivision();
-            default -> registerGeneric();
+            case PLUS_MINUS_12 -> PlusMinusDialect.install(this);
+            case PER_DIVISION_8 -> PerDivisionDialect.install(this);
+            default -> GenericDialect.install(this);
         }
     }
 
-    /** The record lengths of the {@code per-division-8} personality; a request is rounded up (or to the longest). */
-    static final int[] RECORD_LENGTHS = {1000, 2000, 5000, 10_000, 20_000, 50_000, 100_000, 200_000, 500_000, 1_000_000};
-
-    private double timePerDivision;
-
-    /** The interval the per-division personality chooses to fill ten divisions with its record. */
-    private double chosenInterval() {
-        return Math.max(1, Math.floor(DIVISIONS * timePerDivision / points / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
+    /** A dialect's command or query on this digitizer's settings. */
+    void on(String pattern, boolean query, Handler handler) {
+        register(pattern, query, handler);
     }
 
-    /** The {@code per-division-8} dialect. */
-    private void registerPerDivision() {
-        register("CHANnel#:SCALe", false, c -> {
-            c.expect(1, 1);
-            double perDiv = c.number(0, 1e-6, 1e3, 1);
-            double best = PER_DIVISION[0];
-            for (double d : PER_DIVISION) {
-                if (Math.abs(Math.log(d / perDiv)) < Math.abs(Math.log(best / perDiv))) {
-                    best = d;
-                }
-            }
-            range[c.suffixUpTo(CHANNELS)] = DIVISIONS * best;
-            record = null;
-            return null;
-        });
-        register("CHANnel#:SCALe", true, c -> nr3(range[c.suffixUpTo(CHANNELS)] / DIVISIONS));
-        registerChannelOffsetAndCoupling();
-        register("ACQuire:SINTerval", false, c -> {
-            c.expect(1, 1);
-            double requested = c.number(0, CLOCK_INTERVAL, 1.0, 1e-6);
-            interval = Math.max(1, Math.floor(requested / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
-            record = null;
-            return null;
-        });
-        register("ACQuire:SINTerval", true, c -> nr3(interval));
-        // or the time per division of a ten-division screen: the instrument then chooses the interval
-        register("TIMebase:SCALe", false, c -> {
-            c.expect(1, 1);
-            timePerDivision = c.number(0, 1e-9, 100, 1e-3);
-            interval = chosenInterval();
-            record = null;
-            return null;
-        });
-        register("ACQuire:POINts", false, c -> {
-            c.expect(1, 1);
-            double wanted = c.number(0, 16, MAX_POINTS, 1000);
-            points = RECORD_LENGTHS[RECORD_LENGTHS.length - 1];
-            for (int n : RECORD_LENGTHS) {
-                if (n >= wanted) {
-                    points = n;
-                    break;
-                }
-            }
-            if (timePerDivision > 0) {
-                interval = chosenInterval();
-            }
-            record = null;
-            return null;
-        });
-        register("DATA:XSTep", true, c -> nr3(interval));
-        register("DATA:YSTep", true, c -> nr3(range[channelParameter(c)] / 256));
-        register("DATA:YZERo", true, c -> nr3(offset[channelParameter(c)]));
-        register("ACQuire:POINts", true, c -> Integer.toString(points));
-        register("TRIGger:EDGE:SOURce", false, c -> {
-            c.expect(1, 1);
-            triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
-            return null;
-        });
-        register("TRIGger:EDGE:LEVel", false, c -> {
-            c.expect(1, 1);
-            triggerLevel = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
-            return null;
-        });
-        register("TRIGger:EDGE:SLOPe", false, c -> {
-            c.expect(1, 1);
-            triggerRising = c.word(0, "POSitive", "NEGative").equals("POS");
-            return null;
-        });
-        register("ACQuire:ONCE", false, c -> {
-            c.expect(0, 0);
-            acquire();
-            return null;
-        });
-        // our own layout reply: points, x step, x zero, y step, y zero, y reference code, bits
-        register("DATA:LAYout", true, c -> {
-            int ch = channelParameter(c);
-            return points + "," + nr3(interval) + "," + nr3(firstSampleAfterTrigger) + "," + nr3(range[ch] / 256) + ","
-                    + nr3(offset[ch]) + ",0,8";
-        });
-        register("DATA:FETCh", true, c -> {
-            int ch = channelParameter(c);
-            if (encoded[ch] == null) {
-                encoded[ch] = encode(ch);
-            }
-            return encoded[ch];
-        });
+    /** A dialect's own state to reset on *RST. */
+    void onReset(Runnable r) {
+        resets.add(r);
+        r.run();
     }
 
-    /** CHANnel subsystem offset and coupling, shared by the personalities with that subsystem. */
-    private void registerChannelOffsetAndCoupling() {
-        register("CHANnel#:OFFSet", false, c -> {
-            c.expect(1, 1);
-            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
-            record = null;
-            return null;
-        });
-        register("CHANnel#:COUPling", false, c -> {
-            c.expect(1, 1);
-            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
-            record = null;
-            return null;
-        });
-    }
-
-    /** The {@code plus-minus-12} dialect. */
-    private void registerPlusMinus() {
-        register("CHANnel#:RANGe", false, c -> {
-            c.expect(1, 1);
-            double pm = c.number(0, 1e-6, 1e3, 1);
-            double granted = PLUS_MINUS_RANGES[PLUS_MINUS_RANGES.length - 1];
-            for (double r : PLUS_MINUS_RANGES) {
-                if (r >= pm * (1 - 1e-9)) {
-                    granted = r;
-                    break;
-                }
-            }
-            range[c.suffixUpTo(CHANNELS)] = 2 * granted;
-            record = null;
-            return null;
-        });
-        register("CHANnel#:RANGe", true, c -> nr3(range[c.suffixUpTo(CHANNELS)] / 2));
-        register("CHANnel#:RANGe:LIST", true, c -> {
-            c.suffixUpTo(CHANNELS);
-            StringBuilder sb = new StringBuilder();
-            for (double r : PLUS_MINUS_RANGES) {
-                sb.append(sb.length() == 0 ? "" : ",").append(nr3(r));
-            }
-            return sb.toString();
-        });
-        registerChannelOffsetAndCoupling();
-        register("ACQuire:SRATe", false, c -> {
-            c.expect(1, 1);
-            double rate = c.number(0, 1, 1 / CLOCK_INTERVAL, 1e6);
-            interval = Math.max(1, Math.floor(1 / rate / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
-            record = null;
-            return null;
-        });
-        register("ACQuire:SRATe", true, c -> nr3(1 / interval));
-        register("ACQuire:POINts", false, c -> {
-            c.expect(1, 1);
-            points = (int) Math.round(c.number(0, 16, MAX_POINTS, 1000));
-            record = null;
-            return null;
-        });
-        register("ACQuire:POINts", true, c -> Integer.toString(points));
-        register("TRIGger:SOURce", false, c -> {
-            c.expect(1, 1);
-            triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
-            triggerLevel = 0;
-            triggerRising = true;
-            return null;
-        });
-        register("ACQuire:ARM", false, c -> {
-            c.expect(0, 0);
-            acquire();
-            acquiring = true;
-            return null;
-        });
-        // the first status query after ACQuire:ARM still finds the acquisition running
-        register("ACQuire:STATe", true, c -> {
-            if (acquiring) {
-                acquiring = false;
-                return "RUN";
-            }
-            return "STOP";
-        });
-        register("DATA:ENCoding", false, c -> {
-            c.expect(1, 1);
-            format = c.word(0, "WORD", "ASCii").equals("WORD") ? Format.INT16 : Format.ASCII;
-            littleEndian = false;
-            Arrays.fill(encoded, null);
-            return null;
-        });
-        register("DATA:FETCh", true, c -> {
-            int ch = channelParameter(c);
-            if (encoded[ch] == null) {
-                encoded[ch] = encode(ch);
-            }
-            return encoded[ch];
-        });
-    }
-
-    /** The generic SCPI-1999 dialect. */
-    private void registerGeneric() {
-        register("SENSe#:VOLTage[:DC]:RANGe[:UPPer]", false, c -> {
-            c.expect(1, 1);
-            range[c.suffixUpTo(CHANNELS)] = c.number(0, MIN_RANGE, MAX_RANGE, 10.0);
-            record = null;
-            return null;
-        });
-        register("SENSe#:VOLTage[:DC]:RANGe[:UPPer]", true, c -> {
-            c.expect(0, 1);
-            int ch = c.suffixUpTo(CHANNELS);
-            return nr3(c.count() == 0 ? range[ch] : c.number(0, MIN_RANGE, MAX_RANGE, 10.0));
-        });
-        register("SENSe#:VOLTage[:DC]:OFFSet", false, c -> {
-            c.expect(1, 1);
-            offset[c.suffixUpTo(CHANNELS)] = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
-            record = null;
-            return null;
-        });
-        register("SENSe#:VOLTage[:DC]:OFFSet", true, c -> nr3(offset[c.suffixUpTo(CHANNELS)]));
-        register("INPut#:COUPling", false, c -> {
-            c.expect(1, 1);
-            acCoupled[c.suffixUpTo(CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
-            record = null;
-            return null;
-        });
-        register("INPut#:COUPling", true, c -> acCoupled[c.suffixUpTo(CHANNELS)] ? "AC" : "DC");
-        register("[SENSe#]:SWEep:TINTerval", false, c -> {
-            c.expect(1, 1);
-            double requested = c.number(0, CLOCK_INTERVAL, 1.0, 1e-6);
-            // the clock divides down by whole numbers: the interval is rounded down to a multiple of it
-            interval = Math.max(1, Math.floor(requested / CLOCK_INTERVAL + 1e-9)) * CLOCK_INTERVAL;
-            record = null;
-            return null;
-        });
-        register("[SENSe#]:SWEep:TINTerval", true, c -> nr3(interval));
-        register("[SENSe#]:SWEep:POINts", false, c -> {
-            c.expect(1, 1);
-            points = (int) Math.round(c.number(0, 16, MAX_POINTS, 1000));
-            record = null;
-            return null;
-        });
-        register("[SENSe#]:SWEep:POINts", true, c -> Integer.toString(points));
-        register("TRIGger[:SEQuence]:SOURce", false, c -> {
-            c.expect(1, 1);
-            triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
-            return null;
-        });
-        register("TRIGger[:SEQuence]:SOURce", true, c -> triggerSource);
-        register("TRIGger[:SEQuence]:LEVel", false, c -> {
-            c.expect(1, 1);
-            triggerLevel = c.number(0, -MAX_RANGE, MAX_RANGE, 0);
-            return null;
-        });
-        register("TRIGger[:SEQuence]:LEVel", true, c -> nr3(triggerLevel));
-        register("TRIGger[:SEQuence]:SLOPe", false, c -> {
-            c.expect(1, 1);
-            triggerRising = c.word(0, "POSitive", "NEGative").equals("POS");
-            return null;
-        });
-        register("TRIGger[:SEQuence]:SLOPe", true, c -> triggerRising ? "POS" : "NEG");
-        register("FORMat[:DATA]", false, c -> {
-            c.expect(1, 2);
-            String type = c.word(0, "ASCii", "INTeger", "REAL");
-            int length = c.count() > 1 ? (int) c.number(1, 8, 64, 8) : (type.equals("REAL") ? 32 : 8);
-            Arrays.fill(encoded, null);
-            format = switch (type + length) {
-                case "ASC8" -> Format.ASCII;
-                case "INT8" -> Format.INT8;
-                case "INT16" -> Format.INT16;
-                case "REAL32" -> Format.REAL32;
-                case "REAL64" -> Format.REAL64;
-                default -> throw ScpiFault.illegalValue("FORMat " + type + "," + length);
-            };
-            return null;
-        });
-        register("FORMat:BORDer", false, c -> {
-            c.expect(1, 1);
-            littleEndian = c.word(0, "NORMal", "SWAPped").equals("SWAP");
-            Arrays.fill(encoded, null);
-            return null;
-        });
-        register("INITiate[:IMMediate]", false, c -> {
-            c.expect(0, 0);
-            acquire();
-            return null;
-        });
-        register("TRACe:SCALe", true, c -> {
-            int ch = channelParameter(c);
-            double yIncrement = switch (format) {
-                case INT8 -> range[ch] / 256;
-                case INT16 -> range[ch] / 65536;
-                default -> 1.0;
-            };
-            double yOrigin = format == Format.INT8 || format == Format.INT16 ? offset[ch] : 0.0;
-            return nr3(interval) + "," + nr3(firstSampleAfterTrigger) + "," + nr3(yIncrement) + "," + nr3(yOrigin);
-        });
-        register("TRACe[:DATA]", true, c -> {
-            int ch = channelParameter(c);
-            if (encoded[ch] == null) {
-                encoded[ch] = encode(ch);
-            }
-            return encoded[ch];
-        });
+    /** The channel's record in the transfer format, encoded once per record. */
+    Object encoded(int ch) {
+        if (encoded[ch] == null) {
+            encoded[ch] = encode(ch);
+        }
+        return encoded[ch];
     }
 
     @Override
     protected void reset() {
-        acquiring = false;
-        timePerDivision = 0;
+        if (resets != null) {
+            resets.forEach(Runnable::run);
+        }
         for (int ch = 1; ch <= CHANNELS; ch++) {
             range[ch] = 10.0;
             offset[ch] = 0;
@@ -425,7 +142,7 @@ public final class SimDigitizer extends ScpiDevice {
         record = null;
     }
 
-    private int channelParameter(Call c) throws ScpiFault {
+    int channelParameter(Call c) throws ScpiFault {
         c.expect(1, 1);
         int ch = c.word(0, "CH1", "CH2").equals("CH1") ? 1 : 2;
         if (record == null) {
@@ -434,7 +151,7 @@ public final class SimDigitizer extends ScpiDevice {
         return ch;
     }
 
-    private void acquire() {
+    void acquire() {
         // arming and trigger latency, then the record itself takes its time (instruments that
         // answer at once, the default for tests and the coverage benchmark, take neither); the
         // simulator's computing of the record is hidden inside that time
@@ -626,7 +343,7 @@ public final class SimDigitizer extends ScpiDevice {
         return out;
     }
 
-    private static String nr3(double v) {
+    static String nr3(double v) {
         return String.format(Locale.ROOT, "%.9E", v);
     }
 }

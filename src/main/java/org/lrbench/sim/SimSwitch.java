@@ -7,9 +7,10 @@ import org.lrbench.sim.scpi.ScpiDevice;
 import org.lrbench.sim.scpi.ScpiFault;
 
 /**
- * A simulated relay multiplexer behind SCPI: channels 101 to 100 + N, one per fixture position.
- * {@code ROUTe:CLOSe (@101)}, {@code ROUTe:OPEN (@101)}, {@code ROUTe:OPEN:ALL} and
- * {@code ROUTe:CLOSe? (@101)} (1 when closed).
+ * A simulated relay multiplexer behind SCPI: channels 1 to N, one per fixture position, named in
+ * SCPI-1999 channel lists: {@code ROUTe:CLOSe (@1)}, {@code ROUTe:OPEN (@1)}, {@code ROUTe:OPEN:ALL}
+ * and {@code ROUTe:CLOSe? (@1)} (1 when closed). A bench file for it names no {@code first_channel}
+ * (its default, 1, is this unit's first).
  */
 public final class SimSwitch extends ScpiDevice {
     private final int channels;
@@ -48,14 +49,14 @@ public final class SimSwitch extends ScpiDevice {
 
     /** The one closed position (0-based), or -1 when none or several are closed. */
     public synchronized int connectedPosition() {
-        return closed.size() == 1 ? closed.iterator().next() - 101 : -1;
+        return closed.size() == 1 ? closed.iterator().next() - 1 : -1;
     }
 
     private Set<Integer> list(Call c) throws ScpiFault {
         c.expect(1, 1);
         String p = c.text(0).replace(" ", "");
         if (!p.startsWith("(@") || !p.endsWith(")")) {
-            throw ScpiFault.dataType("channel list expected, as (@101)");
+            throw ScpiFault.dataType("channel list expected, as (@1)");
         }
         Set<Integer> out = new TreeSet<>();
         for (String ch : p.substring(2, p.length() - 1).split(",")) {
@@ -65,8 +66,8 @@ public final class SimSwitch extends ScpiDevice {
             } catch (NumberFormatException e) {
                 throw ScpiFault.dataType("channel '" + ch + "'");
             }
-            if (n < 101 || n > 100 + channels) {
-                throw ScpiFault.outOfRange("channel " + n + ", this unit has 101 to " + (100 + channels));
+            if (n < 1 || n > channels) {
+                throw ScpiFault.outOfRange("channel " + n + ", this unit has 1 to " + channels);
             }
             out.add(n);
         }

@@ -106,13 +106,13 @@ class DriverLoaderTests {
                 "setting: plus_minus", "vertical.setting",
                 "ranges: [5 mV, 10 mV", "vertical.ranges",
                 "full_scale_codes: 4096", "scaling.source",
-                "until: STOP", "acquisition.until",
+                "until: IDLE", "acquisition.until",
                 "trace_format: int16-big", "scaling.source");
         Map<String, String> replacement = Map.of(
                 "setting: plus_minus", "setting: halfway",
                 "ranges: [5 mV, 10 mV", "ranges: [5 mV, 1 mV",
                 "full_scale_codes: 4096", "clip_codes: [-1, 1]\n  # no codes",
-                "until: STOP", "# no until",
+                "until: IDLE", "# no until",
                 "trace_format: int16-big", "trace_format: int16-big\nunused: 1");
         for (var e : broken.entrySet()) {
             String text = base.replace(e.getKey(), replacement.get(e.getKey()));

@@ -145,8 +145,8 @@ class PersonalityTests {
     void aQueriedRangeListGivesTheRangeLimits(@TempDir Path dir) throws Exception {
         String text = Files.readString(HOME.resolve("drivers/sim-pm12-digitizer.yaml"))
                 .replaceAll("(?m)^  ranges: .*\\n", "")
-                .replace("  range_query: \":CHANnel{channel}:RANGe?\"", "  range_query: \":CHANnel{channel}:RANGe?\"\n"
-                        + "  range_list_query: \":CHANnel{channel}:RANGe:LIST?\"");
+                .replace("  range_query: \":INLet{channel}:SPAN?\"", "  range_query: \":INLet{channel}:SPAN?\"\n"
+                        + "  range_list_query: \":INLet{channel}:SPAN:STEPs?\"");
         Files.writeString(dir.resolve("pm12-listed.yaml"), text);
         DriverFile d = new DriverLoader(dir).load("pm12-listed", DriverKind.DIGITIZER);
         assertThat(d.digitizer().vertical().ranges()).isEmpty();

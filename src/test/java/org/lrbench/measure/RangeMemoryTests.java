@@ -44,16 +44,16 @@ class RangeMemoryTests {
         TestBench bench = new TestBench(sim, TestBench.genericDigitizer());
         RangeMemory memory = new RangeMemory();
         SweepRunner runner = new SweepRunner(bench.generator, bench.digitizer, BenchClock.NONE, memory);
-        sim.switchUnit().execute(":ROUTe:CLOSe (@101)");
+        sim.switchUnit().execute(":ROUTe:CLOSe (@1)");
         SweepRunner.Measurement first = runner.run(plan, SweepListener.NONE);
         assertThat(first.points().get(0).acquisitions()).as("the first part finds its ranges on short records")
                 .isGreaterThan(1);
-        sim.switchUnit().execute(":ROUTe:OPEN:ALL;:ROUTe:CLOSe (@102)");
+        sim.switchUnit().execute(":ROUTe:OPEN:ALL;:ROUTe:CLOSe (@2)");
         SweepRunner.Measurement second = runner.run(plan, SweepListener.NONE);
         assertThat(second.points().get(0).acquisitions()).as("ranged from the part before").isEqualTo(1);
         assertThat(model(second).inductanceHenry()).isCloseTo(1e-3, within(0.005e-3));
         assertThat(second.triangle()).isNotNull();
-        sim.switchUnit().execute(":ROUTe:OPEN:ALL;:ROUTe:CLOSe (@103)");
+        sim.switchUnit().execute(":ROUTe:OPEN:ALL;:ROUTe:CLOSe (@3)");
         SweepRunner.Measurement unlike = runner.run(plan, SweepListener.NONE);
         assertThat(model(unlike).inductanceHenry()).isCloseTo(10e-3, within(0.05e-3));
         assertThat(model(unlike).resistanceOhm()).isCloseTo(12, within(0.05 * 12));

@@ -17,15 +17,16 @@ class SwitchTests {
 
     @Test
     void channelListsOpenAndCloseRelays() {
-        // SCPI-1999 Vol. 2, ROUTe subsystem: channel lists are written (@101,102) (from memory)
+        // SCPI-1999 Vol. 2, ROUTe subsystem: channel lists are written (@1,2) (from memory); the
+        // simulated unit numbers its channels 1 to N
         SimSwitch s = new SimSwitch(4);
-        ask(s, ":ROUTe:CLOSe (@102)");
-        assertThat(ask(s, ":ROUT:CLOS? (@101,102)")).isEqualTo("0,1");
+        ask(s, ":ROUTe:CLOSe (@2)");
+        assertThat(ask(s, ":ROUT:CLOS? (@1,2)")).isEqualTo("0,1");
         assertThat(s.connectedPosition()).isEqualTo(1);
-        ask(s, ":ROUTe:CLOSe (@103)");
+        ask(s, ":ROUTe:CLOSe (@3)");
         assertThat(s.connectedPosition()).isEqualTo(-1); // two closed: no single part connected
         ask(s, ":ROUTe:OPEN:ALL");
-        ask(s, ":ROUTe:CLOSe (@105)");
+        ask(s, ":ROUTe:CLOSe (@5)");
         assertThat(ask(s, ":SYSTem:ERRor?")).startsWith("-222");
     }
 
@@ -34,7 +35,7 @@ class SwitchTests {
         SimBench b = new SimBench(SimSettings.defaults(), 100,
                 List.of(new PartModel(1e-3, 2.3, 0), new PartModel(2e-3, 4.0, 0)));
         assertThat(b.connectedPart()).isNull();
-        ask(b.switchUnit(), ":ROUTe:CLOSe (@102)");
+        ask(b.switchUnit(), ":ROUTe:CLOSe (@2)");
         assertThat(b.connectedPart().inductanceHenry()).isEqualTo(2e-3);
     }
 }
