@@ -2,7 +2,6 @@ package org.lrbench.report;
 
 import java.awt.BasicStroke;
 import java.awt.Color;
-import java.awt.Font;
 import java.awt.Graphics2D;
 import java.awt.Shape;
 import java.awt.geom.Ellipse2D;
@@ -388,13 +387,7 @@ final class Charts {
     }
 
     private static String png(JFreeChart chart) throws IOException {
-        chart.setBackgroundPaint(Color.WHITE);
-        chart.getTitle().setFont(new Font(Font.SANS_SERIF, Font.BOLD, 14));
-        XYPlot p = chart.getXYPlot();
-        p.setBackgroundPaint(Color.WHITE);
-        p.setDomainGridlinePaint(new Color(0xDD, 0xDD, 0xDD));
-        p.setRangeGridlinePaint(new Color(0xDD, 0xDD, 0xDD));
-        p.setOutlinePaint(Color.GRAY);
+        ChartTheme.apply(chart);
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         ChartUtils.writeChartAsPNG(out, chart, WIDTH, HEIGHT);
         return "data:image/png;base64," + Base64.getEncoder().encodeToString(out.toByteArray());

@@ -58,16 +58,16 @@ public final class SimGenerator extends ScpiDevice {
 
     private final double outputOhm;
     private final Personality personality;
-    private Waveform waveform;
-    private double frequency;
-    private double amplitudeVpp;
-    private double offset;
-    private double loadOhm;
-    private boolean outputOn;
+    Waveform waveform;
+    double frequency;
+    double amplitudeVpp;
+    double offset;
+    double loadOhm;
+    boolean outputOn;
     /** The arbitrary waveform's lines (peak 1, cosine phasors by harmonic of its period), its points and rate. */
-    private List<Harmonic> arbitraryLines = List.of();
-    private int arbitraryPoints;
-    private double arbitraryRate;
+    List<Harmonic> arbitraryLines = List.of();
+    int arbitraryPoints;
+    double arbitraryRate;
 
     private double frequencyChangeSecond;
 
@@ -77,7 +77,7 @@ public final class SimGenerator extends ScpiDevice {
     }
 
     /** A new frequency; the command completes once the output has settled there. */
-    private void changeFrequency(double f) {
+    void changeFrequency(double f) {
         if (f != frequency) {
             SimTiming.pass(frequencyChangeSecond);
         }
@@ -94,145 +94,15 @@ public final class SimGenerator extends ScpiDevice {
         this.personality = personality;
         reset();
         if (personality == Personality.PEAK_EMF) {
-            registerPeakEmf();
+            PeakEmfDialect.install(this);
         } else {
-            registerGeneric();
+            GeneratorScpiDialect.install(this);
         }
     }
 
-    /** The {@code peak-emf} dialect: levels are the open-circuit EMF whatever the load. */
-    private void registerPeakEmf() {
-        register("WAVe:TYPE", false, c -> {
-            c.expect(1, 1);
-            String w = c.word(0, "SINE", "TRIangle", "SQUare");
-            waveform = switch (w) {
-                case "SINE" -> Waveform.SINE;
-                case "TRI" -> Waveform.TRIANGLE;
-                default -> Waveform.SQUARE;
-            };
-            return null;
-        });
-        register("WAVe:FREQuency", false, c -> {
-            c.expect(1, 1);
-            changeFrequency(c.number(0, 1e-3, MAX_FREQUENCY, 1e3));
-            return null;
-        });
-        register("WAVe:PEAK", false, c -> {
-            c.expect(1, 1);
-            amplitudeVpp = 2 * c.number(0, 1e-3, MAX_EMF_PEAK - Math.abs(offset), 0.05);
-            return null;
-        });
-        register("WAVe:DC", false, c -> {
-            c.expect(1, 1);
-            double max = MAX_EMF_PEAK - amplitudeVpp / 2;
-            offset = c.number(0, -max, max, 0);
-            return null;
-        });
-        register("OUTPut", false, c -> {
-            c.expect(1, 1);
-            outputOn = c.word(0, "ON", "OFF").equals("ON");
-            return null;
-        });
-        register("OUTPut", true, c -> outputOn ? "ON" : "OFF");
-    }
-
-    /** The generic SCPI-1999 dialect. */
-    private void registerGeneric() {
-        register("[SOURce#]:FUNCtion[:SHAPe]", false, c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            String w = c.word(0, "SINusoid", "TRIangle", "SQUare", "USER");
-            if (w.equals("USER") && arbitraryPoints == 0) {
-                throw ScpiFault.settingsConflict("no arbitrary waveform loaded");
-            }
-            waveform = switch (w) {
-                case "SIN" -> Waveform.SINE;
-                case "TRI" -> Waveform.TRIANGLE;
-                case "USER" -> Waveform.ARBITRARY;
-                default -> Waveform.SQUARE;
-            };
-            return null;
-        });
-        register("[SOURce#]:FUNCtion[:SHAPe]", true, c -> switch (waveform) {
-            case SINE -> "SIN";
-            case TRIANGLE -> "TRI";
-            case SQUARE -> "SQU";
-            case ARBITRARY -> "USER";
-        });
-        // one period of points: an ASCII list from -1 to 1, or one definite block of 16-bit words,
-        // most significant byte first, full scale +/-32767
-        register("[SOURce#]:TRACe[:DATA]", false, c -> {
-            c.expect(1, MAX_ARBITRARY_POINTS).suffixUpTo(1);
-            double[] points;
-            if (c.count() == 1 && c.isBlock(0)) {
-                byte[] data = c.block(0);
-                if (data.length % 2 != 0 || data.length / 2 < 16 || data.length / 2 > MAX_ARBITRARY_POINTS) {
-                    throw ScpiFault.invalidBlock(data.length + " bytes: 16 to " + MAX_ARBITRARY_POINTS + " 16-bit words");
-                }
-                points = new double[data.length / 2];
-                for (int i = 0; i < points.length; i++) {
-                    int word = (short) ((data[2 * i] & 0xff) << 8 | data[2 * i + 1] & 0xff);
-                    if (word == Short.MIN_VALUE) {
-                        throw ScpiFault.outOfRange("word " + i + " is -32768; full scale is +/-32767");
-                    }
-                    points[i] = word / 32767.0;
-                }
-            } else {
-                c.expect(16, MAX_ARBITRARY_POINTS);
-                points = new double[c.count()];
-                for (int i = 0; i < points.length; i++) {
-                    points[i] = c.number(i, -1, 1, 0);
-                }
-            }
-            loadArbitrary(points);
-            return null;
-        });
-        register("[SOURce#]:TRACe:POINts", true, c -> Integer.toString(arbitraryPoints));
-        register("[SOURce#]:TRACe:RATE", false, c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            double rate = c.number(0, 1, MAX_ARBITRARY_RATE, 1e6);
-            if (arbitraryPoints > 0 && rate / arbitraryPoints > MAX_FREQUENCY) {
-                throw ScpiFault.outOfRange("the waveform would repeat above " + MAX_FREQUENCY + " Hz");
-            }
-            arbitraryRate = rate;
-            return null;
-        });
-        register("[SOURce#]:TRACe:RATE", true, c -> nr3(arbitraryRate));
-        Handler setFrequency = c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            changeFrequency(c.number(0, 1e-3, MAX_FREQUENCY, 1e3));
-            return null;
-        };
-        register("[SOURce#]:FREQuency[:CW]", false, setFrequency);
-        register("[SOURce#]:FREQuency:FIXed", false, setFrequency);
-        register("[SOURce#]:FREQuency[:CW]", true, c -> nr3(frequency));
-        register("[SOURce#]:FREQuency:FIXed", true, c -> nr3(frequency));
-        register("[SOURce#]:VOLTage[:LEVel][:IMMediate][:AMPLitude]", false, c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            double maxVpp = 2 * (MAX_EMF_PEAK - Math.abs(offset) * emfFactor()) / emfFactor();
-            amplitudeVpp = c.number(0, 1e-3, maxVpp, 0.1);
-            return null;
-        });
-        register("[SOURce#]:VOLTage[:LEVel][:IMMediate][:AMPLitude]", true, c -> nr3(amplitudeVpp));
-        register("[SOURce#]:VOLTage[:LEVel][:IMMediate]:OFFSet", false, c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            double max = (MAX_EMF_PEAK - amplitudeVpp / 2 * emfFactor()) / emfFactor();
-            offset = c.number(0, -max, max, 0);
-            return null;
-        });
-        register("[SOURce#]:VOLTage[:LEVel][:IMMediate]:OFFSet", true, c -> nr3(offset));
-        register("OUTPut#[:STATe]", false, c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            outputOn = c.bool(0);
-            return null;
-        });
-        register("OUTPut#[:STATe]", true, c -> outputOn ? "1" : "0");
-        register("OUTPut#:LOAD", false, c -> {
-            c.expect(1, 1).suffixUpTo(1);
-            String p = c.text(0).toUpperCase(Locale.ROOT);
-            loadOhm = p.equals("INF") || p.equals("INFINITY") ? Double.POSITIVE_INFINITY : c.number(0, 1, 10e3, 50);
-            return null;
-        });
-        register("OUTPut#:LOAD", true, c -> Double.isInfinite(loadOhm) ? "9.9E+37" : nr3(loadOhm));
+    /** A dialect's command or query on this generator's settings. */
+    void on(String pattern, boolean query, Handler handler) {
+        register(pattern, query, handler);
     }
 
     /**
@@ -240,7 +110,7 @@ public final class SimGenerator extends ScpiDevice {
      * Fourier transform, the output being the band-limited periodic signal through those samples
      * (an ideal reconstruction filter), lines at rounding level left out.
      */
-    private void loadArbitrary(double[] points) {
+    void loadArbitrary(double[] points) {
         int n = points.length;
         Complex[] x;
         if (Integer.bitCount(n) == 1) {
@@ -315,7 +185,7 @@ public final class SimGenerator extends ScpiDevice {
         arbitraryRate = 1e6; // the waveform memory keeps its points, as on most generators
     }
 
-    private double emfFactor() {
+    double emfFactor() {
         if (personality == Personality.PEAK_EMF) {
             return 1.0; // its levels are the open-circuit EMF
         }
