@@ -36,6 +36,18 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
     }
 
     /** The same bench with its simulation's seed moved by {@code offset} (its own noise per measurement). */
+    /**
+     * Successive simulated measurements of one kind (check-standard readings, rehearsal cases) draw
+     * their noise this many seeds apart: 7919, the 1000th prime, so that the series of different
+     * kinds seldom land on each other's seeds.
+     */
+    public static final long SEED_STEP = 7919L;
+
+    /** The bench of the {@code n}th simulated measurement of a series ({@link #SEED_STEP} apart). */
+    public BenchConfig nthDraw(long n) {
+        return withSeedOffset(SEED_STEP * n);
+    }
+
     public BenchConfig withSeedOffset(long offset) {
         return withSimulation(simulation().withSeed(simulation().seed() + offset));
     }

@@ -35,6 +35,11 @@ import org.lrbench.plan.TriangleCheck;
 public final class SweepRunner {
     /** Harmonics 2..9 enter the current's distortion figure. */
     static final int THD_HARMONICS = 9;
+    /**
+     * The first range (peak-to-peak) per volt of peak EMF: no node of the passive fixture exceeds the
+     * EMF, so twice it holds every signal, and 10 % more keeps the peak off the converter's last codes.
+     */
+    static final double START_RANGE_PER_PEAK = 2.2;
     /** Cycles per record while the first point's ranges are found. */
     static final int RANGING_CYCLES = 2;
     private final Generator generator;
@@ -115,7 +120,7 @@ public final class SweepRunner {
             }
         });
         // no node of this passive circuit exceeds the source EMF: start both channels above it
-        double start = 2.2 * sweep.peakEmfVolt();
+        double start = START_RANGE_PER_PEAK * sweep.peakEmfVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         List<PointResult> points = new ArrayList<>();
         outputOff = false;
@@ -230,7 +235,7 @@ public final class SweepRunner {
             setTriangle(t);
             triangleSet = clock.nanoTime();
         }
-        double start = 2.2 * t.amplitudeVolt();
+        double start = START_RANGE_PER_PEAK * t.amplitudeVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
         double[] known = memory == null ? null : memory.trianglePeaks(plan);
         if (known != null) {

@@ -84,9 +84,9 @@ public final class StandardCheck {
         SimulatedPart sim = null;
         BenchConfig bench = b;
         if (b.simulation() != null) {
-            // each check its own noise, as each check on a real bench has (a prime step between seeds)
+            // each check its own noise, as each check on a real bench has
             int checks = new CheckStandardLog(runs, b.name()).entries().size();
-            bench = b.withSeedOffset(7919L * (checks + 1));
+            bench = b.nthDraw(checks + 1);
             Path part = benchDir.resolve(cs.simulatedPart());
             if (!Files.isRegularFile(part)) {
                 throw new Refused("simulated check standard " + part + ": no such file");

@@ -78,7 +78,7 @@ public final class Rehearsal {
         int seed = 0;
         for (RehearsalCase c : cases) {
             for (int s = 0; s < seeds; s++) {
-                BenchConfig b = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 7919L * ++seed));
+                BenchConfig b = bench.nthDraw(++seed);
                 SimBench sim = new SimBench(b.simulation(), plan.wiring(), c.part());
                 PartResult r;
                 try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {

@@ -43,6 +43,19 @@ import org.lrbench.units.Units;
  */
 public final class PartRun {
     static final String METHOD = "lumped-model sweep fit of sine-fit phasors";
+    /**
+     * A fit whose residuals are more than this many times the variance noise and the corrections
+     * explain (a reduced chi-square above 4, the residual scatter twice the expected) warns that the
+     * model misses something (common practice, no source: a chi-square that large at the few to tens
+     * of degrees of freedom of a sweep is far beyond chance).
+     */
+    static final double RESIDUAL_WARNING = 4;
+    /**
+     * A point's phasor inductance and the model's differ by a warning only when they differ by more
+     * than this fraction as well (0.01 %, below any purchase specification's resolution; common
+     * practice, no source), so that a fit with tiny uncertainties does not warn on nothing.
+     */
+    static final double POINT_AGREEMENT_FLOOR = 1e-4;
 
     /** What identifies the measurement in its record. */
     public record Request(Plan plan, String planSha256, BenchConfig bench, String lot, String serial,
@@ -273,7 +286,7 @@ public final class PartRun {
         if (triangle != null) {
             warnings.addAll(triangleCheck(triangle, sweep, calibration));
         }
-        if (sweep.fit().covarianceScale() > 4) {
+        if (sweep.fit().covarianceScale() > RESIDUAL_WARNING) {
             warnings.add(String.format(Locale.ROOT, "the model leaves residuals %.1f times the variance that noise and"
                     + " the bench's corrections explain: uncertainties were scaled up; consider more model terms",
                     sweep.fit().covarianceScale()));
@@ -322,7 +335,8 @@ public final class PartRun {
             double model = LumpedModel.apparentInductance(p, z.frequencyHz());
             double uPoint = z.componentUncertaintyOhm() / omega;
             double combined = Budget.K * Math.hypot(uPoint, uModel * model / LumpedParameter.L.in(p));
-            if (Math.abs(z.inductanceHenry() - model) > combined && Math.abs(z.inductanceHenry() - model) > 1e-4 * model) {
+            if (Math.abs(z.inductanceHenry() - model) > combined
+                    && Math.abs(z.inductanceHenry() - model) > POINT_AGREEMENT_FLOOR * model) {
                 out.add(String.format(Locale.ROOT, "at %s the point's phasor inductance %s and the sweep model's %s"
                         + " differ by more than their combined expanded uncertainty %s",
                         Units.format(z.frequencyHz(), Dimension.FREQUENCY), Units.format(z.inductanceHenry(), Dimension.INDUCTANCE),

@@ -123,12 +123,6 @@ public final class BenchService implements AutoCloseable {
         }
     }
 
-    /**
-     * Starts a lot run; {@code tray} names a simulated lot in the simulator folder (simulated
-     * bench). Refused before anything is measured: a run already going (409), a lot started under
-     * other terms (409, naming each), a decided lot without a re-inspection reason (409, with its
-     * disposition), a simulated bench without a tray (400).
-     */
     /** The bench's state for the page: its name, and with a check standard the last check and whether a lot may start. */
     public Map<String, Object> benchState() throws IOException {
         Map<String, Object> m = new LinkedHashMap<>();
@@ -151,6 +145,12 @@ public final class BenchService implements AutoCloseable {
         return m;
     }
 
+    /**
+     * Starts a lot run through {@link LotStart}, the one way a lot starts; {@code tray} names a simulated lot in the simulator folder (simulated
+     * bench). Refused before anything is measured: a run already going (409), a lot started under
+     * other terms (409, naming each), a decided lot without a re-inspection reason (409, with its
+     * disposition), a simulated bench without a tray (400).
+     */
     public synchronized Run start(StartRequest q) throws Exception {
         if (current != null && current.state.equals("running")) {
             throw new ServiceException(409, "a run is already going on this bench: lot " + current.lot

@@ -37,7 +37,9 @@ public final class TcpTransport implements Transport {
     private final Deque<ByteBuf> chunks = new ArrayDeque<>();
     private ByteBuf current;
     private long queued;
-    private boolean dropped;
+    /** Why the connection ended before lrbench closed it (null while it is up), and what caused it. */
+    private String dropReason;
+    private Throwable dropCause;
     private Channel channel;
     private boolean closed;
 
@@ -76,7 +78,8 @@ public final class TcpTransport implements Transport {
         }
         synchronized (lock) {
             releaseQueued();
-            dropped = false;
+            dropReason = null;
+            dropCause = null;
             channel = f.channel();
         }
     }
@@ -114,8 +117,8 @@ public final class TcpTransport implements Transport {
                 if (current != null) {
                     break;
                 }
-                if (dropped) {
-                    throw new IOException("connection to " + address + " was closed by the instrument");
+                if (dropReason != null) {
+                    throw new IOException(dropReason, dropCause);
                 }
                 if (closed) {
                     throw new IOException("link to " + address + " is closed");
@@ -185,8 +188,10 @@ public final class TcpTransport implements Transport {
                 }
                 queued += msg.readableBytes();
                 if (queued > MAX_QUEUED) {
+                    // lrbench's own bound on unread input, not the instrument's doing
+                    dropReason = "lrbench closed the connection to " + address + ": more than " + (MAX_QUEUED >> 20)
+                            + " MiB arrived unread (a reply longer than any trace lrbench asks for)";
                     ctx.close();
-                    dropped = true;
                 } else {
                     chunks.add(msg.retain()); // kept until read: one copy, into the reader's array
                 }
@@ -198,7 +203,9 @@ public final class TcpTransport implements Transport {
         public void channelInactive(ChannelHandlerContext ctx) {
             synchronized (lock) {
                 if (ctx.channel() == channel) {
-                    dropped = true;
+                    if (dropReason == null) {
+                        dropReason = "connection to " + address + " was closed by the instrument";
+                    }
                     lock.notifyAll();
                 }
             }
@@ -206,6 +213,13 @@ public final class TcpTransport implements Transport {
 
         @Override
         public void exceptionCaught(ChannelHandlerContext ctx, Throwable cause) {
+            synchronized (lock) {
+                if (ctx.channel() == channel && dropReason == null) {
+                    dropReason = "connection to " + address + " failed: " + cause.getMessage();
+                    dropCause = cause;
+                    lock.notifyAll();
+                }
+            }
             ctx.close();
         }
     }
