@@ -35,7 +35,6 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
                 switchUnit, meter, simulation, accuracy, checkStandard);
     }
 
-    /** The same bench with its simulation's seed moved by {@code offset} (its own noise per measurement). */
     /**
      * Successive simulated measurements of one kind (check-standard readings, rehearsal cases) draw
      * their noise this many seeds apart: 7919, the 1000th prime, so that the series of different
@@ -48,6 +47,7 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
         return withSeedOffset(SEED_STEP * n);
     }
 
+    /** The same bench with its simulation's seed moved by {@code offset} (its own noise per measurement). */
     public BenchConfig withSeedOffset(long offset) {
         return withSimulation(simulation().withSeed(simulation().seed() + offset));
     }
