@@ -22,7 +22,7 @@ final class ChainCheck {
     private ChainCheck() {
     }
 
-    static List<String> findings(String lot, List<Inspection> inspections, List<ResultStore.HashedAttempt> attempts,
+    static List<String> findings(String lot, List<Inspection> inspections, List<ChainRows.HashedAttempt> attempts,
                                  List<ChainRecord> chain, State state) {
         List<String> out = new ArrayList<>();
         String prefix = "store: lot " + lot + ": ";
@@ -33,7 +33,7 @@ final class ChainCheck {
                 content.put("decision/" + i.round(), Canonical.sha256(Canonical.decision(i)));
             }
         }
-        for (ResultStore.HashedAttempt h : attempts) {
+        for (ChainRows.HashedAttempt h : attempts) {
             content.put("attempt/" + h.attempt().serial() + "/" + h.attempt().number(),
                     Canonical.sha256(Canonical.attempt(h.attempt(), h.programVersion(), h.tracesSha256())));
         }
