@@ -1,0 +1,16 @@
+package org.lrbench.measure;
+
+import org.lrbench.instrument.Digitizer;
+import org.lrbench.instrument.Generator;
+
+/**
+ * What every stage of one sweep shares: the instruments, the bench clock, what is remembered from
+ * the part before on instruments kept open (null: nothing), and whether the fixture is open.
+ */
+record SweepBench(Generator generator, Digitizer digitizer, BenchClock clock, RangeMemory memory, boolean openCircuit) {
+
+    /** What is left of a settle that started at {@code since} (the bench clock's time). */
+    double remaining(double settleSecond, long since) {
+        return clock.remaining(settleSecond, since);
+    }
+}
