@@ -128,7 +128,7 @@ public final class KillSoak {
         try (ResultStore s = ResultStore.open(work.resolve("data/lrbench.db"))) {
             Map<String, String> verdicts = new LinkedHashMap<>();
             s.parts(lot).forEach(a -> verdicts.put(a.serial(), a.verdict().word()));
-            String disposition = s.latestInspection(lot).map(i -> i.disposition()).orElse(null);
+            String disposition = s.latestInspection(lot).map(i -> i.disposition() == null ? null : i.disposition().word()).orElse(null);
             return new LotState(verdicts, disposition, s.attempts(lot).size());
         }
     }

@@ -18,6 +18,7 @@ import org.lrbench.bench.SimulatedPart;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.lot.ConsoleFeeder;
+import org.lrbench.sampling.LotDisposition;
 import org.lrbench.lot.LotEnd;
 import org.lrbench.lot.LotRefused;
 import org.lrbench.lot.LotRunner;
@@ -324,7 +325,7 @@ final class RunCommand implements Callable<Integer> {
     private static int closed(Inspection i) {
         System.out.printf("lot %s is closed: inspection %d was decided on %s: %s (%s).%nNothing was measured. To inspect"
                         + " it again, give --reinspect REASON; the earlier inspection is kept.%n", i.lot(), i.round(),
-                i.finishedAt(), i.disposition().toUpperCase(Locale.ROOT), i.dispositionReason());
-        return i.disposition().equals("accept") ? ExitCodes.PASS : ExitCodes.FAIL;
+                i.finishedAt(), i.disposition().word().toUpperCase(Locale.ROOT), i.dispositionReason());
+        return i.disposition() == LotDisposition.State.ACCEPT ? ExitCodes.PASS : ExitCodes.FAIL;
     }
 }

@@ -111,7 +111,7 @@ final class StoreCommands {
                             String.valueOf(l.lotSize()), String.valueOf(l.sampleSize()), String.valueOf(l.measured()),
                             String.valueOf(l.passed()), String.valueOf(l.failed()), String.valueOf(l.errors()),
                             String.valueOf(l.skipped()), String.valueOf(l.attempts()),
-                            l.disposition() == null ? "open" : l.disposition(),
+                            l.disposition() == null ? "open" : l.disposition().word(),
                             l.severity() == null ? "normal" : l.severity(), l.supplier() == null ? "" : l.supplier()));
                 }
                 print(List.of("lot", "inspection", "part_number", "started", "lot_size", "sample", "measured", "pass",
@@ -165,7 +165,7 @@ final class StoreCommands {
             try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
                 for (LotStatistics l : s.history(partNumber)) {
-                    rows.add(List.of(l.lot(), String.valueOf(l.round()), l.createdAt(), l.disposition() == null ? "open" : l.disposition(),
+                    rows.add(List.of(l.lot(), String.valueOf(l.round()), l.createdAt(), l.disposition() == null ? "open" : l.disposition().word(),
                             String.valueOf(l.measured()), num(Double.isNaN(l.yield()) ? null : 100 * l.yield(), "%.1f"),
                             full(l.meanInductanceH()), full(l.sdInductanceH()),
                             full(l.meanResistanceOhm()), full(l.sdResistanceOhm())));

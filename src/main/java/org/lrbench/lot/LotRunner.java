@@ -276,7 +276,7 @@ public final class LotRunner {
             // what an original inspection means for the switching rules (re-inspections do not count)
             Integer step = round == 1 && sev == Severity.NORMAL ? SwitchingRules.scoreStep(d) : null;
             Boolean reinstates = round == 1 && sev == Severity.REDUCED ? SwitchingRules.reinstatesNormal(d) : null;
-            s.ledger().decide(lot, round, d.state().name().toLowerCase(Locale.ROOT), d.reason(), step, reinstates,
+            s.ledger().decide(lot, round, d.state(), d.reason(), step, reinstates,
                     Instant.now().truncatedTo(ChronoUnit.MILLIS).toString());
         }
         return new Outcome(inspection, List.copyOf(kept), counting, d, false, stopped);

@@ -1,5 +1,6 @@
 package org.lrbench.records;
 
+import org.lrbench.sampling.LotDisposition;
 import org.lrbench.fixture.FixtureWiring;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -123,7 +124,7 @@ public final class StoreLedger implements LotLedger {
     }
 
     @Override
-    public boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+    public boolean decide(String lot, int round, LotDisposition.State disposition, String reason, Integer switchingStep,
                           Boolean reinstatesNormal, String now) {
         return store.decide(lot, round, disposition, reason, switchingStep, reinstatesNormal, now);
     }

@@ -65,7 +65,7 @@ public final class LotReport {
         }
         h.append("<h1>Inspection record: lot ").append(esc(lot)).append(" &mdash; ").append(esc(l.partNumber()))
                 .append("</h1>\n");
-        String disp = l.disposition() == null ? "open" : l.disposition();
+        String disp = l.disposition() == null ? "open" : l.disposition().word();
         h.append("<table id=\"identity\">");
         row(h, "disposition", "<span class=\"" + esc(disp) + "\">" + esc(disp.toUpperCase(Locale.ROOT)) + "</span>"
                 + (l.dispositionReason() == null ? "" : " &mdash; " + esc(l.dispositionReason())));
@@ -268,7 +268,7 @@ public final class LotReport {
             for (LotRecord i : inspections) {
                 h.append("<tr><td>").append(i.round()).append("</td><td>").append(esc(i.createdAt())).append("</td><td>")
                         .append(esc(i.reason() == null ? "first inspection" : i.reason())).append("</td><td>")
-                        .append(esc(i.disposition() == null ? "open" : i.disposition())).append("</td><td>")
+                        .append(esc(i.disposition() == null ? "open" : i.disposition().word())).append("</td><td>")
                         .append(esc(i.finishedAt() == null ? "-" : i.finishedAt())).append("</td></tr>");
             }
             h.append("</table>\n");
@@ -388,7 +388,7 @@ public final class LotReport {
             mean[i] = s.meanInductanceH() == null ? Double.NaN : s.meanInductanceH();
             sd[i] = s.sdInductanceH() == null ? Double.NaN : s.sdInductanceH();
             h.append("<tr><td>").append(esc(s.lot())).append("</td><td>").append(esc(s.createdAt())).append("</td><td>")
-                    .append(esc(s.disposition() == null ? "open" : s.disposition())).append("</td><td>").append(s.measured())
+                    .append(esc(s.disposition() == null ? "open" : s.disposition().word())).append("</td><td>").append(s.measured())
                     .append("</td><td>").append(Double.isNaN(s.yield()) ? "-" : String.format(Locale.ROOT, "%.1f %%",
                             100 * s.yield())).append("</td><td>").append(si(s.meanInductanceH(), Dimension.INDUCTANCE))
                     .append("</td><td>").append(si(s.sdInductanceH(), Dimension.INDUCTANCE)).append("</td><td>")

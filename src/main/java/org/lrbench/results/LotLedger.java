@@ -1,5 +1,6 @@
 package org.lrbench.results;
 
+import org.lrbench.sampling.LotDisposition;
 import org.lrbench.fixture.FixtureWiring;
 import java.io.IOException;
 import java.util.List;
@@ -48,7 +49,7 @@ public interface LotLedger {
      * score's step, whether it reinstates normal inspection; null where it does not count); false
      * when it was decided already.
      */
-    boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+    boolean decide(String lot, int round, LotDisposition.State disposition, String reason, Integer switchingStep,
                    Boolean reinstatesNormal, String now);
 
     /** Where a part number's scheme with a supplier stands under the switching rules. */

@@ -27,8 +27,20 @@ public final class LotDisposition {
         ACCEPT, REJECT, OPEN;
 
         /** The state as records and the service write it: accept, reject, open. */
+        @com.fasterxml.jackson.annotation.JsonValue
         public String word() {
             return name().toLowerCase(java.util.Locale.ROOT);
+        }
+
+        /** The state a record's word names; anything else is refused, naming the word. */
+        @com.fasterxml.jackson.annotation.JsonCreator
+        public static State of(String word) {
+            for (State s : values()) {
+                if (s.word().equals(word)) {
+                    return s;
+                }
+            }
+            throw new IllegalArgumentException("disposition '" + word + "': one of accept, reject, open");
         }
     }
 

@@ -195,7 +195,7 @@ public final class BenchService implements AutoCloseable {
             store.close();
             Inspection closed = ready.closed();
             throw new ServiceException(409, "lot " + closed.lot() + " is closed: inspection " + closed.round()
-                    + " was decided on " + closed.finishedAt() + ": " + closed.disposition().toUpperCase(Locale.ROOT)
+                    + " was decided on " + closed.finishedAt() + ": " + closed.disposition().word().toUpperCase(Locale.ROOT)
                     + " (" + closed.dispositionReason() + "). Nothing was measured; to inspect it again give"
                     + " reinspect_reason");
         }

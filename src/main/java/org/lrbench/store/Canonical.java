@@ -51,7 +51,7 @@ public final class Canonical {
     }
 
     public static String decision(Inspection i) {
-        ArrayNode a = COMPACT.createArrayNode().add("decision").add(i.lot()).add(i.round()).add(i.disposition())
+        ArrayNode a = COMPACT.createArrayNode().add("decision").add(i.lot()).add(i.round()).add(i.disposition().word())
                 .add(i.dispositionReason()).add(i.finishedAt());
         if (i.switchingStep() != null || i.reinstatesNormal() != null) {
             a.add(i.switchingStep()).add(i.reinstatesNormal());

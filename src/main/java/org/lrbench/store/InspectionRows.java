@@ -1,5 +1,6 @@
 package org.lrbench.store;
 
+import org.lrbench.sampling.LotDisposition;
 import java.sql.PreparedStatement;
 import java.sql.ResultSet;
 import java.sql.SQLException;
@@ -114,12 +115,26 @@ final class InspectionRows {
         return out;
     }
 
+    /** A stored disposition (null: open); a word lrbench never writes is a store fault naming the lot. */
+    private static LotDisposition.State disposition(String word, String lot) {
+        if (word == null) {
+            return null;
+        }
+        try {
+            return LotDisposition.State.of(word);
+        } catch (IllegalArgumentException e) {
+            throw new StoreException("lot " + lot + ": the stored " + e.getMessage() + " (the store was changed outside"
+                    + " lrbench; run lrbench verify)", e);
+        }
+    }
+
     private static Inspection inspection(ResultSet r) throws SQLException {
         LotTerms t = new LotTerms(r.getString(1), r.getString(3), r.getString(4), r.getString(5), r.getString(6),
                 StoreDb.whole(r, 7), StoreDb.whole(r, 8), r.getString(9), r.getString(10), r.getString(16), r.getString(17),
                 r.getString(18), ClassPlansJson.read(r.getString(21), r.getString(1)));
         Integer reinstates = StoreDb.whole(r, 20);
-        return new Inspection(t, r.getInt(2), r.getString(11), r.getString(12), r.getString(13), r.getString(14),
+        return new Inspection(t, r.getInt(2), r.getString(11), r.getString(12), disposition(r.getString(13), t.lot()),
+                r.getString(14),
                 r.getString(15), StoreDb.whole(r, 19), reinstates == null ? null : reinstates != 0);
     }
 
@@ -127,7 +142,7 @@ final class InspectionRows {
      * Records the disposition of an open inspection, once. Returns false (and changes nothing) when
      * the inspection was already decided.
      */
-    public boolean decide(String lot, int round, String disposition, String reason, String now) {
+    public boolean decide(String lot, int round, LotDisposition.State disposition, String reason, String now) {
         return decide(lot, round, disposition, reason, null, null, now);
     }
 
@@ -135,7 +150,7 @@ final class InspectionRows {
      * As above, with what the decision means for the switching rules (an original inspection under
      * a supplier's scheme): the switching score's step and whether it reinstates normal inspection.
      */
-    public boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+    public boolean decide(String lot, int round, LotDisposition.State disposition, String reason, Integer switchingStep,
                           Boolean reinstatesNormal, String now) {
         try {
             return store.inTransaction(() -> {
@@ -144,7 +159,7 @@ final class InspectionRows {
                 try (PreparedStatement p = store.db.prepareStatement("UPDATE inspection SET disposition = ?,"
                         + " disposition_reason = ?, finished_at = ?, switching_step = ?, reinstates_normal = ?"
                         + " WHERE lot = ? AND round = ? AND disposition IS NULL")) {
-                    p.setString(1, disposition);
+                    p.setString(1, disposition.word());
                     p.setString(2, reason);
                     p.setString(3, now);
                     setWhole(p, 4, switchingStep);

@@ -2,6 +2,7 @@ package org.lrbench.store;
 
 import java.util.List;
 import org.lrbench.sampling.ClassPlan;
+import org.lrbench.sampling.LotDisposition;
 
 /**
  * One inspection of a lot as the store holds it, counted by the attempt that counts for each
@@ -13,7 +14,7 @@ import org.lrbench.sampling.ClassPlan;
  */
 public record LotRecord(String lot, int round, String partNumber, String planPath, String planSha256, String bench,
                         Integer lotSize, Integer sampleSize, String sampling, String operator, String reason,
-                        String createdAt, String disposition, String dispositionReason, String finishedAt,
+                        String createdAt, LotDisposition.State disposition, String dispositionReason, String finishedAt,
                         int measured, int passed, int failed, int errors, int skipped, int attempts, String supplier,
                         String severity, String severityReason, List<ClassPlan> classPlans) {
 }

@@ -1,5 +1,6 @@
 package org.lrbench.store;
 
+import org.lrbench.sampling.LotDisposition;
 import java.nio.file.Path;
 import java.sql.SQLException;
 import java.util.List;
@@ -101,7 +102,7 @@ public final class ResultStore implements AutoCloseable {
      * Records the disposition of an open inspection, once. Returns false (and changes nothing) when
      * the inspection was already decided.
      */
-    public boolean decide(String lot, int round, String disposition, String reason, String now) {
+    public boolean decide(String lot, int round, LotDisposition.State disposition, String reason, String now) {
         return inspections.decide(lot, round, disposition, reason, now);
     }
 
@@ -109,7 +110,7 @@ public final class ResultStore implements AutoCloseable {
      * As above, with what the decision means for the switching rules (an original inspection under
      * a supplier's scheme): the switching score's step and whether it reinstates normal inspection.
      */
-    public boolean decide(String lot, int round, String disposition, String reason, Integer switchingStep,
+    public boolean decide(String lot, int round, LotDisposition.State disposition, String reason, Integer switchingStep,
                           Boolean reinstatesNormal, String now) {
         return inspections.decide(lot, round, disposition, reason, switchingStep, reinstatesNormal, now);
     }

@@ -106,7 +106,7 @@ public class LotRunTests {
             assertThat(measuredAgain).doesNotContain("HC0417-0001", "HC0417-0002", "HC0417-0003").hasSize(5);
             assertThat(second.counting()).extracting(Attempt::serial).doesNotHaveDuplicates().hasSize(8);
             assertThat(second.disposition().state()).isEqualTo(LotDisposition.State.REJECT);
-            assertThat(store.lots().get(0).disposition()).isEqualTo("reject");
+            assertThat(store.lots().get(0).disposition()).isEqualTo(LotDisposition.State.REJECT);
             assertThat(RecordCheck.findings(store, dir, "LOT-1")).isEmpty();
         }
     }
@@ -125,18 +125,18 @@ public class LotRunTests {
             assertThat(done.disposition().state()).isEqualTo(LotDisposition.State.REJECT);
             // the same lot again, even with a lot size that would accept it: closed, nothing measured
             List<String> measured = new ArrayList<>();
-            assertThat(LotRunner.preflight(setup(store, dir, 5)).disposition()).isEqualTo("reject");
+            assertThat(LotRunner.preflight(setup(store, dir, 5)).disposition()).isEqualTo(LotDisposition.State.REJECT);
             LotRunner.Outcome again = LotRunner.run(setup(store, dir, 5), new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> measured.add(r.serial()));
             assertThat(again.closed()).isTrue();
             assertThat(measured).isEmpty();
             assertThat(store.lots()).hasSize(1);
-            assertThat(store.lots().get(0).disposition()).isEqualTo("reject");
+            assertThat(store.lots().get(0).disposition()).isEqualTo(LotDisposition.State.REJECT);
             // a re-inspection is an explicit act with a reason: a new inspection, the first one kept
             LotRunner.Outcome second = LotRunner.run(setup(store, dir).reinspecting("supplier sorted the lot"),
                     new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> measured.add(r.serial()));
             assertThat(second.inspection().round()).isEqualTo(2);
             assertThat(measured).hasSize(8);
-            assertThat(store.lots()).extracting(l -> l.round() + " " + l.disposition())
+            assertThat(store.lots()).extracting(l -> l.round() + " " + l.disposition().word())
                     .containsExactly("1 reject", "2 reject");
             assertThat(store.attempts("LOT-1")).hasSize(16);
             // second attempts of each serial have their own files; the first ones are untouched

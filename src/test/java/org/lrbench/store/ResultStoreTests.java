@@ -1,5 +1,7 @@
 package org.lrbench.store;
 
+import org.lrbench.sampling.LotDisposition;
+
 import org.lrbench.judge.Verdict;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
@@ -132,18 +134,18 @@ public class ResultStoreTests {
             assertThatThrownBy(() -> s.inspect(otherPlan, null, "t1")).hasMessageContaining("plan content");
             assertThatThrownBy(() -> s.inspect(terms("L1", 40), "supplier screened the lot", "t1"))
                     .hasMessageContaining("still open");
-            assertThat(s.decide("L1", 1, "reject", "2 major nonconforming >= Re 2", "t2")).isTrue();
+            assertThat(s.decide("L1", 1, LotDisposition.State.REJECT, "2 major nonconforming >= Re 2", "t2")).isTrue();
             // a decision is taken once: a later one changes nothing
-            assertThat(s.decide("L1", 1, "accept", "0 major", "t3")).isFalse();
+            assertThat(s.decide("L1", 1, LotDisposition.State.ACCEPT, "0 major", "t3")).isFalse();
             Inspection closed = s.inspect(terms("L1", 5), null, "t4");
             assertThat(closed.decided()).isTrue();
-            assertThat(closed.disposition()).isEqualTo("reject");
+            assertThat(closed.disposition()).isEqualTo(LotDisposition.State.REJECT);
             assertThat(closed.terms().lotSize()).isEqualTo(40);
             // a re-inspection is explicit, with its reason, and keeps the first inspection
             Inspection second = s.inspect(terms("L1", 38), "supplier screened the lot", "t5");
             assertThat(second.round()).isEqualTo(2);
             assertThat(s.lots()).extracting(LotRecord::round, LotRecord::disposition, LotRecord::reason)
-                    .containsExactly(Tuple.tuple(1, "reject", null),
+                    .containsExactly(Tuple.tuple(1, LotDisposition.State.REJECT, null),
                             Tuple.tuple(2, null, "supplier screened the lot"));
             // parts of the closed inspection cannot be added any more
             assertThatThrownBy(() -> store(s, 1, 1, 1, part("L1", "S1", "pass"), null)).hasMessageContaining("closed");
@@ -159,7 +161,7 @@ public class ResultStoreTests {
             for (int i = 1; i <= 4; i++) {
                 store(s, 1, i, 1, part("L1", "S" + i, i == 2 ? "fail" : "pass"), null);
             }
-            s.decide("L1", 1, "accept", "1 major nonconforming <= Ac 1", "t1");
+            s.decide("L1", 1, LotDisposition.State.ACCEPT, "1 major nonconforming <= Ac 1", "t1");
             assertThat(s.chainFindings("L1")).isEmpty();
         }
         try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
@@ -189,7 +191,7 @@ public class ResultStoreTests {
         // a chain sealed by schema 3 must verify after schema 4: terms and decisions without a supplier,
         // severity or switching step have exactly the content they had (common practice, no source)
         LotTerms old = new LotTerms("L1", "P-1", "p.yaml", "ab".repeat(32), "b", 40, 8, "level II; AQL major 1", "op");
-        Inspection i = new Inspection(old, 1, null, "t0", "accept", "0 major", "t1");
+        Inspection i = new Inspection(old, 1, null, "t0", LotDisposition.State.ACCEPT, "0 major", "t1");
         assertThat(Canonical.terms(i)).isEqualTo("[\"terms\",\"L1\",1,\"P-1\",\"p.yaml\",\"" + "ab".repeat(32)
                 + "\",\"b\",40,8,\"level II; AQL major 1\",\"op\",null,\"t0\"]");
         assertThat(Canonical.decision(i)).isEqualTo("[\"decision\",\"L1\",1,\"accept\",\"0 major\",\"t1\"]");
@@ -223,7 +225,7 @@ public class ResultStoreTests {
             assertThat(a.number()).isEqualTo(1);
             assertThat(a.jsonFile()).isEqualTo("S1.json");
             assertThat(a.tracesFile()).isEqualTo("S1.lrtraces");
-            assertThat(s.lots().get(0).disposition()).isEqualTo("accept");
+            assertThat(s.lots().get(0).disposition()).isEqualTo(LotDisposition.State.ACCEPT);
             assertThat(s.chainFindings("OLD")).isEmpty();
         }
     }
