@@ -84,6 +84,9 @@ public final class ConsoleFeeder implements PartFeeder {
             String line = in.readLine();
             return line == null ? null : line.trim();
         } catch (IOException e) {
+            // the console is gone: nothing more can be asked, so the lot stops here and stays open
+            out.println();
+            out.println("console input failed (" + e.getMessage() + "): stopping; the lot can be resumed");
             return null;
         }
     }
