@@ -3,6 +3,7 @@ package org.lrbench.lot;
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.PrintStream;
+import org.lrbench.judge.Verdict;
 import org.lrbench.results.Names;
 
 /**
@@ -62,8 +63,8 @@ public final class ConsoleFeeder implements PartFeeder {
     }
 
     @Override
-    public String again(String serial, String verdict) {
-        out.printf("%s: %s. r + Enter to measure it again, Enter to go on: ", serial, verdict);
+    public String again(String serial, Verdict verdict) {
+        out.printf("%s: %s. r + Enter to measure it again, Enter to go on: ", serial, verdict.word());
         out.flush();
         if (!"r".equals(read())) {
             return null;

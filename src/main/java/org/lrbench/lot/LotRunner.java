@@ -253,7 +253,7 @@ public final class LotRunner {
                 kept.add(a);
                 tell(onPart, r);
                 stop.waiting((int) Attempt.counting(s.ledger().attempts(lot, round)).stream().filter(Attempt::judged).count(), n);
-                reason = feeder.again(r.serial(), r.verdict().word());
+                reason = feeder.again(r.serial(), r.verdict());
                 stop.working();
                 if (stop.requested()) {
                     stopped = true;

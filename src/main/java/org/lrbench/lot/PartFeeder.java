@@ -2,6 +2,7 @@ package org.lrbench.lot;
 
 import java.util.Set;
 import org.lrbench.bench.SimulatedPart;
+import org.lrbench.judge.Verdict;
 
 /**
  * Brings the next part of a lot's sample to the fixture: an operator at the console or at the
@@ -44,7 +45,7 @@ public interface PartFeeder {
      * Asked after each part: a reason to measure it again at once (the operator saw a bad
      * contact, say), or null to go on. The new measurement is a new attempt; both are kept.
      */
-    default String again(String serial, String verdict) {
+    default String again(String serial, Verdict verdict) {
         return null;
     }
 

@@ -9,6 +9,7 @@ import java.io.StringReader;
 import java.nio.charset.StandardCharsets;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
+import org.lrbench.judge.Verdict;
 
 /** The console prompt as a keyboard-wedge scanner and an operator use it. */
 class ConsoleFeederTests {
@@ -43,8 +44,8 @@ class ConsoleFeederTests {
     @Test
     void measuringAgainAfterAPartAsksWhy() {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
-        assertThat(feeder("r\nprobe moved\n", out).again("HC-3", "fail")).isEqualTo("probe moved");
-        assertThat(feeder("r\n\n", new ByteArrayOutputStream()).again("HC-3", "fail")).isNull();
-        assertThat(feeder("\n", new ByteArrayOutputStream()).again("HC-3", "pass")).isNull();
+        assertThat(feeder("r\nprobe moved\n", out).again("HC-3", Verdict.FAIL)).isEqualTo("probe moved");
+        assertThat(feeder("r\n\n", new ByteArrayOutputStream()).again("HC-3", Verdict.FAIL)).isNull();
+        assertThat(feeder("\n", new ByteArrayOutputStream()).again("HC-3", Verdict.PASS)).isNull();
     }
 }
