@@ -145,6 +145,7 @@ public final class ThroughputBenchmark {
             List<String> v = new ArrayList<>();
             int i = 0;
             for (SimLot.Part part : lot.parts()) {
+                // each part of the tray its own noise: seeds 31 apart, as the lot runner spreads them
                 BenchConfig b = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 31L * ++i));
                 SimBench sim = new SimBench(b.simulation(), p.wiring(), part.model());
                 try (BenchInstruments inst = BenchInstruments.open(b, loader, sim)) {

@@ -25,6 +25,13 @@ import org.lrbench.study.TypeOneStudy;
  * the plan's first inductance limit, its tolerance that limit's width.
  */
 public final class SimulatedStudy {
+    /**
+     * The crossed study's readings draw their noise this many seeds apart (1009, a prime, so that
+     * the part x trial grid never folds onto itself), each reading its own, as on a real bench.
+     */
+    static final long CROSSED_SEED_STEP = 1009L;
+    /** The type-1 study's repeated readings of one reference: seeds 7 apart, each reading its own noise. */
+    static final long TYPE_ONE_SEED_STEP = 7L;
 
     private SimulatedStudy() {
     }
@@ -42,7 +49,7 @@ public final class SimulatedStudy {
             Calibration cal = calibrate(plan, bench, drivers, parts.get(0));
             for (int i = 0; i < parts.size(); i++) {
                 for (int k = 0; k < trials; k++) {
-                    long seed = bench.simulation().seed() + 1009L * (i * trials + k + 1);
+                    long seed = bench.simulation().seed() + CROSSED_SEED_STEP * (i * trials + k + 1);
                     y[i][j][k] = reading(plan, bench.withSimulation(bench.simulation().withSeed(seed)), drivers,
                             parts.get(i), cal, limit);
                 }
@@ -62,7 +69,7 @@ public final class SimulatedStudy {
         Calibration cal = calibrate(plan, bench, drivers, reference);
         double[] v = new double[n];
         for (int k = 0; k < n; k++) {
-            v[k] = reading(plan, bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 7L * (k + 1))),
+            v[k] = reading(plan, bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + TYPE_ONE_SEED_STEP * (k + 1))),
                     drivers, reference, cal, limit);
         }
         return new TypeOne(v, TypeOneStudy.analyse(v, trueValue, tolerance(limit)));

@@ -1,5 +1,6 @@
 package org.lrbench.architecture;
 
+import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.classes;
 import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
 import static com.tngtech.archunit.library.dependencies.SlicesRuleDefinition.slices;
 
@@ -11,6 +12,7 @@ import com.tngtech.archunit.junit.AnalyzeClasses;
 import com.tngtech.archunit.junit.ArchTest;
 import com.tngtech.archunit.lang.ArchRule;
 import org.lrbench.lot.LotRunner;
+import org.lrbench.measure.SweepListener;
 import org.lrbench.records.CheckStandardLog;
 import org.lrbench.records.StoreLedger;
 
@@ -81,6 +83,13 @@ class ArchitectureTests {
                     String.class, String.class, String.class)
             .because("a lot starts in one place, lot.LotStart (validation, check gate, corrections, plan identity,"
                     + " scheme, preflight), whoever asks for it: the command line, the demo or the service");
+
+    @ArchTest
+    static final ArchRule theSweepHearsItsObserversThroughTheirGuard = classes().that().haveFullyQualifiedName(
+                    "org.lrbench.measure.SweepRunner")
+            .should().callMethod(SweepListener.class, "isolated", SweepListener.class)
+            .because("an observer cannot throw into the runner: SweepRunner.run calls its listener only through"
+                    + " SweepListener.isolated (run.ObserverTests shows a throwing listener changes nothing)");
 
     @ArchTest
     static final ArchRule noPackageCycles = slices().matching("org.lrbench.(*)..").should().beFreeOfCycles();
