@@ -47,6 +47,19 @@ public record BenchConfig(String source, String name, double maxAmplitudeVolt, I
         return withSeedOffset(SEED_STEP * n);
     }
 
+    /**
+     * The generator's output impedance, the source the fixture's current also flows through: the
+     * simulated bench's own on the simulator, else the bench file's {@code generator.output_impedance},
+     * else 50 ohm, the output of nearly every laboratory function generator (common practice, no source).
+     */
+    public double generatorOutputOhm() {
+        boolean simulated = generator == null || "sim".equals(generator.address().scheme());
+        if (simulated && simulation != null) {
+            return simulation.sourceImpedanceOhm();
+        }
+        return generator != null && generator.outputOhm() != null ? generator.outputOhm() : 50.0;
+    }
+
     /** The same bench with its simulation's seed moved by {@code offset} (its own noise per measurement). */
     public BenchConfig withSeedOffset(long offset) {
         return withSimulation(simulation().withSeed(simulation().seed() + offset));

@@ -182,7 +182,7 @@ public final class BenchLoader {
     }
 
     private static InstrumentLink link(YamlMap root, String key) {
-        YamlMap m = root.map(key, true, "driver", "address", "first_channel");
+        YamlMap m = root.map(key, true, "driver", "address", "first_channel", "output_impedance");
         if (m == null) {
             return null;
         }
@@ -194,7 +194,16 @@ public final class BenchLoader {
         try {
             Address a = Address.parse(address);
             Transports.check(a);
-            return new InstrumentLink(driver, a);
+            if (!key.equals("switch") && m.has("first_channel")) {
+                m.problem("first_channel", "only a switch unit has a first channel");
+            }
+            Double out = m.quantity("output_impedance", Dimension.RESISTANCE, false);
+            if (out != null && !key.equals("generator")) {
+                m.problem("output_impedance", "only the generator has an output impedance here");
+            } else if (out != null && !(out >= 0 && out <= 10e3)) {
+                m.problem("output_impedance", "must be 0 ohm to 10 kohm, such as 50 ohm");
+            }
+            return new InstrumentLink(driver, a, InstrumentLink.DEFAULT_FIRST_CHANNEL, out);
         } catch (AddressException e) {
             m.problem("address", e.getMessage());
             return null;

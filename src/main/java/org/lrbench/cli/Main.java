@@ -2,6 +2,7 @@ package org.lrbench.cli;
 
 import java.io.IOException;
 import org.lrbench.instrument.InstrumentException;
+import org.lrbench.measure.LevelRefused;
 import org.lrbench.lot.LotRefused;
 import org.lrbench.store.StoreException;
 import org.lrbench.transport.AddressException;
@@ -39,7 +40,7 @@ public final class Main implements Runnable {
                 commandLine.getErr().println("lrbench: results store: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
             }
-            if (e instanceof InstrumentException) {
+            if (e instanceof InstrumentException || e instanceof LevelRefused) {
                 commandLine.getErr().println("lrbench: instrument error: " + e.getMessage());
                 return ExitCodes.INSTRUMENT;
             }

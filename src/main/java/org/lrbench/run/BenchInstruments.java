@@ -30,6 +30,8 @@ import org.lrbench.yaml.ProblemsException;
 /** A bench's generator and digitizer, opened through their drivers and links; closes both links. */
 public final class BenchInstruments implements AutoCloseable {
     private final RangeMemory rangeMemory = new RangeMemory();
+    /** Set once these instruments proved their level ({@code LevelCheck}); reopened instruments prove it again. */
+    private boolean levelProven;
     private final Generator generator;
     private final Digitizer digitizer;
     private final List<ScpiSession> sessions;
@@ -49,6 +51,16 @@ public final class BenchInstruments implements AutoCloseable {
     }
 
     /** The bench's multimeter, or null when it has none (or it was not opened). */
+    /** Whether these instruments, as opened, have proved their level. */
+    public boolean levelProven() {
+        return levelProven;
+    }
+
+    /** Marks the level proved for as long as these instruments stay open. */
+    public void levelProved() {
+        levelProven = true;
+    }
+
     public Multimeter multimeter() {
         return meter;
     }

@@ -25,6 +25,8 @@ import org.lrbench.judge.Verdict;
 import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.MeasurementException;
 import org.lrbench.measure.MeasurementStopped;
+import org.lrbench.measure.LevelCheck;
+import org.lrbench.measure.LevelRefused;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.StopToken;
 import org.lrbench.measure.SweepListener;
@@ -102,6 +104,15 @@ public final class PartRun {
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
+            if (!instruments.levelProven()) {
+                // a factor common to both channels cancels in every ratio: the level is measured first, low
+                LevelCheck.Result level = LevelCheck.probe(plan, instruments.generator(), instruments.digitizer(), clock,
+                        request.bench().generatorOutputOhm(), request.bench().accuracy());
+                if (!level.proven()) {
+                    throw new LevelRefused(level);
+                }
+                instruments.levelProved();
+            }
             SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), clock,
                     instruments.rangeMemory())
                     .run(plan, listener, stop, fitAhead);
