@@ -1,5 +1,13 @@
 package org.lrbench.run;
 
+import java.util.Locale;
+import org.lrbench.bench.BenchConfig;
+import org.lrbench.measure.BenchClock;
+import org.lrbench.measure.LevelCheck;
+import org.lrbench.plan.Plan;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
+
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -32,6 +40,37 @@ public final class DriverExercise {
     private final List<Step> steps = new ArrayList<>();
 
     private DriverExercise() {
+    }
+
+    /**
+     * Plays a known low-level sine into the fixture as it stands ({@link LevelCheck}: a tenth of the
+     * plan's level at its first frequency) and judges the traces: the level proven, or each thing
+     * seen wrong with the driver key most likely behind it. The output is off again afterwards.
+     */
+    public static List<Step> signal(BenchInstruments bench, Plan plan, BenchConfig config, BenchClock clock) {
+        List<Step> out = new ArrayList<>();
+        OutputGuard guard = new OutputGuard(bench.generator());
+        try {
+            LevelCheck.Result r = LevelCheck.probe(plan, bench.generator(), bench.digitizer(), clock,
+                    config.generatorOutputOhm(), config.accuracy());
+            String what = String.format(Locale.ROOT, "sine %s at %s peak EMF", Units.format(r.frequencyHz(),
+                    Dimension.FREQUENCY), Units.format(r.askedVolt(), Dimension.VOLTAGE));
+            if (r.proven()) {
+                out.add(new Step("signal", what, true, String.format(Locale.ROOT, "measured %s (within +/- %.1f %%)",
+                        Units.format(r.measuredVolt(), Dimension.VOLTAGE), 100 * r.allowedRelative())));
+            }
+            for (LevelCheck.Finding f : r.findings()) {
+                out.add(new Step("signal", what, false, f.toString()));
+            }
+        } catch (RuntimeException e) {
+            out.add(new Step("signal", "low-level sine into the fixture", false, e.getMessage()));
+        } finally {
+            guard.close();
+        }
+        if (guard.failure() != null) {
+            out.add(new Step("generator", "output off after the signal", false, guard.failure()));
+        }
+        return out;
     }
 
     /** Exercises the opened instruments; the generator output is switched off before and after. */

@@ -105,6 +105,39 @@ class LevelCheckTests {
         assertThat(o.err()).contains("2.00 times the EMF asked for").contains("levels.referred_to");
     }
 
+    private static CommandLineTests.Outcome exercise(Path drivers, String bench, String... more) {
+        List<String> args = new java.util.ArrayList<>(List.of("exercise", "--sim", PART, "--bench",
+                HOME.resolve(bench).toString(), "--drivers", drivers.toString()));
+        args.addAll(List.of(more));
+        return CommandLineTests.run(args.toArray(String[]::new));
+    }
+
+    @Test
+    void exerciseJudgesASignalAndPassesSoundDrivers(@TempDir Path dir) throws Exception {
+        Path d = drivers(dir, null, null, null);
+        for (String bench : List.of("simulator/bench.yaml", "simulator/bench-pm12.yaml", "simulator/bench-div8.yaml")) {
+            CommandLineTests.Outcome open = exercise(d, bench);
+            assertThat(open.code()).as(bench + open.out()).isZero();
+            assertThat(open.out()).contains("ok     signal");
+            CommandLineTests.Outcome withPart = exercise(d, bench, "--plan", CommandLineTests.PLAN);
+            assertThat(withPart.code()).as(bench + withPart.out()).isZero();
+        }
+    }
+
+    @Test
+    void exerciseFailsDriversThatReadNothingOrGarbageWithTheKeyToCheck(@TempDir Path dir) throws Exception {
+        // every operation on its own still answers; only a signal shows the traces are wrong
+        Path zero = drivers(dir.resolve("zero"), "sim-div8-digitizer.yaml", "    y_increment: 4", "    y_increment: 3");
+        CommandLineTests.Outcome z = exercise(zero, "simulator/bench-div8.yaml");
+        assertThat(z.code()).isEqualTo(3);
+        assertThat(z.out()).contains("FAILED signal").contains("field positions count from 1");
+        Path order = drivers(dir.resolve("order"), "sim-pm12-digitizer.yaml", "trace_format: int16-big",
+                "trace_format: int16-little");
+        CommandLineTests.Outcome o = exercise(order, "simulator/bench-pm12.yaml");
+        assertThat(o.code()).isEqualTo(3);
+        assertThat(o.out()).contains("FAILED signal").contains("trace_format");
+    }
+
     private static List<Double> values(Path log, String regex) throws IOException {
         Matcher m = Pattern.compile(regex).matcher(Files.readString(log));
         List<Double> out = new java.util.ArrayList<>();
