@@ -67,11 +67,12 @@ final class CalibrateCommand implements Callable<Integer> {
         BenchClock sleeper = simBench != null ? BenchClock.NONE : BenchClock.REAL;
         CalibrationStore store = new CalibrationStore(dir, b.name());
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, simBench)) {
-            ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper);
-            store.save(m);
+            ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper, b.accuracy());
             System.out.printf(Locale.ROOT, "channel match: channel 2 gain %.5f +/- %.5f, skew %.1f +/- %.1f ps (%d frequencies)%n",
                     m.gainRatio(), m.gainUncertainty(), m.skewSecond() * 1e12, m.skewUncertaintySecond() * 1e12, m.points());
             FixtureCompensation f = CalibrationRun.fixture(p, inst, change, sleeper, m);
+            // both kept only once both are plausible: a refused calibration leaves the earlier one in force
+            store.save(m);
             store.save(f);
             FixtureCompensation.Point first = f.points().get(0);
             long opens = f.points().stream().filter(x -> !Double.isNaN(x.openReal()) && !x.modelled()).count();

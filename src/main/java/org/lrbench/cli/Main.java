@@ -1,7 +1,9 @@
 package org.lrbench.cli;
 
 import java.io.IOException;
+import org.lrbench.calibration.CalibrationRefused;
 import org.lrbench.instrument.InstrumentException;
+import org.lrbench.run.FixtureChange;
 import org.lrbench.measure.LevelRefused;
 import org.lrbench.lot.LotRefused;
 import org.lrbench.store.StoreException;
@@ -39,6 +41,14 @@ public final class Main implements Runnable {
             if (e instanceof StoreException) {
                 commandLine.getErr().println("lrbench: results store: " + e.getMessage());
                 return ExitCodes.BAD_INPUT;
+            }
+            if (e instanceof FixtureChange.OperatorGone) {
+                commandLine.getErr().println("lrbench: " + e.getMessage());
+                return ExitCodes.LOT_OPEN;
+            }
+            if (e instanceof CalibrationRefused) {
+                commandLine.getErr().println("lrbench: calibration: " + e.getMessage());
+                return ExitCodes.INSTRUMENT;
             }
             if (e instanceof InstrumentException || e instanceof LevelRefused) {
                 commandLine.getErr().println("lrbench: instrument error: " + e.getMessage());

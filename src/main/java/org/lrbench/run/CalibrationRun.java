@@ -8,7 +8,10 @@ import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.ChannelMatch;
+import org.lrbench.calibration.CalibrationRefused;
 import org.lrbench.calibration.FixtureCompensation;
+import org.lrbench.calibration.Plausibility;
+import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.fixture.FixturePosition;
 import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.InstrumentException;
@@ -29,6 +32,16 @@ public final class CalibrationRun {
     }
 
     public static ChannelMatch channels(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper) {
+        return channels(plan, inst, change, sleeper, BenchAccuracy.defaults());
+    }
+
+    /**
+     * The channel match, refused ({@link CalibrationRefused}, nothing kept) when the channels' gain
+     * ratio or skew is beyond what the bench's declared accuracies allow: then the digitizer's inputs
+     * were not both put on the sense resistor.
+     */
+    public static ChannelMatch channels(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper,
+                                        BenchAccuracy accuracy) {
         // both channels on the sense resistor: their raw ratio, at the fixture (probe attenuations), so
         // with low-side wiring channel 1 is not taken from channel 2 here
         Plan raw = plan;
@@ -51,8 +64,15 @@ public final class CalibrationRun {
             u[i] = Math.hypot(z.componentUncertaintyOhm() / z.impedanceOhm().abs(),
                     points.get(i).quantizationRelativeUncertainty());
         }
-        return ChannelMatch.fit(now(), f, ratio, u).withRangePairs(points.stream()
+        ChannelMatch m = ChannelMatch.fit(now(), f, ratio, u).withRangePairs(points.stream()
                 .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList());
+        double finest = points.stream().mapToDouble(PointResult::sampleIntervalSecond).min().orElse(0);
+        List<String> problems = Plausibility.channelMatch(m, f, ratio, u, accuracy, finest);
+        if (!problems.isEmpty()) {
+            throw new CalibrationRefused("the channel match", problems, "Were both digitizer inputs put across the"
+                    + " sense resistor? Channel 2 still across the part reads the part, not the channels");
+        }
+        return m;
     }
 
     /** Both corrections in turn: the channel match, then the fixture measured with it in force. */
@@ -80,7 +100,13 @@ public final class CalibrationRun {
                     open.getReal(), open.getImaginary(), s.componentUncertaintyOhm(), false, uy));
         }
         change.moveTo(FixturePosition.PART);
-        return new FixtureCompensation(now(), strayEverywhere(out));
+        FixtureCompensation f = new FixtureCompensation(now(), strayEverywhere(out));
+        List<String> problems = Plausibility.fixture(f);
+        if (!problems.isEmpty()) {
+            throw new CalibrationRefused("the fixture compensation", problems, "Was the part taken out and the shorting"
+                    + " bar put in its place for the short, and the place left empty for the open?");
+        }
+        return f;
     }
 
     /**

@@ -14,6 +14,15 @@ public interface FixtureChange {
 
     void moveTo(FixturePosition position);
 
+    /** No answer from the operator (end of input): a clean stop, not a fault of lrbench. */
+    final class OperatorGone extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        public OperatorGone(String message) {
+            super(message);
+        }
+    }
+
     /** Console prompts for a real bench; returns after the operator presses Enter. */
     static FixtureChange console(BufferedReader in, PrintStream out) {
         return position -> {
@@ -28,10 +37,13 @@ public interface FixtureChange {
             out.println("(The generator output is off while you change the wiring.)");
             try {
                 if (in.readLine() == null) {
-                    throw new IllegalStateException("no operator input: calibration stopped");
+                    throw new OperatorGone("the console ended before the fixture was in place ("
+                            + position.name().toLowerCase(java.util.Locale.ROOT).replace('_', ' ')
+                            + "): calibration stopped, nothing stored, the generator output is off");
                 }
             } catch (IOException e) {
-                throw new IllegalStateException("reading the operator's answer failed", e);
+                throw new OperatorGone("reading the operator's answer failed (" + e.getMessage() + "): calibration"
+                        + " stopped, nothing stored, the generator output is off");
             }
         };
     }

@@ -380,7 +380,7 @@ class CommandLineTests {
         String part = HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString();
         Outcome ok = run("exercise", "--sim", part);
         assertThat(ok.code()).as(ok.out() + ok.err()).isZero();
-        assertThat(ok.out()).contains("ok     digitizer fetch and decode, channel 2").contains("20 of 20 operations worked");
+        assertThat(ok.out()).contains("ok     digitizer fetch and decode, channel 2").contains("ok     signal").contains("21 of 21 operations worked");
         Path drivers = copyOfDrivers(dir);
         Path digitizer = drivers.resolve("generic-digitizer.yaml");
         Files.writeString(digitizer, Files.readString(digitizer).replace(":SENSe{channel}:VOLTage:RANGe {range}",

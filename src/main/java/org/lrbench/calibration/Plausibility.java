@@ -1,0 +1,105 @@
+package org.lrbench.calibration;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import org.apache.commons.math3.complex.Complex;
+import org.lrbench.uncertainty.BenchAccuracy;
+import org.lrbench.units.Dimension;
+import org.lrbench.units.Units;
+
+/**
+ * What a bench's corrections can physically be, checked before they are kept: a calibration made
+ * with the wiring never changed (the operator pressed Enter at every prompt) measures the part, not
+ * the channels, the short or the open, and must not be believed.
+ */
+public final class Plausibility {
+    /**
+     * A short's resistance above 1 ohm is no shorting bar (a bar and a fixture's leads are tens of
+     * milliohms; common practice, no source).
+     */
+    static final double SHORT_MAX_OHM = 1.0;
+    /** A short's inductance above 2 uH is no shorting bar (leads are about 1 uH per metre; common practice, no source). */
+    static final double SHORT_MAX_HENRY = 2e-6;
+    /** An open fixture's stray capacitance above 200 pF is no open (common practice, no source). */
+    static final double OPEN_MAX_FARAD = 200e-12;
+    /** An open fixture's leakage above 10 uS (below 100 kohm) is no open (common practice, no source). */
+    static final double OPEN_MAX_SIEMENS = 1e-5;
+    /** How many standard uncertainties a reading may stray past a bound. */
+    static final double COVERAGE = 3;
+
+    private Plausibility() {
+    }
+
+    /**
+     * The channel match against the bench's declared accuracies: each channel's gain within its
+     * accuracy (so their ratio within twice it) and the skew within the declared skew plus two of the
+     * finest sample intervals used; an empty list when it is plausible.
+     */
+    public static List<String> channelMatch(ChannelMatch m, double[] frequencyHz, List<Complex> ratio,
+                                            double[] relativeUncertainty, BenchAccuracy accuracy,
+                                            double finestIntervalSecond) {
+        List<String> out = new ArrayList<>();
+        double skewLimit = accuracy.skewSecond() + 2 * finestIntervalSecond;
+        // point by point, each against its own measurement uncertainty: a fit through readings of a
+        // part has a large scatter that would otherwise widen its own limits
+        for (int i = 0; i < frequencyHz.length; i++) {
+            double u = COVERAGE * relativeUncertainty[i];
+            double gain = ratio.get(i).abs();
+            double phaseLimit = 2 * Math.PI * frequencyHz[i] * skewLimit + u;
+            String at = " at " + Units.format(frequencyHz[i], Dimension.FREQUENCY);
+            if (!(Math.abs(gain - 1) <= 2 * accuracy.gainAccuracy() + u)) {
+                out.add(String.format(Locale.ROOT, "channel 2 reads %.4f of channel 1%s, where the channels' accuracies"
+                        + " (%.1f %% each) allow 1 +/- %.4f (fitted over the sweep: gain %.4f, skew %s)", gain, at,
+                        100 * accuracy.gainAccuracy(), 2 * accuracy.gainAccuracy() + u, m.gainRatio(),
+                        Units.format(m.skewSecond(), Dimension.TIME)));
+                break;
+            }
+            if (!(Math.abs(ratio.get(i).getArgument()) <= phaseLimit)) {
+                out.add(String.format(Locale.ROOT, "channel 2 is %.2f degrees off channel 1%s, where the declared skew and"
+                        + " two sample intervals (%s) allow %.2f (fitted over the sweep: skew %s)",
+                        Math.toDegrees(ratio.get(i).getArgument()), at, Units.format(skewLimit, Dimension.TIME),
+                        Math.toDegrees(phaseLimit), Units.format(m.skewSecond(), Dimension.TIME)));
+                break;
+            }
+        }
+        return out;
+    }
+
+    /** The short and the open at every frequency where they were read; an empty list when plausible. */
+    public static List<String> fixture(FixtureCompensation f) {
+        List<String> out = new ArrayList<>();
+        for (FixtureCompensation.Point p : f.points()) {
+            double omega = 2 * Math.PI * p.frequencyHz();
+            double u = p.shortUncertaintyOhm() == null ? 0 : p.shortUncertaintyOhm();
+            String at = " at " + Units.format(p.frequencyHz(), Dimension.FREQUENCY);
+            if (p.shortReal() > SHORT_MAX_OHM + COVERAGE * u || Math.abs(p.shortImag()) > omega * SHORT_MAX_HENRY + COVERAGE * u) {
+                out.add("the short reads " + Units.format(p.shortReal(), Dimension.RESISTANCE) + " and "
+                        + Units.format(p.shortImag() / omega, Dimension.INDUCTANCE) + at + ", where a shorting bar is below "
+                        + Units.format(SHORT_MAX_OHM, Dimension.RESISTANCE) + " and "
+                        + Units.format(SHORT_MAX_HENRY, Dimension.INDUCTANCE));
+                break;
+            }
+        }
+        for (FixtureCompensation.Point p : f.points()) {
+            if (Double.isNaN(p.openReal()) || Boolean.TRUE.equals(p.openModelled())) {
+                continue;
+            }
+            double omega = 2 * Math.PI * p.frequencyHz();
+            Complex z = new Complex(p.openReal(), p.openImag()).subtract(p.shortZ());
+            // the open's own reading uncertainty in ohm (kept as that of its admittance, u_Y = u_Z / |Z|^2)
+            double uz = p.openAdmittanceUncertainty() == null ? 0 : p.openAdmittanceUncertainty() * z.abs() * z.abs();
+            String at = " at " + Units.format(p.frequencyHz(), Dimension.FREQUENCY);
+            // an empty fixture's impedance is at least that of the largest stray and leakage it may have
+            double least = 1 / Math.hypot(OPEN_MAX_SIEMENS, omega * OPEN_MAX_FARAD);
+            if (z.abs() + COVERAGE * uz < least) {
+                out.add("the open reads only " + Units.format(z.getReal(), Dimension.RESISTANCE) + " + j "
+                        + Units.format(z.getImaginary(), Dimension.RESISTANCE) + " above the short" + at + ", an admittance far above an empty"
+                        + " fixture's (" + Units.format(OPEN_MAX_FARAD, Dimension.CAPACITANCE) + ", "
+                        + Units.format(1 / OPEN_MAX_SIEMENS, Dimension.RESISTANCE) + ")");
+                break;
+            }
+        }
+        return out;
+    }
+}
