@@ -72,6 +72,23 @@ public final class SweepAnalysis {
             effects.add(new Perturbation("gain ratio on ranges other than the channel match's (bench specification)",
                     Distribution.RECTANGULAR, accuracy.rangeGainMatch(), "relative", inf, d -> scale(points, 1 + d)));
         }
+        BenchAccuracy.FixtureBounds fx = accuracy.fixture();
+        if (fx != null) {
+            // no open/short compensation in force: what the fixture may add enters as the bench's bounds,
+            // so U covers the uncorrected error instead of leaving the fixture out
+            if (fx.leadOhm() > 0) {
+                effects.add(new Perturbation("fixture leads' resistance, not compensated (bench bound)",
+                        Distribution.RECTANGULAR, fx.leadOhm(), "ohm", inf, d -> series(points, new Complex(d, 0), 0)));
+            }
+            if (fx.leadHenry() > 0) {
+                effects.add(new Perturbation("fixture leads' inductance, not compensated (bench bound)",
+                        Distribution.RECTANGULAR, fx.leadHenry(), "H", inf, d -> series(points, Complex.ZERO, d)));
+            }
+            if (fx.strayFarad() > 0) {
+                effects.add(new Perturbation("fixture's stray capacitance, not compensated (bench bound)",
+                        Distribution.RECTANGULAR, fx.strayFarad(), "F", inf, d -> stray(points, d)));
+            }
+        }
         if (max(quantization) > 0) {
             // the correction's own uncertainty, in units of each point's standard uncertainty
             effects.add(new Perturbation("converter quantization, repeatable part (corrected)", Distribution.NORMAL, 1,
@@ -186,6 +203,26 @@ public final class SweepAnalysis {
 
     private static List<ImpedancePoint> scale(List<ImpedancePoint> points, double factor) {
         return map(points, p -> p.times(new Complex(factor, 0)));
+    }
+
+    /** Leads in series taken out: Z - (r + j w l). */
+    private static List<ImpedancePoint> series(List<ImpedancePoint> points, Complex r, double henry) {
+        return map(points, p -> {
+            Complex lead = r.add(new Complex(0, 2 * Math.PI * p.frequencyHz() * henry));
+            return p.corrected(p.impedanceOhm().subtract(lead), Complex.ONE, 0);
+        });
+    }
+
+    /** A stray capacitance across the terminals taken out: 1 / (1 / Z - j w C). */
+    private static List<ImpedancePoint> stray(List<ImpedancePoint> points, double farad) {
+        return map(points, p -> {
+            Complex y = new Complex(0, 2 * Math.PI * p.frequencyHz() * farad);
+            Complex z = p.impedanceOhm();
+            Complex out = z.reciprocal().subtract(y).reciprocal();
+            // d out / d z = 1 / (1 - y z)^2
+            Complex slope = Complex.ONE.subtract(y.multiply(z)).pow(-2);
+            return p.corrected(out, slope, 0);
+        });
     }
 
     /** Channel 2 late by tau against channel 1: the measured Z turns by -2 pi f tau. */

@@ -145,7 +145,8 @@ public final class BenchLoader {
     private static BenchAccuracy accuracy(YamlMap root) {
         BenchAccuracy d = BenchAccuracy.defaults();
         YamlMap m = root.map("accuracy", false, "sense_resistor_tolerance", "gain_accuracy", "skew", "frequency_accuracy",
-                "range_gain_match");
+                "range_gain_match", "uncorrected_lead_resistance", "uncorrected_lead_inductance",
+                "uncorrected_stray_capacitance");
         if (m == null) {
             return d;
         }
@@ -157,9 +158,23 @@ public final class BenchLoader {
         }
         Double freq = relative(m, "frequency_accuracy");
         Double ranges = relative(m, "range_gain_match");
+        BenchAccuracy.FixtureBounds fd = BenchAccuracy.FixtureBounds.defaults();
+        Double leadOhm = nonNegative(m, "uncorrected_lead_resistance", Dimension.RESISTANCE);
+        Double leadHenry = nonNegative(m, "uncorrected_lead_inductance", Dimension.INDUCTANCE);
+        Double strayFarad = nonNegative(m, "uncorrected_stray_capacitance", Dimension.CAPACITANCE);
         return new BenchAccuracy(sense == null ? d.senseTolerance() : sense, gain == null ? d.gainAccuracy() : gain,
                 skew == null ? d.skewSecond() : skew, freq == null ? d.frequencyAccuracy() : freq,
-                ranges == null ? d.rangeGainMatch() : ranges, Double.POSITIVE_INFINITY);
+                ranges == null ? d.rangeGainMatch() : ranges, Double.POSITIVE_INFINITY, new BenchAccuracy.FixtureBounds(
+                leadOhm == null ? fd.leadOhm() : leadOhm, leadHenry == null ? fd.leadHenry() : leadHenry,
+                strayFarad == null ? fd.strayFarad() : strayFarad));
+    }
+
+    private static Double nonNegative(YamlMap m, String key, Dimension d) {
+        Double v = m.quantity(key, d, false);
+        if (v != null && !(v >= 0)) {
+            m.problem(key, "must not be negative");
+        }
+        return v;
     }
 
     /** {@code simulation.timing}: how long the simulated instruments take (none, lan, usb, serial). */

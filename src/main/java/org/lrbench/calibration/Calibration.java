@@ -91,4 +91,18 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
         double h = Math.max(1e-12, 1e-6 * z.abs());
         return f.apply(z.add(h)).subtract(f.apply(z.subtract(h))).divide(2 * h);
     }
+
+    /**
+     * Which corrections are in force, when they were measured and with which plan, in one line for
+     * the console, the record and the operator's page; with none, that U includes the bench's bounds.
+     */
+    public String inForce() {
+        if (channels == null && fixture == null) {
+            return "no corrections in force: U includes the fixture's and the channels' bench bounds (lrbench"
+                    + " calibrate measures them)";
+        }
+        return "corrections in force: channel match " + (channels == null ? "none" : "of " + channels.measuredAt())
+                + ", fixture short/open " + (fixture == null ? "none (U includes the fixture's bench bounds)"
+                : "of " + fixture.measuredAt() + (fixture.plan() == null ? "" : " (measured with " + fixture.plan() + ")"));
+    }
 }

@@ -10,7 +10,20 @@ import org.apache.commons.math3.complex.Complex;
  * Z_dut = (Z_m - Z_s) / (1 - (Z_m - Z_s) Y_o) with Z_s the short reading and
  * Y_o = 1 / (Z_open - Z_s). An open reading lost in noise counts as Y_o = 0 (no stray to remove).
  */
-public record FixtureCompensation(String measuredAt, List<Point> points) {
+public record FixtureCompensation(String measuredAt, List<Point> points, String plan, Double senseOhm) {
+
+    /**
+     * A compensation without the plan and sense resistor it was measured with (kept before they were
+     * recorded, and tests): then not checked against a plan's sense resistor.
+     */
+    public FixtureCompensation(String measuredAt, List<Point> points) {
+        this(measuredAt, points, null, null);
+    }
+
+    /** The same compensation, recorded as measured with this plan (its file) and sense resistor. */
+    public FixtureCompensation measuredWith(String planFile, double sense) {
+        return new FixtureCompensation(measuredAt, points, planFile, sense);
+    }
 
     /**
      * The short and open readings at one frequency; {@code openReal}/{@code openImag} NaN when lost in

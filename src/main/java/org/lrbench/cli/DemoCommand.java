@@ -103,6 +103,7 @@ final class DemoCommand implements Callable<Integer> {
                 throw new BadInputException("demo lot " + lot.lot() + ": " + e.getMessage());
             }
             LotRunner.Setup setup = ready.setup();
+            System.out.println(setup.template().calibration().inForce());
             ResultText.severity(System.out, setup.scheme());
             ResultText.samplingPlans(System.out, lotSize, setup.sampling());
             System.out.println();

@@ -23,6 +23,18 @@ final class ResultText {
     private ResultText() {
     }
 
+    /** Which corrections are in force and when they were measured, in one line. */
+    static String corrections(PartResult.CorrectionsRecord c) {
+        if (c == null || c.channelMatchMeasuredAt() == null && c.fixtureMeasuredAt() == null) {
+            return "no corrections in force: U includes the fixture's and the channels' bench bounds (lrbench calibrate"
+                    + " measures them)";
+        }
+        return "corrections in force: channel match " + (c.channelMatchMeasuredAt() == null ? "none"
+                : "of " + c.channelMatchMeasuredAt()) + ", fixture short/open " + (c.fixtureMeasuredAt() == null
+                ? "none (U includes the fixture's bench bounds)" : "of " + c.fixtureMeasuredAt());
+    }
+
+
     static void part(PrintStream out, PartResult r) {
         out.printf("part %s of lot %s, part number %s, bench %s%s%n", r.serial(), r.lot(), r.partNumber(), r.bench(),
                 r.simulated() ? " (simulated)" : "");
@@ -63,6 +75,7 @@ final class ResultText {
                     dc.sweepResistanceOhm() == null ? "-" : Units.format(dc.sweepResistanceOhm(), Dimension.RESISTANCE),
                     Boolean.TRUE.equals(dc.agrees()) ? "agree" : "disagree");
         }
+        out.println("  " + corrections(r.corrections()));
         r.warnings().forEach(w -> out.println("  warning: " + w));
         for (PartResult.LimitRecord l : r.limits()) {
             out.printf("  %-4s %s (spec %s)%n", l.pass() ? "ok" : "FAIL", l.reason(), l.spec());

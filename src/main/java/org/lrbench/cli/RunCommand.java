@@ -276,6 +276,7 @@ final class RunCommand implements Callable<Integer> {
                 System.out.println("resuming lot " + lot + ": " + ready.alreadyMeasured()
                         + " part(s) already measured are not measured again");
             }
+            System.out.println(setup.template().calibration().inForce());
             double qAt = ResultText.qFrequency(ready.plan());
             ResultText.tableHeader(System.out, qAt);
             Consumer<PartResult> row = r -> ResultText.tableRow(System.out, r, qAt);

@@ -54,7 +54,13 @@ public record PartResult(String schema, String programVersion, String lot, Strin
 
     /** The bench corrections applied before the fit (null members: not in force). */
     public record CorrectionsRecord(String channelMatchMeasuredAt, Double channel2GainRatio, Double channel2SkewS,
-                                    String fixtureMeasuredAt, Integer fixtureFrequencies) {
+                                    String fixtureMeasuredAt, Integer fixtureFrequencies, String inForce) {
+
+        /** Which corrections were in force, in words: "none", "channel match", "fixture", or both. */
+        public static String words(boolean channelMatch, boolean fixture) {
+            return channelMatch && fixture ? "channel match and fixture" : channelMatch ? "channel match"
+                    : fixture ? "fixture" : "none";
+        }
     }
 
     /**

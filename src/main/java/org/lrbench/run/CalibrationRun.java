@@ -100,7 +100,8 @@ public final class CalibrationRun {
                     open.getReal(), open.getImaginary(), s.componentUncertaintyOhm(), false, uy));
         }
         change.moveTo(FixturePosition.PART);
-        FixtureCompensation f = new FixtureCompensation(now(), strayEverywhere(out));
+        FixtureCompensation f = new FixtureCompensation(now(), strayEverywhere(out))
+                .measuredWith(plan.source(), plan.senseResistanceOhm());
         List<String> problems = Plausibility.fixture(f);
         if (!problems.isEmpty()) {
             throw new CalibrationRefused("the fixture compensation", problems, "Was the part taken out and the shorting"

@@ -216,6 +216,15 @@ public final class PartRun {
         // the channel match taken out as the plan's wiring needs it (before the low side's difference)
         Calibration calibration = corrections.forWiring(plan.wiring());
         if (calibration.fixture() != null) {
+            Double sense = calibration.fixture().senseOhm();
+            if (sense != null && Math.abs(sense / plan.senseResistanceOhm() - 1) > 1e-6) {
+                // its short and open are in ohms of that sense resistor's scale: never applied to another
+                throw new FitException("the fixture compensation of " + calibration.fixture().measuredAt() + " was"
+                        + " measured with a " + Units.format(sense, Dimension.RESISTANCE) + " sense resistor"
+                        + (calibration.fixture().plan() == null ? "" : " (plan " + calibration.fixture().plan() + ")")
+                        + "; this plan's is " + Units.format(plan.senseResistanceOhm(), Dimension.RESISTANCE)
+                        + ": run ./lrbench calibrate with this plan", null);
+            }
             for (PointResult p : points) {
                 if (!calibration.fixture().covers(p.impedance().frequencyHz())) {
                     throw new FitException("the fixture compensation of " + calibration.fixture().measuredAt()
@@ -232,6 +241,10 @@ public final class PartRun {
                 .anyMatch(p -> !match.measuredOn(p.senseRangeVolt(), p.partRangeVolt()));
         if (match != null && !otherRanges) {
             accuracy = accuracy.withRangeGainMatch(0);
+        }
+        if (calibration.fixture() != null) {
+            // the fixture is compensated: its own uncertainty enters through the corrected points
+            accuracy = accuracy.withFixture(null);
         }
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), accuracy,

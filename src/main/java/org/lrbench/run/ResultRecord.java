@@ -98,7 +98,7 @@ final class ResultRecord {
         var fx = c.fixture();
         return new PartResult.CorrectionsRecord(ch == null ? null : ch.measuredAt(), ch == null ? null : ch.gainRatio(),
                 ch == null ? null : ch.skewSecond(), fx == null ? null : fx.measuredAt(),
-                fx == null ? null : fx.points().size());
+                fx == null ? null : fx.points().size(), PartResult.CorrectionsRecord.words(ch != null, fx != null));
     }
 
     private static PartResult.LimitRecord limit(LimitResult r) {

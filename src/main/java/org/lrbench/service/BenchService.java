@@ -213,10 +213,12 @@ public final class BenchService implements AutoCloseable {
                         "frequency_hz", p.impedance().frequencyHz(), "impedance_ohm", p.impedance().impedanceOhm().abs()));
             }
         };
-        r.events.add("run_started", Map.of("lot", q.lot(), "plan", q.plan(), "lot_size", q.lotSize(),
-                "sample_size", r.sampleSize, "already_measured", r.partsDone, "operator", q.operator(),
+        Map<String, Object> started = new LinkedHashMap<>(Map.of("lot", q.lot(), "plan", q.plan(), "lot_size",
+                q.lotSize(), "sample_size", r.sampleSize, "already_measured", r.partsDone, "operator", q.operator(),
                 "severity", setup.scheme().severity().word(), "severity_reason", setup.scheme().why(),
                 "supplier", setup.scheme().supplier()));
+        started.put("corrections", setup.template().calibration().inForce());
+        r.events.add("run_started", started);
         LotRunner.Setup go = setup.withListener(points);
         r.thread = new Thread(() -> {
             try (store) {

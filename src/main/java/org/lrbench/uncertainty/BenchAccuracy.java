@@ -7,17 +7,44 @@ package org.lrbench.uncertainty;
  * skew, and the relative frequency accuracy of the generator against the digitizer's time base.
  */
 public record BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy,
-                            double rangeGainMatch, double channelMatchDegreesOfFreedom) {
+                            double rangeGainMatch, double channelMatchDegreesOfFreedom, FixtureBounds fixture) {
 
-    /** Specifications only, before any channel match. */
+    /**
+     * What the fixture may add to a reading while no open/short compensation is in force: leads in
+     * series (resistance, inductance) and a stray capacitance across the part's terminals, each at
+     * most this much (half-widths of rectangular distributions). Null: the compensation is in force.
+     */
+    public record FixtureBounds(double leadOhm, double leadHenry, double strayFarad) {
+        /**
+         * 50 mohm and 200 nH of leads and clips, 10 pF across the terminals: a bench fixture with
+         * short leads (common practice, no source).
+         */
+        public static FixtureBounds defaults() {
+            return new FixtureBounds(0.05, 200e-9, 10e-12);
+        }
+    }
+
+    public BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy,
+                         double rangeGainMatch, double channelMatchDegreesOfFreedom) {
+        this(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch, channelMatchDegreesOfFreedom,
+                null);
+    }
+
+    /** The same specifications with the fixture's bounds (null once a compensation is in force). */
+    public BenchAccuracy withFixture(FixtureBounds f) {
+        return new BenchAccuracy(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch,
+                channelMatchDegreesOfFreedom, f);
+    }
+
+    /** Specifications only, before any channel match, with nothing said of the fixture. */
     public BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy) {
-        this(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, 0, Double.POSITIVE_INFINITY);
+        this(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, 0, Double.POSITIVE_INFINITY, null);
     }
 
     /** The same specifications with the channels' gain ratio between ranges bounded by {@code a}. */
     public BenchAccuracy withRangeGainMatch(double a) {
         return new BenchAccuracy(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, a,
-                channelMatchDegreesOfFreedom);
+                channelMatchDegreesOfFreedom, fixture);
     }
 
     /**
@@ -28,14 +55,15 @@ public record BenchAccuracy(double senseTolerance, double gainAccuracy, double s
      */
     public BenchAccuracy afterChannelMatch(double gainUncertainty, double skewUncertainty, int points) {
         return new BenchAccuracy(senseTolerance, gainUncertainty * Math.sqrt(6) / 2, skewUncertainty * Math.sqrt(3),
-                frequencyAccuracy, rangeGainMatch, Math.max(1, points - 1));
+                frequencyAccuracy, rangeGainMatch, Math.max(1, points - 1), fixture);
     }
 
     /**
-     * 0.1 % resistor, 1 % gain per channel, 200 ps skew, 50 ppm, and 0.1 % for the change of the
-     * two channels' gain ratio from one pair of ranges to another: common practice, no source.
+     * 0.1 % resistor, 1 % gain per channel, 200 ps skew, 50 ppm, 0.1 % for the change of the two
+     * channels' gain ratio from one pair of ranges to another, and the fixture's default bounds:
+     * common practice, no source.
      */
     public static BenchAccuracy defaults() {
-        return new BenchAccuracy(0.001, 0.01, 200e-12, 50e-6, 0.001, Double.POSITIVE_INFINITY);
+        return new BenchAccuracy(0.001, 0.01, 200e-12, 50e-6, 0.001, Double.POSITIVE_INFINITY, FixtureBounds.defaults());
     }
 }
