@@ -70,6 +70,19 @@ class LevelCheckTests {
     }
 
     @Test
+    void calibrateProvesTheLevelBeforeItsFirstSweep(@TempDir Path dir) throws Exception {
+        Path d = drivers(dir, "sim-source-peak.yaml", "{amplitude_vpk}", "{amplitude_vpp}");
+        CommandLineTests.Outcome o = CommandLineTests.run("calibrate", CommandLineTests.PLAN, "--sim", PART, "--bench",
+                HOME.resolve("simulator/bench-pm12.yaml").toString(), "--drivers", d.toString(), "--calibration",
+                dir.resolve("cal").toString(), "--io-log", dir.resolve("io.log").toString());
+        assertThat(o.code()).as(o.err()).isEqualTo(3);
+        assertThat(o.err()).contains("2.00 times the EMF asked for");
+        assertThat(dir.resolve("cal")).doesNotExist();
+        assertThat(values(dir.resolve("io.log"), ":WAVe:PEAK ([-0-9.E+]+)")).allSatisfy(v ->
+                assertThat(v).isLessThanOrEqualTo(0.6 + 1e-9));
+    }
+
+    @Test
     void aDigitizerScaleOffByTwoIsRefused(@TempDir Path dir) throws Exception {
         Path d = drivers(dir, "sim-pm12-digitizer.yaml", "full_scale_codes: 4096", "full_scale_codes: 2048");
         CommandLineTests.Outcome o = run(dir, d, "simulator/bench-pm12.yaml");
