@@ -517,7 +517,20 @@ class CommandLineTests {
         assertThat(Double.parseDouble(gain.group(1))).isCloseTo(1.004, within(0.001));
         java.util.regex.Matcher shortR = java.util.regex.Pattern.compile("short ([0-9.]+) mohm").matcher(cal.out());
         assertThat(shortR.find()).as(cal.out()).isTrue();
-        assertThat(Double.parseDouble(shortR.group(1))).isCloseTo(25, within(10.0));
+        // the short read through x10 probes is noisy (about 18 mohm per reading): judged against its own
+        // stated uncertainty, the mean over the sweep's frequencies within 3 u / sqrt(n) of the 25 mohm
+        // leads; a short taken from channel 2 less channel 1 before the match would be off by ohms
+        JsonNode fixture = new com.fasterxml.jackson.databind.ObjectMapper().readTree(
+                dir.resolve("cal/sim-bench-1/fixture.json").toFile());
+        double sum = 0;
+        double u = 0;
+        int n = fixture.get("points").size();
+        for (JsonNode p : fixture.get("points")) {
+            sum += p.get("short_real").asDouble();
+            u = Math.max(u, p.get("short_uncertainty_ohm").asDouble());
+        }
+        assertThat(u).as("the short's stated uncertainty").isLessThan(0.03);
+        assertThat(sum / n).isCloseTo(0.025, within(3 * u / Math.sqrt(n)));
         Outcome r = run("run", plan.toString(), "--lot", "LS", "--serial", "S1", "--sim", part, "--runs",
                 dir.resolve("runs").toString(), "--data", dir.resolve("data").toString(), "--calibration", dir.resolve("cal").toString(),
                 "--json", dir.resolve("r.json").toString());
