@@ -91,6 +91,15 @@ class LevelCheckTests {
     }
 
     @Test
+    void aRangeConventionDeclaredWrongIsRefused(@TempDir Path dir) throws Exception {
+        // plus-minus ranges declared as peak-to-peak: every code is read at half its volts
+        Path d = drivers(dir, "sim-pm12-digitizer.yaml", "setting: plus_minus", "setting: peak_to_peak");
+        CommandLineTests.Outcome o = run(dir, d, "simulator/bench-pm12.yaml");
+        assertThat(o.code()).as(o.err()).isEqualTo(3);
+        assertThat(o.err()).contains("level check").contains("vertical.setting");
+    }
+
+    @Test
     void fieldPositionsCountedFromZeroReadNearlyNothingAndAreRefused(@TempDir Path dir) throws Exception {
         Path d = drivers(dir, "sim-div8-digitizer.yaml", "    y_increment: 4", "    y_increment: 3");
         CommandLineTests.Outcome o = run(dir, d, "simulator/bench-div8.yaml");
