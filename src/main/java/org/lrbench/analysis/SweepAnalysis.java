@@ -33,8 +33,17 @@ public final class SweepAnalysis {
     private SweepAnalysis() {
     }
 
-    /** The fit and a budget per evaluation, in the evaluations' order. */
-    public record Result(LumpedFit.Result fit, Map<String, Budget> budgets) {
+    /**
+     * The fit, a budget per evaluation in the evaluations' order, and the parameters reported: the
+     * fit's own, or where a term the test could not decide on was averaged, the models with and
+     * without it averaged the same way as every budget's value. Every later step (self-resonance,
+     * cross-checks, the record's model) uses these, so a part carries one value of L.
+     */
+    public record Result(LumpedFit.Result fit, Map<String, Budget> budgets, double[] reported) {
+
+        public double reported(LumpedParameter p) {
+            return p.in(reported);
+        }
     }
 
     public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
@@ -165,7 +174,28 @@ public final class SweepAnalysis {
             }
             budgets.put(ev.name(), Budget.of(ev.name(), value, lines));
         }
-        return new Result(scaled, budgets);
+        return new Result(scaled, budgets, averaged(p, fit.omitted()));
+    }
+
+    /**
+     * The parameters averaged as the budgets' values are: from the last term left out back to the
+     * first, each step half way to the fit with that term (for a quantity linear in the parameters,
+     * such as L or R_dc, exactly the budget's value).
+     */
+    static double[] averaged(double[] p, List<LumpedFit.Omitted> omitted) {
+        double[] out = p.clone();
+        double[] without = p;
+        for (int k = omitted.size() - 1; k >= 0; k--) {
+            double[] with = omitted.get(k).parametersWith();
+            for (int i = 0; i < out.length; i++) {
+                double change = with[i] - without[i];
+                if (Double.isFinite(change)) {
+                    out[i] += change / 2;
+                }
+            }
+            without = with;
+        }
+        return out;
     }
 
     private record Perturbation(String source, Distribution distribution, double halfWidth, String unit,

@@ -259,7 +259,8 @@ public final class PartRun {
         Calibration calibration = fitted.calibration();
         List<PointResult> points = fitted.points();
         double fMax = plan.sweep().highestHz();
-        double l = sweep.fit().value(LumpedParameter.L);
+        // the reported L (averaged where the model test could not decide on a term): one L per part
+        double l = sweep.reported(LumpedParameter.L);
         Double srf = null;
         Double srfAbove = null;
         if (sweep.fit().free().contains(LumpedParameter.C_P)) {
@@ -331,7 +332,7 @@ public final class PartRun {
         String[][] pairs = {{Readings.INDUCTANCE, "inductance"}, {Readings.RESISTANCE, "resistance"}};
         for (String[] pair : pairs) {
             boolean inductance = pair[1].equals("inductance");
-            double model = sweep.fit().value(inductance ? LumpedParameter.L : LumpedParameter.R_DC);
+            double model = sweep.reported(inductance ? LumpedParameter.L : LumpedParameter.R_DC);
             double tri = inductance ? corrected[1] : corrected[0];
             double uTri = inductance ? t.inductanceUncertainty() : t.resistanceUncertainty();
             double uModel = sweep.budgets().get(pair[0]).contributions().get(0).contribution();
@@ -352,7 +353,7 @@ public final class PartRun {
      */
     private static List<String> crossChecks(List<ImpedancePoint> points, SweepAnalysis.Result sweep) {
         List<String> out = new ArrayList<>();
-        double[] p = sweep.fit().parameters();
+        double[] p = sweep.reported();
         double uModel = sweep.budgets().get(Readings.INDUCTANCE).standardUncertainty();
         for (ImpedancePoint z : points) {
             double omega = 2 * Math.PI * z.frequencyHz();

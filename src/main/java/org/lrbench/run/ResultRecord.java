@@ -50,7 +50,7 @@ final class ResultRecord {
             });
             l = analysis.sweep().budgets().get(Readings.INDUCTANCE);
             r = analysis.sweep().budgets().get(Readings.RESISTANCE);
-            model = model(analysis.sweep().fit());
+            model = model(analysis.sweep().fit(), analysis.sweep().reported());
             for (String key : List.of("inductance_h", "series_resistance_ohm", "self_resonance_hz")) {
                 methods.put(key, PartRun.METHOD);
             }
@@ -109,10 +109,11 @@ final class ResultRecord {
                 r.pass(), finite(r.margin()), r.reason());
     }
 
-    private static PartResult.ModelRecord model(LumpedFit.Result fit) {
+    /** The model as recorded: its free parameters at their reported values (see SweepAnalysis.Result). */
+    private static PartResult.ModelRecord model(LumpedFit.Result fit, double[] reported) {
         Map<String, PartResult.ParameterRecord> params = new LinkedHashMap<>();
         for (LumpedParameter p : fit.free()) {
-            params.put(p.key(), new PartResult.ParameterRecord(fit.value(p), fit.uncertainty(p)));
+            params.put(p.key(), new PartResult.ParameterRecord(p.in(reported), fit.uncertainty(p)));
         }
         boolean series = fit.free().stream().noneMatch(LumpedParameter::optional);
         String terms = String.join(", ", fit.free().stream().map(LumpedParameter::key).toList());

@@ -46,6 +46,9 @@ class SweepAnalysisTests {
                 LumpedFit.Omitted o = r.fit().omitted().get(0);
                 assertThat(b.value()).isCloseTo((picked[k] + o.parametersWith()[LumpedParameter.L.ordinal()]) / 2,
                         within(1e-12 * picked[k]));
+                // one value of L per part: the parameters reported carry the budget's L, not the picked fit's
+                assertThat(r.reported(LumpedParameter.L)).isCloseTo(b.value(), within(1e-12 * picked[k]))
+                        .isNotEqualTo(picked[k]);
             }
         }
         assertThat(undecided).as("runs the test could not decide").isBetween(runs / 5, 4 * runs / 5);
