@@ -63,9 +63,13 @@ public final class SweepAnalysis {
         double[] p = fit.parameters();
         double inf = Double.POSITIVE_INFINITY;
         double matchDof = accuracy.channelMatchDegreesOfFreedom();
-        List<Perturbation> effects = new ArrayList<>(List.of(
-                new Perturbation("sense resistor tolerance", Distribution.RECTANGULAR, accuracy.senseTolerance(),
-                        "relative", inf, d -> scale(points, 1 + d)),
+        BenchAccuracy.TracedSense traced = accuracy.tracedSense();
+        Perturbation senseLine = traced == null
+                ? new Perturbation("sense resistor tolerance (nominal, not traced: no meter reading)",
+                        Distribution.RECTANGULAR, accuracy.senseTolerance(), "relative", inf, d -> scale(points, 1 + d))
+                : new Perturbation("sense resistor, traced by the bench's meter (4-wire, DC)", Distribution.NORMAL,
+                        traced.relativeUncertainty(), "relative", inf, d -> scale(points, 1 + d));
+        List<Perturbation> effects = new ArrayList<>(List.of(senseLine,
                 // the ratio of two channels each within +/- a: the difference of two rectangles is a
                 // triangle of half-width 2a (GUM 4.3.9); after a channel match, its own u with n - 1
                 // degrees of freedom
@@ -80,6 +84,11 @@ public final class SweepAnalysis {
             // may differ by up to the bench's stated bound
             effects.add(new Perturbation("gain ratio on ranges other than the channel match's (bench specification)",
                     Distribution.RECTANGULAR, accuracy.rangeGainMatch(), "relative", inf, d -> scale(points, 1 + d)));
+        }
+        if (traced != null && traced.acDcBound() > 0) {
+            // the meter reads the resistor at DC; the sweep uses it at the plan's frequencies
+            effects.add(new Perturbation("sense resistor's AC/DC difference (bench bound)", Distribution.RECTANGULAR,
+                    traced.acDcBound(), "relative", inf, d -> scale(points, 1 + d)));
         }
         BenchAccuracy.FixtureBounds fx = accuracy.fixture();
         if (fx != null) {

@@ -146,7 +146,7 @@ public final class BenchLoader {
         BenchAccuracy d = BenchAccuracy.defaults();
         YamlMap m = root.map("accuracy", false, "sense_resistor_tolerance", "gain_accuracy", "skew", "frequency_accuracy",
                 "range_gain_match", "uncorrected_lead_resistance", "uncorrected_lead_inductance",
-                "uncorrected_stray_capacitance");
+                "uncorrected_stray_capacitance", "meter_resistance_accuracy", "sense_resistor_ac_dc");
         if (m == null) {
             return d;
         }
@@ -162,11 +162,14 @@ public final class BenchLoader {
         Double leadOhm = nonNegative(m, "uncorrected_lead_resistance", Dimension.RESISTANCE);
         Double leadHenry = nonNegative(m, "uncorrected_lead_inductance", Dimension.INDUCTANCE);
         Double strayFarad = nonNegative(m, "uncorrected_stray_capacitance", Dimension.CAPACITANCE);
+        Double meter = relative(m, "meter_resistance_accuracy");
+        Double acDc = relative(m, "sense_resistor_ac_dc");
         return new BenchAccuracy(sense == null ? d.senseTolerance() : sense, gain == null ? d.gainAccuracy() : gain,
                 skew == null ? d.skewSecond() : skew, freq == null ? d.frequencyAccuracy() : freq,
                 ranges == null ? d.rangeGainMatch() : ranges, Double.POSITIVE_INFINITY, new BenchAccuracy.FixtureBounds(
                 leadOhm == null ? fd.leadOhm() : leadOhm, leadHenry == null ? fd.leadHenry() : leadHenry,
-                strayFarad == null ? fd.strayFarad() : strayFarad));
+                strayFarad == null ? fd.strayFarad() : strayFarad)).withTraceSpecs(
+                meter == null ? BenchAccuracy.METER_ACCURACY : meter, acDc == null ? BenchAccuracy.SENSE_AC_DC : acDc);
     }
 
     private static Double nonNegative(YamlMap m, String key, Dimension d) {
@@ -229,7 +232,7 @@ public final class BenchLoader {
         SimSettings d = SimSettings.defaults();
         YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed",
                 "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
-                "meter_lead_resistance", "digitizer", "generator", "timing");
+                "meter_lead_resistance", "digitizer", "generator", "timing", "sense_resistor_error");
         if (m == null) {
             return d;
         }
@@ -265,6 +268,10 @@ public final class BenchLoader {
                 m.problem(k, "must not be negative");
             }
         }
+        var senseError = m.anyQuantity("sense_resistor_error", false);
+        if (senseError != null && (!senseError.relative() || Math.abs(senseError.value()) >= 0.5)) {
+            m.problem("sense_resistor_error", "must be a relative value under 50 %, such as 0.08 % or -500 ppm");
+        }
         Double meterLead = m.quantity("meter_lead_resistance", Dimension.RESISTANCE, false);
         if (meterLead != null && meterLead < 0) {
             m.problem("meter_lead_resistance", "must not be negative");
@@ -275,6 +282,7 @@ public final class BenchLoader {
                 leadR == null ? 0 : leadR, leadL == null ? 0 : leadL, stray == null ? 0 : stray,
                 meterLead == null ? 0.05 : meterLead,
                 personality == null ? SimDigitizer.Personality.GENERIC : personality,
-                generator == null ? SimGenerator.Personality.GENERIC : generator, timing(m));
+                generator == null ? SimGenerator.Personality.GENERIC : generator, timing(m),
+                senseError == null || !senseError.relative() ? 0 : senseError.value());
     }
 }

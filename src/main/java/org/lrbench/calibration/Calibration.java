@@ -16,18 +16,29 @@ import org.lrbench.fixture.FixtureWiring;
  * resistor, and the part's voltage is channel 2 less channel 1: channel 2's response must be taken
  * out before the difference. As Z_m = R_s (V2 - V1) / V1, that is Z = (Z_m + R_s) / H - R_s.
  */
-public record Calibration(ChannelMatch channels, FixtureCompensation fixture, double lowSideSenseOhm) {
+public record Calibration(ChannelMatch channels, FixtureCompensation fixture, double lowSideSenseOhm,
+                          SenseTrace sense) {
 
     public static final Calibration NONE = new Calibration(null, null);
 
     /** Corrections for differential wiring. */
     public Calibration(ChannelMatch channels, FixtureCompensation fixture) {
-        this(channels, fixture, 0);
+        this(channels, fixture, 0, null);
+    }
+
+    /** Corrections without a traced sense resistor. */
+    public Calibration(ChannelMatch channels, FixtureCompensation fixture, double lowSideSenseOhm) {
+        this(channels, fixture, lowSideSenseOhm, null);
+    }
+
+    /** The same corrections with the sense resistor traced by the meter (null: its nominal). */
+    public Calibration withSense(SenseTrace s) {
+        return new Calibration(channels, fixture, lowSideSenseOhm, s);
     }
 
     /** The same corrections for a fixture wired low side with this sense resistor (0: differential). */
     public Calibration forLowSide(double senseOhm) {
-        return new Calibration(channels, fixture, senseOhm);
+        return new Calibration(channels, fixture, senseOhm, sense);
     }
 
     /** These corrections for a plan's fixture wiring (null: differential, unity probes). */
@@ -97,12 +108,15 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
      * the console, the record and the operator's page; with none, that U includes the bench's bounds.
      */
     public String inForce() {
-        if (channels == null && fixture == null) {
+        if (channels == null && fixture == null && sense == null) {
             return "no corrections in force: U includes the fixture's and the channels' bench bounds (lrbench"
                     + " calibrate measures them)";
         }
         return "corrections in force: channel match " + (channels == null ? "none" : "of " + channels.measuredAt())
                 + ", fixture short/open " + (fixture == null ? "none (U includes the fixture's bench bounds)"
-                : "of " + fixture.measuredAt() + (fixture.plan() == null ? "" : " (measured with " + fixture.plan() + ")"));
+                : "of " + fixture.measuredAt() + (fixture.plan() == null ? "" : " (measured with " + fixture.plan() + ")"))
+                + ", sense resistor " + (sense == null ? "nominal (its tolerance in U; no meter reading)"
+                : String.format(java.util.Locale.ROOT, "%.6g ohm +/- %.2g ohm traced on %s", sense.valueOhm(),
+                sense.standardUncertaintyOhm(), sense.measuredAt()));
     }
 }

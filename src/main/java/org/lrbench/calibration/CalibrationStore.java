@@ -29,6 +29,14 @@ public final class CalibrationStore {
         return dir.resolve("fixture.json");
     }
 
+    public Path senseFile() {
+        return dir.resolve("sense-resistor.json");
+    }
+
+    public void save(SenseTrace s) throws IOException {
+        ResultFiles.writeJson(senseFile(), s);
+    }
+
     public void save(ChannelMatch m) throws IOException {
         ResultFiles.writeJson(channelFile(), m);
     }
@@ -41,7 +49,8 @@ public final class CalibrationStore {
     public Calibration load() throws IOException {
         ChannelMatch c = Files.isRegularFile(channelFile()) ? read(channelFile(), ChannelMatch.class) : null;
         FixtureCompensation f = Files.isRegularFile(fixtureFile()) ? read(fixtureFile(), FixtureCompensation.class) : null;
-        return new Calibration(c, f);
+        SenseTrace s = Files.isRegularFile(senseFile()) ? read(senseFile(), SenseTrace.class) : null;
+        return new Calibration(c, f).withSense(s);
     }
 
     private static <T> T read(Path file, Class<T> type) throws IOException {

@@ -17,6 +17,8 @@ import org.lrbench.measure.LevelRefused;
 import org.lrbench.plan.Plan;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.CalibrationRun;
+import org.lrbench.calibration.SenseTrace;
+import java.nio.file.Files;
 import org.lrbench.run.FixtureChange;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.SimBench;
@@ -81,7 +83,9 @@ final class CalibrateCommand implements Callable<Integer> {
             System.out.printf(Locale.ROOT, "channel match: channel 2 gain %.5f +/- %.5f, skew %.1f +/- %.1f ps (%d frequencies)%n",
                     m.gainRatio(), m.gainUncertainty(), m.skewSecond() * 1e12, m.skewUncertaintySecond() * 1e12, m.points());
             FixtureCompensation f = CalibrationRun.fixture(p, inst, change, sleeper, m);
-            // both kept only once both are plausible: a refused calibration leaves the earlier one in force
+            // the sense resistor traced by the meter, where the bench has one
+            SenseTrace sense = CalibrationRun.senseResistor(p, inst, change, b.accuracy());
+            // all kept only once all are plausible: a refused calibration leaves the earlier one in force
             store.save(m);
             store.save(f);
             FixtureCompensation.Point first = f.points().get(0);
@@ -90,6 +94,13 @@ final class CalibrateCommand implements Callable<Integer> {
             System.out.printf(Locale.ROOT, "fixture: short %.2f mohm at %.6g Hz; open readable at %d of %d frequencies%s%n",
                     first.shortReal() * 1e3, first.frequencyHz(), opens, f.points().size(),
                     modelled > 0 ? "; the stray it shows is applied at the other " + modelled : "");
+            if (sense != null) {
+                store.save(sense);
+                System.out.printf(Locale.ROOT, "sense resistor: %.6g ohm +/- %.2g ohm (4-wire, %d readings; nominal %.6g ohm)%n",
+                        sense.valueOhm(), sense.standardUncertaintyOhm(), sense.readings(), sense.nominalOhm());
+            } else {
+                System.out.println("sense resistor: no meter on this bench; its nominal and tolerance stay in every budget");
+            }
         }
         return dir.resolve(b.name());
     }

@@ -25,13 +25,15 @@ final class ResultText {
 
     /** Which corrections are in force and when they were measured, in one line. */
     static String corrections(PartResult.CorrectionsRecord c) {
-        if (c == null || c.channelMatchMeasuredAt() == null && c.fixtureMeasuredAt() == null) {
+        if (c == null || c.channelMatchMeasuredAt() == null && c.fixtureMeasuredAt() == null && c.senseTracedAt() == null) {
             return "no corrections in force: U includes the fixture's and the channels' bench bounds (lrbench calibrate"
                     + " measures them)";
         }
         return "corrections in force: channel match " + (c.channelMatchMeasuredAt() == null ? "none"
                 : "of " + c.channelMatchMeasuredAt()) + ", fixture short/open " + (c.fixtureMeasuredAt() == null
-                ? "none (U includes the fixture's bench bounds)" : "of " + c.fixtureMeasuredAt());
+                ? "none (U includes the fixture's bench bounds)" : "of " + c.fixtureMeasuredAt())
+                + ", sense resistor " + (c.senseTracedAt() == null ? "nominal (its tolerance in U)"
+                : Units.format(c.senseOhm(), Dimension.RESISTANCE) + " traced on " + c.senseTracedAt());
     }
 
 

@@ -163,7 +163,11 @@ public final class LotReport {
         if (match.isEmpty() && fixture.isEmpty()) {
             return "<span class=\"warn\">no corrections in force (no channel match, no fixture compensation)</span>";
         }
-        return "channel match " + dated(match, lotStarted) + "<br>fixture short/open " + dated(fixture, lotStarted);
+        List<String> sense = distinct(parts.stream().map(p -> p.corrections() == null || p.corrections().senseTracedAt() == null
+                ? null : p.corrections().senseTracedAt()).toList());
+        return "channel match " + dated(match, lotStarted) + "<br>fixture short/open " + dated(fixture, lotStarted)
+                + "<br>sense resistor traced by the meter " + (sense.isEmpty()
+                ? "<span class=\"warn\">never (its nominal and tolerance in U)</span>" : dated(sense, lotStarted));
     }
 
     private static String dated(List<String> when, String lotStarted) {

@@ -54,7 +54,15 @@ public record PartResult(String schema, String programVersion, String lot, Strin
 
     /** The bench corrections applied before the fit (null members: not in force). */
     public record CorrectionsRecord(String channelMatchMeasuredAt, Double channel2GainRatio, Double channel2SkewS,
-                                    String fixtureMeasuredAt, Integer fixtureFrequencies, String inForce) {
+                                    String fixtureMeasuredAt, Integer fixtureFrequencies, String inForce,
+                                    String senseTracedAt, Double senseOhm) {
+
+        /** Without a traced sense resistor. */
+        public CorrectionsRecord(String channelMatchMeasuredAt, Double channel2GainRatio, Double channel2SkewS,
+                                 String fixtureMeasuredAt, Integer fixtureFrequencies, String inForce) {
+            this(channelMatchMeasuredAt, channel2GainRatio, channel2SkewS, fixtureMeasuredAt, fixtureFrequencies, inForce,
+                    null, null);
+        }
 
         /** Which corrections were in force, in words: "none", "channel match", "fixture", or both. */
         public static String words(boolean channelMatch, boolean fixture) {

@@ -11,6 +11,7 @@ import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.CalibrationRefused;
 import org.lrbench.calibration.FixtureCompensation;
 import org.lrbench.calibration.Plausibility;
+import org.lrbench.calibration.SenseTrace;
 import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.fixture.FixturePosition;
 import org.lrbench.fixture.FixtureWiring;
@@ -181,5 +182,40 @@ public final class CalibrationRun {
 
     private static String now() {
         return Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
+    }
+
+    /** Readings of the sense resistor averaged into its traced value (the meter's own scatter enters as type A). */
+    static final int SENSE_READINGS = 5;
+
+    /**
+     * The sense resistor traced by the bench's multimeter, 4-wire, {@value #SENSE_READINGS} readings
+     * averaged: its value and standard uncertainty (the meter's specification as a rectangle, and the
+     * readings' scatter over their number). Null on a bench without a meter. Refused, nothing kept,
+     * when the reading is outside the resistor's tolerance by more than its uncertainty: the leads
+     * were not on the sense resistor.
+     */
+    public static SenseTrace senseResistor(Plan plan, BenchInstruments inst, FixtureChange change, BenchAccuracy accuracy) {
+        if (inst.multimeter() == null) {
+            return null;
+        }
+        inst.generator().outputOff();
+        change.moveTo(FixturePosition.SENSE_RESISTOR);
+        inst.multimeter().prepare();
+        double[] r = new double[SENSE_READINGS];
+        for (int i = 0; i < r.length; i++) {
+            r[i] = inst.multimeter().resistance(true);
+        }
+        change.moveTo(FixturePosition.PART);
+        double mean = java.util.Arrays.stream(r).average().orElseThrow();
+        double var = java.util.Arrays.stream(r).map(x -> (x - mean) * (x - mean)).sum() / (r.length - 1);
+        double u = Math.sqrt(Math.pow(accuracy.meterAccuracy() * mean / Math.sqrt(3), 2) + var / r.length);
+        double nominal = plan.senseResistanceOhm();
+        if (!(Math.abs(mean / nominal - 1) <= accuracy.senseTolerance() + 3 * u / nominal)) {
+            throw new CalibrationRefused("the sense resistor's reading", java.util.List.of(String.format(
+                    java.util.Locale.ROOT, "the meter reads %.6g ohm (+/- %.2g), where the %.6g ohm resistor is"
+                    + " within %.3g %%", mean, u, nominal, 100 * accuracy.senseTolerance())),
+                    "Were the meter's four leads on the sense resistor, with the part's place empty?");
+        }
+        return new SenseTrace(now(), nominal, mean, u, r.length, plan.source());
     }
 }

@@ -31,6 +31,8 @@ public interface FixtureChange {
                         + " polarity), then press Enter.";
                 case SHORT -> "Put the shorting bar in the part's place in the fixture, then press Enter.";
                 case OPEN -> "Leave the part's place in the fixture empty (open), then press Enter.";
+                case SENSE_RESISTOR -> "Connect the multimeter's four leads across the sense resistor (force and sense"
+                        + " at its own terminals, the part's place empty), then press Enter.";
                 case PART -> "Restore the normal wiring: channel 1 across the sense resistor, channel 2 across the"
                         + " part, then press Enter.";
             });

@@ -16,6 +16,9 @@ import org.lrbench.analysis.fit.FitException;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.ChannelMatch;
+import org.lrbench.calibration.SenseTrace;
+import org.lrbench.uncertainty.BenchAccuracy;
+import org.apache.commons.math3.complex.Complex;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Judge;
@@ -234,6 +237,18 @@ public final class PartRun {
             }
         }
         List<ImpedancePoint> z = calibration.apply(points.stream().map(PointResult::impedance).toList());
+        SenseTrace traced = calibration.sense();
+        if (traced != null) {
+            if (Math.abs(traced.nominalOhm() / plan.senseResistanceOhm() - 1) > 1e-6) {
+                throw new FitException("the sense resistor traced on " + traced.measuredAt() + " is a "
+                        + Units.format(traced.nominalOhm(), Dimension.RESISTANCE) + " one; this plan's is "
+                        + Units.format(plan.senseResistanceOhm(), Dimension.RESISTANCE)
+                        + ": run ./lrbench calibrate with this plan", null);
+            }
+            // Z = R_s V2 / V1 was formed with the nominal R_s: the traced value scales every point
+            double k = traced.valueOhm() / traced.nominalOhm();
+            z = z.stream().map(p -> p.times(new Complex(k, 0))).toList();
+        }
         ChannelMatch match = calibration.channels();
         var accuracy = match == null ? bench.accuracy()
                 : bench.accuracy().afterChannelMatch(match.gainUncertainty(), match.skewUncertaintySecond(), match.points());
@@ -245,6 +260,10 @@ public final class PartRun {
         if (calibration.fixture() != null) {
             // the fixture is compensated: its own uncertainty enters through the corrected points
             accuracy = accuracy.withFixture(null);
+        }
+        if (traced != null) {
+            accuracy = accuracy.withTracedSense(new BenchAccuracy.TracedSense(traced.relativeUncertainty(),
+                    accuracy.senseAcDc()));
         }
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), accuracy,
@@ -329,6 +348,11 @@ public final class PartRun {
         // the triangle's R and L corrected like the sweep (channel match, leads), so that only a real
         // disagreement warns
         double[] corrected = calibration.correctSeries(t.frequencyHz(), t.resistanceOhm(), t.inductanceHenry());
+        if (calibration.sense() != null) {
+            // formed with the nominal sense resistor, like the sweep's points
+            double k = calibration.sense().valueOhm() / calibration.sense().nominalOhm();
+            corrected = new double[] {corrected[0] * k, corrected[1] * k};
+        }
         String[][] pairs = {{Readings.INDUCTANCE, "inductance"}, {Readings.RESISTANCE, "resistance"}};
         for (String[] pair : pairs) {
             boolean inductance = pair[1].equals("inductance");

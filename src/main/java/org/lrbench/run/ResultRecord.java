@@ -96,9 +96,15 @@ final class ResultRecord {
     private static PartResult.CorrectionsRecord corrections(Calibration c) {
         var ch = c.channels();
         var fx = c.fixture();
+        var sense = c.sense();
+        String words = PartResult.CorrectionsRecord.words(ch != null, fx != null);
+        if (sense != null) {
+            words = (words.equals("none") ? "" : words + " and ") + "traced sense resistor";
+        }
         return new PartResult.CorrectionsRecord(ch == null ? null : ch.measuredAt(), ch == null ? null : ch.gainRatio(),
                 ch == null ? null : ch.skewSecond(), fx == null ? null : fx.measuredAt(),
-                fx == null ? null : fx.points().size(), PartResult.CorrectionsRecord.words(ch != null, fx != null));
+                fx == null ? null : fx.points().size(), words, sense == null ? null : sense.measuredAt(),
+                sense == null ? null : sense.valueOhm());
     }
 
     private static PartResult.LimitRecord limit(LimitResult r) {

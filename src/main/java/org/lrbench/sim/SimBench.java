@@ -51,7 +51,8 @@ public final class SimBench implements AnalogInputs, PeerSet {
 
     private SimBench(SimSettings settings, FixtureWiring wiring, PartModel first, List<PartModel> tray) {
         this.wiring = wiring;
-        this.circuit = new Circuit(settings.sourceImpedanceOhm(), wiring.senseOhm(), first);
+        // the sense resistor as it is, off its nominal by the bench's declared error
+        this.circuit = new Circuit(settings.sourceImpedanceOhm(), wiring.senseOhm() * (1 + settings.senseError()), first);
         this.settings = settings;
         this.tray = List.copyOf(tray);
         this.generator = new SimGenerator(settings.sourceImpedanceOhm(), settings.generator());
@@ -61,7 +62,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
         generator.setFrequencyChangeSecond(t.frequencyChangeSecond());
         digitizer.setTiming(t.messageSecond(), t.bytesPerSecond());
         this.switchUnit = new SimSwitch(Math.max(1, tray.size()));
-        this.meter = new SimMultimeter(this::connectedPart, settings.meterLeadOhm());
+        this.meter = new SimMultimeter(this::meterReads, settings.meterLeadOhm());
     }
 
     private final SimMultimeter meter;
@@ -72,6 +73,15 @@ public final class SimBench implements AnalogInputs, PeerSet {
 
     public SimSwitch switchUnit() {
         return switchUnit;
+    }
+
+    /** What the meter's leads are across: the sense resistor when set so, else the part connected (open: overload). */
+    private double meterReads() {
+        if (position == FixturePosition.SENSE_RESISTOR) {
+            return circuit.senseOhm();
+        }
+        PartModel p = connectedPart();
+        return p == null ? 9.9e37 : p.seriesResistanceOhm();
     }
 
     /** The part the fixture connects now, or null when the switch connects none. */

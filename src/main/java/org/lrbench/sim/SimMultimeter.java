@@ -1,25 +1,22 @@
 package org.lrbench.sim;
 
 import java.util.Locale;
-import java.util.function.Supplier;
+import java.util.function.DoubleSupplier;
 import org.lrbench.sim.scpi.ScpiDevice;
 
 /**
- * A simulated DMM across the part: {@code MEASure:FRESistance?} (4-wire) reads the winding's DC
- * resistance (the part file's value, as the part has it on the bench); {@code MEASure:RESistance?}
- * (2-wire) adds both test leads.
+ * A simulated DMM across what its leads are on (the part, or the sense resistor when the fixture is
+ * set so): {@code MEASure:FRESistance?} (4-wire) reads its DC resistance (the part file's value, or
+ * the sense resistor's actual value, as the bench has them); {@code MEASure:RESistance?} (2-wire)
+ * adds both test leads.
  */
 public final class SimMultimeter extends ScpiDevice {
 
-    public SimMultimeter(Supplier<PartModel> part, double leadOhm) {
+    /** @param measured the DC resistance between the meter's leads (9.9E37, overload, when open) */
+    public SimMultimeter(DoubleSupplier measured, double leadOhm) {
         super("LRBENCH,SIM-DMM-1,SIM0004,0.1");
-        register("MEASure:FRESistance", true, c -> nr3(winding(part)));
-        register("MEASure:RESistance", true, c -> nr3(winding(part) + 2 * leadOhm));
-    }
-
-    private static double winding(Supplier<PartModel> part) {
-        PartModel p = part.get();
-        return p == null ? 9.9e37 : p.seriesResistanceOhm();
+        register("MEASure:FRESistance", true, c -> nr3(measured.getAsDouble()));
+        register("MEASure:RESistance", true, c -> nr3(measured.getAsDouble() + 2 * leadOhm));
     }
 
     @Override

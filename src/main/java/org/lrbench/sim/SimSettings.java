@@ -7,12 +7,31 @@ package org.lrbench.sim;
  * channel 2's gain error (relative) and time skew against channel 1, and the fixture's parasitics:
  * lead resistance and inductance in series with the part, stray capacitance across it; and the
  * resistance of each multimeter test lead; and which simulated digitizer and generator (their personalities:
- * dialect, range set, scaling, resolution, levels) the bench has, and how long its instruments take.
+ * dialect, range set, scaling, resolution, levels) the bench has, and how long its instruments take;
+ * and how far the sense resistor is off its nominal value (relative: the plan's nominal is all lrbench
+ * knows until a meter traces it).
  */
 public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
                           double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
                           double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm,
-                          SimDigitizer.Personality digitizer, SimGenerator.Personality generator, SimTiming timing) {
+                          SimDigitizer.Personality digitizer, SimGenerator.Personality generator, SimTiming timing,
+                          double senseError) {
+
+    /** A sense resistor exactly at its nominal value. */
+    public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
+                       double channel2GainError, double channel2SkewSecond, double leadResistanceOhm,
+                       double leadInductanceHenry, double strayCapacitanceFarad, double meterLeadOhm,
+                       SimDigitizer.Personality digitizer, SimGenerator.Personality generator, SimTiming timing) {
+        this(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError, channel2SkewSecond,
+                leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer, generator, timing, 0);
+    }
+
+    /** The same bench with its sense resistor off its nominal value by {@code e} (relative). */
+    public SimSettings withSenseError(double e) {
+        return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
+                channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer,
+                generator, timing, e);
+    }
 
     /** Instruments that answer at once. */
     public SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int resolutionBits, long seed,
@@ -54,27 +73,27 @@ public record SimSettings(double sourceImpedanceOhm, double noiseVoltRms, int re
     public SimSettings withSeed(long newSeed) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, newSeed, channel2GainError,
                 channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer,
-                generator, timing);
+                generator, timing, senseError);
     }
 
     /** The same bench with another simulated digitizer personality. */
     public SimSettings withDigitizer(SimDigitizer.Personality p) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
                 channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, p, generator,
-                timing);
+                timing, senseError);
     }
 
     /** The same bench with another simulated generator personality. */
     public SimSettings withGenerator(SimGenerator.Personality p) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
                 channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer, p,
-                timing);
+                timing, senseError);
     }
 
     /** The same bench with instruments that take this long. */
     public SimSettings withTiming(SimTiming t) {
         return new SimSettings(sourceImpedanceOhm, noiseVoltRms, resolutionBits, seed, channel2GainError,
                 channel2SkewSecond, leadResistanceOhm, leadInductanceHenry, strayCapacitanceFarad, meterLeadOhm, digitizer,
-                generator, t);
+                generator, t, senseError);
     }
 }

@@ -7,7 +7,46 @@ package org.lrbench.uncertainty;
  * skew, and the relative frequency accuracy of the generator against the digitizer's time base.
  */
 public record BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy,
-                            double rangeGainMatch, double channelMatchDegreesOfFreedom, FixtureBounds fixture) {
+                            double rangeGainMatch, double channelMatchDegreesOfFreedom, FixtureBounds fixture,
+                            TracedSense tracedSense, double meterAccuracy, double senseAcDc) {
+
+    /**
+     * A 6.5-digit multimeter's 4-wire resistance accuracy at 100 ohm, one year: about 0.010 % of the
+     * reading plus 0.004 % of the range (from memory of makers' data sheets): 0.015 % as a half-width.
+     */
+    public static final double METER_ACCURACY = 0.00015;
+    /**
+     * A metal-film or foil resistor of 100 ohm or less changes by under 0.01 % from DC to 100 kHz
+     * (common practice, no source).
+     */
+    public static final double SENSE_AC_DC = 0.0001;
+
+    public BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy,
+                         double rangeGainMatch, double channelMatchDegreesOfFreedom, FixtureBounds fixture,
+                         TracedSense tracedSense) {
+        this(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch, channelMatchDegreesOfFreedom,
+                fixture, tracedSense, METER_ACCURACY, SENSE_AC_DC);
+    }
+
+    /**
+     * The sense resistor as traced by the bench's meter: its relative standard uncertainty (the
+     * meter's specification and the readings' scatter), and the bound on its AC/DC difference over the
+     * plan's frequencies (rectangular half-width, relative). Null: only the nominal and its tolerance.
+     */
+    public record TracedSense(double relativeUncertainty, double acDcBound) {
+    }
+
+    /** The same specifications with the sense resistor traced (its line replaces the tolerance's). */
+    public BenchAccuracy withTracedSense(TracedSense t) {
+        return new BenchAccuracy(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch,
+                channelMatchDegreesOfFreedom, fixture, t, meterAccuracy, senseAcDc);
+    }
+
+    public BenchAccuracy(double senseTolerance, double gainAccuracy, double skewSecond, double frequencyAccuracy,
+                         double rangeGainMatch, double channelMatchDegreesOfFreedom, FixtureBounds fixture) {
+        this(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch, channelMatchDegreesOfFreedom,
+                fixture, null);
+    }
 
     /**
      * What the fixture may add to a reading while no open/short compensation is in force: leads in
@@ -30,10 +69,16 @@ public record BenchAccuracy(double senseTolerance, double gainAccuracy, double s
                 null);
     }
 
+    /** The same specifications with the meter's accuracy and the sense resistor's AC/DC bound as given. */
+    public BenchAccuracy withTraceSpecs(double meter, double acDc) {
+        return new BenchAccuracy(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch,
+                channelMatchDegreesOfFreedom, fixture, tracedSense, meter, acDc);
+    }
+
     /** The same specifications with the fixture's bounds (null once a compensation is in force). */
     public BenchAccuracy withFixture(FixtureBounds f) {
         return new BenchAccuracy(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, rangeGainMatch,
-                channelMatchDegreesOfFreedom, f);
+                channelMatchDegreesOfFreedom, f, tracedSense, meterAccuracy, senseAcDc);
     }
 
     /** Specifications only, before any channel match, with nothing said of the fixture. */
@@ -44,7 +89,7 @@ public record BenchAccuracy(double senseTolerance, double gainAccuracy, double s
     /** The same specifications with the channels' gain ratio between ranges bounded by {@code a}. */
     public BenchAccuracy withRangeGainMatch(double a) {
         return new BenchAccuracy(senseTolerance, gainAccuracy, skewSecond, frequencyAccuracy, a,
-                channelMatchDegreesOfFreedom, fixture);
+                channelMatchDegreesOfFreedom, fixture, tracedSense, meterAccuracy, senseAcDc);
     }
 
     /**
@@ -55,7 +100,8 @@ public record BenchAccuracy(double senseTolerance, double gainAccuracy, double s
      */
     public BenchAccuracy afterChannelMatch(double gainUncertainty, double skewUncertainty, int points) {
         return new BenchAccuracy(senseTolerance, gainUncertainty * Math.sqrt(6) / 2, skewUncertainty * Math.sqrt(3),
-                frequencyAccuracy, rangeGainMatch, Math.max(1, points - 1), fixture);
+                frequencyAccuracy, rangeGainMatch, Math.max(1, points - 1), fixture, tracedSense, meterAccuracy,
+                senseAcDc);
     }
 
     /**
