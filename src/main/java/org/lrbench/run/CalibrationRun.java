@@ -76,10 +76,15 @@ public final class CalibrationRun {
         return m;
     }
 
-    /** Both corrections in turn: the channel match, then the fixture measured with it in force. */
+    /**
+     * Every correction in turn: the channel match, the fixture measured with it in force, and the
+     * sense resistor where the bench has a meter.
+     */
     public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper) {
         ChannelMatch m = channels(plan, inst, change, sleeper);
-        return new Calibration(m, fixture(plan, inst, change, sleeper, m));
+        FixtureCompensation f = fixture(plan, inst, change, sleeper, m);
+        // the sense resistor traced too where the bench has a meter, as calibrate does
+        return new Calibration(m, f).withSense(senseResistor(plan, inst, change, BenchAccuracy.defaults()));
     }
 
     /** Short and open of the fixture, each corrected by the channel match when there is one. */
