@@ -25,6 +25,11 @@ public final class Plausibility {
     static final double OPEN_MAX_FARAD = 200e-12;
     /** An open fixture's leakage above 10 uS (below 100 kohm) is no open (common practice, no source). */
     static final double OPEN_MAX_SIEMENS = 1e-5;
+    /**
+     * An open reading below 1 kohm is a part, not an empty fixture: a bench resolves an open far less
+     * well than that at low frequencies, where noise decides its reading (common practice, no source).
+     */
+    static final double OPEN_MIN_OHM = 1e3;
     /** How many standard uncertainties a reading may stray past a bound. */
     static final double COVERAGE = 3;
 
@@ -90,13 +95,15 @@ public final class Plausibility {
             // the open's own reading uncertainty in ohm (kept as that of its admittance, u_Y = u_Z / |Z|^2)
             double uz = p.openAdmittanceUncertainty() == null ? 0 : p.openAdmittanceUncertainty() * z.abs() * z.abs();
             String at = " at " + Units.format(p.frequencyHz(), Dimension.FREQUENCY);
-            // an empty fixture's impedance is at least that of the largest stray and leakage it may have
-            double least = 1 / Math.hypot(OPEN_MAX_SIEMENS, omega * OPEN_MAX_FARAD);
+            // an empty fixture's impedance is at least that of the largest stray and leakage it may have;
+            // where that is beyond what the bench can resolve (a reading lost in noise), at least 1 kohm
+            double least = Math.min(1 / Math.hypot(OPEN_MAX_SIEMENS, omega * OPEN_MAX_FARAD), OPEN_MIN_OHM);
             if (z.abs() + COVERAGE * uz < least) {
                 out.add("the open reads only " + Units.format(z.getReal(), Dimension.RESISTANCE) + " + j "
                         + Units.format(z.getImaginary(), Dimension.RESISTANCE) + " above the short" + at + ", an admittance far above an empty"
-                        + " fixture's (" + Units.format(OPEN_MAX_FARAD, Dimension.CAPACITANCE) + ", "
-                        + Units.format(1 / OPEN_MAX_SIEMENS, Dimension.RESISTANCE) + ")");
+                        + " fixture's (at least " + Units.format(least, Dimension.RESISTANCE) + ": "
+                        + Units.format(OPEN_MAX_FARAD, Dimension.CAPACITANCE) + " and "
+                        + Units.format(1 / OPEN_MAX_SIEMENS, Dimension.RESISTANCE) + " at most, read to 1 kohm)");
                 break;
             }
         }
