@@ -74,38 +74,61 @@ public final class Plausibility {
     /** The short and the open at every frequency where they were read; an empty list when plausible. */
     public static List<String> fixture(FixtureCompensation f) {
         List<String> out = new ArrayList<>();
+        // the short over the whole sweep, so that one noisy point decides nothing: its resistance as the
+        // median reading, its inductance as the least-squares slope of X against w (weights the high
+        // frequencies, where a short reads best)
+        double[] r = f.points().stream().mapToDouble(FixtureCompensation.Point::shortReal).sorted().toArray();
+        double median = r.length % 2 == 1 ? r[r.length / 2] : (r[r.length / 2 - 1] + r[r.length / 2]) / 2;
+        double sxw = 0;
+        double sww = 0;
+        double suu = 0;
+        double uMin = Double.POSITIVE_INFINITY;
         for (FixtureCompensation.Point p : f.points()) {
             double omega = 2 * Math.PI * p.frequencyHz();
             double u = p.shortUncertaintyOhm() == null ? 0 : p.shortUncertaintyOhm();
-            String at = " at " + Units.format(p.frequencyHz(), Dimension.FREQUENCY);
-            if (p.shortReal() > SHORT_MAX_OHM + COVERAGE * u || Math.abs(p.shortImag()) > omega * SHORT_MAX_HENRY + COVERAGE * u) {
-                out.add("the short reads " + Units.format(p.shortReal(), Dimension.RESISTANCE) + " and "
-                        + Units.format(p.shortImag() / omega, Dimension.INDUCTANCE) + at + ", where a shorting bar is below "
-                        + Units.format(SHORT_MAX_OHM, Dimension.RESISTANCE) + " and "
-                        + Units.format(SHORT_MAX_HENRY, Dimension.INDUCTANCE));
-                break;
-            }
+            sxw += omega * p.shortImag();
+            sww += omega * omega;
+            suu += omega * omega * u * u;
+            uMin = Math.min(uMin, u);
         }
+        double henry = sxw / sww;
+        double uHenry = Math.sqrt(suu) / sww;
+        if (median > SHORT_MAX_OHM + COVERAGE * uMin || henry > SHORT_MAX_HENRY + COVERAGE * uHenry) {
+            out.add("the short reads " + Units.format(median, Dimension.RESISTANCE) + " and "
+                    + Units.format(henry, Dimension.INDUCTANCE) + " over the sweep, where a shorting bar is below "
+                    + Units.format(SHORT_MAX_OHM, Dimension.RESISTANCE) + " and "
+                    + Units.format(SHORT_MAX_HENRY, Dimension.INDUCTANCE));
+        }
+        // the open, read where the bench could read it: refused when most of those readings are a part
+        int readable = 0;
+        int low = 0;
+        String first = null;
         for (FixtureCompensation.Point p : f.points()) {
             if (Double.isNaN(p.openReal()) || Boolean.TRUE.equals(p.openModelled())) {
                 continue;
             }
+            readable++;
             double omega = 2 * Math.PI * p.frequencyHz();
             Complex z = new Complex(p.openReal(), p.openImag()).subtract(p.shortZ());
             // the open's own reading uncertainty in ohm (kept as that of its admittance, u_Y = u_Z / |Z|^2)
             double uz = p.openAdmittanceUncertainty() == null ? 0 : p.openAdmittanceUncertainty() * z.abs() * z.abs();
-            String at = " at " + Units.format(p.frequencyHz(), Dimension.FREQUENCY);
             // an empty fixture's impedance is at least that of the largest stray and leakage it may have;
             // where that is beyond what the bench can resolve (a reading lost in noise), at least 1 kohm
             double least = Math.min(1 / Math.hypot(OPEN_MAX_SIEMENS, omega * OPEN_MAX_FARAD), OPEN_MIN_OHM);
             if (z.abs() + COVERAGE * uz < least) {
-                out.add("the open reads only " + Units.format(z.getReal(), Dimension.RESISTANCE) + " + j "
-                        + Units.format(z.getImaginary(), Dimension.RESISTANCE) + " above the short" + at + ", an admittance far above an empty"
-                        + " fixture's (at least " + Units.format(least, Dimension.RESISTANCE) + ": "
-                        + Units.format(OPEN_MAX_FARAD, Dimension.CAPACITANCE) + " and "
-                        + Units.format(1 / OPEN_MAX_SIEMENS, Dimension.RESISTANCE) + " at most, read to 1 kohm)");
-                break;
+                low++;
+                if (first == null) {
+                    first = "the open reads only " + Units.format(z.getReal(), Dimension.RESISTANCE) + " + j "
+                            + Units.format(z.getImaginary(), Dimension.RESISTANCE) + " above the short at "
+                            + Units.format(p.frequencyHz(), Dimension.FREQUENCY) + ", where an empty fixture reads at"
+                            + " least " + Units.format(least, Dimension.RESISTANCE) + " (" + Units.format(OPEN_MAX_FARAD,
+                            Dimension.CAPACITANCE) + " and " + Units.format(1 / OPEN_MAX_SIEMENS, Dimension.RESISTANCE)
+                            + " of leakage at most, read to 1 kohm)";
+                }
             }
+        }
+        if (readable > 0 && 2 * low > readable) {
+            out.add(first + "; " + low + " of " + readable + " readable frequencies read so");
         }
         return out;
     }
