@@ -56,9 +56,28 @@ public final class BenchLoader {
         InstrumentLink meter = root.has("meter") ? link(root, "meter") : null;
         SimSettings sim = simulation(root);
         BenchAccuracy accuracy = accuracy(root);
+        if (sim != null && Double.isNaN(sim.senseError())) {
+            // the simulated sense resistor off its nominal as a real one may be: drawn from the bench's
+            // seed, uniformly within the tolerance the bench file declares for it
+            double u = new java.util.Random(sim.seed() ^ SENSE_DRAW).nextDouble();
+            sim = sim.withSenseError(accuracy.senseTolerance() * (2 * u - 1));
+        }
         CheckStandard check = root.has("check_standard") ? checkStandard(root, sim != null) : null;
         root.problems().throwIfAny();
         return new BenchConfig(source, name, max, generator, digitizer, switchUnit, meter, sim, accuracy, check);
+    }
+
+    private static final String[] SIMULATION_KEYS = {"source_impedance", "noise", "resolution", "seed",
+        "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
+        "meter_lead_resistance", "digitizer", "generator", "timing", "sense_resistor_error"};
+
+    /** Salt of the draw of a simulated sense resistor's error from the bench's seed (any fixed number). */
+    private static final long SENSE_DRAW = 0x5e45e;
+
+    /** A key's scalar text without recording a problem when it is no text (null then). */
+    private static String textOf(YamlMap m, String key) {
+        return m.value(key, false).filter(n -> n instanceof org.yaml.snakeyaml.nodes.ScalarNode)
+                .map(n -> ((org.yaml.snakeyaml.nodes.ScalarNode) n).getValue()).orElse(null);
     }
 
     /**
@@ -230,9 +249,7 @@ public final class BenchLoader {
 
     private static SimSettings simulation(YamlMap root) {
         SimSettings d = SimSettings.defaults();
-        YamlMap m = root.map("simulation", false, "source_impedance", "noise", "resolution", "seed",
-                "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
-                "meter_lead_resistance", "digitizer", "generator", "timing", "sense_resistor_error");
+        YamlMap m = root.map("simulation", false, SIMULATION_KEYS);
         if (m == null) {
             return d;
         }
@@ -268,7 +285,8 @@ public final class BenchLoader {
                 m.problem(k, "must not be negative");
             }
         }
-        var senseError = m.anyQuantity("sense_resistor_error", false);
+        var senseError = "drawn".equals(textOf(m, "sense_resistor_error")) ? null
+                : m.anyQuantity("sense_resistor_error", false);
         if (senseError != null && (!senseError.relative() || Math.abs(senseError.value()) >= 0.5)) {
             m.problem("sense_resistor_error", "must be a relative value under 50 %, such as 0.08 % or -500 ppm");
         }
@@ -283,6 +301,8 @@ public final class BenchLoader {
                 meterLead == null ? 0.05 : meterLead,
                 personality == null ? SimDigitizer.Personality.GENERIC : personality,
                 generator == null ? SimGenerator.Personality.GENERIC : generator, timing(m),
-                senseError == null || !senseError.relative() ? 0 : senseError.value());
+                // NaN: "drawn", settled once the bench's declared tolerance is read (see load)
+                "drawn".equals(textOf(m, "sense_resistor_error")) ? Double.NaN
+                        : senseError == null || !senseError.relative() ? 0 : senseError.value());
     }
 }

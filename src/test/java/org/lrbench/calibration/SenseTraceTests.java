@@ -69,6 +69,26 @@ class SenseTraceTests {
     }
 
     @Test
+    void aSimulatedSenseResistorCanBeDrawnWithinItsToleranceFromTheSeed(@org.junit.jupiter.api.io.TempDir
+                                                                        java.nio.file.Path dir) throws Exception {
+        String text = java.nio.file.Files.readString(TestBench.home().resolve("simulator/bench.yaml"));
+        String drawn = text.replaceFirst("(?m)^simulation:\\n", "simulation:\n  sense_resistor_error: drawn\n");
+        java.nio.file.Path a = dir.resolve("a.yaml");
+        java.nio.file.Files.writeString(a, drawn);
+        java.nio.file.Path b = dir.resolve("b.yaml");
+        java.nio.file.Files.writeString(b, drawn.replaceFirst("(?m)^(\\s+)seed: .*$", "$1seed: 99"));
+        BenchConfig one = BenchLoader.load(a);
+        BenchConfig two = BenchLoader.load(b);
+        double tolerance = one.accuracy().senseTolerance();
+        assertThat(one.simulation().senseError()).isNotZero().isBetween(-tolerance, tolerance);
+        assertThat(two.simulation().senseError()).isBetween(-tolerance, tolerance)
+                .isNotEqualTo(one.simulation().senseError());
+        // the same seed, the same resistor; it stays as measurements draw their own noise
+        assertThat(BenchLoader.load(a).simulation().senseError()).isEqualTo(one.simulation().senseError());
+        assertThat(one.withSeedOffset(5).simulation().senseError()).isEqualTo(one.simulation().senseError());
+    }
+
+    @Test
     void aReadingThatIsNotTheSenseResistorIsRefused() throws Exception {
         BenchConfig b = bench();
         Plan plan = plan(b);
