@@ -1,11 +1,7 @@
 package org.lrbench.cli;
 
-import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.security.MessageDigest;
-import java.security.NoSuchAlgorithmException;
-import java.util.HexFormat;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.driver.DriverKind;
@@ -74,16 +70,6 @@ final class Inputs {
             return a;
         } catch (AddressException e) {
             throw new BadInputException(option + ": " + e.getMessage());
-        }
-    }
-
-    static String sha256(Path file) {
-        try {
-            return HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(Files.readAllBytes(file)));
-        } catch (IOException e) {
-            throw new BadInputException("cannot read " + file + ": " + e.getMessage());
-        } catch (NoSuchAlgorithmException e) {
-            throw new IllegalStateException(e);
         }
     }
 }
