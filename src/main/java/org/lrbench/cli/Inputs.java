@@ -4,7 +4,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
-import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.PlanFit;
 import org.lrbench.plan.Plan;
@@ -36,9 +35,7 @@ final class Inputs {
      * digitizer more than their driver files declare.
      */
     static void requireFit(Plan plan, BenchConfig bench, DriverLoader drivers) throws ProblemsException {
-        var problems = PlanFit.problems(plan,
-                drivers.load(bench.generator().driver(), DriverKind.SOURCE),
-                drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER));
+        var problems = PlanFit.problems(plan, drivers, bench.generator().driver(), bench.digitizer().driver());
         if (!problems.isEmpty()) {
             throw new BadInputException(String.join("\n", problems));
         }

@@ -20,6 +20,13 @@ public final class PlanFit {
     private PlanFit() {
     }
 
+    /** The problems of a plan on the generator and digitizer these driver names load (each loaded once). */
+    public static List<String> problems(Plan plan, DriverLoader drivers, String generatorDriver, String digitizerDriver)
+            throws org.lrbench.yaml.ProblemsException {
+        return problems(plan, drivers.load(generatorDriver, DriverKind.SOURCE),
+                drivers.load(digitizerDriver, DriverKind.DIGITIZER));
+    }
+
     /** One sentence per thing the plan asks that a driver says its instrument cannot do. */
     public static List<String> problems(Plan plan, DriverFile source, DriverFile digitizer) {
         List<String> out = new ArrayList<>();

@@ -8,7 +8,6 @@ import java.util.List;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.CalibrationStore;
-import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.PlanFit;
 import org.lrbench.measure.BenchClock;
@@ -136,9 +135,8 @@ public final class LotStart {
         if (plan.sampling() == null) {
             throw bad(q.planFile() + ": a lot run needs the plan's sampling section (level, AQL per class)");
         }
-        List<String> problems = PlanFit.problems(plan,
-                q.drivers().load(q.bench().generator().driver(), DriverKind.SOURCE),
-                q.drivers().load(q.bench().digitizer().driver(), DriverKind.DIGITIZER));
+        List<String> problems = PlanFit.problems(plan, q.drivers(), q.bench().generator().driver(),
+                q.bench().digitizer().driver());
         if (!problems.isEmpty()) {
             throw bad(String.join("\n", problems));
         }

@@ -12,7 +12,6 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.CheckStandard;
 import org.lrbench.bench.SimulatedPart;
 import org.lrbench.calibration.CalibrationStore;
-import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.PlanFit;
 import org.lrbench.judge.Characteristic;
@@ -74,8 +73,7 @@ public final class StandardCheck {
             throw new Refused("plan " + planFile + ": no such file");
         }
         Plan p = PlanLoader.load(planFile, b.maxAmplitudeVolt());
-        List<String> misfit = PlanFit.problems(p, drivers.load(b.generator().driver(), DriverKind.SOURCE),
-                drivers.load(b.digitizer().driver(), DriverKind.DIGITIZER));
+        List<String> misfit = PlanFit.problems(p, drivers, b.generator().driver(), b.digitizer().driver());
         if (!misfit.isEmpty()) {
             throw new Refused(String.join("\n", misfit));
         }
