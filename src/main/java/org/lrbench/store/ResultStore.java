@@ -35,6 +35,7 @@ public final class ResultStore implements AutoCloseable {
     private final AttemptRows attempts;
     private final ChainRows chain;
     private final LotQueries queries;
+    private final StoreSchema schema;
 
     private ResultStore(StoreDb db) {
         this.db = db;
@@ -43,6 +44,7 @@ public final class ResultStore implements AutoCloseable {
         this.attempts = new AttemptRows(db, inspections);
         this.chain = new ChainRows(db, inspections);
         this.queries = new LotQueries(db, inspections);
+        this.schema = new StoreSchema(db, inspections, chain);
     }
 
     /** The schema version this program writes. */
@@ -71,16 +73,9 @@ public final class ResultStore implements AutoCloseable {
         return new ResultStore(StoreOpening.openUrl(url));
     }
 
-    /** Checks a newly opened store's schema and brings it up to date (the opening's last step). */
-    static void prepare(StoreDb db) throws java.sql.SQLException {
-        InspectionRows inspections = new InspectionRows(db);
-        new StoreSchema(db, inspections, new ChainRows(db, inspections)).prepare();
-    }
-
     /** The schema version the store is at (0 for a new store). */
     public int version() {
-        InspectionRows rows = new InspectionRows(db);
-        return new StoreSchema(db, rows, new ChainRows(db, rows)).version();
+        return schema.version();
     }
 
     /**

@@ -38,7 +38,7 @@ final class StoreOpening {
     }
 
     private static StoreDb open(Path file, boolean readOnly) {
-        Connection c = null;
+        Connection c;
         try {
             if (!readOnly) {
                 Files.createDirectories(file.toAbsolutePath().getParent());
@@ -55,17 +55,26 @@ final class StoreOpening {
                 cfg.setTransactionMode(SQLiteConfig.TransactionMode.IMMEDIATE);
             }
             c = readOnly ? connectForReading(file, cfg) : connectWithRetry("jdbc:sqlite:" + file, cfg);
-            StoreDb store = new StoreDb(c, file.toString(), false, readOnly);
-            ResultStore.prepare(store);
+        } catch (SQLException e) {
+            throw new StoreException("cannot open the results store " + file + ": " + StoreErrors.describe(e), e);
+        } catch (IOException e) {
+            throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
+        }
+        return prepared(c, file.toString(), false, readOnly);
+    }
+
+    /** An open connection as a store with its schema brought up to date; closed again when that fails. */
+    private static StoreDb prepared(Connection c, String where, boolean postgres, boolean readOnly) {
+        try {
+            StoreDb store = new StoreDb(c, where, postgres, readOnly);
+            StoreSchema.of(store).prepare();
             return store;
         } catch (StoreException e) {
             StoreDb.closeQuietly(c);
             throw e;
         } catch (SQLException e) {
             StoreDb.closeQuietly(c);
-            throw new StoreException("cannot open the results store " + file + ": " + StoreErrors.describe(e), e);
-        } catch (IOException e) {
-            throw new StoreException("cannot open the results store " + file + ": " + e.getMessage(), e);
+            throw new StoreException("cannot open the results store " + where + ": " + StoreErrors.describe(e), e);
         }
     }
 
@@ -134,18 +143,12 @@ final class StoreOpening {
             throw new StoreException("store URL '" + url + "': use jdbc:postgresql://... or jdbc:sqlite:FILE", null);
         }
         String shown = url.replaceAll("password=[^&]*", "password=***");
-        Connection c = null;
+        Connection c;
         try {
             c = DriverManager.getConnection(url);
-            StoreDb store = new StoreDb(c, shown, true, false);
-            ResultStore.prepare(store);
-            return store;
-        } catch (StoreException e) {
-            StoreDb.closeQuietly(c);
-            throw e;
         } catch (SQLException e) {
-            StoreDb.closeQuietly(c);
-            throw new StoreException("cannot open the results store at " + shown + ": " + StoreErrors.describe(e), e);
+            throw new StoreException("cannot open the results store " + shown + ": " + StoreErrors.describe(e), e);
         }
+        return prepared(c, shown, true, false);
     }
 }

@@ -19,6 +19,12 @@ final class StoreSchema {
     private final InspectionRows inspections;
     private final ChainRows chain;
 
+    /** The schema of this store, read through its own inspection and chain rows. */
+    static StoreSchema of(StoreDb store) {
+        InspectionRows inspections = new InspectionRows(store);
+        return new StoreSchema(store, inspections, new ChainRows(store, inspections));
+    }
+
     StoreSchema(StoreDb store, InspectionRows inspections, ChainRows chain) {
         this.store = store;
         this.inspections = inspections;
