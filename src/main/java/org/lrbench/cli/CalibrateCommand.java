@@ -10,15 +10,12 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.FixtureCompensation;
+import org.lrbench.calibration.SenseTrace;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.BenchClock;
-import org.lrbench.measure.LevelCheck;
-import org.lrbench.measure.LevelRefused;
 import org.lrbench.plan.Plan;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.CalibrationRun;
-import org.lrbench.calibration.SenseTrace;
-import java.nio.file.Files;
 import org.lrbench.run.FixtureChange;
 import org.lrbench.sim.PartFile;
 import org.lrbench.sim.SimBench;
@@ -73,12 +70,7 @@ final class CalibrateCommand implements Callable<Integer> {
         try (BenchInstruments inst = BenchInstruments.open(b, drivers, simBench)) {
             // the level is proven with the fixture as it stands (its normal wiring) before any sweep at
             // the plan's level; a driver slip is refused here, before the first prompt
-            LevelCheck.Result level = LevelCheck.probe(p, inst.generator(), inst.digitizer(), sleeper,
-                    b.generatorOutputOhm(), b.accuracy());
-            if (!level.proven()) {
-                throw new LevelRefused(level);
-            }
-            inst.levelProved();
+            inst.proveLevel(p, b, sleeper);
             ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper, b.accuracy());
             System.out.printf(Locale.ROOT, "channel match: channel 2 gain %.5f +/- %.5f, skew %.1f +/- %.1f ps (%d frequencies)%n",
                     m.gainRatio(), m.gainUncertainty(), m.skewSecond() * 1e12, m.skewUncertaintySecond() * 1e12, m.points());

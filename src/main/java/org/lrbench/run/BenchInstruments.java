@@ -18,7 +18,11 @@ import org.lrbench.instrument.Generator;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.instrument.Multimeter;
 import org.lrbench.instrument.Switch;
+import org.lrbench.measure.BenchClock;
+import org.lrbench.measure.LevelCheck;
+import org.lrbench.measure.LevelRefused;
 import org.lrbench.measure.RangeMemory;
+import org.lrbench.plan.Plan;
 import org.lrbench.scpi.ScpiSession;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.Transport;
@@ -51,13 +55,20 @@ public final class BenchInstruments implements AutoCloseable {
     }
 
     /** The bench's multimeter, or null when it has none (or it was not opened). */
-    /** Whether these instruments, as opened, have proved their level. */
-    public boolean levelProven() {
-        return levelProven;
-    }
-
-    /** Marks the level proved for as long as these instruments stay open. */
-    public void levelProved() {
+    /**
+     * Proves the generator's level on these instruments before anything is driven at a plan's level
+     * ({@link LevelCheck}, with the fixture as it stands), once for as long as they stay open; throws
+     * {@link LevelRefused} (the output off) when it is not what was asked for.
+     */
+    public void proveLevel(Plan plan, BenchConfig bench, BenchClock clock) {
+        if (levelProven) {
+            return;
+        }
+        LevelCheck.Result level = LevelCheck.probe(plan, generator, digitizer, clock, bench.generatorOutputOhm(),
+                bench.accuracy());
+        if (!level.proven()) {
+            throw new LevelRefused(level);
+        }
         levelProven = true;
     }
 

@@ -6,6 +6,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.CopperResistance;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.LumpedModel;
@@ -17,8 +18,6 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.SenseTrace;
-import org.lrbench.uncertainty.BenchAccuracy;
-import org.apache.commons.math3.complex.Complex;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.Judge;
@@ -28,14 +27,13 @@ import org.lrbench.judge.Verdict;
 import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.MeasurementException;
 import org.lrbench.measure.MeasurementStopped;
-import org.lrbench.measure.LevelCheck;
-import org.lrbench.measure.LevelRefused;
 import org.lrbench.measure.PointResult;
 import org.lrbench.measure.StopToken;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
 import org.lrbench.results.PartResult;
+import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.uncertainty.Budget;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
@@ -107,15 +105,8 @@ public final class PartRun {
         try {
             identities.put("generator", instruments.generator().identity().toString());
             identities.put("digitizer", instruments.digitizer().identity().toString());
-            if (!instruments.levelProven()) {
-                // a factor common to both channels cancels in every ratio: the level is measured first, low
-                LevelCheck.Result level = LevelCheck.probe(plan, instruments.generator(), instruments.digitizer(), clock,
-                        request.bench().generatorOutputOhm(), request.bench().accuracy());
-                if (!level.proven()) {
-                    throw new LevelRefused(level);
-                }
-                instruments.levelProved();
-            }
+            // a factor common to both channels cancels in every ratio: the level is measured first, low
+            instruments.proveLevel(plan, request.bench(), clock);
             SweepRunner.Measurement m = new SweepRunner(instruments.generator(), instruments.digitizer(), clock,
                     instruments.rangeMemory())
                     .run(plan, listener, stop, fitAhead);
