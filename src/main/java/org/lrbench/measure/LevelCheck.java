@@ -13,7 +13,6 @@ import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.Coupling;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
-import org.lrbench.instrument.Timing;
 import org.lrbench.instrument.Trace;
 import org.lrbench.instrument.TriggerSource;
 import org.lrbench.instrument.Waveform;
@@ -107,7 +106,6 @@ public final class LevelCheck {
         double range = SweepRunner.START_RANGE_PER_PEAK * asked;
         Trace t1;
         Trace t2;
-        Timing timing;
         try {
             digitizer.batch(() -> {
                 digitizer.prepare();
@@ -118,7 +116,7 @@ public final class LevelCheck {
                 // free running: a channel that reads nothing would never trigger, and the fit needs no trigger
                 digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
             });
-            timing = digitizer.setTimingAndRanges(r.intervalSecond(), r.points(), range, range, new double[2]);
+            digitizer.setTimingAndRanges(r.intervalSecond(), r.points(), range, range, new double[2]);
             generator.batch(() -> {
                 generator.prepare();
                 generator.setWaveform(Waveform.SINE);
@@ -137,7 +135,7 @@ public final class LevelCheck {
                 // far more than asked for, or garbage: a wider range tells which (the level is still a tenth)
                 double wide1 = clipped(t1) ? WIDER * range : range;
                 double wide2 = clipped(t2) ? WIDER * range : range;
-                timing = digitizer.setTimingAndRanges(r.intervalSecond(), r.points(), wide1, wide2, new double[2]);
+                digitizer.setTimingAndRanges(r.intervalSecond(), r.points(), wide1, wide2, new double[2]);
                 digitizer.acquire();
                 t1 = digitizer.fetch(1);
                 t2 = digitizer.fetch(2);
@@ -145,11 +143,11 @@ public final class LevelCheck {
         } finally {
             generator.outputOff();
         }
-        return judge(plan, f, asked, timing, t1, t2, sourceOhm, accuracy);
+        return judge(plan, f, asked, t1, t2, sourceOhm, accuracy);
     }
 
     /** The traces of a probe judged: each channel on its own, then the EMF they give together. */
-    static Result judge(Plan plan, double f, double asked, Timing timing, Trace t1, Trace t2, double sourceOhm,
+    static Result judge(Plan plan, double f, double asked, Trace t1, Trace t2, double sourceOhm,
                         BenchAccuracy accuracy) {
         List<Finding> findings = new ArrayList<>();
         boolean usable = channel(1, t1, f, findings) & channel(2, t2, f, findings);
