@@ -100,7 +100,7 @@ final class DemoCommand implements Callable<Integer> {
                         null, null, true, true, new LotStart.Folders(calibrationOption.calibration, runsOption.runs,
                         tablesOption.tables), Home.version()), store);
             } catch (LotRefused e) {
-                throw new BadInputException("demo lot " + lot.lot() + ": " + e.getMessage());
+                throw new BadInputException("demo: " + e.getMessage());
             }
             LotRunner.Setup setup = ready.setup();
             System.out.println(setup.template().calibration().inForce());
