@@ -3,9 +3,9 @@ package org.lrbench.sim;
 /**
  * The {@code per-division-8} dialect of the simulated digitizer, a command tree of our own: volts
  * per division over {@value #DIVISIONS} divisions in 1-2-5 steps from 1 mV to 10 V per division (a
- * request rounded to the nearest step, the step in force read back) under {@code VERTical<n>}; the
+ * request rounded to the nearest step, the step in force read back) under {@code LANE<n>}; the
  * sample spacing (or the time per division, the instrument then choosing the spacing) and a record
- * length from a list (a request rounded up) under {@code HORizontal}; an edge trigger under
+ * length from a list (a request rounded up) under {@code TIMing}; an edge trigger under
  * {@code STARt}; a single capture that completes with {@code *OPC?}; the scaling as a seven-field
  * reply (or one query per field) and signed 8-bit codes under {@code TRANsfer}.
  */
@@ -36,7 +36,7 @@ final class PerDivisionDialect {
 
     private void register() {
         d.onReset(() -> timePerDivision = 0);
-        d.on("VERTical#:DIVision", false, c -> {
+        d.on("LANE#:DIVision", false, c -> {
             c.expect(1, 1);
             double perDiv = c.number(0, 1e-6, 1e3, 1);
             double best = PER_DIVISION[0];
@@ -49,20 +49,20 @@ final class PerDivisionDialect {
             d.record = null;
             return null;
         });
-        d.on("VERTical#:DIVision", true, c -> SimDigitizer.nr3(d.range[c.suffixUpTo(SimDigitizer.CHANNELS)] / DIVISIONS));
-        d.on("VERTical#:SHIFt", false, c -> {
+        d.on("LANE#:DIVision", true, c -> SimDigitizer.nr3(d.range[c.suffixUpTo(SimDigitizer.CHANNELS)] / DIVISIONS));
+        d.on("LANE#:SHIFt", false, c -> {
             c.expect(1, 1);
             d.offset[c.suffixUpTo(SimDigitizer.CHANNELS)] = c.number(0, -SimDigitizer.MAX_RANGE, SimDigitizer.MAX_RANGE, 0);
             d.record = null;
             return null;
         });
-        d.on("VERTical#:COUPling", false, c -> {
+        d.on("LANE#:COUPling", false, c -> {
             c.expect(1, 1);
             d.acCoupled[c.suffixUpTo(SimDigitizer.CHANNELS)] = c.word(0, "AC", "DC").equals("AC");
             d.record = null;
             return null;
         });
-        d.on("HORizontal:SPACing", false, c -> {
+        d.on("TIMing:SPACing", false, c -> {
             c.expect(1, 1);
             double requested = c.number(0, SimDigitizer.CLOCK_INTERVAL, 1.0, 1e-6);
             d.interval = Math.max(1, Math.floor(requested / SimDigitizer.CLOCK_INTERVAL + 1e-9)) * SimDigitizer.CLOCK_INTERVAL;
@@ -70,16 +70,16 @@ final class PerDivisionDialect {
             d.record = null;
             return null;
         });
-        d.on("HORizontal:SPACing", true, c -> SimDigitizer.nr3(d.interval));
+        d.on("TIMing:SPACing", true, c -> SimDigitizer.nr3(d.interval));
         // or the time per division of a ten-division screen: the instrument then chooses the spacing
-        d.on("HORizontal:DIVision", false, c -> {
+        d.on("TIMing:DIVision", false, c -> {
             c.expect(1, 1);
             timePerDivision = c.number(0, 1e-9, 100, 1e-3);
             d.interval = chosenInterval();
             d.record = null;
             return null;
         });
-        d.on("HORizontal:LENGth", false, c -> {
+        d.on("TIMing:LENGth", false, c -> {
             c.expect(1, 1);
             double wanted = c.number(0, 16, SimDigitizer.MAX_POINTS, 1000);
             d.points = RECORD_LENGTHS[RECORD_LENGTHS.length - 1];
@@ -95,7 +95,7 @@ final class PerDivisionDialect {
             d.record = null;
             return null;
         });
-        d.on("HORizontal:LENGth", true, c -> Integer.toString(d.points));
+        d.on("TIMing:LENGth", true, c -> Integer.toString(d.points));
         d.on("STARt:SOURce", false, c -> {
             c.expect(1, 1);
             d.triggerSource = c.word(0, "CH1", "CH2", "EXTernal", "IMMediate");
