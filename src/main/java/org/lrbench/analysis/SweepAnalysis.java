@@ -58,6 +58,17 @@ public final class SweepAnalysis {
      */
     public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
                                  BenchAccuracy accuracy, double[] quantization) {
+        return analyse(points, terms, evaluations, accuracy, quantization, new double[points.size()]);
+    }
+
+    /**
+     * As above, with each point's channel gain ratio taken from the channel match of its own range
+     * pair, known to relative standard uncertainty {@code rangePair[i]}: one line, all points moved
+     * together by their own amounts (the pairs' ratios come from one least-squares solution and share
+     * its readings, so they are taken as fully correlated: the larger of the possible sums).
+     */
+    public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
+                                 BenchAccuracy accuracy, double[] quantization, double[] rangePair) {
         LumpedFit.Result fit = LumpedFit.fit(points, terms);
         Set<LumpedParameter> free = fit.free();
         double[] p = fit.parameters();
@@ -69,12 +80,19 @@ public final class SweepAnalysis {
                         Distribution.RECTANGULAR, accuracy.senseTolerance(), "relative", inf, d -> scale(points, 1 + d))
                 : new Perturbation("sense resistor, traced by the bench's meter (4-wire, DC)", Distribution.NORMAL,
                         traced.relativeUncertainty(), "relative", inf, d -> scale(points, 1 + d));
-        List<Perturbation> effects = new ArrayList<>(List.of(senseLine,
-                // the ratio of two channels each within +/- a: the difference of two rectangles is a
-                // triangle of half-width 2a (GUM 4.3.9); after a channel match, its own u with n - 1
-                // degrees of freedom
-                new Perturbation("digitizer gain ratio of the two channels", Distribution.TRIANGULAR,
-                        2 * accuracy.gainAccuracy(), "relative", matchDof, d -> scale(points, 1 + d)),
+        List<Perturbation> effects = new ArrayList<>(List.of(senseLine));
+        if (max(rangePair) > 0) {
+            effects.add(new Perturbation("channel gain ratio of each point's range pair (channel match, range links)",
+                    Distribution.NORMAL, 1, "u", matchDof, d -> scaleEach(points, rangePair, d)));
+        }
+        if (accuracy.gainAccuracy() > 0 || max(rangePair) == 0) {
+            // the ratio of two channels each within +/- a: the difference of two rectangles is a
+            // triangle of half-width 2a (GUM 4.3.9); after a channel match, its own u with n - 1
+            // degrees of freedom
+            effects.add(new Perturbation("digitizer gain ratio of the two channels", Distribution.TRIANGULAR,
+                    2 * accuracy.gainAccuracy(), "relative", matchDof, d -> scale(points, 1 + d)));
+        }
+        effects.addAll(List.of(
                 new Perturbation("residual inter-channel skew", Distribution.RECTANGULAR, accuracy.skewSecond(), "s",
                         matchDof, d -> skew(points, d)),
                 new Perturbation("frequency accuracy", Distribution.RECTANGULAR, accuracy.frequencyAccuracy(), "relative",

@@ -62,6 +62,16 @@ public final class BenchLoader {
             double u = new java.util.Random(sim.seed() ^ SENSE_DRAW).nextDouble();
             sim = sim.withSenseError(accuracy.senseTolerance() * (2 * u - 1));
         }
+        if (sim != null && Double.isNaN(sim.rangeGainSpread())) {
+            // each channel's gain per front-end stage within a quarter of the declared range match, so the
+            // gain ratio of any range pair differs from any other's by at most the match
+            sim = sim.withRangeGainSpread(accuracy.rangeGainMatch() / 4);
+        }
+        if (sim != null && Double.isNaN(sim.meterError())) {
+            // the meter off as a real one may be: drawn from the seed within its declared accuracy
+            double u = new java.util.Random(sim.seed() ^ METER_DRAW).nextDouble();
+            sim = sim.withMeterError(accuracy.meterAccuracy() * (2 * u - 1));
+        }
         CheckStandard check = root.has("check_standard") ? checkStandard(root, sim != null) : null;
         root.problems().throwIfAny();
         return new BenchConfig(source, name, max, generator, digitizer, switchUnit, meter, sim, accuracy, check);
@@ -69,10 +79,12 @@ public final class BenchLoader {
 
     private static final String[] SIMULATION_KEYS = {"source_impedance", "noise", "resolution", "seed",
         "channel2_gain_error", "channel2_skew", "lead_resistance", "lead_inductance", "stray_capacitance",
-        "meter_lead_resistance", "digitizer", "generator", "timing", "sense_resistor_error"};
+        "meter_lead_resistance", "digitizer", "generator", "timing", "sense_resistor_error", "range_gain_errors",
+        "meter_error"};
 
     /** Salt of the draw of a simulated sense resistor's error from the bench's seed (any fixed number). */
     private static final long SENSE_DRAW = 0x5e45e;
+    private static final long METER_DRAW = 0x3e7e5;
 
     /** A key's scalar text without recording a problem when it is no text (null then). */
     private static String textOf(YamlMap m, String key) {
@@ -290,6 +302,10 @@ public final class BenchLoader {
         if (senseError != null && (!senseError.relative() || Math.abs(senseError.value()) >= 0.5)) {
             m.problem("sense_resistor_error", "must be a relative value under 50 %, such as 0.08 % or -500 ppm");
         }
+        double rangeSpread = drawnOrRelative(m, "range_gain_errors", "the half-width each channel's gain per range"
+                + " stage is drawn within, such as 0.025 %, or drawn (a quarter of accuracy.range_gain_match)");
+        double meterError = drawnOrRelative(m, "meter_error", "the meter's reading error, such as 0.01 %, or drawn"
+                + " (within accuracy.meter_resistance_accuracy)");
         Double meterLead = m.quantity("meter_lead_resistance", Dimension.RESISTANCE, false);
         if (meterLead != null && meterLead < 0) {
             m.problem("meter_lead_resistance", "must not be negative");
@@ -303,6 +319,26 @@ public final class BenchLoader {
                 generator == null ? SimGenerator.Personality.GENERIC : generator, timing(m),
                 // NaN: "drawn", settled once the bench's declared tolerance is read (see load)
                 "drawn".equals(textOf(m, "sense_resistor_error")) ? Double.NaN
-                        : senseError == null || !senseError.relative() ? 0 : senseError.value());
+                        : senseError == null || !senseError.relative() ? 0 : senseError.value(), rangeSpread, meterError,
+                seed == null ? d.seed() : seed);
+    }
+
+    /** A simulated error: absent 0, "drawn" NaN (settled from the seed once the accuracies are read), else relative. */
+    private static double drawnOrRelative(YamlMap m, String key, String allowed) {
+        if (!m.has(key)) {
+            return 0;
+        }
+        if ("drawn".equals(textOf(m, key))) {
+            return Double.NaN;
+        }
+        var q = m.anyQuantity(key, false);
+        if (q == null) {
+            return 0;
+        }
+        if (!q.relative() || Math.abs(q.value()) >= 0.1) {
+            m.problem(key, "must be " + allowed + "; under 10 %");
+            return 0;
+        }
+        return q.value();
     }
 }

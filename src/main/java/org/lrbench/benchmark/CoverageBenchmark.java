@@ -74,11 +74,34 @@ public final class CoverageBenchmark {
     }
 
     public static int run(PrintStream out, BenchConfig bench, Path drivers, int seeds) throws Exception {
+        return run(out, bench, drivers, seeds, false);
+    }
+
+    /**
+     * @param benchErrors false: the simulated bench's sense resistor, meter and range stages are exact and
+     *                    the specifications that cover them are 0; true: each seed is another bench, its
+     *                    sense resistor off nominal within its 0.1 % tolerance, each channel's gain per
+     *                    range stage within +/- 0.025 % (a quarter of the 0.1 % range match) and its meter
+     *                    within its 0.015 % accuracy, all drawn uniformly; calibration traces the sense
+     *                    resistor with that meter and links the ranges, and the specifications are those
+     */
+    public static int run(PrintStream out, BenchConfig bench, Path drivers, int seeds, boolean benchErrors)
+            throws Exception {
+        BenchAccuracy accuracy = benchErrors
+                ? new BenchAccuracy(SENSE_TOLERANCE, 0, 0, 0, RANGE_MATCH, Double.POSITIVE_INFINITY, null, null,
+                        METER_ACCURACY, 0)
+                : new BenchAccuracy(0, 0, 0, 0);
         BenchConfig b = new BenchConfig(bench.source(), bench.name(), bench.maxAmplitudeVolt(), bench.generator(),
-                bench.digitizer(), null, null, bench.simulation(), new BenchAccuracy(0, 0, 0, 0));
+                bench.digitizer(), null, benchErrors ? bench.meter() : null, bench.simulation(), accuracy);
+        if (benchErrors && b.meter() == null) {
+            throw new IllegalArgumentException("the bench file declares no meter: the sense resistor cannot be traced");
+        }
         DriverLoader loader = new DriverLoader(drivers);
         out.printf(Locale.ROOT, "coverage of U (k = 2) over %d seeds per part (goals: 93 %% to 99 %%, |bias| < 0.3 sigma);"
-                + " calibration and measurement on independent seeds%n", seeds);
+                + " calibration and measurement on independent seeds; %s%n", seeds, benchErrors
+                ? "each seed another bench: sense resistor (0.1 %), range stages (0.025 % per channel), meter (0.015 %)"
+                + " drawn within their specifications"
+                : "bench errors off (sense resistor, range stages and meter exact)");
         out.printf(Locale.ROOT, "%-44s %-10s %9s %15s %9s %8s%n", "part", "quantity", "coverage", "95 % interval",
                 "bias/sd", "errors");
         int misses = 0;
@@ -154,12 +177,29 @@ public final class CoverageBenchmark {
         throw new IllegalArgumentException(quantity);
     }
 
-    private static PartResult once(BenchConfig b, Plan plan, PartModel part, DriverLoader loader, long seed) throws Exception {
+    static final double SENSE_TOLERANCE = 0.001;
+    static final double RANGE_MATCH = 0.001;
+    static final double METER_ACCURACY = 0.00015;
+
+    /** The bench of one seed: with bench errors, its own, drawn uniformly within the specifications. */
+    static BenchConfig benchOf(BenchConfig b, long seed) {
+        if (b.meter() == null) {
+            return b;
+        }
+        java.util.Random r = new java.util.Random(seed * 7919L + 17);
+        return b.withSimulation(b.simulation().withSenseError(SENSE_TOLERANCE * (2 * r.nextDouble() - 1))
+                .withMeterError(METER_ACCURACY * (2 * r.nextDouble() - 1)).withRangeGainSpread(RANGE_MATCH / 4)
+                .withErrorSeed(seed));
+    }
+
+    private static PartResult once(BenchConfig bench, Plan plan, PartModel part, DriverLoader loader, long seed)
+            throws Exception {
+        BenchConfig b = benchOf(bench, seed);
         BenchConfig cal = b.withSimulation(b.simulation().withSeed(seed));
         SimBench calBench = new SimBench(cal.simulation(), plan.wiring(), part);
         Calibration corrections;
         try (BenchInstruments inst = BenchInstruments.open(cal, loader, calBench)) {
-            corrections = CalibrationRun.calibrate(plan, inst, calBench::setPosition, BenchClock.NONE);
+            corrections = CalibrationRun.calibrate(plan, inst, calBench::setPosition, BenchClock.NONE, cal.accuracy());
         }
         BenchConfig meas = b.withSimulation(b.simulation().withSeed(seed + 1));
         SimBench sim = new SimBench(meas.simulation(), plan.wiring(), part);

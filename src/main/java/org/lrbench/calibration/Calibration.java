@@ -47,14 +47,27 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
                 : forLowSide(0);
     }
 
-    /** Z divided by channel 2's response as the wiring needs it. */
-    private Complex matched(double frequencyHz, Complex z) {
-        var ratio = channels.ratio(frequencyHz);
+    /** Z divided by channel 2's response as the wiring needs it (ranges NaN: the match's own gain ratio). */
+    private Complex matched(double frequencyHz, Complex z, double senseRangeVolt, double partRangeVolt) {
+        var ratio = Double.isNaN(senseRangeVolt) ? channels.ratio(frequencyHz)
+                : channels.ratio(frequencyHz, senseRangeVolt, partRangeVolt);
         return lowSideSenseOhm > 0 ? z.add(lowSideSenseOhm).divide(ratio).subtract(lowSideSenseOhm) : z.divide(ratio);
     }
 
     public List<ImpedancePoint> apply(List<ImpedancePoint> points) {
         return points.stream().map(this::apply).toList();
+    }
+
+    /**
+     * Points each read on its own ranges ({sense, part} full scale at the fixture, one pair per point):
+     * channel 2's response is the one of each point's pair where the match's range links cover it.
+     */
+    public List<ImpedancePoint> apply(List<ImpedancePoint> points, List<double[]> ranges) {
+        List<ImpedancePoint> out = new java.util.ArrayList<>();
+        for (int i = 0; i < points.size(); i++) {
+            out.add(apply(points.get(i), ranges.get(i)[0], ranges.get(i)[1]));
+        }
+        return List.copyOf(out);
     }
 
     /**
@@ -66,7 +79,7 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
         double omega = 2 * Math.PI * frequencyHz;
         var z = new Complex(resistanceOhm, omega * inductanceHenry);
         if (channels != null) {
-            z = matched(frequencyHz, z);
+            z = matched(frequencyHz, z, Double.NaN, Double.NaN);
         }
         double r = z.getReal();
         double l = z.getImaginary() / omega;
@@ -79,11 +92,16 @@ public record Calibration(ChannelMatch channels, FixtureCompensation fixture, do
     }
 
     public ImpedancePoint apply(ImpedancePoint p) {
+        return apply(p, Double.NaN, Double.NaN);
+    }
+
+    private ImpedancePoint apply(ImpedancePoint p, double senseRangeVolt, double partRangeVolt) {
         ImpedancePoint q = p;
         if (channels != null) {
             // matched(z) is holomorphic in z: its derivative turns and scales the covariance
-            Complex z = matched(p.frequencyHz(), p.impedanceOhm());
-            q = p.corrected(z, slope(x -> matched(p.frequencyHz(), x), p.impedanceOhm()), 0);
+            Complex z = matched(p.frequencyHz(), p.impedanceOhm(), senseRangeVolt, partRangeVolt);
+            q = p.corrected(z, slope(x -> matched(p.frequencyHz(), x, senseRangeVolt, partRangeVolt),
+                    p.impedanceOhm()), 0);
         }
         if (fixture != null) {
             Complex z = q.impedanceOhm();

@@ -11,7 +11,13 @@ import org.apache.commons.math3.complex.Complex;
  * standard uncertainties come from the scatter of the points about these two numbers.
  */
 public record ChannelMatch(String measuredAt, double gainRatio, double gainUncertainty, double skewSecond,
-                           double skewUncertaintySecond, int points, List<double[]> rangePairs) {
+                           double skewUncertaintySecond, int points, List<double[]> rangePairs, RangeLinks links) {
+
+    /** A match without range links (kept before they were measured). */
+    public ChannelMatch(String measuredAt, double gainRatio, double gainUncertainty, double skewSecond,
+                        double skewUncertaintySecond, int points, List<double[]> rangePairs) {
+        this(measuredAt, gainRatio, gainUncertainty, skewSecond, skewUncertaintySecond, points, rangePairs, null);
+    }
 
     /** A match whose ranges were not recorded (kept before they were): every range pair counts as other. */
     public ChannelMatch(String measuredAt, double gainRatio, double gainUncertainty, double skewSecond,
@@ -22,7 +28,29 @@ public record ChannelMatch(String measuredAt, double gainRatio, double gainUncer
     /** The same match with the {channel 1, channel 2} full-scale ranges (volts at the fixture) it was measured on. */
     public ChannelMatch withRangePairs(List<double[]> pairs) {
         return new ChannelMatch(measuredAt, gainRatio, gainUncertainty, skewSecond, skewUncertaintySecond, points,
-                List.copyOf(pairs));
+                List.copyOf(pairs), links);
+    }
+
+    /** The same match with the gain ratio on every range pair the links solved. */
+    public ChannelMatch withLinks(RangeLinks l) {
+        return new ChannelMatch(measuredAt, gainRatio, gainUncertainty, skewSecond, skewUncertaintySecond, points,
+                rangePairs, l);
+    }
+
+    /** The linked pair on these ranges (full scale at the fixture), or null when the links do not cover it. */
+    public RangeLinks.Pair linked(double senseRangeVolt, double partRangeVolt) {
+        return links == null ? null : links.pair(senseRangeVolt, partRangeVolt);
+    }
+
+    /**
+     * The correction factor H(f) for a point read on these ranges: the linked pair's gain ratio where
+     * the links cover it, else the match's own; the skew's phase either way.
+     */
+    public Complex ratio(double frequencyHz, double senseRangeVolt, double partRangeVolt) {
+        RangeLinks.Pair p = linked(senseRangeVolt, partRangeVolt);
+        double g = p == null ? gainRatio : p.gainRatio();
+        double phase = -2 * Math.PI * frequencyHz * skewSecond;
+        return new Complex(g * Math.cos(phase), g * Math.sin(phase));
     }
 
     /** Whether the match was measured with the channels on these ranges (to 1e-6). */

@@ -157,6 +157,11 @@ final class BenchmarkCommand implements Runnable {
         @Option(names = "--seeds", defaultValue = "100", description = "seeds per part (default: ${DEFAULT-VALUE})")
         int seeds;
 
+        @Option(names = "--bench-errors", defaultValue = "both", description = {"on: each seed a bench with its sense"
+                + " resistor, range stages and meter off within their specifications; off: those exact;",
+                "both (default): one after the other"})
+        String benchErrors;
+
         @picocli.CommandLine.Mixin
         BenchOptions benchOptions;
 
@@ -165,8 +170,16 @@ final class BenchmarkCommand implements Runnable {
             if (seeds < 5 || seeds > 10_000) {
                 throw new BadInputException("--seeds 5..10000");
             }
-            int misses = CoverageBenchmark.run(System.out,
-                    benchOptions.load(), benchOptions.driverFolder(), seeds);
+            if (!java.util.Set.of("on", "off", "both").contains(benchErrors)) {
+                throw new BadInputException("--bench-errors '" + benchErrors + "': allowed are on, off, both");
+            }
+            int misses = 0;
+            if (!benchErrors.equals("on")) {
+                misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, false);
+            }
+            if (!benchErrors.equals("off")) {
+                misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, true);
+            }
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }

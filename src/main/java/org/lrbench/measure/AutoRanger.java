@@ -29,7 +29,7 @@ import org.slf4j.LoggerFactory;
  * known too small), the present capture is kept: it is the fill the range set allows.</li>
  * </ul>
  * No request is made twice in one capture, and when ranging does not settle the error names every
- * range asked for and granted.
+ * range asked for and granted. Every request is a value of the {@link RangeLadder}.
  */
 public final class AutoRanger {
     private static final Logger LOG = LoggerFactory.getLogger(AutoRanger.class);
@@ -283,7 +283,8 @@ public final class AutoRanger {
         return request[ch];
     }
 
+    /** A request on the range ladder, within the channel's limits. */
     private double clamp(int ch, double r) {
-        return Math.max(limits[ch].minVolt(), Math.min(limits[ch].maxVolt(), r));
+        return Math.max(limits[ch].minVolt(), Math.min(limits[ch].maxVolt(), RangeLadder.up(r)));
     }
 }

@@ -11,12 +11,14 @@ import org.lrbench.calibration.ChannelMatch;
 import org.lrbench.calibration.CalibrationRefused;
 import org.lrbench.calibration.FixtureCompensation;
 import org.lrbench.calibration.Plausibility;
+import org.lrbench.calibration.RangeLinks;
 import org.lrbench.calibration.SenseTrace;
 import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.fixture.FixturePosition;
 import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.InstrumentException;
 import org.lrbench.measure.PointResult;
+import org.lrbench.measure.RangeLinkCapture;
 import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
@@ -53,7 +55,10 @@ public final class CalibrationRun {
                     FixtureWiring.Topology.DIFFERENTIAL, w.attenuation1(), w.attenuation2(), w.channel1Differential(),
                     w.channel2Differential()), plan.dcResistance());
         }
-        List<PointResult> points = sweep(raw, inst, change, FixturePosition.CHANNEL_MATCH, sleeper, false);
+        RangeLinkCapture.Result[] linked = new RangeLinkCapture.Result[1];
+        Plan asWired = raw;
+        List<PointResult> points = sweep(raw, inst, change, FixturePosition.CHANNEL_MATCH, sleeper, false,
+                matched -> linked[0] = links(asWired, inst, sleeper, matched));
         double[] f = new double[points.size()];
         double[] u = new double[points.size()];
         List<Complex> ratio = new ArrayList<>();
@@ -65,8 +70,10 @@ public final class CalibrationRun {
             u[i] = Math.hypot(z.componentUncertaintyOhm() / z.impedanceOhm().abs(),
                     points.get(i).quantizationRelativeUncertainty());
         }
-        ChannelMatch m = ChannelMatch.fit(now(), f, ratio, u).withRangePairs(points.stream()
-                .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList());
+        String at = now();
+        ChannelMatch m = ChannelMatch.fit(at, f, ratio, u).withRangePairs(points.stream()
+                .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList())
+                .withLinks(RangeLinks.solve(at, linked[0]));
         double finest = points.stream().mapToDouble(PointResult::sampleIntervalSecond).min().orElse(0);
         List<String> problems = Plausibility.channelMatch(m, f, ratio, u, accuracy, finest);
         if (!problems.isEmpty()) {
@@ -81,10 +88,16 @@ public final class CalibrationRun {
      * sense resistor where the bench has a meter.
      */
     public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper) {
+        return calibrate(plan, inst, change, sleeper, BenchAccuracy.defaults());
+    }
+
+    /** As above, the sense resistor's trace under the bench's own meter accuracy and resistor tolerance. */
+    public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper,
+                                        BenchAccuracy accuracy) {
         ChannelMatch m = channels(plan, inst, change, sleeper);
         FixtureCompensation f = fixture(plan, inst, change, sleeper, m);
         // the sense resistor traced too where the bench has a meter, as calibrate does
-        return new Calibration(m, f).withSense(senseResistor(plan, inst, change, BenchAccuracy.defaults()));
+        return new Calibration(m, f).withSense(senseResistor(plan, inst, change, accuracy));
     }
 
     /** Short and open of the fixture, each corrected by the channel match when there is one. */
@@ -95,10 +108,11 @@ public final class CalibrationRun {
         List<PointResult> opens = sweep(plan, inst, change, FixturePosition.OPEN, sleeper, true);
         List<FixtureCompensation.Point> out = new ArrayList<>();
         for (int i = 0; i < shorts.size(); i++) {
-            ImpedancePoint s = match.apply(shorts.get(i).impedance());
+            // each reading corrected by the channel ratio of the range pair it was read on
+            ImpedancePoint s = match.apply(List.of(shorts.get(i).impedance()), List.of(ranges(shorts.get(i)))).get(0);
             ImpedancePoint o = opens.get(i).impedance();
             boolean lost = Double.isNaN(o.impedanceOhm().getReal());
-            ImpedancePoint oc = lost ? null : match.apply(o);
+            ImpedancePoint oc = lost ? null : match.apply(List.of(o), List.of(ranges(opens.get(i)))).get(0);
             Complex open = lost ? new Complex(Double.NaN, Double.NaN) : oc.impedanceOhm();
             // u(Y_o) = u(Z_open) / |Z_open - Z_s|^2, first order
             Double uy = lost ? null : oc.componentUncertaintyOhm() / Math.pow(open.subtract(s.impedanceOhm()).abs(), 2);
@@ -167,22 +181,47 @@ public final class CalibrationRun {
         return List.copyOf(out);
     }
 
+    /**
+     * The channels' ratio on the range pairs around the match's, both channels still on the sense
+     * resistor, at the match's frequency with the most signal (see {@link RangeLinkCapture}).
+     */
+    private static RangeLinkCapture.Result links(Plan plan, BenchInstruments inst, BenchClock clock,
+                                                 List<PointResult> matched) {
+        PointResult most = matched.stream().max(java.util.Comparator.comparingDouble(p -> p.senseFit().amplitude()))
+                .orElseThrow();
+        return RangeLinkCapture.measure(plan, inst.generator(), inst.digitizer(), clock,
+                most.impedance().frequencyHz(), most.senseFit().amplitude());
+    }
+
     private static List<PointResult> sweep(Plan plan, BenchInstruments inst, FixtureChange change,
                                            FixturePosition position, BenchClock sleeper, boolean open) {
+        return sweep(plan, inst, change, position, sleeper, open, points -> { });
+    }
+
+    /** A sweep in a position, then {@code after} with its points, in the same position with the output guarded. */
+    private static List<PointResult> sweep(Plan plan, BenchInstruments inst, FixtureChange change,
+                                           FixturePosition position, BenchClock sleeper, boolean open,
+                                           java.util.function.Consumer<List<PointResult>> after) {
         OutputGuard guard = new OutputGuard(inst.generator());
         try {
             guard.switchOff();
             change.moveTo(position);
             Plan sweepOnly = new Plan(plan.source(), plan.partNumber(), plan.description(), plan.senseResistanceOhm(),
                     plan.sweep(), null, plan.limits(), plan.sampling(), plan.wiring(), null);
-            return new SweepRunner(inst.generator(), inst.digitizer(), sleeper, open).run(sweepOnly, SweepListener.NONE)
-                    .points();
+            List<PointResult> points = new SweepRunner(inst.generator(), inst.digitizer(), sleeper, open)
+                    .run(sweepOnly, SweepListener.NONE).points();
+            after.accept(points);
+            return points;
         } finally {
             guard.close();
             if (guard.failure() != null) {
                 throw new InstrumentException(guard.failure());
             }
         }
+    }
+
+    private static double[] ranges(PointResult p) {
+        return new double[] {p.senseRangeVolt(), p.partRangeVolt()};
     }
 
     private static String now() {

@@ -203,7 +203,7 @@ public final class PartRun {
 
     /** The sweep's corrected points and their model fit with budgets: pure computing, no instrument. */
     record SweepFit(Calibration calibration, List<ImpedancePoint> corrected, SweepAnalysis.Result sweep,
-                    List<PointResult> points) {
+                    List<PointResult> points, List<String> warnings) {
     }
 
     static SweepFit fitSweep(Plan plan, BenchConfig bench, Calibration corrections, List<PointResult> points) {
@@ -227,7 +227,8 @@ public final class PartRun {
                 }
             }
         }
-        List<ImpedancePoint> z = calibration.apply(points.stream().map(PointResult::impedance).toList());
+        List<ImpedancePoint> z = calibration.apply(points.stream().map(PointResult::impedance).toList(),
+                points.stream().map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList());
         SenseTrace traced = calibration.sense();
         if (traced != null) {
             if (Math.abs(traced.nominalOhm() / plan.senseResistanceOhm() - 1) > 1e-6) {
@@ -240,14 +241,8 @@ public final class PartRun {
             double k = traced.valueOhm() / traced.nominalOhm();
             z = z.stream().map(p -> p.times(new Complex(k, 0))).toList();
         }
-        ChannelMatch match = calibration.channels();
-        var accuracy = match == null ? bench.accuracy()
-                : bench.accuracy().afterChannelMatch(match.gainUncertainty(), match.skewUncertaintySecond(), match.points());
-        boolean otherRanges = match != null && points.stream()
-                .anyMatch(p -> !match.measuredOn(p.senseRangeVolt(), p.partRangeVolt()));
-        if (match != null && !otherRanges) {
-            accuracy = accuracy.withRangeGainMatch(0);
-        }
+        RangeMatch ranges = RangeMatch.of(calibration.channels(), points);
+        var accuracy = ranges.accuracy(bench.accuracy());
         if (calibration.fixture() != null) {
             // the fixture is compensated: its own uncertainty enters through the corrected points
             accuracy = accuracy.withFixture(null);
@@ -258,8 +253,9 @@ public final class PartRun {
         }
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), accuracy,
-                points.stream().mapToDouble(PointResult::quantizationRelativeUncertainty).toArray());
-        return new SweepFit(calibration, z, sweep, List.copyOf(points));
+                points.stream().mapToDouble(PointResult::quantizationRelativeUncertainty).toArray(),
+                ranges.perPointUncertainty());
+        return new SweepFit(calibration, z, sweep, List.copyOf(points), ranges.warnings());
     }
 
     /** The limits judged on a sweep's fit, and the warnings of the cross-checks (the triangle's among them). */
@@ -317,6 +313,7 @@ public final class PartRun {
                         Dimension.FREQUENCY), 100 * p.currentThd(), 100 * plan.sweep().distortionLimit()));
             }
         }
+        warnings.addAll(fitted.warnings());
         warnings.addAll(crossChecks(z, sweep));
         if (triangle != null) {
             warnings.addAll(triangleCheck(triangle, sweep, calibration));

@@ -62,7 +62,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
         generator.setFrequencyChangeSecond(t.frequencyChangeSecond());
         digitizer.setTiming(t.messageSecond(), t.bytesPerSecond());
         this.switchUnit = new SimSwitch(Math.max(1, tray.size()));
-        this.meter = new SimMultimeter(this::meterReads, settings.meterLeadOhm());
+        this.meter = new SimMultimeter(this::meterReads, settings.meterLeadOhm(), settings.meterError());
     }
 
     private final SimMultimeter meter;

@@ -278,8 +278,9 @@ public final class SimDigitizer extends ScpiDevice {
         double maxCode = bits > 0 ? Math.pow(2, bits - 1) - 1 : 0;
         double noise = settings.noiseVoltRms();
         double[] clean = waveform(lines, f, t0, interval, points);
+        double gain = stageGain(ch, range[ch]);
         for (int n = 0; n < points; n++) {
-            double v = clean[n];
+            double v = clean[n] * gain;
             if (noise > 0) {
                 v += noise * random.nextGaussian();
             }
@@ -292,6 +293,29 @@ public final class SimDigitizer extends ScpiDevice {
             out[n] = v;
         }
         return out;
+    }
+
+    /**
+     * The channel's gain on the front-end stage that serves this full-scale range: the stages are the
+     * 1-2-5 steps (the smallest one holding the range), and each channel's gain on each stage is off by
+     * an error drawn once from the bench's seed, uniformly within +/- the settings' spread.
+     */
+    public double stageGain(int ch, double fullScaleVolt) {
+        double spread = settings.rangeGainSpread();
+        if (spread == 0) {
+            return 1;
+        }
+        int stage = stage(fullScaleVolt);
+        long key = settings.errorSeed() * 1_000_003L + ch * 10_007L + stage;
+        return 1 + spread * (2 * new Random(key).nextDouble() - 1);
+    }
+
+    /** The index of the smallest 1-2-5 step holding a full-scale range (1 V is 0, 2 V is 1, 0.5 V is -1). */
+    static int stage(double fullScaleVolt) {
+        double decade = Math.floor(Math.log10(fullScaleVolt) + 1e-9);
+        double m = fullScaleVolt / Math.pow(10, decade);
+        int step = m <= 1 + 1e-9 ? 0 : m <= 2 + 1e-9 ? 1 : m <= 5 + 1e-9 ? 2 : 3;
+        return 3 * (int) decade + step;
     }
 
     private Object encode(int ch) {

@@ -14,9 +14,14 @@ public final class SimMultimeter extends ScpiDevice {
 
     /** @param measured the DC resistance between the meter's leads (9.9E37, overload, when open) */
     public SimMultimeter(DoubleSupplier measured, double leadOhm) {
+        this(measured, leadOhm, 0);
+    }
+
+    /** A meter whose readings are off by {@code error} (relative): its own calibration error. */
+    public SimMultimeter(DoubleSupplier measured, double leadOhm, double error) {
         super("LRBENCH,SIM-DMM-1,SIM0004,0.1");
-        register("MEASure:FRESistance", true, c -> nr3(measured.getAsDouble()));
-        register("MEASure:RESistance", true, c -> nr3(measured.getAsDouble() + 2 * leadOhm));
+        register("MEASure:FRESistance", true, c -> nr3(measured.getAsDouble() * (1 + error)));
+        register("MEASure:RESistance", true, c -> nr3((measured.getAsDouble() + 2 * leadOhm) * (1 + error)));
     }
 
     @Override

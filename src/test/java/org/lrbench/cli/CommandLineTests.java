@@ -515,7 +515,7 @@ class CommandLineTests {
         java.util.regex.Matcher gain = java.util.regex.Pattern.compile("channel 2 gain ([0-9.]+)").matcher(cal.out());
         assertThat(gain.find()).as(cal.out()).isTrue();
         assertThat(Double.parseDouble(gain.group(1))).isCloseTo(1.004, within(0.001));
-        java.util.regex.Matcher shortR = java.util.regex.Pattern.compile("short ([0-9.]+) mohm").matcher(cal.out());
+        java.util.regex.Matcher shortR = java.util.regex.Pattern.compile("short (-?[0-9.]+) mohm").matcher(cal.out());
         assertThat(shortR.find()).as(cal.out()).isTrue();
         // the short read through x10 probes is noisy (about 18 mohm per reading): judged against its own
         // stated uncertainty, the mean over the sweep's frequencies within 3 u / sqrt(n) of the 25 mohm
