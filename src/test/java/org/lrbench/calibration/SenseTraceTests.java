@@ -72,7 +72,9 @@ class SenseTraceTests {
     void aSimulatedSenseResistorCanBeDrawnWithinItsToleranceFromTheSeed(@org.junit.jupiter.api.io.TempDir
                                                                         java.nio.file.Path dir) throws Exception {
         String text = java.nio.file.Files.readString(TestBench.home().resolve("simulator/bench.yaml"));
-        String drawn = text.replaceFirst("(?m)^simulation:\\n", "simulation:\n  sense_resistor_error: drawn\n");
+        // the demo's bench file draws its sense resistor's error (and declares so)
+        assertThat(text).containsPattern("(?m)^\\s+sense_resistor_error: drawn");
+        String drawn = text;
         java.nio.file.Path a = dir.resolve("a.yaml");
         java.nio.file.Files.writeString(a, drawn);
         java.nio.file.Path b = dir.resolve("b.yaml");
