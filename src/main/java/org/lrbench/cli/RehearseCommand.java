@@ -3,6 +3,7 @@ package org.lrbench.cli;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
+import org.lrbench.units.Units;
 import java.util.concurrent.Callable;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.driver.DriverKind;
@@ -72,6 +73,16 @@ final class RehearseCommand implements Callable<Integer> {
                     o.tur() == null ? "-" : String.format(Locale.ROOT, "%.1f", o.tur()), String.join("; ", o.wrong()));
         }
         r.warnings().forEach(w -> System.out.println("warning: " + w));
+        if (!r.guarded().isEmpty()) {
+            System.out.println("the bench's corrections at each bound (U of the nominal part; guarded yield: parts whose"
+                    + " true value lies half the uncorrected U inside the bound, accepted only when read U inside it):");
+            System.out.printf("%-24s %-8s %23s %15s %21s%n", "limit", "bound", "U without / with", "TUR", "guarded yield");
+            for (var g : r.guarded()) {
+                System.out.printf(Locale.ROOT, "%-24s %-8s %11s / %-9s %6.1f / %-6.1f %8d/%d -> %d/%d%n", g.limit(),
+                        g.bound(), Units.format(g.uBefore(), g.dimension()), Units.format(g.uAfter(), g.dimension()),
+                        g.turBefore(), g.turAfter(), g.acceptedBefore(), g.runs(), g.acceptedAfter(), g.runs());
+            }
+        }
         timePerPart(p, b);
         System.out.println(r.allRight() ? "every limit was decided right" : "some limits were decided wrong");
         return r.allRight() ? ExitCodes.PASS : ExitCodes.FAIL;

@@ -7,8 +7,6 @@ import java.util.Locale;
 import java.util.Map;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
-import org.lrbench.calibration.ChannelMatch;
-import org.lrbench.calibration.FixtureCompensation;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.judge.Characteristic;
 import org.lrbench.judge.DecisionRule;
@@ -45,7 +43,11 @@ public final class Rehearsal {
     public record LimitOutcome(String limit, int runs, int right, Double tur, List<String> wrong) {
     }
 
-    public record Result(List<LimitOutcome> limits, List<String> warnings) {
+    /**
+     * @param guarded each bound's U, test uncertainty ratio and guarded yield without and with the bench's
+     *                corrections (see {@link GuardedYield})
+     */
+    public record Result(List<LimitOutcome> limits, List<String> warnings, List<GuardedYield.Bound> guarded) {
 
         public boolean allRight() {
             return limits.stream().allMatch(l -> l.right() == l.runs());
@@ -58,9 +60,7 @@ public final class Rehearsal {
         SimBench calBench = new SimBench(bench.simulation(), plan.wiring(), nominal);
         Calibration calibration;
         try (BenchInstruments inst = BenchInstruments.open(bench, drivers, calBench)) {
-            ChannelMatch m = CalibrationRun.channels(plan, inst, calBench::setPosition, BenchClock.NONE);
-            FixtureCompensation f = CalibrationRun.fixture(plan, inst, calBench::setPosition, BenchClock.NONE, m);
-            calibration = new Calibration(m, f);
+            calibration = CalibrationRun.calibrate(plan, inst, calBench::setPosition, BenchClock.NONE, bench.accuracy());
         }
         List<RehearsalCase> cases = cases(plan, nominal);
         Map<String, List<double[]>> uncertainty = new LinkedHashMap<>();
@@ -137,7 +137,9 @@ public final class Rehearsal {
         if (resonanceInside) {
             warnings.add("the self-resonance lies inside the sweep: readings near it are not an inductor's");
         }
-        return new Result(outcomes, warnings);
+        List<GuardedYield.Bound> guarded = GuardedYield.measure(plan, bench, drivers, seeds, nominal, calibration, seed,
+                l -> halfWidth(l, nominal, plan), (l, n, v) -> with(l, n, v, plan));
+        return new Result(outcomes, warnings, guarded);
     }
 
     /**

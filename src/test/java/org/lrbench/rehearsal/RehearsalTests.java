@@ -52,6 +52,15 @@ class RehearsalTests {
         // nominal, just inside and just outside each bound: 5 parts for the two-sided limit, 3 for one-sided
         assertThat(r.limits().get(0).runs()).isEqualTo(5);
         assertThat(r.limits().get(1).runs()).isEqualTo(3);
+        // each bound without and with the bench's corrections: a part half the uncorrected U inside a bound
+        // is read with a U that leaves it inside the guard band without corrections (guarded acceptance,
+        // ISO 14253-1, from memory: accepted only U inside the limit) and well clear of it with them
+        assertThat(r.guarded()).hasSize(4).allSatisfy(g -> {
+            assertThat(g.uAfter()).isLessThan(g.uBefore() / 4);
+            assertThat(g.turAfter()).isGreaterThan(g.turBefore());
+            assertThat(g.acceptedAfter()).isEqualTo(g.runs());
+        });
+        assertThat(r.guarded()).anySatisfy(g -> assertThat(g.acceptedBefore()).isLessThan(g.runs()));
     }
 
     @Test
