@@ -58,17 +58,19 @@ public final class SweepAnalysis {
      */
     public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
                                  BenchAccuracy accuracy, double[] quantization) {
-        return analyse(points, terms, evaluations, accuracy, quantization, new double[points.size()]);
+        return analyse(points, terms, evaluations, accuracy, quantization, new double[points.size()], null);
     }
 
     /**
      * As above, with each point's channel gain ratio taken from the channel match of its own range
      * pair, known to relative standard uncertainty {@code rangePair[i]}: one line, all points moved
      * together by their own amounts (the pairs' ratios come from one least-squares solution and share
-     * its readings, so they are taken as fully correlated: the larger of the possible sums).
+     * its readings, so they are taken as fully correlated: the larger of the possible sums); the bench's
+     * bound for a gain ratio on ranges the match did not cover moves only the points marked in
+     * {@code uncovered} (null: all of them).
      */
     public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
-                                 BenchAccuracy accuracy, double[] quantization, double[] rangePair) {
+                                 BenchAccuracy accuracy, double[] quantization, double[] rangePair, double[] uncovered) {
         LumpedFit.Result fit = LumpedFit.fit(points, terms);
         Set<LumpedParameter> free = fit.free();
         double[] p = fit.parameters();
@@ -101,7 +103,8 @@ public final class SweepAnalysis {
             // the channel match holds for the ranges it was measured on; on others the gain ratio
             // may differ by up to the bench's stated bound
             effects.add(new Perturbation("gain ratio on ranges other than the channel match's (bench specification)",
-                    Distribution.RECTANGULAR, accuracy.rangeGainMatch(), "relative", inf, d -> scale(points, 1 + d)));
+                    Distribution.RECTANGULAR, accuracy.rangeGainMatch(), "relative", inf,
+                    d -> uncovered == null ? scale(points, 1 + d) : scaleEach(points, uncovered, d)));
         }
         if (traced != null && traced.acDcBound() > 0) {
             // the meter reads the resistor at DC; the sweep uses it at the plan's frequencies

@@ -12,9 +12,10 @@ import org.lrbench.measure.RangeLinkCapture;
 
 /**
  * The channels' gain ratio G2(b) / G1(a) on every pair of ranges (a of channel 1, b of channel 2, full
- * scale at the fixture), solved from readings of some pairs: each reading is ln G2(b) - ln G1(a)
- * with its standard uncertainty, and weighted least squares over all readings gives every channel's
- * ln gain on every range (one range of channel 1 held at 0: only ratios are seen), with their
+ * scale at the fixture), solved from readings of some pairs: each reading is the difference of two ln
+ * gains (channel 2's on b less channel 1's on a, or one channel's on two ranges) with its standard
+ * uncertainty, and weighted least squares over all readings gives every channel's ln gain on every
+ * range (the first range met held at 0: only ratios are seen), with their
  * covariance (scaled by the Birge ratio where the readings scatter more than their uncertainties
  * say; R. T. Birge, Phys. Rev. 40, 1932, from memory). A pair's ratio is then known with the
  * uncertainty of that difference, on pairs never read together too. Only ranges linked to the first
@@ -22,12 +23,12 @@ import org.lrbench.measure.RangeLinkCapture;
  *
  * @param frequencyHz      the frequency of the readings
  * @param pairs            every pair solved
- * @param readings         how many readings went in
+ * @param readings         every reading, as read (kept, so that more can be solved with them)
  * @param degreesOfFreedom readings less unknowns (at least 1)
  * @param unread           the pairs that could not be read, in words
  */
-public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs, int readings, int degreesOfFreedom,
-                         List<String> unread) {
+public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs,
+                         List<RangeLinkCapture.Reading> readings, int degreesOfFreedom, List<String> unread) {
 
     /** One pair: its ranges at the fixture, peak-to-peak volts, the ratio and its relative standard uncertainty. */
     public record Pair(double senseRangeVolt, double partRangeVolt, double gainRatio, double relativeUncertainty) {
@@ -49,26 +50,37 @@ public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs
 
     /** Solves the readings of a capture; null when there are none. */
     public static RangeLinks solve(String measuredAt, RangeLinkCapture.Result capture) {
-        List<RangeLinkCapture.Reading> all = capture.readings();
+        return solve(measuredAt, capture.frequencyHz(), capture.readings(), capture.unread());
+    }
+
+    /**
+     * Solves readings of any kind (both channels on one signal, or one channel on two ranges); null when
+     * there are none.
+     */
+    public static RangeLinks solve(String measuredAt, double frequencyHz, List<RangeLinkCapture.Reading> all,
+                                   List<String> unreadBefore) {
         if (all.isEmpty()) {
             return null;
         }
         List<RangeLinkCapture.Reading> readings = connected(all);
-        Map<Double, Integer> one = new LinkedHashMap<>();
-        Map<Double, Integer> two = new LinkedHashMap<>();
+        // unknowns: ln G of every (channel, range) but the first one met (held at 0)
+        Map<String, Integer> index = new LinkedHashMap<>();
+        List<double[]> nodes = new ArrayList<>();
         for (RangeLinkCapture.Reading r : readings) {
-            one.putIfAbsent(r.senseRangeVolt(), one.size());
-            two.putIfAbsent(r.partRangeVolt(), two.size());
+            for (double[] node : new double[][] {{r.channelA(), r.rangeA()}, {r.channelB(), r.rangeB()}}) {
+                if (index.putIfAbsent(key(node[0], node[1]), index.size()) == null) {
+                    nodes.add(node);
+                }
+            }
         }
-        // unknowns: ln G1 of every range but the first (held at 0), then ln G2 of every range
-        int n = one.size() - 1 + two.size();
+        int n = index.size() - 1;
         int m = readings.size();
         RealMatrix normal = new Array2DRowRealMatrix(n, n);
         ArrayRealVector rhs = new ArrayRealVector(n);
         double[][] rows = new double[m][];
         for (int i = 0; i < m; i++) {
             RangeLinkCapture.Reading r = readings.get(i);
-            double[] row = row(one, two, n, r.senseRangeVolt(), r.partRangeVolt());
+            double[] row = row(index, n, r.channelA(), r.rangeA(), r.channelB(), r.rangeB());
             rows[i] = row;
             double w = 1 / (r.relativeUncertainty() * r.relativeUncertainty());
             double y = Math.log(r.gainRatio());
@@ -82,8 +94,8 @@ public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs
                 }
             }
         }
-        RealMatrix cov = new LUDecomposition(normal).getSolver().getInverse();
-        double[] x = cov.operate(rhs.toArray());
+        RealMatrix cov = n == 0 ? new Array2DRowRealMatrix(0, 0) : new LUDecomposition(normal).getSolver().getInverse();
+        double[] x = n == 0 ? new double[0] : cov.operate(rhs.toArray());
         double chi2 = 0;
         for (int i = 0; i < m; i++) {
             double fit = 0;
@@ -96,9 +108,12 @@ public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs
         int dof = m - n;
         double scale = dof > 0 ? Math.max(1, chi2 / dof) : 1;
         List<Pair> pairs = new ArrayList<>();
-        for (double a : one.keySet()) {
-            for (double b : two.keySet()) {
-                double[] c = row(one, two, n, a, b);
+        for (double[] a : nodes) {
+            for (double[] b : nodes) {
+                if (a[0] != 1 || b[0] != 2) {
+                    continue;
+                }
+                double[] c = row(index, n, 1, a[1], 2, b[1]);
                 double y = 0;
                 double v = 0;
                 for (int i = 0; i < n; i++) {
@@ -107,43 +122,60 @@ public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs
                         v += c[i] * cov.getEntry(i, j) * c[j];
                     }
                 }
-                pairs.add(new Pair(a, b, Math.exp(y), Math.sqrt(Math.max(0, v * scale))));
+                pairs.add(new Pair(a[1], b[1], Math.exp(y), Math.sqrt(Math.max(0, v * scale))));
             }
         }
-        List<String> unread = new ArrayList<>(capture.unread());
+        List<String> unread = new ArrayList<>(unreadBefore);
         if (readings.size() < all.size()) {
             unread.add((all.size() - readings.size()) + " reading(s) on ranges not linked to the others");
         }
-        return new RangeLinks(measuredAt, capture.frequencyHz(), List.copyOf(pairs), m, Math.max(1, dof),
+        return new RangeLinks(measuredAt, frequencyHz, List.copyOf(pairs), List.copyOf(all), Math.max(1, dof),
                 List.copyOf(unread));
     }
 
-    /** The design row of ln G2(b) - ln G1(a). */
-    private static double[] row(Map<Double, Integer> one, Map<Double, Integer> two, int n, double a, double b) {
+    /** The same links with more readings, all solved again together. */
+    public RangeLinks plus(String at, List<RangeLinkCapture.Reading> more, List<String> moreUnread) {
+        List<RangeLinkCapture.Reading> all = new ArrayList<>(readings);
+        all.addAll(more);
+        List<String> notes = new ArrayList<>(unread);
+        notes.addAll(moreUnread);
+        return solve(at, frequencyHz, all, notes);
+    }
+
+    private static String key(double channel, double range) {
+        return (int) channel + "@" + range;
+    }
+
+    /** The design row of ln G_B(rangeB) - ln G_A(rangeA); the first node has no column. */
+    private static double[] row(Map<String, Integer> index, int n, int channelA, double rangeA, int channelB,
+                                double rangeB) {
         double[] row = new double[n];
-        int ia = one.get(a);
+        int ia = index.get(key(channelA, rangeA));
+        int ib = index.get(key(channelB, rangeB));
         if (ia > 0) {
-            row[ia - 1] = -1;
+            row[ia - 1] -= 1;
         }
-        row[one.size() - 1 + two.get(b)] = 1;
+        if (ib > 0) {
+            row[ib - 1] += 1;
+        }
         return row;
     }
 
     /** The readings linked to the first one through shared ranges (the rest cannot be put on its scale). */
     private static List<RangeLinkCapture.Reading> connected(List<RangeLinkCapture.Reading> all) {
-        java.util.Set<Double> one = new java.util.HashSet<>();
-        java.util.Set<Double> two = new java.util.HashSet<>();
-        one.add(all.get(0).senseRangeVolt());
+        java.util.Set<String> seen = new java.util.HashSet<>();
+        seen.add(key(all.get(0).channelA(), all.get(0).rangeA()));
         boolean grown = true;
         while (grown) {
             grown = false;
             for (RangeLinkCapture.Reading r : all) {
-                boolean in = one.contains(r.senseRangeVolt()) || two.contains(r.partRangeVolt());
-                if (in && (one.add(r.senseRangeVolt()) | two.add(r.partRangeVolt()))) {
+                String a = key(r.channelA(), r.rangeA());
+                String b = key(r.channelB(), r.rangeB());
+                if ((seen.contains(a) || seen.contains(b)) && (seen.add(a) | seen.add(b))) {
                     grown = true;
                 }
             }
         }
-        return all.stream().filter(r -> one.contains(r.senseRangeVolt())).toList();
+        return all.stream().filter(r -> seen.contains(key(r.channelA(), r.rangeA()))).toList();
     }
 }

@@ -74,7 +74,18 @@ final class CalibrateCommand implements Callable<Integer> {
             ChannelMatch m = CalibrationRun.channels(p, inst, change, sleeper, b.accuracy());
             System.out.printf(Locale.ROOT, "channel match: channel 2 gain %.5f +/- %.5f, skew %.1f +/- %.1f ps (%d frequencies)%n",
                     m.gainRatio(), m.gainUncertainty(), m.skewSecond() * 1e12, m.skewUncertaintySecond() * 1e12, m.points());
-            FixtureCompensation f = CalibrationRun.fixture(p, inst, change, sleeper, m);
+            CalibrationRun.Fixtured fixtured = CalibrationRun.fixtureAndLinks(p, inst, change, sleeper, m);
+            FixtureCompensation f = fixtured.fixture();
+            m = fixtured.match();
+            if (m.links() != null) {
+                long ones = m.links().pairs().stream().map(x -> x.senseRangeVolt()).distinct().count();
+                long twos = m.links().pairs().stream().map(x -> x.partRangeVolt()).distinct().count();
+                System.out.printf(Locale.ROOT, "range links: %d ranges of channel 1 and %d of channel 2 linked from %d"
+                        + " readings at %.6g Hz, the gain ratio of every pair of them solved%s%n", ones, twos,
+                        m.links().readings().size(), m.links().frequencyHz(), m.links().unread().isEmpty() ? ""
+                        : "; " + m.links().unread().size() + " pair(s) could not be read (no signal fills them at the"
+                        + " plan's amplitude, or clipped; kept in channel-match.json)");
+            }
             // the sense resistor traced by the meter, where the bench has one
             SenseTrace sense = CalibrationRun.senseResistor(p, inst, change, b.accuracy());
             // all kept only once all are plausible: a refused calibration leaves the earlier one in force

@@ -35,8 +35,14 @@ public final class RangeLinkCapture {
     /** The signal's peak-to-peak as a share of the smaller range of the pair. */
     static final double FILL = 0.75;
 
-    /** One pair read: ranges at the fixture (volts, peak-to-peak), |V2 / V1| and its relative standard uncertainty. */
-    public record Reading(double senseRangeVolt, double partRangeVolt, double gainRatio, double relativeUncertainty) {
+    /**
+     * One reading: channel {@code channelB}'s gain on range {@code rangeB} over channel {@code channelA}'s on
+     * {@code rangeA} (full scale at the fixture, peak-to-peak volts), with its relative standard
+     * uncertainty: |V2 / V1| of one record (channels 1 and 2), or one channel's amplitude on one range over
+     * the same signal's on another, two records in a row.
+     */
+    public record Reading(int channelA, double rangeA, int channelB, double rangeB, double gainRatio,
+                          double relativeUncertainty) {
     }
 
     /** What was read at which frequency, and the pairs that could not be read, in words. */
@@ -69,6 +75,7 @@ public final class RangeLinkCapture {
         TimeBase.Request request = TimeBase.request(frequencyHz, CYCLES, SAMPLES_PER_CYCLE);
         digitizer.setTiming(request.intervalSecond(), request.points());
         List<double[]> pairs = pairs(rungs1, att1, rungs2, att2);
+        reachTop(pairs, rungs1, att1, rungs2, att2, 2 * senseAtPlanVolt / FILL);
         double amplitude = plan.sweep().amplitudeVolt();
         double settle = plan.sweep().settleSecond();
         generator.batch(() -> {
@@ -110,7 +117,83 @@ public final class RangeLinkCapture {
             double q2 = f.partCorrection().gainUncertainty() / f.partCorrection().gain();
             double u = Math.sqrt(f.sense().componentVariance() / (a1 * a1) + f.part().componentVariance() / (a2 * a2)
                     + q1 * q1 + q2 * q2);
-            readings.add(new Reading(granted[0] * att1, granted[1] * att2, a2 / a1, u));
+            readings.add(new Reading(1, granted[0] * att1, 2, granted[1] * att2, a2 / a1, u));
+        }
+        return new Result(frequencyHz, List.copyOf(readings), List.copyOf(unread));
+    }
+
+    /**
+     * Channel 2's ranges above {@code fromVolt} (at the fixture) linked to each other where both channels
+     * cannot see one signal large enough: channel 2 alone on a node the generator drives (the open fixture's
+     * terminals), each pair of neighbouring ranges read in two records in a row at one generator setting,
+     * so that the ratio of the two amplitudes is the ratio of the ranges' gains. It assumes the generator's
+     * amplitude steady between two records (a function generator's holds to about 1e-5 over seconds:
+     * common practice, no source). The digitizer runs free (nothing to trigger on in channel 1).
+     *
+     * @param nodeAtPlanVolt the node's peak voltage at the plan's amplitude at {@code frequencyHz}
+     */
+    public static Result channel2Alone(Plan plan, Generator generator, Digitizer digitizer, BenchClock clock,
+                                       double frequencyHz, double nodeAtPlanVolt, double fromVolt) {
+        double topVolt = RangeLadder.up(SweepRunner.START_RANGE_PER_PEAK * plan.sweep().peakEmfVolt());
+        double att2 = SweepRunner.attenuation(plan, 2);
+        List<Double> all = granted(digitizer, 2, topVolt / att2);
+        List<Double> rungs = all.stream().filter(r -> r * att2 >= fromVolt * (1 - 1e-9)).toList();
+        List<Reading> readings = new ArrayList<>();
+        List<String> unread = new ArrayList<>();
+        if (rungs.size() < 2) {
+            return new Result(frequencyHz, List.of(), List.of());
+        }
+        digitizer.batch(() -> {
+            digitizer.prepare();
+            for (int ch = 1; ch <= 2; ch++) {
+                digitizer.setCoupling(ch, Coupling.DC);
+                digitizer.setOffset(ch, 0.0);
+            }
+            digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
+        });
+        TimeBase.Request request = TimeBase.request(frequencyHz, CYCLES, SAMPLES_PER_CYCLE);
+        digitizer.setTiming(request.intervalSecond(), request.points());
+        double amplitude = plan.sweep().amplitudeVolt();
+        double low = RangeLadder.up(digitizer.rangeLimits(1).minVolt());
+        generator.batch(() -> {
+            generator.prepare();
+            generator.setWaveform(Waveform.SINE);
+            generator.setFrequency(frequencyHz);
+            generator.setAmplitude(amplitude * Math.min(1, FILL * rungs.get(0) * att2 / 2 / nodeAtPlanVolt));
+            generator.setOffset(0.0);
+            generator.outputOn();
+        });
+        for (int i = 0; i + 1 < rungs.size(); i++) {
+            double peak = FILL * rungs.get(i) * att2 / 2;
+            if (peak > nodeAtPlanVolt * (1 + 1e-9)) {
+                unread.add(String.format(Locale.ROOT, "channel 2 alone %s / %s (needs %.3g V peak; the plan's amplitude"
+                        + " gives %.3g V)", volts(rungs.get(i) * att2), volts(rungs.get(i + 1) * att2), peak,
+                        nodeAtPlanVolt));
+                continue;
+            }
+            generator.setAmplitude(amplitude * peak / nodeAtPlanVolt);
+            clock.sleep(plan.sweep().settleSecond());
+            double[] a = new double[2];
+            double[] v = new double[2];
+            boolean clipped = false;
+            for (int k = 0; k < 2; k++) {
+                digitizer.setRanges(low, rungs.get(i + k));
+                digitizer.acquire();
+                Trace t = digitizer.fetch(2);
+                clipped |= t.clippedSamples() > 0;
+                FixturePhasors.Result f = FixturePhasors.of(t.volts(), t.volts(), t.intervalSecond(), frequencyHz,
+                        att2, att2, false);
+                a[k] = f.part().amplitude();
+                double q = f.partCorrection().gainUncertainty() / f.partCorrection().gain();
+                v[k] = f.part().componentVariance() / (a[k] * a[k]) + q * q;
+            }
+            if (clipped) {
+                unread.add("channel 2 alone " + volts(rungs.get(i) * att2) + " / " + volts(rungs.get(i + 1) * att2)
+                        + " (clipped)");
+                continue;
+            }
+            readings.add(new Reading(2, rungs.get(i) * att2, 2, rungs.get(i + 1) * att2, a[1] / a[0],
+                    Math.sqrt(v[0] + v[1])));
         }
         return new Result(frequencyHz, List.copyOf(readings), List.copyOf(unread));
     }
@@ -142,6 +225,41 @@ public final class RangeLinkCapture {
         addNear(out, rungs2, att2, rungs1, att1, true);
         out.sort(Comparator.comparingDouble((double[] p) -> p[2]).thenComparingDouble(p -> p[0]));
         return out;
+    }
+
+    /**
+     * Each range whose pairs all need more signal than there is ({@code fillable}: the largest range a
+     * signal can fill to {@value #FILL}, at the fixture) read against the other channel's largest range that
+     * can be filled, where that fills it to at least 40 %: so the channels' top ranges get linked too.
+     */
+    static void reachTop(List<double[]> pairs, List<Double> rungs1, double att1, List<Double> rungs2, double att2,
+                         double fillable) {
+        for (int ch = 1; ch <= 2; ch++) {
+            List<Double> own = ch == 1 ? rungs1 : rungs2;
+            List<Double> other = ch == 1 ? rungs2 : rungs1;
+            double attOwn = ch == 1 ? att1 : att2;
+            double attOther = ch == 1 ? att2 : att1;
+            Double best = null;
+            for (double b : other) {
+                if (b * attOther <= fillable * (1 + 1e-9)) {
+                    best = b;
+                }
+            }
+            if (best == null) {
+                continue;
+            }
+            for (double a : own) {
+                int c = ch;
+                boolean readable = pairs.stream().anyMatch(p -> p[c - 1] == a && p[2] <= fillable * (1 + 1e-9));
+                if (readable || a * attOwn > best * attOther / 0.4 * FILL || a * attOwn <= best * attOther) {
+                    continue;
+                }
+                double r1 = ch == 1 ? a : best;
+                double r2 = ch == 1 ? best : a;
+                pairs.add(new double[] {r1, r2, Math.min(r1 * att1, r2 * att2)});
+            }
+        }
+        pairs.sort(Comparator.comparingDouble((double[] p) -> p[2]).thenComparingDouble(p -> p[0]));
     }
 
     private static void addNear(List<double[]> out, List<Double> from, double attFrom, List<Double> to, double attTo,

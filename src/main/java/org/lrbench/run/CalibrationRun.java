@@ -95,17 +95,68 @@ public final class CalibrationRun {
     public static Calibration calibrate(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper,
                                         BenchAccuracy accuracy) {
         ChannelMatch m = channels(plan, inst, change, sleeper);
-        FixtureCompensation f = fixture(plan, inst, change, sleeper, m);
+        Fixtured f = fixtureAndLinks(plan, inst, change, sleeper, m);
         // the sense resistor traced too where the bench has a meter, as calibrate does
-        return new Calibration(m, f).withSense(senseResistor(plan, inst, change, accuracy));
+        return new Calibration(f.match(), f.fixture()).withSense(senseResistor(plan, inst, change, accuracy));
+    }
+
+    /** The fixture's short and open, and the channel match with channel 2's upper ranges linked on the open. */
+    public record Fixtured(FixtureCompensation fixture, ChannelMatch match) {
+    }
+
+    /**
+     * Short and open of the fixture as {@link #fixture}; on the open, where the channel match's links
+     * did not reach channel 2's upper ranges (both channels on the sense resistor see only its small
+     * voltage), channel 2 alone links them on the open terminals (see {@link RangeLinkCapture#channel2Alone}),
+     * and the links are solved again with those readings.
+     */
+    public static Fixtured fixtureAndLinks(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper,
+                                           ChannelMatch channels) {
+        RangeLinkCapture.Result[] more = new RangeLinkCapture.Result[1];
+        FixtureCompensation f = fixture(plan, inst, change, sleeper, channels, opens -> {
+            if (channels != null && channels.links() != null) {
+                more[0] = upperLinks(plan, inst, sleeper, channels.links(), opens);
+            }
+        });
+        ChannelMatch m = channels;
+        if (more[0] != null && !more[0].readings().isEmpty()) {
+            m = channels.withLinks(channels.links().plus(channels.links().measuredAt(), more[0].readings(),
+                    more[0].unread()));
+        }
+        return new Fixtured(f, m);
+    }
+
+    /** Channel 2's ranges from the second largest the match's links read upward, linked on the open terminals. */
+    private static RangeLinkCapture.Result upperLinks(Plan plan, BenchInstruments inst, BenchClock clock,
+                                                      org.lrbench.calibration.RangeLinks links, List<PointResult> opens) {
+        List<Double> read = links.readings().stream().filter(r -> r.channelB() == 2).map(r -> r.rangeB()).distinct()
+                .sorted().toList();
+        if (read.isEmpty()) {
+            return null;
+        }
+        double from = read.size() > 1 ? read.get(read.size() - 2) : read.get(0);
+        PointResult at = opens.stream().filter(p -> Math.abs(p.impedance().frequencyHz() / links.frequencyHz() - 1) < 1e-9)
+                .findFirst().orElse(opens.get(0));
+        double node = at.partFit().amplitude();
+        if (!(node > 0)) {
+            return null;
+        }
+        return RangeLinkCapture.channel2Alone(plan, inst.generator(), inst.digitizer(), clock,
+                at.impedance().frequencyHz(), node, from);
     }
 
     /** Short and open of the fixture, each corrected by the channel match when there is one. */
     public static FixtureCompensation fixture(Plan plan, BenchInstruments inst, FixtureChange change, BenchClock sleeper,
                                               ChannelMatch channels) {
+        return fixture(plan, inst, change, sleeper, channels, opens -> { });
+    }
+
+    private static FixtureCompensation fixture(Plan plan, BenchInstruments inst, FixtureChange change,
+                                               BenchClock sleeper, ChannelMatch channels,
+                                               java.util.function.Consumer<List<PointResult>> onOpen) {
         Calibration match = new Calibration(channels, null).forWiring(plan.wiring());
         List<PointResult> shorts = sweep(plan, inst, change, FixturePosition.SHORT, sleeper, false);
-        List<PointResult> opens = sweep(plan, inst, change, FixturePosition.OPEN, sleeper, true);
+        List<PointResult> opens = sweep(plan, inst, change, FixturePosition.OPEN, sleeper, true, onOpen);
         List<FixtureCompensation.Point> out = new ArrayList<>();
         for (int i = 0; i < shorts.size(); i++) {
             // each reading corrected by the channel ratio of the range pair it was read on

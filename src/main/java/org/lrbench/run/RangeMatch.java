@@ -12,46 +12,53 @@ import org.lrbench.uncertainty.BenchAccuracy;
 
 /**
  * How well the channel match covers the range pairs a sweep used, and so what the budget keeps of the
- * channels' gain ratio: with no match, the bench's specifications; with a match whose range links
- * solve every pair used, the largest of those pairs' own standard uncertainties (and no bound for
- * other ranges); with pairs neither linked nor matched, the bench's bound for a gain ratio on other
- * ranges stays, and the pairs are named in a warning.
+ * channels' gain ratio: with no match, the bench's specifications; with a match, each point's own
+ * gain ratio and its standard uncertainty, its linked pair's where the range links solve it, else the
+ * match's (one line, all points moved together by their own amounts); and for the points on pairs
+ * neither linked nor matched, the bench's bound for a gain ratio on other ranges, with the pairs named
+ * in a warning.
+ *
+ * @param perPoint  each point's relative standard uncertainty of its gain ratio
+ * @param uncovered 1 for each point on a pair neither linked nor matched, else 0
  */
-record RangeMatch(ChannelMatch match, double linkedUncertainty, int linkedDegreesOfFreedom, List<String> unmatched,
-                  double[] perPoint) {
+record RangeMatch(ChannelMatch match, double[] perPoint, double[] uncovered, int degreesOfFreedom,
+                  List<String> unmatched) {
 
     static RangeMatch of(ChannelMatch match, List<PointResult> points) {
         double[] each = new double[points.size()];
+        double[] uncovered = new double[points.size()];
         if (match == null) {
-            return new RangeMatch(null, 0, 0, List.of(), each);
+            return new RangeMatch(null, each, uncovered, 0, List.of());
         }
-        double worst = 0;
         Set<String> unmatched = new LinkedHashSet<>();
         boolean anyLinked = false;
         for (int i = 0; i < points.size(); i++) {
             PointResult p = points.get(i);
             RangeLinks.Pair pair = match.linked(p.senseRangeVolt(), p.partRangeVolt());
             if (pair != null) {
-                worst = Math.max(worst, pair.relativeUncertainty());
                 each[i] = pair.relativeUncertainty();
                 anyLinked = true;
-            } else if (!match.measuredOn(p.senseRangeVolt(), p.partRangeVolt())) {
+                continue;
+            }
+            each[i] = match.gainUncertainty();
+            if (!match.measuredOn(p.senseRangeVolt(), p.partRangeVolt())) {
+                uncovered[i] = 1;
                 unmatched.add(String.format(Locale.ROOT, "%.4g V / %.4g V", p.senseRangeVolt(), p.partRangeVolt()));
             }
         }
-        int dof = anyLinked ? match.links().degreesOfFreedom() : 0;
-        return new RangeMatch(match, worst, dof, new ArrayList<>(unmatched), each);
+        int dof = anyLinked ? Math.min(match.links().degreesOfFreedom(), Math.max(1, match.points() - 1))
+                : Math.max(1, match.points() - 1);
+        return new RangeMatch(match, each, uncovered, dof, new ArrayList<>(unmatched));
     }
 
-    /** Whether every point's gain ratio is its own linked pair's. */
-    boolean allLinked() {
-        return linkedUncertainty > 0 && unmatched.isEmpty()
-                && java.util.Arrays.stream(perPoint).allMatch(u -> u > 0);
-    }
-
-    /** Each point's pair's relative standard uncertainty when every point is linked, else zeros (one line covers them). */
+    /** Each point's relative standard uncertainty of its gain ratio (zeros without a match: the specification's line). */
     double[] perPointUncertainty() {
-        return allLinked() ? perPoint.clone() : new double[perPoint.length];
+        return perPoint.clone();
+    }
+
+    /** The points the bench's bound for other ranges moves, or null for all (no match). */
+    double[] uncoveredPoints() {
+        return match == null ? null : uncovered.clone();
     }
 
     /** The bench's accuracies as the match leaves them for this sweep. */
@@ -59,11 +66,8 @@ record RangeMatch(ChannelMatch match, double linkedUncertainty, int linkedDegree
         if (match == null) {
             return bench;
         }
-        // every point on a linked pair: each point's own ratio is in force, known to its pair's u (a line of
-        // its own, perPointUncertainty); otherwise one line, the larger of the match's and the links' u
-        double gain = allLinked() ? 0 : Math.max(match.gainUncertainty(), linkedUncertainty);
-        int points = allLinked() ? linkedDegreesOfFreedom + 1 : match.points();
-        BenchAccuracy a = bench.afterChannelMatch(gain, match.skewUncertaintySecond(), points);
+        // each point's gain ratio is a line of its own (perPointUncertainty): no specification line
+        BenchAccuracy a = bench.afterChannelMatch(0, match.skewUncertaintySecond(), degreesOfFreedom + 1);
         return unmatched.isEmpty() ? a.withRangeGainMatch(0) : a;
     }
 
@@ -73,7 +77,7 @@ record RangeMatch(ChannelMatch match, double linkedUncertainty, int linkedDegree
             return List.of();
         }
         return List.of("the channel match does not cover the range pair(s) " + String.join(", ", unmatched)
-                + " (channel 1 / channel 2 full scale): U keeps the bench's bound for the gain ratio on other ranges;"
-                + " lrbench calibrate with this plan links the ranges a sweep uses");
+                + " (channel 1 / channel 2 full scale): U keeps the bench's bound for the gain ratio on other ranges"
+                + " for those points; lrbench calibrate with this plan links the ranges a sweep uses");
     }
 }
