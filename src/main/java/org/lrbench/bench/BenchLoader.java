@@ -50,7 +50,8 @@ public final class BenchLoader {
             YamlMap s = root.map("switch", true, "driver", "address", "first_channel");
             Integer first = s == null ? null : s.integer("first_channel", false, 0, 999_999);
             if (first != null) {
-                switchUnit = new InstrumentLink(switchUnit.driver(), switchUnit.address(), first);
+                switchUnit = new InstrumentLink(switchUnit.driver(), switchUnit.address(), first, null,
+                        switchUnit.driverAt());
             }
         }
         InstrumentLink meter = root.has("meter") ? link(root, "meter") : null;
@@ -252,7 +253,10 @@ public final class BenchLoader {
             } else if (out != null && !(out >= 0 && out <= 10e3)) {
                 m.problem("output_impedance", "must be 0 ohm to 10 kohm, such as 50 ohm");
             }
-            return new InstrumentLink(driver, a, InstrumentLink.DEFAULT_FIRST_CHANNEL, out);
+            var mark = m.value("driver", false).map(n -> n.getStartMark()).orElse(null);
+            return new InstrumentLink(driver, a, InstrumentLink.DEFAULT_FIRST_CHANNEL, out).at(mark == null ? null
+                    : new org.lrbench.yaml.Problem(m.problems().file(), mark.getLine() + 1, mark.getColumn() + 1,
+                    m.keyOf("driver"), ""));
         } catch (AddressException e) {
             m.problem("address", e.getMessage());
             return null;

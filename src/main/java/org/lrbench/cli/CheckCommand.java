@@ -72,7 +72,7 @@ final class CheckCommand implements Callable<Integer> {
             return null;
         }
         try {
-            DriverFile d = loader.load(link.driver(), kind);
+            DriverFile d = loader.load(link.driver(), kind, link.driverAt());
             loaded.add(role + " " + d.name() + " at " + link.address());
             return d;
         } catch (ProblemsException e) {

@@ -77,9 +77,14 @@ final class DigitizerTraitsReader {
                     String text = q.text(name, name.equals("y_increment"));
                     if (text != null) {
                         try {
-                            queries.put(name, CommandTemplate.parse(text, Set.of("channel")));
+                            CommandTemplate t = CommandTemplate.parse(text, Set.of("channel"));
+                            queries.put(name, t);
                             if (!text.startsWith(":") || !text.endsWith("?") && !text.contains("? ")) {
                                 q.problem(name, "must be an absolute query such as :DATA:YSTep? CH{channel}");
+                            } else if (name.startsWith("y_") && !t.placeholders().contains("channel")) {
+                                // each channel has its own vertical scale: without {channel} both would read one
+                                q.problem(name, "'" + text + "' has no {channel}: the vertical scale is each channel's"
+                                        + " own, and this query would read the same channel's for both");
                             }
                         } catch (IllegalArgumentException e) {
                             q.problem(name, e.getMessage());
@@ -111,6 +116,16 @@ final class DigitizerTraitsReader {
                 } else {
                     clipLow = s.asQuantity(clip.get(0), Dimension.NONE);
                     clipHigh = s.asQuantity(clip.get(1), Dimension.NONE);
+                    if (clipLow != null && clipHigh != null && !(clipLow < clipHigh)) {
+                        s.problem("clip_codes", "[" + fmt(clipLow) + ", " + fmt(clipHigh) + "] is not [lowest, highest]:"
+                                + " the first code must be below the second");
+                    } else if (clipLow != null && clipHigh != null
+                            && (clipLow < encoding.minCode() || clipHigh > encoding.maxCode()
+                            || clipLow != Math.rint(clipLow) || clipHigh != Math.rint(clipHigh))) {
+                        s.problem("clip_codes", "[" + fmt(clipLow) + ", " + fmt(clipHigh) + "] is outside what "
+                                + encoding.key() + " can carry: whole codes from " + encoding.minCode() + " to "
+                                + encoding.maxCode());
+                    }
                 }
             }
             if (source == DigitizerTraits.ScaleSource.NONE && encoding != null && encoding.isInteger()) {
@@ -178,11 +193,19 @@ final class DigitizerTraitsReader {
             out.add("range_min_query");
             out.add("range_max_query");
         }
+        // an instrument without an input offset: lrbench asks for none (an offset other than 0 is then refused)
+        out.add("offset");
+        // an instrument without a trigger setting runs free: the sine fit needs no trigger
+        out.add("trigger");
         if (traits.scaling().source() == DigitizerTraits.ScaleSource.FORMULA
                 || traits.scaling().source() == DigitizerTraits.ScaleSource.NONE
                 || traits.scaling().source() == DigitizerTraits.ScaleSource.QUERIES) {
             out.add("scale_query");
         }
         return out;
+    }
+
+    private static String fmt(double code) {
+        return code == Math.rint(code) ? Long.toString((long) code) : Double.toString(code);
     }
 }

@@ -17,7 +17,18 @@ public record DriverFile(String name, String source, DriverKind kind, String des
                          Map<String, Pattern> identity, Duration timeout, String errorQuery,
                          Map<String, CommandTemplate> commands, Map<String, Map<String, String>> words,
                          TraceEncoding traceEncoding, DigitizerTraits digitizer, double levelPerEmf,
-                         InstrumentLimits limits, double frequencySettleSecond, String arbitraryEncoding) {
+                         InstrumentLimits limits, double frequencySettleSecond, String arbitraryEncoding,
+                         double minimumTransferRate) {
+
+    /** A driver with the default slowest block transfer ({@link org.lrbench.scpi.ScpiSession#DEFAULT_MINIMUM_RATE}). */
+    public DriverFile(String name, String source, DriverKind kind, String description, Map<String, Pattern> identity,
+                      Duration timeout, String errorQuery, Map<String, CommandTemplate> commands,
+                      Map<String, Map<String, String>> words, TraceEncoding traceEncoding, DigitizerTraits digitizer,
+                      double levelPerEmf, InstrumentLimits limits, double frequencySettleSecond, String arbitraryEncoding) {
+        this(name, source, kind, description, identity, timeout, errorQuery, commands, words, traceEncoding, digitizer,
+                levelPerEmf, limits, frequencySettleSecond, arbitraryEncoding,
+                org.lrbench.scpi.ScpiSession.DEFAULT_MINIMUM_RATE);
+    }
 
     /** How a source's arbitrary waveform goes: an ASCII list, or a block of 16-bit words. */
     public static final java.util.List<String> ARBITRARY_ENCODINGS = java.util.List.of("ascii", "int16-big", "int16-little");
@@ -36,8 +47,10 @@ public record DriverFile(String name, String source, DriverKind kind, String des
     }
 
     /** The SCPI word for a logical word of a table ("shapes", "sine" -> "SINusoid"). */
+    /** The instrument's word for a logical one, or null when the driver does not give it. */
     public String word(String table, String logical) {
-        return words.get(table).get(logical);
+        Map<String, String> t = words.get(table);
+        return t == null ? null : t.get(logical);
     }
 
     /** Whether an instrument's identity matches every identity pattern of this driver. */

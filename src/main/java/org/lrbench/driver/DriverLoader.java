@@ -36,14 +36,37 @@ public final class DriverLoader {
 
     /** Loads a driver by name from the drivers folder. */
     public DriverFile load(String name, DriverKind expected) throws ProblemsException {
+        return load(name, expected, null);
+    }
+
+    /**
+     * Loads a driver by name from the drivers folder; a name with no driver file is reported at
+     * {@code namedAt} (where a bench file names it) when given.
+     */
+    public DriverFile load(String name, DriverKind expected, org.lrbench.yaml.Problem namedAt) throws ProblemsException {
         Path file = directory.resolve(name + ".yaml");
         Problems problems = new Problems(file.toString());
+        if ((!name.matches("[A-Za-z0-9._-]+") || !Files.isRegularFile(file)) && namedAt != null) {
+            throw new ProblemsException(List.of(new org.lrbench.yaml.Problem(namedAt.file(), namedAt.line(),
+                    namedAt.column(), namedAt.key(), "'" + name + "': no driver file " + name + ".yaml in " + directory
+                    + "; drivers there: " + String.join(", ", names()))));
+        }
         if (!name.matches("[A-Za-z0-9._-]+") || !Files.isRegularFile(file)) {
             problems.add((Node) null, "driver",
                     "no driver file '" + name + ".yaml' in " + directory);
             problems.throwIfAny();
         }
         return read(file, name, expected, problems);
+    }
+
+    /** The driver files' names in the folder, sorted. */
+    public List<String> names() {
+        try (var files = Files.list(directory)) {
+            return files.map(f -> f.getFileName().toString()).filter(n -> n.endsWith(".yaml"))
+                    .map(n -> n.substring(0, n.length() - 5)).sorted().toList();
+        } catch (java.io.IOException e) {
+            return List.of();
+        }
     }
 
     /** Loads a driver file from any path (tests, or a bench that names a file). */
@@ -53,7 +76,7 @@ public final class DriverLoader {
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
                 "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator",
-                "frequency_settle", "arbitrary_encoding");
+                "frequency_settle", "arbitrary_encoding", "minimum_transfer_rate");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
                 "switch", DriverKind.SWITCH, "meter", DriverKind.METER));
@@ -124,7 +147,12 @@ public final class DriverLoader {
                     String text = cmds.text(op.getKey(), !optional.contains(op.getKey()));
                     if (text != null) {
                         try {
-                            commands.put(op.getKey(), CommandTemplate.parse(text, op.getValue()));
+                            CommandTemplate t = CommandTemplate.parse(text, op.getValue());
+                            commands.put(op.getKey(), t);
+                            if (op.getValue().contains("channel") && !t.placeholders().contains("channel")) {
+                                cmds.problem(op.getKey(), "'" + text + "' has no {channel}: " + op.getKey() + " is"
+                                        + " each channel's own, and this command would send the same for both");
+                            }
                             if (!text.startsWith(":") && !text.startsWith("*")) {
                                 cmds.problem(op.getKey(), "must start with ':' or '*' (an absolute header), because"
                                         + " lrbench joins commands into one message with ';'");
@@ -136,7 +164,8 @@ public final class DriverLoader {
                 }
             }
             for (Map.Entry<String, List<String>> table : kind.wordTables().entrySet()) {
-                words.put(table.getKey(), readWords(root, table.getKey(), table.getValue()));
+                words.put(table.getKey(), readWords(root, table.getKey(), table.getValue(),
+                        optionalWords(kind, table.getKey(), commands)));
             }
             for (String other : List.of("shapes", "couplings", "trigger_sources", "slopes")) {
                 if (!kind.wordTables().containsKey(other) && root.has(other)) {
@@ -169,12 +198,18 @@ public final class DriverLoader {
             root.problem("arbitrary_encoding", "'" + arbitraryEncoding + "' is not an arbitrary-waveform encoding; allowed: "
                     + String.join(", ", DriverFile.ARBITRARY_ENCODINGS));
         }
+        // the slowest a block's bytes may arrive (bytes per second) before the reply counts as lost
+        Double rate = root.quantity("minimum_transfer_rate", Dimension.NONE, false);
+        if (rate != null && !(rate >= 10 && rate <= 1e10)) {
+            root.problem("minimum_transfer_rate", "must be 10 to 1e10 bytes per second, such as 1000");
+        }
         problems.throwIfAny();
         Duration timeout = Duration.ofMillis(Math.round((timeoutSeconds == null ? 5.0 : timeoutSeconds) * 1000));
         return new DriverFile(name, file.toString(), kind, description == null ? "" : description, identity, timeout,
                 errorQuery == null ? ":SYSTem:ERRor?" : errorQuery, Map.copyOf(commands), Map.copyOf(words), encoding, traits,
                 levelPerEmf, limits, frequencySettle == null ? 0 : frequencySettle,
-                arbitraryEncoding == null ? "ascii" : arbitraryEncoding);
+                arbitraryEncoding == null ? "ascii" : arbitraryEncoding,
+                rate == null ? org.lrbench.scpi.ScpiSession.DEFAULT_MINIMUM_RATE : rate);
     }
 
     /**
@@ -277,14 +312,40 @@ public final class DriverLoader {
         return identity;
     }
 
-    private static Map<String, String> readWords(YamlMap root, String table, List<String> logical) {
+    /**
+     * Which words of a table a driver may leave out: a digitizer's trigger words when its trigger command
+     * does not use them (no trigger command: none are used), and any trigger source but one of channel 1
+     * and immediate (lrbench triggers on channel 1, else runs free); every other table is whole.
+     * Returns null when the whole table may be left out.
+     */
+    private static Set<String> optionalWords(DriverKind kind, String table, Map<String, CommandTemplate> commands) {
+        if (kind != DriverKind.DIGITIZER || !table.equals("trigger_sources") && !table.equals("slopes")) {
+            return Set.of();
+        }
+        CommandTemplate trigger = commands.get("trigger");
+        String placeholder = table.equals("slopes") ? "slope" : "source";
+        if (trigger == null || !trigger.placeholders().contains(placeholder)) {
+            return null;
+        }
+        return table.equals("slopes") ? Set.of() : Set.of("channel2", "external");
+    }
+
+    private static Map<String, String> readWords(YamlMap root, String table, List<String> logical, Set<String> optional) {
         Map<String, String> out = new LinkedHashMap<>();
-        YamlMap m = root.map(table, true, logical.toArray(String[]::new));
+        YamlMap m = root.map(table, optional != null, logical.toArray(String[]::new));
         if (m == null) {
             return out;
         }
+        if (optional == null) {
+            root.problem(table, "not used: this driver's trigger command has no {" + (table.equals("slopes") ? "slope"
+                    : "source") + "}");
+            return out;
+        }
+        if (table.equals("trigger_sources") && !m.has("channel1") && !m.has("immediate")) {
+            root.problem(table, "give channel1 or immediate (or both): lrbench triggers on channel 1, else runs free");
+        }
         for (String word : logical) {
-            String scpi = m.text(word, true);
+            String scpi = m.text(word, !optional.contains(word) && !table.equals("trigger_sources"));
             if (scpi != null) {
                 if (MNEMONIC.matcher(scpi).matches()) {
                     out.put(word, scpi);

@@ -147,6 +147,15 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public void setOffset(int channel, double volt) {
+        if (!driver.has("offset")) {
+            // an instrument without an input offset sits at 0 V; any other offset cannot be had
+            if (volt != 0) {
+                throw new InstrumentException(session.instrument() + ": this digitizer's driver has no offset command"
+                        + " (commands.offset); an offset of " + ScpiNumbers.nr3(volt) + " V was needed");
+            }
+            offsets.put(channel, 0.0);
+            return;
+        }
         Map<String, String> values = new HashMap<>(channel(channel));
         values.put("offset", ScpiNumbers.nr3(volt));
         configure("offset", values);
@@ -317,10 +326,26 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public void setTrigger(TriggerSource source, double levelVolt, boolean rising) {
-        configure("trigger", Map.of(
-                "source", driver.word("trigger_sources", source.name().toLowerCase(Locale.ROOT)),
-                "level", ScpiNumbers.nr3(levelVolt),
-                "slope", driver.word("slopes", rising ? "rising" : "falling")));
+        if (!driver.has("trigger")) {
+            return; // no trigger setting: the instrument runs free, and the sine fit needs no trigger
+        }
+        String word = driver.word("trigger_sources", source.name().toLowerCase(Locale.ROOT));
+        if (word == null) {
+            // the source is not the instrument's: run free where it can, which the fit allows
+            word = driver.word("trigger_sources", "immediate");
+            if (word == null) {
+                throw new InstrumentException(session.instrument() + ": this digitizer's driver has no trigger source "
+                        + source.name().toLowerCase(Locale.ROOT) + " and no immediate (trigger_sources)");
+            }
+        }
+        Map<String, String> values = new HashMap<>();
+        values.put("source", word);
+        values.put("level", ScpiNumbers.nr3(levelVolt));
+        String slope = driver.word("slopes", rising ? "rising" : "falling");
+        if (slope != null) {
+            values.put("slope", slope);
+        }
+        configure("trigger", values);
     }
 
     @Override

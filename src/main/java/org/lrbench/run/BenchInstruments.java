@@ -96,8 +96,8 @@ public final class BenchInstruments implements AutoCloseable {
      */
     public static BenchInstruments open(BenchConfig bench, DriverLoader drivers, PeerSet simulated, boolean withSwitch)
             throws ProblemsException {
-        DriverFile sourceDriver = drivers.load(bench.generator().driver(), DriverKind.SOURCE);
-        DriverFile digitizerDriver = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER);
+        DriverFile sourceDriver = drivers.load(bench.generator().driver(), DriverKind.SOURCE, bench.generator().driverAt());
+        DriverFile digitizerDriver = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER, bench.digitizer().driverAt());
         Map<String, InProcessPeer> peers = simulated == null ? Map.of() : simulated.peers();
         // safety first: the generator is reached and its output switched off before anything else,
         // so an output left on by an earlier crash does not stay on when another instrument fails
@@ -131,7 +131,7 @@ public final class BenchInstruments implements AutoCloseable {
             bi.openMeter(bench, drivers, peers, simulated != null);
             return bi;
         }
-        DriverFile switchDriver = drivers.load(bench.switchUnit().driver(), DriverKind.SWITCH);
+        DriverFile switchDriver = drivers.load(bench.switchUnit().driver(), DriverKind.SWITCH, bench.switchUnit().driverAt());
         ScpiSession w;
         try {
             w = session("switch", bench.switchUnit(), switchDriver, peers, simulated != null);
@@ -150,8 +150,10 @@ public final class BenchInstruments implements AutoCloseable {
                                        Map<String, InProcessPeer> peers, boolean simulated) {
         Address address = simulated ? Address.parse("sim://" + role) : link.address();
         Transport t = Transports.open(address, peers);
-        return new ScpiSession(role + " (" + driver.name() + " at " + address + ")", t, driver.timeout(),
+        ScpiSession session = new ScpiSession(role + " (" + driver.name() + " at " + address + ")", t, driver.timeout(),
                 address.terminator());
+        session.setMinimumTransferRate(driver.minimumTransferRate());
+        return session;
     }
 
     /** The SCPI sessions of the links (for counting round trips), generator first. */
@@ -168,7 +170,7 @@ public final class BenchInstruments implements AutoCloseable {
         if (bench.meter() == null || (!simulated && bench.meter().address().scheme().equals("sim"))) {
             return;
         }
-        DriverFile meterDriver = drivers.load(bench.meter().driver(), DriverKind.METER);
+        DriverFile meterDriver = drivers.load(bench.meter().driver(), DriverKind.METER, bench.meter().driverAt());
         ScpiSession m = session("meter", bench.meter(), meterDriver, peers, simulated);
         sessions.add(m);
         meter = new ScpiMultimeter(m, meterDriver);

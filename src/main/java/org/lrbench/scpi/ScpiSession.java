@@ -42,6 +42,16 @@ public final class ScpiSession implements AutoCloseable {
     private boolean stale;
     private long queries;
     private long ioNanos;
+    /** When the reply being read must be complete (System.nanoTime): the whole reply has one deadline. */
+    private long deadline;
+    /** Slowest transfer of a block's bytes accepted, bytes per second (the driver's declaration). */
+    private double minimumBytesPerSecond = DEFAULT_MINIMUM_RATE;
+    /**
+     * 1000 bytes per second: a tenth of a 115200-baud serial line's 11 520 (10 bits per byte), so any
+     * working link delivers a block long before, and a trickle of one byte every few milliseconds does
+     * not (common practice, no source).
+     */
+    public static final double DEFAULT_MINIMUM_RATE = 1000;
 
     public ScpiSession(String instrument, Transport transport, Duration timeout) {
         this(instrument, transport, timeout, "\n");
@@ -100,6 +110,14 @@ public final class ScpiSession implements AutoCloseable {
         }
     }
 
+    /** The slowest block transfer accepted (bytes per second): a block of n bytes has the timeout plus n / rate. */
+    public void setMinimumTransferRate(double bytesPerSecond) {
+        if (!(bytesPerSecond > 0)) {
+            throw new IllegalArgumentException("a transfer rate must be above 0");
+        }
+        this.minimumBytesPerSecond = bytesPerSecond;
+    }
+
     /** Sends a query and returns its response message without the terminator. */
     public synchronized String query(String command) {
         return queryLines(command, 1).get(0);
@@ -110,6 +128,9 @@ public final class ScpiSession implements AutoCloseable {
         write(command);
         queries++;
         long start = System.nanoTime();
+        // the whole reply within the timeout; a reply of many lines (an ASCII trace) also gets its
+        // bytes' time at the slowest accepted rate (about 16 bytes a line)
+        deadline = start + timeout.toNanos() + (lines > 1 ? (long) (lines * 16 / minimumBytesPerSecond * 1e9) : 0);
         List<String> out = new ArrayList<>(lines);
         try {
             for (int i = 0; i < lines; i++) {
@@ -150,6 +171,8 @@ public final class ScpiSession implements AutoCloseable {
         write(command);
         queries++;
         long start = System.nanoTime();
+        deadline = start + timeout.toNanos();
+        blockProgress = "its header not received";
         try {
             byte[] block = readBlock(terminated);
             if (IO.isDebugEnabled()) {
@@ -166,7 +189,9 @@ public final class ScpiSession implements AutoCloseable {
             stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): block reply to '" + command
-                    + "' incomplete after " + elapsedMillis(start) + " ms (timeout " + timeout.toMillis() + " ms)", e);
+                    + "' incomplete after " + elapsedMillis(start) + " ms, " + blockProgress + " (timeout "
+                    + timeout.toMillis() + " ms, plus the block's bytes at " + Math.round(minimumBytesPerSecond)
+                    + " bytes/s at the slowest)", e);
         } catch (IOException e) {
             stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the block reply to '"
@@ -318,12 +343,16 @@ public final class ScpiSession implements AutoCloseable {
         }
         byte[] data = new byte[(int) length];
         int filled = 0;
+        // the bytes get their time at the slowest accepted rate on top of the reply's timeout
+        deadline += (long) (length / minimumBytesPerSecond * 1e9);
+        blockProgress = "0 of " + length + " bytes received";
         while (filled < length) {
             if (position == limit) {
                 int n = data.length - filled;
                 if (n >= buffer.length) {
                     // large remainder: read straight into the result, no intermediate copy
-                    filled += transport.read(data, filled, n, timeout);
+                    filled += transport.read(data, filled, n, remaining());
+                    blockProgress = filled + " of " + length + " bytes received";
                     continue;
                 }
                 fill();
@@ -332,6 +361,7 @@ public final class ScpiSession implements AutoCloseable {
             System.arraycopy(buffer, position, data, filled, n);
             position += n;
             filled += n;
+            blockProgress = filled + " of " + length + " bytes received";
         }
         if (terminated) {
             expectTerminator("block of " + length + " bytes");
@@ -346,7 +376,10 @@ public final class ScpiSession implements AutoCloseable {
      */
     private byte[] readIndefiniteBlock() throws IOException {
         ByteArrayOutputStream data = new ByteArrayOutputStream();
+        long base = deadline;
         while (true) {
+            // the bytes so far get their time at the slowest accepted rate
+            deadline = base + (long) (data.size() / minimumBytesPerSecond * 1e9);
             int b = nextByte();
             if (b == '\n' && position == limit) {
                 try {
@@ -388,8 +421,20 @@ public final class ScpiSession implements AutoCloseable {
     private void fill() throws IOException {
         position = 0;
         limit = 0;
-        limit = transport.read(buffer, 0, buffer.length, timeout);
+        limit = transport.read(buffer, 0, buffer.length, remaining());
     }
+
+    /** What is left of the reply's deadline; none left is a timeout. */
+    private Duration remaining() throws TransportTimeoutException {
+        long left = deadline - System.nanoTime();
+        if (left <= 0) {
+            throw new TransportTimeoutException("the reply's deadline passed");
+        }
+        return Duration.ofNanos(left);
+    }
+
+    /** How much of the block being read has arrived, for a timeout's message. */
+    private String blockProgress = "its header not received";
 
     private static String describe(int b) {
         return b >= 0x20 && b < 0x7f ? "'" + (char) b + "'" : String.format("byte 0x%02x", b);

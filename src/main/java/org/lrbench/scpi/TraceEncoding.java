@@ -5,14 +5,18 @@ import java.nio.ByteOrder;
 import java.util.Locale;
 
 /**
- * How a digitizer encodes trace samples in a block: signed integers of 8 or 16 bits (16 in either
- * byte order), IEEE 754 floats of 32 or 64 bits, ASCII numbers separated by commas or blanks on
+ * How a digitizer encodes trace samples in a block: signed or unsigned integers of 8 or 16 bits (16 in
+ * either byte order; an unsigned code's zero volts is wherever the scaling puts it, such as code 512 of
+ * a 10-bit converter), IEEE 754 floats of 32 or 64 bits, ASCII numbers separated by commas or blanks on
  * one line, or ASCII numbers one per line.
  */
 public enum TraceEncoding {
     INT8("int8", 1, true),
     INT16_BIG("int16-big", 2, true),
     INT16_LITTLE("int16-little", 2, true),
+    UINT8("uint8", 1, true),
+    UINT16_BIG("uint16-big", 2, true),
+    UINT16_LITTLE("uint16-little", 2, true),
     REAL32_BIG("real32-big", 4, false),
     REAL32_LITTLE("real32-little", 4, false),
     REAL64_BIG("real64-big", 8, false),
@@ -47,13 +51,18 @@ public enum TraceEncoding {
         return bytesPerSample > 0;
     }
 
+    /** Whether the integer codes are unsigned. */
+    public boolean isUnsigned() {
+        return this == UINT8 || this == UINT16_BIG || this == UINT16_LITTLE;
+    }
+
     /** Smallest and largest integer code; only for integer encodings. */
     public int minCode() {
-        return bytesPerSample == 1 ? Byte.MIN_VALUE : Short.MIN_VALUE;
+        return isUnsigned() ? 0 : bytesPerSample == 1 ? Byte.MIN_VALUE : Short.MIN_VALUE;
     }
 
     public int maxCode() {
-        return bytesPerSample == 1 ? Byte.MAX_VALUE : Short.MAX_VALUE;
+        return isUnsigned() ? (bytesPerSample == 1 ? 0xFF : 0xFFFF) : bytesPerSample == 1 ? Byte.MAX_VALUE : Short.MAX_VALUE;
     }
 
     public static TraceEncoding byKey(String key) {
@@ -77,11 +86,14 @@ public enum TraceEncoding {
         int n = block.length / bytesPerSample;
         double[] out = new double[n];
         ByteBuffer bb = ByteBuffer.wrap(block);
-        bb.order(this == INT16_LITTLE || this == REAL32_LITTLE ? ByteOrder.LITTLE_ENDIAN : ByteOrder.BIG_ENDIAN);
+        bb.order(this == INT16_LITTLE || this == UINT16_LITTLE || this == REAL32_LITTLE ? ByteOrder.LITTLE_ENDIAN
+                : ByteOrder.BIG_ENDIAN);
         for (int i = 0; i < n; i++) {
             out[i] = switch (this) {
                 case INT8 -> bb.get();
                 case INT16_BIG, INT16_LITTLE -> bb.getShort();
+                case UINT8 -> bb.get() & 0xFF;
+                case UINT16_BIG, UINT16_LITTLE -> bb.getShort() & 0xFFFF;
                 case REAL32_BIG, REAL32_LITTLE -> bb.getFloat();
                 case REAL64_BIG -> bb.getDouble();
                 case ASCII, ASCII_LINES -> throw new IllegalStateException();

@@ -58,13 +58,45 @@ public record Address(String scheme, String target, Map<String, String> options,
         return new Address(scheme, target, Map.copyOf(options), t);
     }
 
+    /** Letters, digits, dots and hyphens: a host name or an IPv4 address (RFC 1123). */
+    private static final java.util.regex.Pattern HOST_NAME = java.util.regex.Pattern.compile("[A-Za-z0-9]([A-Za-z0-9.-]*[A-Za-z0-9])?");
+    /** Hex digits, colons, dots (an IPv4 tail) and a zone after '%' (RFC 4291, RFC 6874). */
+    private static final java.util.regex.Pattern IPV6 = java.util.regex.Pattern.compile("[0-9A-Fa-f:.]+(%[A-Za-z0-9._-]+)?");
+
+    /** {host, port text or null} of a tcp target, refused when it is not HOST, HOST:PORT, [IPv6] or [IPv6]:PORT. */
+    private String[] hostAndPort() {
+        if (target.startsWith("[")) {
+            int close = target.indexOf(']');
+            if (close < 0) {
+                throw new AddressException("instrument address '" + text + "': the IPv6 address has no closing ']'"
+                        + " (write it as tcp://[::1]:5025)");
+            }
+            String host = target.substring(1, close);
+            String rest = target.substring(close + 1);
+            if (!IPV6.matcher(host).matches() || !host.contains(":")) {
+                throw new AddressException("instrument address '" + text + "': '" + host + "' is not an IPv6 address");
+            }
+            if (!rest.isEmpty() && !rest.startsWith(":")) {
+                throw new AddressException("instrument address '" + text + "': after ']' only ':PORT' may follow");
+            }
+            return new String[] {host, rest.isEmpty() ? null : rest.substring(1)};
+        }
+        int colon = target.indexOf(':');
+        if (colon >= 0 && target.indexOf(':', colon + 1) >= 0) {
+            throw new AddressException("instrument address '" + text + "': an IPv6 address goes in brackets, as in"
+                    + " tcp://[::1]:5025");
+        }
+        String host = colon < 0 ? target : target.substring(0, colon);
+        if (!host.isEmpty() && !HOST_NAME.matcher(host).matches()) {
+            throw new AddressException("instrument address '" + text + "': '" + host + "' is not a host name or an IPv4"
+                    + " address (letters, digits, '.' and '-')");
+        }
+        return new String[] {host, colon < 0 ? null : target.substring(colon + 1)};
+    }
+
     /** The host of a tcp address. */
     public String host() {
-        int colon = target.lastIndexOf(':');
-        String host = colon < 0 ? target : target.substring(0, colon);
-        if (host.startsWith("[") && host.endsWith("]")) {
-            host = host.substring(1, host.length() - 1);
-        }
+        String host = hostAndPort()[0];
         if (host.isEmpty()) {
             throw new AddressException("instrument address '" + text + "': the host is empty");
         }
@@ -73,11 +105,10 @@ public record Address(String scheme, String target, Map<String, String> options,
 
     /** The port of a tcp address, 5025 when absent. */
     public int port() {
-        int colon = target.lastIndexOf(':');
-        if (colon < 0 || target.endsWith("]")) {
+        String p = hostAndPort()[1];
+        if (p == null) {
             return DEFAULT_TCP_PORT;
         }
-        String p = target.substring(colon + 1);
         try {
             int port = Integer.parseInt(p);
             if (port < 1 || port > 65535) {

@@ -355,7 +355,11 @@ class CommandLineTests {
                 .replaceFirst("driver: generic-source", "driver: no-such-source"));
         Outcome missing = run("check", PLAN, "--bench", bench.toString());
         assertThat(missing.code()).isEqualTo(2);
-        assertThat(missing.err()).contains("no driver file 'no-such-source.yaml'");
+        // reported where the mistake is: the bench file's driver line, with the drivers that are there
+        int line = Files.readString(bench).lines().toList().indexOf(Files.readString(bench).lines()
+                .filter(l -> l.contains("no-such-source")).findFirst().orElseThrow()) + 1;
+        assertThat(missing.err()).contains(bench + ":" + line + ":").contains("generator.driver")
+                .contains("no driver file no-such-source.yaml").contains("generic-source");
         Outcome list = run("drivers");
         assertThat(list.code()).isZero();
         assertThat(list.out()).containsPattern("generic-digitizer +digitizer ").containsPattern("generic-source +source ");

@@ -202,4 +202,85 @@ class ScpiSessionTests {
         Assertions.assertThatThrownBy(() -> session(2, "1\n2\n").queryLines(":DATA?", 3))
                 .hasMessageContaining("2 of 3 lines");
     }
+
+    /** A link that hands over one byte every {@code everyMillis} (sleeping, as a slow instrument would), never faster. */
+    static final class Trickle implements Transport {
+        final Deque<Byte> pending = new ArrayDeque<>();
+        final long everyMillis;
+
+        Trickle(long everyMillis, byte[] reply) {
+            this.everyMillis = everyMillis;
+            for (byte b : reply) {
+                pending.add(b);
+            }
+        }
+
+        @Override
+        public String address() {
+            return "test://trickle";
+        }
+
+        @Override
+        public void write(byte[] bytes) {
+        }
+
+        @Override
+        public int read(byte[] dst, int offset, int length, Duration timeout) throws IOException {
+            if (pending.isEmpty() || timeout.toMillis() < everyMillis) {
+                try {
+                    Thread.sleep(Math.max(0, Math.min(timeout.toMillis(), everyMillis)));
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                }
+                throw new TransportTimeoutException("nothing within " + timeout.toMillis() + " ms");
+            }
+            try {
+                Thread.sleep(everyMillis);
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+            dst[offset] = pending.poll();
+            return 1;
+        }
+
+        @Override
+        public void discardInput() {
+            pending.clear();
+        }
+
+        @Override
+        public void close() {
+        }
+    }
+
+    @Test
+    void aReplyTrickledByteByByteMeetsOneDeadlineForTheWholeReply() {
+        // every read gets a byte within the timeout, but the whole reply would take 40 x 100 ms = 4 s
+        byte[] idn = "LRBENCH,TRICKLE-1,SN0001,1.0.0.0.0.0.0\n".getBytes(StandardCharsets.US_ASCII);
+        ScpiSession s = new ScpiSession("digitizer", new Trickle(100, idn), Duration.ofMillis(800));
+        long start = System.nanoTime();
+        assertThatThrownBy(() -> s.query("*IDN?")).isInstanceOf(InstrumentException.class)
+                .hasMessageContaining("no reply to '*IDN?'");
+        assertThat((System.nanoTime() - start) / 1e6).isLessThan(3000);
+    }
+
+    @Test
+    void aBlockGetsItsBytesTimeAtTheSlowestRateAndNoMore() {
+        byte[] data = new byte[300];
+        byte[] block = ("#3300").getBytes(StandardCharsets.US_ASCII);
+        byte[] whole = new byte[block.length + data.length + 1];
+        System.arraycopy(block, 0, whole, 0, block.length);
+        whole[whole.length - 1] = '\n';
+        // 305 bytes at 20 ms each would take 6 s; the deadline is 0.5 s plus 300 bytes at 1000 bytes/s
+        ScpiSession s = new ScpiSession("digitizer", new Trickle(20, whole), Duration.ofMillis(500));
+        s.setMinimumTransferRate(1000);
+        long start = System.nanoTime();
+        assertThatThrownBy(() -> s.queryBlock(":TRACe:DATA? CH1")).isInstanceOf(InstrumentException.class)
+                .hasMessageContaining("bytes received").hasMessageContaining("1000 bytes/s");
+        double ms = (System.nanoTime() - start) / 1e6;
+        assertThat(ms).isBetween(700.0, 4000.0);
+        // the same block arriving at a working link's pace is read whole
+        ScpiSession fast = new ScpiSession("digitizer", new Scripted(64, whole), Duration.ofMillis(500));
+        assertThat(fast.queryBlock(":TRACe:DATA? CH1")).hasSize(300);
+    }
 }

@@ -24,7 +24,15 @@ public final class InProcessProvider implements TransportProvider {
     @Override
     public void check(Address address) {
         address.requireOptions(Set.of("term"));
+        if (!NAMES.contains(address.target())) {
+            throw new org.lrbench.transport.AddressException("instrument address '" + address.text() + "': the simulated"
+                    + " bench has no instrument '" + address.target() + "'; it has " + String.join(", ", NAMES.stream()
+                    .map(n -> "sim://" + n).toList()));
+        }
     }
+
+    /** The instruments of the simulated bench, by their address names. */
+    public static final java.util.List<String> NAMES = java.util.List.of("generator", "digitizer", "switch", "meter");
 
     @Override
     public Transport open(Address address, Map<String, ?> simulated) {
