@@ -23,10 +23,11 @@ final class DigitizerTraitsReader {
         DigitizerTraits.Vertical vertical = g.vertical();
         YamlMap v = root.map("vertical", false, "setting", "divisions", "ranges");
         if (v != null) {
-            DigitizerTraits.VerticalSetting setting = v.choice("setting", true, Map.of(
+            DigitizerTraits.VerticalSetting setting = v.has("setting") ? v.choice("setting", true, Map.of(
                     "peak_to_peak", DigitizerTraits.VerticalSetting.PEAK_TO_PEAK,
                     "plus_minus", DigitizerTraits.VerticalSetting.PLUS_MINUS,
-                    "per_division", DigitizerTraits.VerticalSetting.PER_DIVISION));
+                    "per_division", DigitizerTraits.VerticalSetting.PER_DIVISION))
+                    : DigitizerTraits.VerticalSetting.PEAK_TO_PEAK; // as documented: peak-to-peak unless said
             Integer divisions = v.integer("divisions", setting == DigitizerTraits.VerticalSetting.PER_DIVISION, 1, 100);
             if (divisions != null && setting != DigitizerTraits.VerticalSetting.PER_DIVISION) {
                 v.problem("divisions", "only a per_division setting has divisions");

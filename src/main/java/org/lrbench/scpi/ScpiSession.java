@@ -104,7 +104,7 @@ public final class ScpiSession implements AutoCloseable {
             transport.write(message);
         } catch (IOException e) {
             throw new InstrumentException(instrument + " (" + transport.address() + "): sending '" + printable(command)
-                    + "' failed: " + e.getMessage(), e);
+                    + "' failed: " + cause(e), e);
         } finally {
             ioNanos += System.nanoTime() - start;
         }
@@ -152,7 +152,7 @@ public final class ScpiSession implements AutoCloseable {
         } catch (IOException e) {
             stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the reply to '"
-                    + command + "' failed after " + elapsedMillis(start) + " ms: " + e.getMessage(), e);
+                    + command + "' failed after " + elapsedMillis(start) + " ms: " + cause(e), e);
         } finally {
             ioNanos += System.nanoTime() - start;
         }
@@ -195,7 +195,7 @@ public final class ScpiSession implements AutoCloseable {
         } catch (IOException e) {
             stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the block reply to '"
-                    + command + "' failed after " + elapsedMillis(start) + " ms: " + e.getMessage(), e);
+                    + command + "' failed after " + elapsedMillis(start) + " ms: " + cause(e), e);
         } finally {
             ioNanos += System.nanoTime() - start;
         }
@@ -283,8 +283,24 @@ public final class ScpiSession implements AutoCloseable {
         try {
             return ScpiError.parse(reply);
         } catch (IllegalArgumentException e) {
-            throw new InstrumentException(instrument + ": " + e.getMessage());
+            throw new InstrumentException(instrument + ": " + e.getMessage() + (reply.trim().matches("[01]")
+                    ? " (it looks like an *OPC? reply that arrived late: is the driver's timeout shorter than the"
+                    + " operation it waits for?)" : " (a reply left over from an earlier query, or an error_query that"
+                    + " is not this instrument's)"));
         }
+    }
+
+    /** An I/O failure in words, also when it carries no message (a link refused or closed under us). */
+    static String cause(IOException e) {
+        if (e.getMessage() != null && !e.getMessage().isBlank()) {
+            return e.getMessage();
+        }
+        Throwable c = e.getCause();
+        if (c != null && c.getMessage() != null) {
+            return c.getClass().getSimpleName() + ": " + c.getMessage();
+        }
+        return e.getClass().getSimpleName() + " (the link was closed or refused by the other end: is the instrument"
+                + " on, at that address, and not held by another program?)";
     }
 
     private void flushLateReplies() {
@@ -405,8 +421,10 @@ public final class ScpiSession implements AutoCloseable {
                 end = nextByte();
             }
             if (end != terminator[i]) {
+                boolean otherTerminator = end == '\r' || end == '\n';
                 throw new BlockFormatException(after + " is followed by " + describe(end)
-                        + " instead of the terminator (declared length wrong?)");
+                        + " instead of the terminator" + (otherTerminator ? " (the instrument ends its messages"
+                        + " differently: set term=crlf, lf or cr in the address to match)" : " (declared length wrong?)"));
             }
         }
     }
