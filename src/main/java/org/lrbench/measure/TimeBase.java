@@ -20,7 +20,7 @@ final class TimeBase {
      */
     static Timing setWithRanges(Digitizer digitizer, AutoRanger ranger, double f, int cycles, int samplesPerCycle) {
         Request r = request(f, cycles, samplesPerCycle);
-        return check(digitizer, ranger.askWithTiming(r.intervalSecond(), r.points()), f, cycles, samplesPerCycle);
+        return check(digitizer, ranger.askWithTiming(r.intervalSecond(), r.points()), f, cycles, samplesPerCycle, r);
     }
 
     /** The interval and record length asked for. */
@@ -45,18 +45,44 @@ final class TimeBase {
         return 1.0 / (f * timing.sampleIntervalSecond()) >= samplesPerCycle * (1 - 1e-9) && captured >= cycles * (1 - 1e-9);
     }
 
-    /** The time base granted, or a second one where it misses the cycles or the samples per cycle. */
-    private static Timing check(Digitizer digitizer, Timing timing, double f, int cycles, int samplesPerCycle) {
-        if (!holds(timing, f, cycles, samplesPerCycle)) {
-            Timing again = digitizer.setTiming(timing.sampleIntervalSecond(),
-                    (int) Math.ceil(cycles / (f * timing.sampleIntervalSecond())));
-            if (1.0 / (f * again.sampleIntervalSecond()) < samplesPerCycle * 0.999) {
-                throw new MeasurementException(String.format(Locale.ROOT,
-                        "at %.6g Hz the digitizer's fastest interval %.3g s gives %.1f samples per cycle; the plan asks %d",
-                        f, again.sampleIntervalSecond(), 1.0 / (f * again.sampleIntervalSecond()), samplesPerCycle));
-            }
-            timing = again;
+    /** Further requests for a finer interval before the digitizer's best is taken as its limit. */
+    static final int FINER_TRIES = 6;
+
+    /**
+     * The time base granted, or another where it misses the cycles or the samples per cycle: first the
+     * granted interval with enough points for the cycles; where that interval is too coarse, a finer one
+     * asked for, scaled down by how far the last grant overshot what the plan needs, with the points for
+     * the cycles (an instrument that rounds its interval up to its own steps, or that derives it from a
+     * time window and a record length from its list, grants the finer step only when asked below it),
+     * until the interval holds, the grants stop improving or {@value #FINER_TRIES} more requests were made.
+     */
+    private static Timing check(Digitizer digitizer, Timing timing, double f, int cycles, int samplesPerCycle,
+                                Request asked) {
+        if (holds(timing, f, cycles, samplesPerCycle)) {
+            return timing;
         }
-        return timing;
+        Timing again = digitizer.setTiming(timing.sampleIntervalSecond(),
+                (int) Math.ceil(cycles / (f * timing.sampleIntervalSecond())));
+        if (holds(again, f, cycles, samplesPerCycle)) {
+            return again;
+        }
+        double needed = 1.0 / (f * samplesPerCycle);
+        Timing best = again;
+        double ask = asked.intervalSecond();
+        for (int i = 0; i < FINER_TRIES && best.sampleIntervalSecond() > needed * (1 + 1e-9); i++) {
+            ask = ask * Math.min(0.999, needed / best.sampleIntervalSecond()) * 0.999;
+            int points = (int) Math.min(Integer.MAX_VALUE - 1, Math.ceil(1.01 * cycles / (f * ask)) + 1);
+            Timing finer = digitizer.setTiming(ask, points);
+            if (holds(finer, f, cycles, samplesPerCycle)) {
+                return finer;
+            }
+            if (!(finer.sampleIntervalSecond() < best.sampleIntervalSecond() * (1 - 1e-9))) {
+                break; // asking finer gives nothing finer: this is the instrument's limit
+            }
+            best = finer;
+        }
+        throw new MeasurementException(String.format(Locale.ROOT, "at %.6g Hz the digitizer's finest interval %.3g s"
+                + " gives %.1f samples per cycle; the plan asks %d", f, best.sampleIntervalSecond(),
+                1.0 / (f * best.sampleIntervalSecond()), samplesPerCycle));
     }
 }
