@@ -17,11 +17,18 @@ import java.util.Map;
  * <li>{@link Timebase}: whether {@code {interval}} and its reply are a sample interval or a sample rate;</li>
  * <li>{@link Acquisition}: how the end of an acquisition is known ({@code *OPC?}, polling a status
  * query until it answers a value, or a fixed wait);</li>
- * <li>whether a definite-length trace block ends with the message terminator.</li>
+ * <li>whether a definite-length trace block ends with the message terminator;</li>
+ * <li>whether both channels' traces may be asked for in one message (two blocks in one response,
+ * separated by ';' as IEEE 488.2 separates response message units).</li>
  * </ul>
  */
 public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timebase, Acquisition acquisition,
-                              boolean blockTerminated) {
+                              boolean blockTerminated, boolean fetchTogether) {
+
+    public DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timebase, Acquisition acquisition,
+                           boolean blockTerminated) {
+        this(vertical, scaling, timebase, acquisition, blockTerminated, false);
+    }
 
     public static final DigitizerTraits GENERIC = new DigitizerTraits(new Vertical(VerticalSetting.PEAK_TO_PEAK, 1,
             List.of()), new Scaling(ScaleSource.SCALE_QUERY, Map.of(), Map.of(), 0, 0, null, null),

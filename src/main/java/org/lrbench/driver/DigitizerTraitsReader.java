@@ -184,7 +184,13 @@ final class DigitizerTraitsReader {
         }
         Boolean terminated = root.has("block_terminator") ? root.choice("block_terminator", true,
                 Map.of("yes", true, "no", false)) : Boolean.TRUE;
-        return new DigitizerTraits(vertical, scaling, timebase, acquisition, terminated == null || terminated);
+        Boolean together = root.has("fetch_together") ? root.choice("fetch_together", true,
+                Map.of("yes", true, "no", false)) : Boolean.FALSE;
+        if (Boolean.TRUE.equals(together) && (encoding == null || !encoding.isBinary())) {
+            root.problem("fetch_together", "only binary trace formats (one definite block per channel) fetch together");
+        }
+        return new DigitizerTraits(vertical, scaling, timebase, acquisition, terminated == null || terminated,
+                Boolean.TRUE.equals(together));
     }
 
     /** Digitizer operations a driver may leave out, given its traits. */

@@ -75,7 +75,7 @@ public final class DriverLoader {
         YamlMap root = YamlFile.read(file, problems,
                 "driver_format", "kind", "description", "identity", "timeout", "error_query",
                 "trace_format", "commands", "shapes", "couplings", "trigger_sources", "slopes",
-                "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator",
+                "vertical", "scaling", "timebase", "acquisition", "levels", "limits", "block_terminator", "fetch_together",
                 "frequency_settle", "arbitrary_encoding", "minimum_transfer_rate");
         root.integer("driver_format", true, 1, 1);
         DriverKind kind = root.choice("kind", true, Map.of("source", DriverKind.SOURCE, "digitizer", DriverKind.DIGITIZER,
@@ -106,7 +106,7 @@ public final class DriverLoader {
             traits = DigitizerTraitsReader.read(root, encoding);
         } else if (kind != null) {
             for (String digitizerOnly : List.of("trace_format", "vertical", "scaling", "timebase", "acquisition",
-                    "block_terminator")) {
+                    "block_terminator", "fetch_together")) {
                 if (root.has(digitizerOnly)) {
                     root.problem(digitizerOnly, "only digitizer drivers have " + digitizerOnly);
                 }

@@ -59,7 +59,8 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     private RangeLimits askRangeLimits(int channel) {
         List<Double> declared = traits.vertical().ranges();
         if (!declared.isEmpty()) {
-            return new RangeLimits(declared.get(0) / perPeakToPeak(), declared.get(declared.size() - 1) / perPeakToPeak());
+            return new RangeLimits(declared.get(0) / perPeakToPeak(), declared.get(declared.size() - 1) / perPeakToPeak(),
+                    declared.stream().map(r -> r / perPeakToPeak()).toList());
         }
         Map<String, String> ch = channel(channel);
         if (driver.has("range_list_query")) {
@@ -73,7 +74,8 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             if (!(min > 0)) {
                 throw new InstrumentException(session.instrument() + ": '" + query + "' answered a range of " + min);
             }
-            return new RangeLimits(min / perPeakToPeak(), max / perPeakToPeak());
+            return new RangeLimits(min / perPeakToPeak(), max / perPeakToPeak(),
+                    Arrays.stream(list).mapToObj(r -> r / perPeakToPeak()).toList());
         }
         // both in one message, one round trip
         String min = driver.command("range_min_query").render(ch);
@@ -379,9 +381,14 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                 pause(a.pause().toNanos());
             }
             case POLL -> {
-                session.configure(arm, driver.errorQuery());
+                // arming and the first poll in one message (with the error query: one round trip)
+                List<String> first = session.configure(arm + ";" + a.pollQuery(), driver.errorQuery());
+                String last = first.isEmpty() ? "" : first.get(first.size() - 1).trim();
+                if (last.equalsIgnoreCase(a.until())) {
+                    return;
+                }
+                pause(a.pause().toNanos());
                 long deadline = System.nanoTime() + driver.timeout().toNanos();
-                String last;
                 do {
                     last = session.query(a.pollQuery()).trim();
                     if (last.equalsIgnoreCase(a.until())) {
@@ -429,6 +436,42 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
         } catch (BlockFormatException e) {
             throw new InstrumentException(session.instrument() + ": trace from '" + fetchCommand + "': " + e.getMessage(), e);
         }
+        return trace(channel, fetchCommand, raw, scale, range, offset);
+    }
+
+    @Override
+    public Trace[] fetchBoth() {
+        TraceEncoding encoding = driver.traceEncoding();
+        if (!traits.fetchTogether() || !encoding.isBinary()) {
+            return Digitizer.super.fetchBoth();
+        }
+        double[][] scales = new double[3][];
+        for (int ch = 1; ch <= 2; ch++) {
+            if (ranges.get(ch) == null) {
+                throw new IllegalStateException("channel " + ch + " range was never set");
+            }
+            scales[ch] = scale(ch, ranges.get(ch), offsets.getOrDefault(ch, 0.0));
+        }
+        String one = driver.command("fetch").render(channel(1));
+        String two = driver.command("fetch").render(channel(2));
+        List<byte[]> blocks = session.queryBlocks(one + ";" + two, 2, traits.blockTerminated());
+        Trace[] out = new Trace[2];
+        for (int ch = 1; ch <= 2; ch++) {
+            String command = ch == 1 ? one : two;
+            double[] raw;
+            try {
+                raw = encoding.decode(blocks.get(ch - 1));
+            } catch (BlockFormatException e) {
+                throw new InstrumentException(session.instrument() + ": trace from '" + command + "': " + e.getMessage(), e);
+            }
+            out[ch - 1] = trace(ch, command, raw, scales[ch], ranges.get(ch), offsets.getOrDefault(ch, 0.0));
+        }
+        return out;
+    }
+
+    /** A channel's codes as a trace in volts, its clipped samples counted. */
+    private Trace trace(int channel, String fetchCommand, double[] raw, double[] scale, double range, double offset) {
+        TraceEncoding encoding = driver.traceEncoding();
         if (points > 0 && raw.length != points) {
             throw new InstrumentException(session.instrument() + ": '" + fetchCommand + "' returned " + raw.length
                     + " samples, the record length is " + points);

@@ -72,4 +72,9 @@ public interface Digitizer {
 
     /** Transfers one channel of the last record. */
     Trace fetch(int channel);
+
+    /** Both channels' traces of the last acquisition; a driver may ask for them in one message. */
+    default Trace[] fetchBoth() {
+        return new Trace[] {fetch(1), fetch(2)};
+    }
 }

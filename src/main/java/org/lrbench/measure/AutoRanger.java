@@ -29,7 +29,9 @@ import org.slf4j.LoggerFactory;
  * known too small), the present capture is kept: it is the fill the range set allows.</li>
  * </ul>
  * No request is made twice in one capture, and when ranging does not settle the error names every
- * range asked for and granted. Every request is a value of the {@link RangeLadder}.
+ * range asked for and granted. Every request is one of the instrument's ranges where it declares them
+ * (so it is granted as asked, one capture, however the instrument rounds), else a value of the
+ * {@link RangeLadder}.
  */
 public final class AutoRanger {
     private static final Logger LOG = LoggerFactory.getLogger(AutoRanger.class);
@@ -85,8 +87,9 @@ public final class AutoRanger {
         if (!enough.test(timing[0])) {
             return null;
         }
-        Trace t1 = digitizer.fetch(1);
-        Trace t2 = digitizer.fetch(2);
+        Trace[] both = digitizer.fetchBoth();
+        Trace t1 = both[0];
+        Trace t2 = both[1];
         boolean ok1 = judge(1, t1, lastGranted[1]);
         boolean ok2 = judge(2, t2, lastGranted[2]);
         if (ok1 && ok2) {
@@ -120,8 +123,9 @@ public final class AutoRanger {
                 granted[ch] = set(ch);
             }
             digitizer.acquire();
-            Trace t1 = digitizer.fetch(1);
-            Trace t2 = digitizer.fetch(2);
+            Trace[] both = digitizer.fetchBoth();
+            Trace t1 = both[0];
+            Trace t2 = both[1];
             // both channels are judged on every acquisition, so the capture returned is one whole acquisition
             boolean ok1 = judge(1, t1, granted[1]);
             boolean ok2 = judge(2, t2, granted[2]);
@@ -214,6 +218,16 @@ public final class AutoRanger {
         if (fill >= LOW_FILL || g <= lim.minVolt() * (1 + SAME)) {
             return true;
         }
+        if (!lim.steps().isEmpty()) {
+            // the instrument's ranges are known: the one that holds the excursion at the target fill is
+            // asked for only when it is smaller than the present one (no round trip to learn otherwise)
+            double r = clamp(ch, 2 * e / TARGET_FILL);
+            if (r >= g * (1 - SAME) || r <= tooSmall[ch] * (1 + SAME)) {
+                return true;
+            }
+            request[ch] = r;
+            return false;
+        }
         // ask for the range that would put the excursion at the target fill, stepping up past any
         // range the instrument grants that could not hold what was just measured (a round trip each,
         // no acquisition); the instrument's answer tells whether its range set has anything between
@@ -264,8 +278,9 @@ public final class AutoRanger {
         askBoth();
         double[] granted = {0, set(1), set(2)};
         digitizer.acquire();
+        Trace[] both = digitizer.fetchBoth();
         for (int ch = 1; ch <= 2; ch++) {
-            Trace t = digitizer.fetch(ch);
+            Trace t = both[ch - 1];
             boolean clipped = t.clippedSamples() > 0 || t.excursion() >= granted[ch] / 2 * (1 - SAME);
             request[ch] = clamp(ch, clipped ? granted[ch] * 10 : 2 * t.excursion() / TARGET_FILL);
         }
@@ -283,8 +298,15 @@ public final class AutoRanger {
         return request[ch];
     }
 
-    /** A request on the range ladder, within the channel's limits. */
+    /**
+     * A request within the channel's limits: the instrument's own range that holds it where its ranges
+     * are known (asked exactly, it is granted as asked however the instrument rounds), else a value of
+     * the range ladder.
+     */
     private double clamp(int ch, double r) {
+        if (!limits[ch].steps().isEmpty()) {
+            return limits[ch].stepAtLeast(Math.max(limits[ch].minVolt(), r));
+        }
         return Math.max(limits[ch].minVolt(), Math.min(limits[ch].maxVolt(), RangeLadder.up(r)));
     }
 }

@@ -202,6 +202,12 @@ public final class RangeLinkCapture {
     static List<Double> granted(Digitizer digitizer, int channel, double top) {
         RangeLimits lim = digitizer.rangeLimits(channel);
         TreeSet<Double> out = new TreeSet<>();
+        if (!lim.steps().isEmpty()) {
+            // the instrument's own ranges: those the ranger asks for
+            double upTo = lim.stepAtLeast(top);
+            lim.steps().stream().filter(r -> r <= upTo * (1 + 1e-9)).forEach(out::add);
+            return new ArrayList<>(out);
+        }
         double last = Double.NaN;
         double upTo = Math.min(lim.maxVolt(), RangeLadder.up(top));
         for (double r = RangeLadder.up(lim.minVolt()); r <= upTo * (1 + 1e-9); r = RangeLadder.next(r)) {

@@ -201,6 +201,55 @@ public final class ScpiSession implements AutoCloseable {
         }
     }
 
+    /**
+     * Sends one message of {@code count} block queries joined with ';' and reads their blocks, which
+     * the instrument separates with ';' in one response message (IEEE 488.2 response message units);
+     * the whole response has one deadline, the timeout plus every block's bytes at the slowest rate.
+     */
+    public synchronized List<byte[]> queryBlocks(String command, int count, boolean terminated) {
+        write(command);
+        queries++;
+        long start = System.nanoTime();
+        deadline = start + timeout.toNanos();
+        blockProgress = "its header not received";
+        List<byte[]> out = new ArrayList<>();
+        try {
+            for (int i = 0; i < count; i++) {
+                if (i > 0) {
+                    int sep = nextByte();
+                    if (sep != ';') {
+                        throw new BlockFormatException("block " + i + " of " + count + " is followed by " + describe(sep)
+                                + " instead of ';' (does the instrument answer several block queries in one message?"
+                                + " If not, leave out fetch_together)");
+                    }
+                }
+                out.add(readBlock(false));
+            }
+            if (terminated) {
+                expectTerminator(count + " blocks");
+            }
+            return out;
+        } catch (BlockFormatException e) {
+            stale = true;
+            flushLateReplies();
+            throw new InstrumentException(instrument + " (" + transport.address() + "): reply to '" + command
+                    + "' is not " + count + " valid blocks: " + e.getMessage(), e);
+        } catch (TransportTimeoutException e) {
+            stale = true;
+            flushLateReplies();
+            throw new InstrumentException(instrument + " (" + transport.address() + "): block reply to '" + command
+                    + "' incomplete after " + elapsedMillis(start) + " ms, " + out.size() + " of " + count + " blocks and "
+                    + blockProgress + " (timeout " + timeout.toMillis() + " ms, plus the blocks' bytes at "
+                    + Math.round(minimumBytesPerSecond) + " bytes/s at the slowest)", e);
+        } catch (IOException e) {
+            stale = true;
+            throw new InstrumentException(instrument + " (" + transport.address() + "): reading the block reply to '"
+                    + command + "' failed after " + elapsedMillis(start) + " ms: " + cause(e), e);
+        } finally {
+            ioNanos += System.nanoTime() - start;
+        }
+    }
+
     /** {@code *IDN?} parsed into its four fields. */
     public Identity identify() {
         String reply = query("*IDN?");

@@ -31,6 +31,8 @@ class TraceFormatTests {
             throws Exception {
         String text = Files.readString(TestBench.genericDigitizer())
                 .replace("trace_format: int8", "trace_format: " + format)
+                // text traces come one per message: the two channels' blocks together are for binary formats
+                .replaceAll("(?m)^fetch_together: yes.*$", format.startsWith("ascii") ? "fetch_together: no" : "fetch_together: yes")
                 .replace(":FORMat:DATA INTeger,8;:FORMat:BORDer NORMal", ":FORMat:DATA " + scpiFormat + ";:FORMat:BORDer " + order);
         Path driver = dir.resolve("d.yaml");
         Files.writeString(driver, text);
@@ -55,5 +57,12 @@ class TraceFormatTests {
             assertThat(v / lsb).isCloseTo(Math.rint(v / lsb), within(1e-4));
         }
         assertThat(t.peakToPeak()).isBetween(0.5 * range, 0.8 * range);
+        // both channels in one message (binary formats: two blocks separated by ';', IEEE 488.2 response
+        // message units) carry the same samples as one fetch per channel
+        long before = b.digitizerSession.queries();
+        Trace[] both = b.digitizer.fetchBoth();
+        assertThat(both[0].volts()).containsExactly(t.volts());
+        assertThat(both[1].volts()).containsExactly(b.digitizer.fetch(2).volts());
+        assertThat(b.digitizerSession.queries() - before).isEqualTo(format.startsWith("ascii") ? 3 : 2);
     }
 }

@@ -61,8 +61,9 @@ class RangeMemoryTests {
 
     /**
      * With a settle already over when a point is captured (the circuit rule's microseconds), a
-     * part after the first sends each point's time base in its acquisition's message: three round
-     * trips to the digitizer per point (acquire, two fetches) where the first part takes four, and
+     * part after the first sends each point's time base in its acquisition's message: two round
+     * trips to the digitizer per point (acquire, both channels' traces in one message) where the first
+     * part takes three, and
      * the same L (common practice, no source: 0.5 % as above).
      */
     @Test
@@ -85,8 +86,8 @@ class RangeMemoryTests {
             // from the second point's report to the third's: one point's capture (reports come a point late)
             trips[k] = atPoint[2] - atPoint[1];
         }
-        assertThat(trips[0]).as("first part, time base on its own").isEqualTo(4);
-        assertThat(trips[1]).as("next part, time base with the acquisition").isEqualTo(3);
+        assertThat(trips[0]).as("first part, time base on its own").isEqualTo(3);
+        assertThat(trips[1]).as("next part, time base with the acquisition").isEqualTo(2);
         assertThat(model(parts[1]).inductanceHenry()).isCloseTo(1e-3, within(0.005e-3));
     }
 }
