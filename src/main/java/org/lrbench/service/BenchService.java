@@ -240,6 +240,9 @@ public final class BenchService implements AutoCloseable {
                 r.state = "error";
                 r.reason = e.getMessage();
                 r.events.add("error", Map.of("reason", String.valueOf(e.getMessage())));
+            } finally {
+                // the run's last event is out: every event stream of it ends
+                r.events.end();
             }
         }, "lrbench-run-" + q.lot());
         r.thread.setDaemon(true);

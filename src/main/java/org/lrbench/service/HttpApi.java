@@ -175,6 +175,8 @@ public final class HttpApi implements AutoCloseable {
                 json(ctx, HttpResponseStatus.OK, Map.of("plans", service.plans()));
             } else if (m == HttpMethod.POST && path.equals("/api/runs")) {
                 JsonNode b = body(req);
+                onlyKeys(b, "plan", "lot", "lot_size", "tray", "operator", "reinspect_reason", "override_check_reason",
+                        "supplier");
                 String plan = text(b, "plan", true);
                 String lot = text(b, "lot", true);
                 if (!Names.valid(lot)) {
@@ -219,6 +221,7 @@ public final class HttpApi implements AutoCloseable {
                 events(ctx, service.currentOr404().events, after);
             } else if (m == HttpMethod.POST && path.equals("/api/runs/current/answer")) {
                 JsonNode b = body(req);
+                onlyKeys(b, "prompt", "action", "serial", "reason");
                 JsonNode prompt = b.get("prompt");
                 if (prompt == null || !prompt.isIntegralNumber() || prompt.asLong() < 1) {
                     throw new ServiceException(400, "prompt: the id of the prompt being answered (a whole number,"
@@ -340,7 +343,9 @@ public final class HttpApi implements AutoCloseable {
                 }
             };
             ch.closeFuture().addListener(f -> events.unsubscribe(subscriber));
-            events.subscribe(subscriber, after);
+            // the run over: the stream ends after its last event (a client does not wait on a finished run)
+            events.subscribe(subscriber, after, () -> ch.writeAndFlush(Unpooled.EMPTY_BUFFER)
+                    .addListener(io.netty.channel.ChannelFutureListener.CLOSE));
         }
 
         private JsonNode body(FullHttpRequest req) {
@@ -355,6 +360,17 @@ public final class HttpApi implements AutoCloseable {
                 String why = e.getMessage() != null && e.getMessage().startsWith("Duplicate field")
                         ? e.getMessage().lines().findFirst().orElse("") : "not valid JSON";
                 throw new ServiceException(400, "body: " + why);
+            }
+        }
+
+        /** A body's keys must be among these, as a plan's are: a misspelt key is refused, never ignored. */
+        private void onlyKeys(JsonNode b, String... allowed) {
+            List<String> known = List.of(allowed);
+            for (var it = b.fieldNames(); it.hasNext(); ) {
+                String key = it.next();
+                if (!known.contains(key)) {
+                    throw new ServiceException(400, key + ": unknown key; allowed: " + String.join(", ", known));
+                }
             }
         }
 

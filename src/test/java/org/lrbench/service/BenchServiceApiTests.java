@@ -182,12 +182,10 @@ class BenchServiceApiTests {
                     HttpResponse.BodyHandlers.ofInputStream());
             try (BufferedReader r = new BufferedReader(new InputStreamReader(stream.body(), StandardCharsets.UTF_8))) {
                 String line;
+                // the run is over: the stream ends by itself after its last event (readLine gives null)
                 while ((line = r.readLine()) != null) {
                     if (line.startsWith("event: ")) {
                         types.add(line.substring(7));
-                        if (line.equals("event: lot_done")) {
-                            break;
-                        }
                     }
                 }
             }
@@ -204,11 +202,14 @@ class BenchServiceApiTests {
                     if (line.startsWith("id: ")) {
                         ids.add(line.substring(4));
                     }
-                    if (line.equals("event: lot_done")) {
-                        break;
-                    }
                 }
             }
+            // and a Last-Event-ID past the end gets an empty stream that ends
+            HttpResponse<String> past = http.send(HttpRequest.newBuilder(
+                    URI.create("http://127.0.0.1:" + port + "/api/runs/current/events"))
+                    .header("Last-Event-ID", String.valueOf(total + 5)).timeout(Duration.ofSeconds(10)).build(),
+                    HttpResponse.BodyHandlers.ofString());
+            assertThat(past.body()).doesNotContain("event:");
             assertThat(ids).containsExactly(String.valueOf(total - 1), String.valueOf(total));
             assertThat(types).filteredOn("part_done"::equals).hasSize(5);
             assertThat(types).filteredOn("point"::equals).hasSize(5 * 7);
@@ -273,6 +274,16 @@ class BenchServiceApiTests {
             assertThat(json(malformed).get("error").asText()).isEqualTo("body: not valid JSON");
             HttpResponse<String> size = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\",\"lot\":\"L\"}", null);
             assertThat(json(size).get("error").asText()).startsWith("lot_size:");
+            // a misspelt key is refused naming it, as in a plan, never ignored (the lot would go to the plan's supplier)
+            HttpResponse<String> misspelt = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\",\"tray\":\"demo-lot.yaml\","
+                    + "\"suplier\":\"Other Supplier Ltd\"}", null);
+            assertThat(misspelt.statusCode()).isEqualTo(400);
+            assertThat(json(misspelt).get("error").asText()).startsWith("suplier: unknown key").contains("supplier");
+            HttpResponse<String> answerKey = call(port, "POST", "/api/runs/current/answer",
+                    "{\"prompt\":1,\"serail\":\"X\"}", null);
+            assertThat(answerKey.statusCode()).isEqualTo(400);
+            assertThat(json(answerKey).get("error").asText()).startsWith("serail: unknown key");
             HttpResponse<String> big = call(port, "POST", "/api/runs", "{\"x\":\"" + "a".repeat(100_000) + "\"}", null);
             assertThat(big.statusCode()).isEqualTo(413);
             assertThat(call(port, "GET", "/api/lots/..%2F..%2Fetc", null, null).statusCode()).isIn(400, 404);
@@ -361,6 +372,16 @@ class BenchServiceApiTests {
                     + "\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\"}", null);
             assertThat(noTray.statusCode()).isEqualTo(400);
             assertThat(json(noTray).get("error").asText()).startsWith("tray:").contains("simulated tray");
+            // a misspelt key is refused naming it, as in a plan, never ignored (the lot would go to the plan's supplier)
+            HttpResponse<String> misspelt = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\",\"tray\":\"demo-lot.yaml\","
+                    + "\"suplier\":\"Other Supplier Ltd\"}", null);
+            assertThat(misspelt.statusCode()).isEqualTo(400);
+            assertThat(json(misspelt).get("error").asText()).startsWith("suplier: unknown key").contains("supplier");
+            HttpResponse<String> answerKey = call(port, "POST", "/api/runs/current/answer",
+                    "{\"prompt\":1,\"serail\":\"X\"}", null);
+            assertThat(answerKey.statusCode()).isEqualTo(400);
+            assertThat(json(answerKey).get("error").asText()).startsWith("serail: unknown key");
             HttpResponse<String> big = call(port, "POST", "/api/runs", "{\"x\":\"" + "a".repeat(100_000) + "\"}", null);
             assertThat(big.statusCode()).isEqualTo(413);
             assertThat(json(big).get("error").asText()).contains("larger than");
