@@ -1,6 +1,7 @@
 package org.lrbench.cli;
 
 import java.time.Instant;
+import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.lrbench.results.Names;
@@ -29,8 +30,9 @@ final class SchemeCommand implements Callable<Integer> {
     @Parameters(index = "0", arity = "0..1", paramLabel = "PART", description = "the part number")
     String part;
 
-    @Option(names = "--supplier", paramLabel = "NAME", defaultValue = "",
-            description = "the supplier (default: none named, as lots of plans without a supplier key)")
+    @Option(names = "--supplier", paramLabel = "NAME",
+            description = {"the supplier (default: the part's one supplier in the store; a part from several needs",
+                    "this; --supplier \"\" for lots of plans without a supplier key)"})
     String supplier;
 
     @Option(names = "--set", paramLabel = "SEVERITY", description = "record a decision: normal, tightened, reduced or"
@@ -61,16 +63,15 @@ final class SchemeCommand implements Callable<Integer> {
             }
             return ExitCodes.PASS;
         }
-        if (Names.supplierProblem(supplier) != null) {
+        if (supplier != null && Names.supplierProblem(supplier) != null) {
             throw new BadInputException("--" + Names.supplierProblem(supplier));
         }
-        String sup = supplier.trim();
         if (set == null) {
             if (reason != null || override) {
                 throw new BadInputException("--reason and --override go with --set");
             }
             try (ResultStore store = location.openForReading()) {
-                print(part, sup, store);
+                print(part, supplierOf(store), store);
             }
             return ExitCodes.PASS;
         }
@@ -83,6 +84,7 @@ final class SchemeCommand implements Callable<Integer> {
         }
         String who = operator != null ? operator : System.getProperty("user.name", "unknown");
         try (ResultStore store = location.open()) {
+            String sup = supplierOf(store);
             try {
                 store.decideScheme(part, sup, to, reason.trim(), who, override, Instant.now().toString());
             } catch (IllegalArgumentException e) {
@@ -93,6 +95,23 @@ final class SchemeCommand implements Callable<Integer> {
             print(part, sup, store);
         }
         return ExitCodes.PASS;
+    }
+
+    /**
+     * The supplier asked about: the one given, else the part's one supplier in the store (as its plan names
+     * it); a part the store has from several suppliers needs --supplier.
+     */
+    private String supplierOf(ResultStore store) {
+        if (supplier != null) {
+            return supplier.trim();
+        }
+        List<String> known = store.schemes().stream().filter(k -> k[0].equals(part)).map(k -> k[1]).distinct().toList();
+        if (known.size() > 1) {
+            throw new BadInputException(part + " comes from " + known.size() + " suppliers in the store: " + String.join(", ",
+                    known.stream().map(k -> k.isEmpty() ? "(no supplier named)" : "'" + k + "'").toList())
+                    + "; give --supplier NAME");
+        }
+        return known.isEmpty() ? "" : known.get(0);
     }
 
     private static void print(String part, String supplier, ResultStore store) {

@@ -18,7 +18,9 @@ public record LimitResult(Limit limit, double value, double uncertainty, double 
         String v = Units.format(value, d);
         String guard = limit.rule() == DecisionRule.GUARDED ? " (guarded acceptance limit)" : "";
         if (note != null) {
-            return limit.name() + " " + note + (pass ? " (" + limit.describeBounds() + ")" : ", required "
+            // a note qualifies the value (its temperature, a bound only): the value itself stays in the reason
+            String reads = Double.isFinite(value) && !note.startsWith("above") ? " " + v : "";
+            return limit.name() + " " + note + reads + (pass ? " (" + limit.describeBounds() + ")" : ", required "
                     + limit.describeBounds());
         }
         if (value < acceptanceLower) {

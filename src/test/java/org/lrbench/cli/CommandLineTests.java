@@ -264,6 +264,14 @@ class CommandLineTests {
         assertThat(lotRun(dir, "S3", "40", "--supplier", "Brackwater").out()).contains("normal inspection");
         Outcome list = run("scheme", "--data", data);
         assertThat(list.out()).contains("Brackwater").contains("normal");
+        // without --supplier: the part's one supplier in the store, not the no-supplier scheme
+        Outcome inferred = run("scheme", "QFD-IND-1M0", "--data", data);
+        assertThat(inferred.code()).isZero();
+        assertThat(inferred.out()).contains("Brackwater").contains("normal inspection");
+        assertThat(lotRun(dir, "S5", "40", "--supplier", "Other Coil Works").code()).isEqualTo(1);
+        Outcome ambiguous = run("scheme", "QFD-IND-1M0", "--data", data);
+        assertThat(ambiguous.code()).isEqualTo(2);
+        assertThat(ambiguous.err()).contains("2 suppliers").contains("'Brackwater'").contains("--supplier");
         Outcome twoLines = lotRun(dir, "S4", "40", "--supplier", "Brack\nwater");
         assertThat(twoLines.code()).isEqualTo(2);
         assertThat(twoLines.err()).contains("--supplier: a supplier's name is one line");
