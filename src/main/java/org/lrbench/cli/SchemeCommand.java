@@ -35,6 +35,10 @@ final class SchemeCommand implements Callable<Integer> {
                     "this; --supplier \"\" for lots of plans without a supplier key)"})
     String supplier;
 
+    @Option(names = "--simulated", description = "the simulated bench's scheme (its lots are kept apart from real"
+            + " ones and steer no real supplier's scheme)")
+    boolean simulated;
+
     @Option(names = "--set", paramLabel = "SEVERITY", description = "record a decision: normal, tightened, reduced or"
             + " discontinued")
     String set;
@@ -60,6 +64,15 @@ final class SchemeCommand implements Callable<Integer> {
                     System.out.printf(Locale.ROOT, "%-20s %-28s %-12s score %d%n", k[0], k[1].isEmpty() ? "(no supplier)" : k[1],
                             s.severity().word(), s.score());
                 }
+                List<String[]> simulated = store.schemes(true);
+                if (!simulated.isEmpty()) {
+                    System.out.println("simulated bench (apart: these lots steer no real supplier's scheme):");
+                    for (String[] k : simulated) {
+                        SwitchingRules.State s = SwitchingRules.replay(store.schemeHistory(k[0], k[1], true));
+                        System.out.printf(Locale.ROOT, "%-20s %-28s %-12s score %d%n", k[0], k[1].isEmpty() ? "(no supplier)"
+                                : k[1], s.severity().word(), s.score());
+                    }
+                }
             }
             return ExitCodes.PASS;
         }
@@ -71,7 +84,7 @@ final class SchemeCommand implements Callable<Integer> {
                 throw new BadInputException("--reason and --override go with --set");
             }
             try (ResultStore store = location.openForReading()) {
-                print(part, supplierOf(store), store);
+                print(part, supplierOf(store), store, simulated);
             }
             return ExitCodes.PASS;
         }
@@ -86,13 +99,13 @@ final class SchemeCommand implements Callable<Integer> {
         try (ResultStore store = location.open()) {
             String sup = supplierOf(store);
             try {
-                store.decideScheme(part, sup, to, reason.trim(), who, override, Instant.now().toString());
+                store.decideScheme(part, sup, to, reason.trim(), who, override, Instant.now().toString(), simulated);
             } catch (IllegalArgumentException e) {
                 throw new BadInputException(e.getMessage() + (override ? "" : " (give --override to set it anyway,"
                         + " recorded as an override)"));
             }
             System.out.println("recorded: " + to.word() + " inspection" + (override ? " (override)" : "") + ", by " + who);
-            print(part, sup, store);
+            print(part, sup, store, simulated);
         }
         return ExitCodes.PASS;
     }
@@ -105,7 +118,7 @@ final class SchemeCommand implements Callable<Integer> {
         if (supplier != null) {
             return supplier.trim();
         }
-        List<String> known = store.schemes().stream().filter(k -> k[0].equals(part)).map(k -> k[1]).distinct().toList();
+        List<String> known = store.schemes(simulated).stream().filter(k -> k[0].equals(part)).map(k -> k[1]).distinct().toList();
         if (known.size() > 1) {
             throw new BadInputException(part + " comes from " + known.size() + " suppliers in the store: " + String.join(", ",
                     known.stream().map(k -> k.isEmpty() ? "(no supplier named)" : "'" + k + "'").toList())
@@ -114,8 +127,11 @@ final class SchemeCommand implements Callable<Integer> {
         return known.isEmpty() ? "" : known.get(0);
     }
 
-    private static void print(String part, String supplier, ResultStore store) {
-        var history = store.schemeHistory(part, supplier);
+    private static void print(String part, String supplier, ResultStore store, boolean simulated) {
+        if (simulated) {
+            System.out.println("the simulated bench's scheme (apart from the real supplier's):");
+        }
+        var history = store.schemeHistory(part, supplier, simulated);
         SwitchingRules.State s = SwitchingRules.replay(history);
         System.out.printf(Locale.ROOT, "%s, %s: %s inspection%n", part, supplier.isEmpty() ? "no supplier named"
                 : "supplier " + supplier, s.severity().word());

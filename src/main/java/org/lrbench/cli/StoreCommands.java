@@ -112,10 +112,11 @@ final class StoreCommands {
                             String.valueOf(l.passed()), String.valueOf(l.failed()), String.valueOf(l.errors()),
                             String.valueOf(l.skipped()), String.valueOf(l.attempts()),
                             l.disposition() == null ? "open" : l.disposition().word(),
-                            l.severity() == null ? "normal" : l.severity(), l.supplier() == null ? "" : l.supplier()));
+                            l.severity() == null ? "normal" : l.severity(), l.supplier() == null ? "" : l.supplier(),
+                            l.simulated() ? "simulated" : "real"));
                 }
                 print(List.of("lot", "inspection", "part_number", "started", "lot_size", "sample", "measured", "pass",
-                        "fail", "error", "skipped", "attempts", "disposition", "severity", "supplier"), rows);
+                        "fail", "error", "skipped", "attempts", "disposition", "severity", "supplier", "bench_kind"), rows);
             }
             return ExitCodes.PASS;
         }
@@ -160,18 +161,23 @@ final class StoreCommands {
         @Parameters(index = "0", paramLabel = "PART_NUMBER")
         String partNumber;
 
+        @picocli.CommandLine.Option(names = "--simulated", description = "the lots measured on the simulated bench"
+                + " (default: real lots only; the two are never mixed)")
+        boolean simulated;
+
         @Override
         public Integer call() throws Exception {
             try (ResultStore s = open()) {
                 List<List<String>> rows = new ArrayList<>();
-                for (LotStatistics l : s.history(partNumber)) {
+                for (LotStatistics l : s.history(partNumber, simulated)) {
                     rows.add(List.of(l.lot(), String.valueOf(l.round()), l.createdAt(), l.disposition() == null ? "open" : l.disposition().word(),
                             String.valueOf(l.measured()), num(Double.isNaN(l.yield()) ? null : 100 * l.yield(), "%.1f"),
                             full(l.meanInductanceH()), full(l.sdInductanceH()),
                             full(l.meanResistanceOhm()), full(l.sdResistanceOhm())));
                 }
                 if (rows.isEmpty()) {
-                    throw new BadInputException("no lots of part number " + partNumber + " in the store");
+                    throw new BadInputException("no " + (simulated ? "simulated" : "real") + " lots of part number "
+                            + partNumber + " in the store" + (simulated ? "" : " (--simulated lists the simulated bench's)"));
                 }
                 print(List.of("lot", "inspection", "started", "disposition", "measured", "yield_percent", "mean_inductance_h",
                         "sd_inductance_h", "mean_series_resistance_ohm", "sd_series_resistance_ohm"), rows, Map.of(

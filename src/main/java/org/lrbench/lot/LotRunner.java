@@ -113,7 +113,7 @@ public final class LotRunner {
             return new LotTerms(template.lot(), plan.partNumber(), plan.source(), template.planSha256(),
                     template.bench().name(), lotSize, sampleSize(), sampling().describe(), operator, scheme.supplier(),
                     scheme.severity() == null ? null : scheme.severity().word(), scheme.why(),
-                    ClassPlan.of(lotSize, sampling()));
+                    ClassPlan.of(lotSize, sampling())).simulatedBench(template.simulated());
         }
 
         public int sampleSize() {
@@ -323,7 +323,10 @@ public final class LotRunner {
             why = stored.severity() == null ? "started before the switching rules were recorded (normal inspection)"
                     : stored.severityReason();
         } else {
-            SwitchingRules.State st = s.ledger().scheme(plan.partNumber(), sc.supplier());
+            // a lot on the simulated bench follows the simulated lots' scheme, never the real supplier's
+            SwitchingRules.State st = s.template().simulated()
+                    ? s.ledger().scheme(plan.partNumber(), sc.supplier(), true)
+                    : s.ledger().scheme(plan.partNumber(), sc.supplier());
             if (st.severity() == Severity.DISCONTINUED) {
                 throw new LotRefused(LotRefused.Kind.CONFLICT, "inspection of " + plan.partNumber() + schemeName(sc) + " is discontinued: " + st.why()
                         + ". A new lot starts only after a recorded decision restarts inspection (lrbench scheme "

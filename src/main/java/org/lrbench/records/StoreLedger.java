@@ -134,6 +134,11 @@ public final class StoreLedger implements LotLedger {
         return SwitchingRules.replay(store.schemeHistory(partNumber, supplier));
     }
 
+    @Override
+    public SwitchingRules.State scheme(String partNumber, String supplier, boolean simulated) {
+        return SwitchingRules.replay(store.schemeHistory(partNumber, supplier, simulated));
+    }
+
     /**
      * Puts back what a crash between a commit and the files' final names left undone: a missing
      * result JSON is written again from the store (it holds the full record); a missing trace

@@ -57,11 +57,12 @@ public final class LotReport {
         StringBuilder h = new StringBuilder();
         h.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>Inspection record, lot ")
                 .append(esc(lot)).append("</title><style>").append(CSS).append("</style></head><body>\n");
-        boolean simulated = parts.stream().anyMatch(PartResult::simulated);
+        boolean simulated = l.simulated() || parts.stream().anyMatch(PartResult::simulated);
         if (simulated) {
             h.append("<div class=\"banner\" id=\"simulated\">SIMULATED BENCH: parts of this lot were measured on the"
                     + " simulated bench, not on instruments. These results show how the plan behaves; they are not"
-                    + " measurements of real parts.</div>\n");
+                    + " measurements of real parts, and the lot counts toward no real supplier's scheme or"
+                    + " history.</div>\n");
         }
         h.append("<h1>Inspection record: lot ").append(esc(lot)).append(" &mdash; ").append(esc(l.partNumber()))
                 .append("</h1>\n");
@@ -106,7 +107,8 @@ public final class LotReport {
         perPart(h, parts);
         attempts(h, inspections, attempts);
         impedance(h, parts);
-        history(h, store.history(l.partNumber()), l.partNumber());
+        // the history of the lot's own kind: a simulated lot's report shows simulated lots, a real one real lots
+        history(h, store.history(l.partNumber(), l.simulated()), l.partNumber());
         signOff(h, disp);
         h.append("<p class=\"foot\">Written by lrbench from the results store. Hash chain head SHA-256 ")
                 .append(esc(String.valueOf(store.chainHead(lot)))).append("; check the records with lrbench verify.</p>")

@@ -54,4 +54,12 @@ public interface LotLedger {
 
     /** Where a part number's scheme with a supplier stands under the switching rules. */
     SwitchingRules.State scheme(String partNumber, String supplier);
+
+    /** A supplier's scheme of real lots, or of lots on the simulated bench (the two never mix). */
+    default SwitchingRules.State scheme(String partNumber, String supplier, boolean simulated) {
+        if (simulated) {
+            throw new UnsupportedOperationException("this ledger keeps no simulated schemes");
+        }
+        return scheme(partNumber, supplier);
+    }
 }

@@ -16,7 +16,21 @@ import org.lrbench.sampling.ClassPlan;
  */
 public record LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench,
                        Integer lotSize, Integer sampleSize, String sampling, String operator, String supplier,
-                       String severity, String severityReason, List<ClassPlan> classPlans) {
+                       String severity, String severityReason, List<ClassPlan> classPlans, boolean simulated) {
+
+    /** Terms of a lot on a real bench. */
+    public LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench, Integer lotSize,
+                    Integer sampleSize, String sampling, String operator, String supplier, String severity,
+                    String severityReason, List<ClassPlan> classPlans) {
+        this(lot, partNumber, planPath, planSha256, bench, lotSize, sampleSize, sampling, operator, supplier, severity,
+                severityReason, classPlans, false);
+    }
+
+    /** The same terms for a lot measured on the simulated bench (or not). */
+    public LotTerms simulatedBench(boolean s) {
+        return new LotTerms(lot, partNumber, planPath, planSha256, bench, lotSize, sampleSize, sampling, operator, supplier,
+                severity, severityReason, classPlans, s);
+    }
 
     /** Terms without the class plans as data (records from before they were kept). */
     public LotTerms(String lot, String partNumber, String planPath, String planSha256, String bench, Integer lotSize,
@@ -38,6 +52,7 @@ public record LotTerms(String lot, String partNumber, String planPath, String pl
         differ(out, "plan content (SHA-256)", shortHash(planSha256), shortHash(given.planSha256));
         differ(out, "part number", partNumber, given.partNumber);
         differ(out, "bench", bench, given.bench);
+        differ(out, "simulated bench", simulated ? "yes" : "no", given.simulated ? "yes" : "no");
         differ(out, "lot size", lotSize, given.lotSize);
         differ(out, "sample size", sampleSize, given.sampleSize);
         differ(out, "sampling", sampling, given.sampling);

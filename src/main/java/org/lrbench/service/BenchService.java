@@ -98,7 +98,9 @@ public final class BenchService implements AutoCloseable {
                     m.put("lot_sampling", p.sampling() != null);
                     if (p.sampling() != null) {
                         String supplier = p.supplier() == null ? "" : p.supplier();
-                        SwitchingRules.State s = SwitchingRules.replay(store.schemeHistory(p.partNumber(), supplier));
+                        // this bench's lots follow the simulated scheme when it is the simulated bench
+                        SwitchingRules.State s = SwitchingRules.replay(store.schemeHistory(p.partNumber(), supplier,
+                                bench.simulation() != null));
                         m.put("supplier", supplier);
                         m.put("severity", s.severity().word());
                         m.put("severity_reason", s.why());

@@ -38,6 +38,10 @@ public final class Canonical {
             // terms stored since the class plans are kept as data (schema 5); earlier terms keep their content
             a.add(ClassPlansJson.text(t.classPlans()));
         }
+        if (t.simulated()) {
+            // a lot of the simulated bench says so in its chained content (schema 6); real lots keep theirs
+            a.add("simulated");
+        }
         return text(a);
     }
 

@@ -61,7 +61,7 @@ final class InspectionRows {
         LotTerms t = i.terms();
         try (PreparedStatement p = store.db.prepareStatement("INSERT INTO inspection (lot, round, part_number, plan_path,"
                 + " plan_sha256, bench, lot_size, sample_size, sampling, operator, reason, created_at, supplier, severity,"
-                + " severity_reason, class_plans) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                + " severity_reason, class_plans, simulated) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
             p.setString(1, t.lot());
             p.setInt(2, i.round());
             p.setString(3, t.partNumber());
@@ -78,6 +78,7 @@ final class InspectionRows {
             p.setString(14, t.severity());
             p.setString(15, t.severityReason());
             p.setString(16, ClassPlansJson.text(t.classPlans()));
+            p.setInt(17, t.simulated() ? 1 : 0);
             p.executeUpdate();
         }
         store.chain.append(t.lot(), "terms", i.round(), null, null, Canonical.sha256(Canonical.terms(i)));
@@ -96,7 +97,7 @@ final class InspectionRows {
 
     private static final String INSPECTION_COLUMNS = "lot, round, part_number, plan_path, plan_sha256, bench, lot_size,"
             + " sample_size, sampling, operator, reason, created_at, disposition, disposition_reason, finished_at, supplier,"
-            + " severity, severity_reason, switching_step, reinstates_normal, class_plans";
+            + " severity, severity_reason, switching_step, reinstates_normal, class_plans, simulated";
 
     List<Inspection> inspections(String lot) throws SQLException {
         String sql = "SELECT " + INSPECTION_COLUMNS + " FROM inspection" + (lot == null ? "" : " WHERE lot = ?")
@@ -131,7 +132,7 @@ final class InspectionRows {
     private static Inspection inspection(ResultSet r) throws SQLException {
         LotTerms t = new LotTerms(r.getString(1), r.getString(3), r.getString(4), r.getString(5), r.getString(6),
                 StoreDb.whole(r, 7), StoreDb.whole(r, 8), r.getString(9), r.getString(10), r.getString(16), r.getString(17),
-                r.getString(18), ClassPlansJson.read(r.getString(21), r.getString(1)));
+                r.getString(18), ClassPlansJson.read(r.getString(21), r.getString(1)), r.getInt(22) != 0);
         Integer reinstates = StoreDb.whole(r, 20);
         return new Inspection(t, r.getInt(2), r.getString(11), r.getString(12), disposition(r.getString(13), t.lot()),
                 r.getString(14),

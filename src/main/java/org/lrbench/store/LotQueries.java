@@ -82,7 +82,7 @@ final class LotQueries {
         return new LotRecord(t.lot(), i.round(), t.partNumber(), t.planPath(), t.planSha256(), t.bench(), t.lotSize(),
                 t.sampleSize(), t.sampling(), t.operator(), i.reason(), i.createdAt(), i.disposition(),
                 i.dispositionReason(), i.finishedAt(), passed + failed + errors, passed, failed, errors, skipped, all.size(),
-                t.supplier(), t.severity(), t.severityReason(), t.classPlans());
+                t.supplier(), t.severity(), t.severityReason(), t.classPlans(), t.simulated());
     }
 
     private static int count(List<Attempt> as, Verdict verdict) {
@@ -95,11 +95,16 @@ final class LotQueries {
      * attempts that count.
      */
     public List<LotStatistics> history(String partNumber) {
+        return history(partNumber, false);
+    }
+
+    /** As above, of real lots only, or of lots on the simulated bench only: the two are never mixed. */
+    public List<LotStatistics> history(String partNumber, boolean simulated) {
         List<LotStatistics> out = new ArrayList<>();
         try {
             Map<String, List<Attempt>> byRound = summaries(null);
             for (Inspection i : inspections.inspections(null)) {
-                if (!i.terms().partNumber().equals(partNumber)) {
+                if (!i.terms().partNumber().equals(partNumber) || i.terms().simulated() != simulated) {
                     continue;
                 }
                 List<Attempt> judged = Attempt.counting(byRound.getOrDefault(i.lot() + "\n" + i.round(), List.of()))

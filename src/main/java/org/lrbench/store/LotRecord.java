@@ -16,5 +16,5 @@ public record LotRecord(String lot, int round, String partNumber, String planPat
                         Integer lotSize, Integer sampleSize, String sampling, String operator, String reason,
                         String createdAt, LotDisposition.State disposition, String dispositionReason, String finishedAt,
                         int measured, int passed, int failed, int errors, int skipped, int attempts, String supplier,
-                        String severity, String severityReason, List<ClassPlan> classPlans) {
+                        String severity, String severityReason, List<ClassPlan> classPlans, boolean simulated) {
 }

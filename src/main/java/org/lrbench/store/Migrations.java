@@ -75,5 +75,10 @@ final class Migrations {
                             + " operator TEXT, override INTEGER NOT NULL, PRIMARY KEY (part_number, supplier, seq))"),
             // step 5: each inspection's sampling plans per class as data (n, Ac, Re under its severity)
             List.of(
-                    "ALTER TABLE inspection ADD COLUMN class_plans TEXT"));
+                    "ALTER TABLE inspection ADD COLUMN class_plans TEXT"),
+            // step 6: whether an inspection was measured on the simulated bench: such lots never count
+            // toward a real supplier's scheme, history or statistics (earlier lots stay as recorded: real)
+            List.of(
+                    "ALTER TABLE inspection ADD COLUMN simulated INTEGER NOT NULL DEFAULT 0",
+                    "ALTER TABLE scheme_decision ADD COLUMN simulated INTEGER NOT NULL DEFAULT 0"));
 }

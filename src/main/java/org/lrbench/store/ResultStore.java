@@ -119,6 +119,11 @@ public final class ResultStore implements AutoCloseable {
         return schemes.schemeHistory(partNumber, supplier);
     }
 
+    /** A supplier's scheme of real lots, or of lots on the simulated bench (the two never mix). */
+    public List<SwitchingRules.Event> schemeHistory(String partNumber, String supplier, boolean simulated) {
+        return schemes.schemeHistory(partNumber, supplier, simulated);
+    }
+
     /**
      * Records a decision on a supplier's scheme: the severity a person sets, why, and whether it
      * overrides the rules. Without override the rules must allow it ({@link SwitchingRules#refusal});
@@ -129,9 +134,20 @@ public final class ResultStore implements AutoCloseable {
         return schemes.decideScheme(partNumber, supplier, to, reason, operator, override, now);
     }
 
+    /** As above, on the real scheme or on the simulated bench's. */
+    public SwitchingRules.State decideScheme(String partNumber, String supplier, Severity to, String reason,
+                                             String operator, boolean override, String now, boolean simulated) {
+        return schemes.decideScheme(partNumber, supplier, to, reason, operator, override, now, simulated);
+    }
+
     /** Every (part number, supplier) with a scheme: inspections under the rules or decisions. */
     public List<String[]> schemes() {
         return schemes.schemes();
+    }
+
+    /** The schemes of real lots, or of simulated ones. */
+    public List<String[]> schemes(boolean simulated) {
+        return schemes.schemes(simulated);
     }
 
     /**
@@ -209,6 +225,11 @@ public final class ResultStore implements AutoCloseable {
      */
     public List<LotStatistics> history(String partNumber) {
         return queries.history(partNumber);
+    }
+
+    /** A part number's lots over time, real ones or simulated ones. */
+    public List<LotStatistics> history(String partNumber, boolean simulated) {
+        return queries.history(partNumber, simulated);
     }
 
     @Override

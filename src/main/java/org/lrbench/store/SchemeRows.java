@@ -25,21 +25,31 @@ final class SchemeRows {
      * order (a lot before a decision at the same instant).
      */
     public List<SwitchingRules.Event> schemeHistory(String partNumber, String supplier) {
+        return schemeHistory(partNumber, supplier, false);
+    }
+
+    /**
+     * A supplier's scheme of real lots, or of simulated ones: the two never mix (a simulated lot never
+     * steers a real supplier's scheme; decisions people record are for real schemes only).
+     */
+    public List<SwitchingRules.Event> schemeHistory(String partNumber, String supplier, boolean simulated) {
         try {
-            return schemeEvents(partNumber, supplier);
+            return schemeEvents(partNumber, supplier, simulated);
         } catch (SQLException e) {
             throw new StoreException("reading the inspection scheme of " + partNumber + " failed: "
                     + StoreErrors.describe(e), e);
         }
     }
 
-    private List<SwitchingRules.Event> schemeEvents(String partNumber, String supplier) throws SQLException {
+    private List<SwitchingRules.Event> schemeEvents(String partNumber, String supplier, boolean simulated)
+            throws SQLException {
         List<SwitchingRules.Event> lots = new ArrayList<>();
         try (PreparedStatement q = store.db.prepareStatement("SELECT lot, finished_at, severity, disposition, switching_step,"
                 + " reinstates_normal FROM inspection WHERE part_number = ? AND supplier = ? AND round = 1"
-                + " AND disposition IS NOT NULL AND severity IS NOT NULL")) {
+                + " AND disposition IS NOT NULL AND severity IS NOT NULL AND simulated = ?")) {
             q.setString(1, partNumber);
             q.setString(2, supplier);
+            q.setInt(3, simulated ? 1 : 0);
             try (ResultSet r = q.executeQuery()) {
                 while (r.next()) {
                     Integer step = StoreDb.whole(r, 5);
@@ -51,7 +61,8 @@ final class SchemeRows {
         }
         List<SwitchingRules.Event> decisions = new ArrayList<>();
         try (PreparedStatement q = store.db.prepareStatement("SELECT decided_at, severity, reason, operator, override"
-                + " FROM scheme_decision WHERE part_number = ? AND supplier = ? ORDER BY seq")) {
+                + " FROM scheme_decision WHERE part_number = ? AND supplier = ? AND simulated = ? ORDER BY seq")) {
+            q.setInt(3, simulated ? 1 : 0);
             q.setString(1, partNumber);
             q.setString(2, supplier);
             try (ResultSet r = q.executeQuery()) {
@@ -84,10 +95,16 @@ final class SchemeRows {
      */
     public SwitchingRules.State decideScheme(String partNumber, String supplier, Severity to, String reason,
                                              String operator, boolean override, String now) {
+        return decideScheme(partNumber, supplier, to, reason, operator, override, now, false);
+    }
+
+    /** As above, on the real scheme or on the simulated bench's (kept apart: one never moves the other). */
+    public SwitchingRules.State decideScheme(String partNumber, String supplier, Severity to, String reason,
+                                             String operator, boolean override, String now, boolean simulated) {
         if (reason == null || reason.isBlank()) {
             throw new IllegalArgumentException("a decision on the inspection scheme needs a reason");
         }
-        String key = "scheme " + partNumber + " / " + supplier;
+        String key = "scheme " + partNumber + " / " + supplier + (simulated ? " (simulated)" : "");
         try {
             return store.inTransaction(() -> {
                 if (store.postgres) {
@@ -97,7 +114,7 @@ final class SchemeRows {
                         l.execute();
                     }
                 }
-                SwitchingRules.State before = SwitchingRules.replay(schemeEvents(partNumber, supplier));
+                SwitchingRules.State before = SwitchingRules.replay(schemeEvents(partNumber, supplier, simulated));
                 String refusal = SwitchingRules.refusal(before, to);
                 if (refusal != null && !override) {
                     throw new IllegalArgumentException("not recorded: " + refusal);
@@ -113,7 +130,8 @@ final class SchemeRows {
                     }
                 }
                 try (PreparedStatement p = store.db.prepareStatement("INSERT INTO scheme_decision (part_number, supplier, seq,"
-                        + " decided_at, severity, reason, operator, override) VALUES (?, ?, ?, ?, ?, ?, ?, ?)")) {
+                        + " decided_at, severity, reason, operator, override, simulated) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+                    p.setInt(9, simulated ? 1 : 0);
                     p.setString(1, partNumber);
                     p.setString(2, supplier);
                     p.setInt(3, seq);
@@ -124,7 +142,7 @@ final class SchemeRows {
                     p.setInt(8, override ? 1 : 0);
                     p.executeUpdate();
                 }
-                return SwitchingRules.replay(schemeEvents(partNumber, supplier));
+                return SwitchingRules.replay(schemeEvents(partNumber, supplier, simulated));
             });
         } catch (SQLException e) {
             throw new StoreException("recording a decision on " + key + " failed: " + StoreErrors.describe(e), e);
@@ -133,10 +151,16 @@ final class SchemeRows {
 
     /** Every (part number, supplier) with a scheme: inspections under the rules or decisions. */
     public List<String[]> schemes() {
+        return schemes(false);
+    }
+
+    /** The schemes of real lots, or of simulated ones: {part number, supplier} each. */
+    public List<String[]> schemes(boolean simulated) {
         List<String[]> out = new ArrayList<>();
-        try (Statement s = store.db.createStatement(); ResultSet r = s.executeQuery("SELECT part_number, supplier FROM inspection"
-                + " WHERE supplier IS NOT NULL UNION SELECT part_number, supplier FROM scheme_decision"
-                + " ORDER BY 1, 2")) {
+        String sql = "SELECT part_number, supplier FROM inspection WHERE supplier IS NOT NULL AND simulated = "
+                + (simulated ? 1 : 0) + " UNION SELECT part_number, supplier FROM scheme_decision WHERE simulated = "
+                + (simulated ? 1 : 0) + " ORDER BY 1, 2";
+        try (Statement s = store.db.createStatement(); ResultSet r = s.executeQuery(sql)) {
             while (r.next()) {
                 out.add(new String[] {r.getString(1), r.getString(2)});
             }

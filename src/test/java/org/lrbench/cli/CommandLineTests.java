@@ -241,37 +241,47 @@ class CommandLineTests {
     @Test
     void theSchemeCommandShowsTheSwitchAndRecordsOnlyDecisionsTheRulesAllow(@TempDir Path dir) throws Exception {
         // the demo tray's lot is rejected under normal inspection (ISO 2859-1 Table II-A: D, n 8, Ac 1);
-        // two rejected lots within five tighten the supplier's scheme (ISO 2859-1:1999 9.3.1)
+        // two rejected lots within five tighten the supplier's scheme (ISO 2859-1:1999 9.3.1). These lots are
+        // measured on the simulated bench: they move its scheme, kept apart, never the real supplier's
         String data = dir.resolve("data").toString();
         assertThat(lotRun(dir, "S1", "40", "--supplier", "Brackwater").code()).isEqualTo(1);
         assertThat(lotRun(dir, "S2", "40", "--supplier", "Brackwater").code()).isEqualTo(1);
-        Outcome shown = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--data", data);
+        Outcome real = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--data", data);
+        assertThat(real.code()).isZero();
+        assertThat(real.out()).contains("normal inspection").doesNotContain("S1");
+        Outcome shown = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--simulated", "--data", data);
         assertThat(shown.code()).isZero();
-        assertThat(shown.out()).contains("tightened inspection").contains("lots S1 and S2 not accepted")
-                .contains("normal -> tightened");
+        assertThat(shown.out()).contains("simulated bench's scheme").contains("tightened inspection")
+                .contains("lots S1 and S2 not accepted").contains("normal -> tightened");
         Outcome next = lotRun(dir, "S3", "40", "--supplier", "Brackwater", "--sampling-tables",
                 dir.resolve("none").toString());
         assertThat(next.code()).isEqualTo(2);
         assertThat(next.err()).contains("tightened inspection").contains("Table II-B");
-        Outcome refused = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--set", "reduced", "--reason",
-                "asked for", "--data", data);
+        Outcome refused = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--simulated", "--set", "reduced",
+                "--reason", "asked for", "--data", data);
         assertThat(refused.code()).isEqualTo(2);
         assertThat(refused.err()).contains("not recorded").contains("--override");
-        Outcome override = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--set", "normal", "--reason",
-                "supplier audit passed, QA decision 2026-12", "--override", "--operator", "Ines", "--data", data);
+        Outcome override = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--simulated", "--set", "normal",
+                "--reason", "supplier audit passed, QA decision 2026-12", "--override", "--operator", "Ines", "--data", data);
         assertThat(override.code()).isZero();
         assertThat(override.out()).contains("normal inspection").contains("override by Ines");
         assertThat(lotRun(dir, "S3", "40", "--supplier", "Brackwater").out()).contains("normal inspection");
         Outcome list = run("scheme", "--data", data);
-        assertThat(list.out()).contains("Brackwater").contains("normal");
+        assertThat(list.out()).contains("simulated bench (apart").contains("Brackwater").contains("normal");
         // without --supplier: the part's one supplier in the store, not the no-supplier scheme
-        Outcome inferred = run("scheme", "QFD-IND-1M0", "--data", data);
+        Outcome inferred = run("scheme", "QFD-IND-1M0", "--simulated", "--data", data);
         assertThat(inferred.code()).isZero();
         assertThat(inferred.out()).contains("Brackwater").contains("normal inspection");
         assertThat(lotRun(dir, "S5", "40", "--supplier", "Other Coil Works").code()).isEqualTo(1);
-        Outcome ambiguous = run("scheme", "QFD-IND-1M0", "--data", data);
+        Outcome ambiguous = run("scheme", "QFD-IND-1M0", "--simulated", "--data", data);
         assertThat(ambiguous.code()).isEqualTo(2);
         assertThat(ambiguous.err()).contains("2 suppliers").contains("'Brackwater'").contains("--supplier");
+        // lots lists say which lots are simulated; the real history has none of them
+        assertThat(run("lots", "--data", data).out()).contains("simulated");
+        Outcome history = run("history", "QFD-IND-1M0", "--data", data);
+        assertThat(history.code()).isEqualTo(2);
+        assertThat(history.err()).contains("no real lots");
+        assertThat(run("history", "QFD-IND-1M0", "--simulated", "--data", data).out()).contains("S1");
         Outcome twoLines = lotRun(dir, "S4", "40", "--supplier", "Brack\nwater");
         assertThat(twoLines.code()).isEqualTo(2);
         assertThat(twoLines.err()).contains("--supplier: a supplier's name is one line");

@@ -49,9 +49,16 @@ class SwitchingLotTests {
                     .isEqualTo(LotDisposition.State.REJECT);
             assertThat(run(lot(store, dir, "A2", "Halvern"), tray).disposition().state())
                     .isEqualTo(LotDisposition.State.REJECT);
-            var scheme = new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern");
+            // the lots were measured on the simulated bench: they move the simulated scheme, never the real one
+            var scheme = new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern", true);
             assertThat(scheme.severity()).isEqualTo(Severity.TIGHTENED);
             assertThat(scheme.why()).contains("A1").contains("A2");
+            assertThat(new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern").severity())
+                    .isEqualTo(Severity.NORMAL);
+            assertThat(store.schemeHistory("QFD-IND-1M0", "Halvern")).isEmpty();
+            assertThat(store.lot("A1").get(0).simulated()).isTrue();
+            assertThat(store.history("QFD-IND-1M0")).isEmpty();
+            assertThat(store.history("QFD-IND-1M0", true)).isNotEmpty();
 
             // lrbench carries no Table II-B: the next lot is refused before anything is stored
             assertThatThrownBy(() -> run(lot(store, dir, "A3", "Halvern"), tray)).isInstanceOf(LotRefused.class)
@@ -93,7 +100,7 @@ class SwitchingLotTests {
             assertThat(resumed.scheme().severity()).isEqualTo(Severity.NORMAL);
             run(resumed, tray);
             assertThat(store.lot("A0").get(0).severity()).isEqualTo("normal");
-            var after = new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern");
+            var after = new StoreLedger(store, dir, true).scheme("QFD-IND-1M0", "Halvern", true);
             assertThat(after.notCounted()).anyMatch(n -> n.contains("A0"));
             assertThat(after.severity()).isEqualTo(Severity.TIGHTENED);
         }
@@ -103,17 +110,20 @@ class SwitchingLotTests {
     void aDiscontinuedSchemeRefusesNewLotsUntilADecisionRestartsIt(@TempDir Path dir) throws Exception {
         SimLot tray = LotRunTests.tray();
         try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
+            // decisions on the simulated bench's scheme (the lots below are simulated); the real one stays as it was
             store.decideScheme("QFD-IND-1M0", "", Severity.DISCONTINUED, "supplier's process changed without notice",
-                    "qa", true, "2026-01-01T00:00:00Z");
+                    "qa", true, "2026-01-01T00:00:00Z", true);
+            assertThat(store.schemeHistory("QFD-IND-1M0", "")).isEmpty();
             assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRefused.class)
                     .hasMessageContaining("discontinued").hasMessageContaining("supplier's process changed");
             assertThat(store.latestInspection("D1")).isEmpty();
             // without override the rules allow only a restart at tightened from here (ISO 2859-1:1999 9.4)
             assertThatThrownBy(() -> store.decideScheme("QFD-IND-1M0", "", Severity.NORMAL, "asked", "qa", false,
-                    "2026-01-02T00:00:00Z")).isInstanceOf(IllegalArgumentException.class).hasMessageContaining("not recorded");
+                    "2026-01-02T00:00:00Z", true)).isInstanceOf(IllegalArgumentException.class)
+                    .hasMessageContaining("not recorded");
             store.decideScheme("QFD-IND-1M0", "", Severity.TIGHTENED, "supplier's corrective action 8D-17 verified", "qa",
-                    false, "2026-01-03T00:00:00Z");
-            assertThat(store.schemeHistory("QFD-IND-1M0", "")).hasSize(2);
+                    false, "2026-01-03T00:00:00Z", true);
+            assertThat(store.schemeHistory("QFD-IND-1M0", "", true)).hasSize(2);
             assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRefused.class)
                     .hasMessageContaining("II-B");
         }

@@ -125,8 +125,9 @@ class BenchServiceApiTests {
             assertThat(plan.get("supplier").asText()).isEqualTo("Halvern Coil Co.");
             assertThat(plan.get("severity").asText()).isEqualTo("normal");
             try (ResultStore store = ResultStore.open(dir.resolve("data/lrbench.db"))) {
+                // this service's bench is the simulated one: its page shows the simulated bench's scheme
                 store.decideScheme("QFD-IND-1M0", "Halvern Coil Co.", Severity.DISCONTINUED, "supplier audit failed",
-                        "qa", true, "2026-12-01T08:00:00Z");
+                        "qa", true, "2026-12-01T08:00:00Z", true);
             }
             plan = json(call(port, "GET", "/api/plans", null, null)).get("plans").get(0);
             assertThat(plan.get("severity").asText()).isEqualTo("discontinued");
