@@ -37,11 +37,19 @@ final class VerifyCommand implements Callable<Integer> {
             for (String l : names) {
                 lots++;
                 findings.addAll(RecordCheck.findings(s, runsOption.runs, l));
+                if (lot != null) {
+                    findings.addAll(RecordCheck.lotFolderFindings(s, runsOption.runs, l));
+                }
+            }
+            if (lot == null) {
+                // the whole runs folder: every lot folder and file must belong to a record
+                findings.addAll(RecordCheck.folderFindings(s, runsOption.runs));
             }
         }
         findings.forEach(System.out::println);
         if (findings.isEmpty()) {
-            System.out.printf("%d lot(s) checked: every stored record, result file and trace archive is whole%n", lots);
+            System.out.printf("%d lot(s) checked: every stored record, result file and trace archive is whole, and"
+                    + " every file under the lot folders belongs to one%n", lots);
             return ExitCodes.PASS;
         }
         System.out.printf("%d lot(s) checked: %d finding(s)%n", lots, findings.size());

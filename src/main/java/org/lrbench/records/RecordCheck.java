@@ -39,6 +39,99 @@ public final class RecordCheck {
         return out;
     }
 
+    /**
+     * What the store cannot account for under the runs folder: a lot folder of no lot in the store (added,
+     * or its lot removed from the store behind lrbench's back), and in a stored lot's folder every file no
+     * record names ({@link #lotFolderFindings}). The check standard's folder is its own log's.
+     */
+    public static List<String> folderFindings(ResultStore store, Path runs) {
+        List<String> out = new ArrayList<>();
+        if (!Files.isDirectory(runs)) {
+            return out;
+        }
+        java.util.Set<String> lots = new java.util.HashSet<>(store.lotNames());
+        try (var dirs = Files.list(runs)) {
+            for (Path d : dirs.sorted().toList()) {
+                String name = d.getFileName().toString();
+                if (name.equals("check-standard") || name.startsWith(".")) {
+                    continue;
+                }
+                if (!Files.isDirectory(d)) {
+                    out.add(d + ": a file among the lot folders that no record names (added?)");
+                } else if (!lots.contains(name)) {
+                    out.add(d + "/: a lot folder the store has no lot for (added, or its lot removed from the store)");
+                } else {
+                    out.addAll(lotFolderFindings(store, runs, name));
+                }
+            }
+        } catch (IOException e) {
+            out.add(runs + ": cannot be listed: " + e.getMessage());
+        }
+        return out;
+    }
+
+    /**
+     * A stored lot's folder against its records: every file must be one a record names (an attempt's
+     * result file or trace archive), the lot's summary and report, a re-analysis record of a stored part,
+     * or a temporary file of a write in progress; the summary's disposition and chain head must be the
+     * store's.
+     */
+    public static List<String> lotFolderFindings(ResultStore store, Path runs, String lot) {
+        List<String> out = new ArrayList<>();
+        Path dir = runs.resolve(lot);
+        if (!Files.isDirectory(dir)) {
+            return out;
+        }
+        java.util.Set<String> named = new java.util.HashSet<>(List.of("lot-summary.json", "report.html"));
+        java.util.Set<String> serials = new java.util.HashSet<>();
+        for (Attempt a : store.attempts(lot)) {
+            if (a.jsonFile() != null) {
+                named.add(a.jsonFile());
+            }
+            if (a.tracesFile() != null) {
+                named.add(a.tracesFile());
+            }
+            serials.add(a.serial());
+        }
+        try (var files = Files.list(dir)) {
+            for (Path f : files.sorted().toList()) {
+                String name = f.getFileName().toString();
+                if (named.contains(name) || name.startsWith(".") && name.endsWith(".partial")) {
+                    continue;
+                }
+                int analysis = name.indexOf(".analysis-");
+                if (analysis > 0 && name.endsWith(".json") && serials.contains(name.substring(0, analysis))) {
+                    continue; // a re-analysis record of a stored part: a new record beside the original
+                }
+                out.add(f + ": a file no record of lot " + lot + " names (added?)");
+            }
+        } catch (IOException e) {
+            out.add(dir + ": cannot be listed: " + e.getMessage());
+        }
+        Path summary = dir.resolve("lot-summary.json");
+        var latest = store.latestInspection(lot);
+        if (Files.isRegularFile(summary) && latest.isPresent() && latest.get().disposition() != null) {
+            try {
+                var json = new com.fasterxml.jackson.databind.ObjectMapper().readTree(summary.toFile());
+                String said = json.path("disposition").asText(null);
+                String stored = latest.get().disposition().word();
+                if (!stored.equals(said)) {
+                    out.add(summary + ": says disposition " + said + ", the store's is " + stored + " (altered)");
+                }
+                String head = json.path("chain_head_sha256").asText(null);
+                String now = store.chainHead(lot);
+                if (head != null && now != null && !head.equals(now)) {
+                    out.add(summary + ": its chain head " + head.substring(0, Math.min(12, head.length()))
+                            + "... is not the store's " + now.substring(0, Math.min(12, now.length()))
+                            + "... (the summary or the chain was altered, or records were added after it)");
+                }
+            } catch (IOException e) {
+                out.add(summary + ": not readable JSON (" + e.getMessage().lines().findFirst().orElse("") + ")");
+            }
+        }
+        return out;
+    }
+
     private static void checkJson(List<String> out, Path file, Attempt a) {
         byte[] want = a.resultJson().getBytes(StandardCharsets.UTF_8);
         try {

@@ -653,4 +653,23 @@ class CommandLineTests {
         }
         return drivers;
     }
+
+    @Test
+    void verifyNamesFilesAndFoldersNoRecordAccountsForAndAnAlteredSummary(@TempDir Path dir) throws Exception {
+        Outcome demo = run("demo", "--runs", dir.resolve("runs").toString(), "--calibration", dir.resolve("cal").toString(),
+                "--data", dir.resolve("data").toString());
+        assertThat(demo.code()).as(demo.err()).isZero();
+        String[] verify = {"verify", "--runs", dir.resolve("runs").toString(), "--data", dir.resolve("data").toString()};
+        assertThat(run(verify).code()).isZero();
+        Path lot = dir.resolve("runs/HCC-2611-0417");
+        // a forged second attempt, a folder of no lot, a summary whose disposition was changed to accept
+        Files.copy(lot.resolve("HC0417-0004.json"), lot.resolve("HC0417-0004~2.json"));
+        Files.createDirectories(dir.resolve("runs/GHOST"));
+        Path summary = lot.resolve("lot-summary.json");
+        Files.writeString(summary, Files.readString(summary).replace("\"reject\"", "\"accept\""));
+        Outcome found = run(verify);
+        assertThat(found.code()).isEqualTo(1);
+        assertThat(found.out()).contains("HC0417-0004~2.json: a file no record").contains("GHOST/: a lot folder the store"
+                + " has no lot for").contains("says disposition accept, the store's is reject");
+    }
 }
