@@ -337,13 +337,10 @@ public final class LotRunner {
         }
         SeverityTable table = null;
         if (sev != Severity.NORMAL) {
-            String file = SeverityTableLoader.fileName(sev);
+            // the lab's own transcription where its sampling folder has one, else the standard's table as lrbench
+            // ships it (ISO 2859-1:1999 Table 2-B or 2-C)
             table = (sc.tables() == null ? Optional.<SeverityTable>empty() : SeverityTableLoader.find(sc.tables(), sev))
-                    .orElseThrow(() -> new LotRefused(LotRefused.Kind.CONFLICT, "lot " + s.template().lot() + " is to be inspected under " + sev.word()
-                            + " inspection (" + why + "), whose plans come from ISO 2859-1 Table "
-                            + (sev == Severity.TIGHTENED ? "II-B" : "II-C") + ". lrbench does not carry that table: put the"
-                            + " lab's transcription in " + (sc.tables() == null ? "the sampling folder" : sc.tables())
-                            + "/" + file + " (see the README), or record a decision on the scheme"));
+                    .orElseGet(() -> SeverityTableLoader.builtIn(sev));
         }
         return s.withScheme(sc.at(sev, why, table));
     }

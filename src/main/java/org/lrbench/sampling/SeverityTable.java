@@ -33,7 +33,8 @@ public record SeverityTable(Severity severity, String letters, int[] sampleSizes
         }
     }
 
-    public enum Arrow { NONE, DOWN, UP }
+    /** NONE: the cell is a plan; DOWN, UP: use the first plan below or above; EMPTY: no plan printed there. */
+    public enum Arrow { NONE, DOWN, UP, EMPTY }
 
     /** The plan for a lot: Table I's letter, the table's arrows followed, n >= N inspected whole. */
     public SamplingPlan plan(int lotSize, InspectionLevel level, double aql) {
@@ -46,6 +47,10 @@ public record SeverityTable(Severity severity, String letters, int[] sampleSizes
         }
         int r = row;
         Arrow a = column.get(r).arrow();
+        if (a == Arrow.EMPTY) {
+            throw new IllegalArgumentException(severity.word() + " table (" + source + ") prints no plan at letter "
+                    + letter + ", AQL " + aql);
+        }
         while (r >= 0 && r < column.size() && column.get(r).arrow() != Arrow.NONE) {
             r += a == Arrow.DOWN ? 1 : -1;
         }

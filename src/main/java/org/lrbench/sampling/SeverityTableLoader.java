@@ -66,7 +66,30 @@ public final class SeverityTableLoader {
 
     public static SeverityTable read(Path file) throws ProblemsException {
         Problems problems = new Problems(file.toString());
-        YamlMap root = YamlFile.read(file, problems, "table_format", "severity", "source", "sample_sizes", "columns");
+        return read(YamlFile.read(file, problems, KEYS), problems);
+    }
+
+    private static final String[] KEYS = {"table_format", "severity", "source", "sample_sizes", "columns"};
+
+    /**
+     * ISO 2859-1:1999's own Table 2-B (tightened) or Table 2-C (reduced, the 1999 version with Re = Ac + 1),
+     * AQL 0.010 to 6.5, shipped with lrbench: used where the lab's sampling folder has no file of its own.
+     */
+    public static SeverityTable builtIn(Severity s) {
+        String name = "iso2859-1-1999-" + s.word() + ".yaml";
+        try (var in = SeverityTableLoader.class.getResourceAsStream(name)) {
+            if (in == null) {
+                throw new IllegalArgumentException("no built-in table for " + s.word() + " inspection");
+            }
+            Problems problems = new Problems(name);
+            return read(YamlFile.parse(new String(in.readAllBytes(), java.nio.charset.StandardCharsets.UTF_8), problems,
+                    KEYS), problems);
+        } catch (java.io.IOException | ProblemsException e) {
+            throw new IllegalStateException("the built-in " + s.word() + " table cannot be read: " + e.getMessage(), e);
+        }
+    }
+
+    private static SeverityTable read(YamlMap root, Problems problems) throws ProblemsException {
         root.integer("table_format", true, 1, 1);
         Severity severity = root.choice("severity", true, Map.of("tightened", Severity.TIGHTENED,
                 "reduced", Severity.REDUCED));
@@ -145,7 +168,10 @@ public final class SeverityTableLoader {
             }
             String t = text.trim().toLowerCase(Locale.ROOT);
             Matcher m = PLAN.matcher(t);
-            if (t.equals("down")) {
+            if (t.equals("none")) {
+                // no plan printed in the cell (the standard's dash)
+                out.add(SeverityTable.Cell.arrow(SeverityTable.Arrow.EMPTY));
+            } else if (t.equals("down")) {
                 out.add(SeverityTable.Cell.arrow(SeverityTable.Arrow.DOWN));
             } else if (t.equals("up")) {
                 out.add(SeverityTable.Cell.arrow(SeverityTable.Arrow.UP));
@@ -163,7 +189,7 @@ public final class SeverityTableLoader {
                 lastAc = Math.max(lastAc, ac);
                 out.add(SeverityTable.Cell.plan(ac, re));
             } else {
-                col.problem(it, "'" + text + "' is not a cell; allowed: Ac/Re (e.g. 1/2), down, up");
+                col.problem(it, "'" + text + "' is not a cell; allowed: Ac/Re (e.g. 1/2), down, up, none");
                 ok = false;
             }
         }
@@ -172,7 +198,7 @@ public final class SeverityTableLoader {
         }
         for (int i = 0; i < out.size(); i++) {
             SeverityTable.Arrow a = out.get(i).arrow();
-            if (a == SeverityTable.Arrow.NONE) {
+            if (a == SeverityTable.Arrow.NONE || a == SeverityTable.Arrow.EMPTY) {
                 continue;
             }
             int step = a == SeverityTable.Arrow.DOWN ? 1 : -1;

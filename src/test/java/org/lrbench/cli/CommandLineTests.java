@@ -253,10 +253,6 @@ class CommandLineTests {
         assertThat(shown.code()).isZero();
         assertThat(shown.out()).contains("simulated bench's scheme").contains("tightened inspection")
                 .contains("lots S1 and S2 not accepted").contains("normal -> tightened");
-        Outcome next = lotRun(dir, "S3", "40", "--supplier", "Brackwater", "--sampling-tables",
-                dir.resolve("none").toString());
-        assertThat(next.code()).isEqualTo(2);
-        assertThat(next.err()).contains("tightened inspection").contains("Table II-B");
         Outcome refused = run("scheme", "QFD-IND-1M0", "--supplier", "Brackwater", "--simulated", "--set", "reduced",
                 "--reason", "asked for", "--data", data);
         assertThat(refused.code()).isEqualTo(2);
@@ -282,6 +278,11 @@ class CommandLineTests {
         assertThat(history.code()).isEqualTo(2);
         assertThat(history.err()).contains("no real lots");
         assertThat(run("history", "QFD-IND-1M0", "--simulated", "--data", data).out()).contains("S1");
+        // tightened again after two more rejected lots: the next lot runs under the built-in Table 2-B
+        // (ISO 2859-1:1999: lot 40, level II, D; AQL 6.5 an arrow down to E, n = 13, Ac 1, Re 2)
+        assertThat(lotRun(dir, "S6", "40", "--supplier", "Brackwater").code()).isEqualTo(1);
+        Outcome tightened = lotRun(dir, "S7", "40", "--supplier", "Brackwater");
+        assertThat(tightened.out()).contains("tightened inspection").contains("n = 13");
         Outcome twoLines = lotRun(dir, "S4", "40", "--supplier", "Brack\nwater");
         assertThat(twoLines.code()).isEqualTo(2);
         assertThat(twoLines.err()).contains("--supplier: a supplier's name is one line");

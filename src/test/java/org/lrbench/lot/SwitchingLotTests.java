@@ -60,28 +60,35 @@ class SwitchingLotTests {
             assertThat(store.history("QFD-IND-1M0")).isEmpty();
             assertThat(store.history("QFD-IND-1M0", true)).isNotEmpty();
 
-            // lrbench carries no Table II-B: the next lot is refused before anything is stored
-            assertThatThrownBy(() -> run(lot(store, dir, "A3", "Halvern"), tray)).isInstanceOf(LotRefused.class)
-                    .hasMessageContaining("tightened inspection").hasMessageContaining("II-B");
-            assertThat(store.latestInspection("A3")).isEmpty();
-
-            // another supplier's scheme is its own: still normal
-            assertThat(LotRunner.resolved(lot(store, dir, "B1", "Other Co")).scheme().severity())
-                    .isEqualTo(Severity.NORMAL);
-
-            // with the lab's table (here Table II-A written in the table format) the lot runs, and records it
-            Files.createDirectories(dir.resolve("sampling"));
-            Files.writeString(dir.resolve("sampling/tightened.yaml"), SeverityTableTests.tableIIA("tightened"));
+            // without a table of the lab's own, the next lot runs under the standard's Table 2-B as lrbench ships it:
+            // lot 40 at level II is D, and D at AQL 6.5 is an arrow down to E: n = 13, Ac 1, Re 2 (ISO 2859-1:1999
+            // Tables I and 2-B)
             run(lot(store, dir, "A3", "Halvern"), tray);
             LotRecord a3 = store.lot("A3").get(0);
             assertThat(a3.severity()).isEqualTo("tightened");
             assertThat(a3.supplier()).isEqualTo("Halvern");
             assertThat(a3.sampling()).endsWith("; tightened inspection");
             assertThat(a3.severityReason()).contains("A1").contains("A2");
-            // the plan each class was inspected under is kept as data with the terms: the lab's table here is
-            // Table II-A relabelled, so lot 40 at level II is D, n = 8, and AQL 6.5 (the plan's major and minor) is Ac 1, Re 2
-            // (ISO 2859-1 Tables I and II-A)
             assertThat(a3.classPlans()).hasSize(2).allSatisfy(c -> {
+                assertThat(c.severity()).isEqualTo(Severity.TIGHTENED);
+                assertThat(c.plan().sampleSize()).isEqualTo(13);
+                assertThat(c.plan().acceptance()).isEqualTo(1);
+                assertThat(c.plan().rejection()).isEqualTo(2);
+            });
+
+            // another supplier's scheme is its own: still normal
+            assertThat(LotRunner.resolved(lot(store, dir, "B1", "Other Co")).scheme().severity())
+                    .isEqualTo(Severity.NORMAL);
+
+            // a lab's own table overrides the built-in one (here Table II-A written in the table format)
+            Files.createDirectories(dir.resolve("sampling"));
+            Files.writeString(dir.resolve("sampling/tightened.yaml"), SeverityTableTests.tableIIA("tightened"));
+            run(lot(store, dir, "A4", "Halvern"), tray);
+            LotRecord a4 = store.lot("A4").get(0);
+            assertThat(a4.severity()).isEqualTo("tightened");
+            // the lab's table here is Table II-A relabelled, so lot 40 at level II is D, n = 8, and AQL 6.5 (the
+            // plan's major and minor) is Ac 1, Re 2 (ISO 2859-1 Tables I and II-A)
+            assertThat(a4.classPlans()).hasSize(2).allSatisfy(c -> {
                 assertThat(c.severity()).isEqualTo(Severity.TIGHTENED);
                 assertThat(c.plan().codeLetter()).isEqualTo('D');
                 assertThat(c.plan().sampleSize()).isEqualTo(8);
@@ -89,7 +96,7 @@ class SwitchingLotTests {
                 assertThat(c.plan().rejection()).isEqualTo(2);
             });
             // and the report shows that data, whatever the sampling line says
-            var report = org.jsoup.Jsoup.parse(org.lrbench.report.LotReport.html(store, "A3"));
+            var report = org.jsoup.Jsoup.parse(org.lrbench.report.LotReport.html(store, "A4"));
             assertThat(report.select("#sampling tr").get(1).select("td").eachText())
                     .containsExactly("major", "6.5", "D", "8", "1", "2", "tightened");
             assertThat(RecordCheck.findings(store, dir, "A3")).isEmpty();
@@ -124,8 +131,9 @@ class SwitchingLotTests {
             store.decideScheme("QFD-IND-1M0", "", Severity.TIGHTENED, "supplier's corrective action 8D-17 verified", "qa",
                     false, "2026-01-03T00:00:00Z", true);
             assertThat(store.schemeHistory("QFD-IND-1M0", "", true)).hasSize(2);
-            assertThatThrownBy(() -> run(lot(store, dir, "D1", ""), tray)).isInstanceOf(LotRefused.class)
-                    .hasMessageContaining("II-B");
+            // restarted at tightened: the lot runs under the standard's Table 2-B
+            run(lot(store, dir, "D1", ""), tray);
+            assertThat(store.lot("D1").get(0).severity()).isEqualTo("tightened");
         }
     }
 }
