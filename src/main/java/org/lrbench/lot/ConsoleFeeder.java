@@ -16,6 +16,8 @@ import org.lrbench.results.Names;
 public final class ConsoleFeeder implements PartFeeder {
     private final BufferedReader in;
     private final PrintStream out;
+    /** What was typed or scanned at the after-part question that was not an answer to it: the next part's entry. */
+    private String pending;
 
     public ConsoleFeeder(BufferedReader in, PrintStream out) {
         this.in = in;
@@ -26,8 +28,16 @@ public final class ConsoleFeeder implements PartFeeder {
     public Next next(Prompt prompt) {
         while (true) {
             out.printf("place part %d of %d, enter or scan its serial (s skip, q stop): ", prompt.index(), prompt.of());
-            out.flush();
-            String line = read();
+            String line;
+            if (pending != null) {
+                // scanned at the question after the last part: it is this prompt's entry
+                line = pending;
+                pending = null;
+                out.println(line);
+            } else {
+                out.flush();
+                line = read();
+            }
             if (line == null || line.equals("q")) {
                 return Next.stop();
             }
@@ -66,7 +76,14 @@ public final class ConsoleFeeder implements PartFeeder {
     public String again(String serial, Verdict verdict) {
         out.printf("%s: %s. r + Enter to measure it again, Enter to go on: ", serial, verdict.word());
         out.flush();
-        if (!"r".equals(read())) {
+        String answer = read();
+        if (answer != null && !answer.isEmpty() && !answer.equals("r")) {
+            // not an answer to this question (a serial scanned ahead, or s or q): kept for the next prompt, never lost
+            out.println("going on; '" + answer + "' is taken as the entry for the next part");
+            pending = answer;
+            return null;
+        }
+        if (!"r".equals(answer)) {
             return null;
         }
         out.print("reason to measure it again: ");

@@ -48,4 +48,20 @@ class ConsoleFeederTests {
         assertThat(feeder("r\n\n", new ByteArrayOutputStream()).again("HC-3", Verdict.FAIL)).isNull();
         assertThat(feeder("\n", new ByteArrayOutputStream()).again("HC-3", Verdict.PASS)).isNull();
     }
+
+    @Test
+    void aSerialScannedAtTheAfterPartQuestionIsTheNextPartNeverLost() {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        // the operator scans the next part while the question about the last one is open
+        ConsoleFeeder f = feeder("HC-5\n", out);
+        assertThat(f.again("HC-4", Verdict.PASS)).isNull();
+        PartFeeder.Next n = f.next(new PartFeeder.Prompt(5, 8, Set.of("HC-4")));
+        assertThat(n.action()).isEqualTo(PartFeeder.Action.MEASURE);
+        assertThat(n.serial()).isEqualTo("HC-5");
+        assertThat(out.toString(StandardCharsets.UTF_8)).contains("'HC-5' is taken as the entry for the next part");
+        // q typed there stops at the next prompt, as it would have there
+        ConsoleFeeder g = feeder("q\n", new ByteArrayOutputStream());
+        assertThat(g.again("HC-4", Verdict.FAIL)).isNull();
+        assertThat(g.next(new PartFeeder.Prompt(5, 8, Set.of())).action()).isEqualTo(PartFeeder.Action.STOP);
+    }
 }
