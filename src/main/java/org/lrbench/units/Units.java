@@ -44,6 +44,17 @@ public final class Units {
 
     /** Parses any quantity; the caller checks the dimension. */
     public static Quantity parse(String text) {
+        if (text != null) {
+            for (int i = 0; i < text.length(); i++) {
+                char c = text.charAt(i);
+                if (Character.isISOControl(c) && c != ' ') {
+                    // trim() would drop a NUL or a control character silently: a quantity has none
+                    throw new UnitException(String.format(java.util.Locale.ROOT, "'%s' holds the control character"
+                            + " U+%04X at position %d; a quantity is a number and a unit only",
+                            text.replaceAll("\\p{Cntrl}", "?"), (int) c, i + 1));
+                }
+            }
+        }
         String trimmed = text == null ? "" : text.trim();
         Matcher m = NUMBER_THEN_UNIT.matcher(trimmed);
         if (!m.matches()) {

@@ -38,7 +38,16 @@ public final class YamlFile {
                         + " bytes (1 MiB)");
                 problems.throwIfAny();
             }
-            text = Files.readString(path, StandardCharsets.UTF_8);
+            byte[] bytes = Files.readAllBytes(path);
+            String notUtf8 = TextEncoding.problem(bytes);
+            if (notUtf8 != null) {
+                problems.add((Node) null, "(file)", notUtf8);
+                problems.throwIfAny();
+            }
+            text = new String(bytes, StandardCharsets.UTF_8);
+            if (text.startsWith("\uFEFF")) {
+                text = text.substring(1); // a UTF-8 byte order mark: allowed, not part of the text
+            }
         } catch (IOException e) {
             problems.add((Node) null, "(file)", "cannot read: " + e.getMessage());
             problems.throwIfAny();

@@ -173,6 +173,41 @@ class PlanLoaderTests {
     }
 
     @Test
+    void aPlanNotInUtf8IsRefusedNamingItsLikelyEncodingAndTheFix(@TempDir Path dir) throws Exception {
+        // UTF-16 with a byte order mark, UTF-32, and a Latin-1 byte (0xE9, e acute) that is no UTF-8 sequence
+        // (RFC 3629 for UTF-8's byte patterns, from memory)
+        Path u16 = dir.resolve("u16.yaml");
+        Files.write(u16, GOOD.getBytes(java.nio.charset.StandardCharsets.UTF_16));
+        Path u32 = dir.resolve("u32.yaml");
+        Files.write(u32, GOOD.getBytes(java.nio.charset.Charset.forName("UTF-32")));
+        Path latin = dir.resolve("latin.yaml");
+        Files.write(latin, GOOD.replace("part_number: P-1", "part_number: P-1\ndescription: caf\u00e9")
+                .getBytes(java.nio.charset.StandardCharsets.ISO_8859_1));
+        assertThat(catchThrowableOfType(ProblemsException.class, () -> PlanLoader.load(u16, 5.0)).problems().get(0)
+                .message()).contains("UTF-16").contains("save it as UTF-8");
+        assertThat(catchThrowableOfType(ProblemsException.class, () -> PlanLoader.load(u32, 5.0)).problems().get(0)
+                .message()).contains("UTF-32").contains("save it as UTF-8");
+        String m = catchThrowableOfType(ProblemsException.class, () -> PlanLoader.load(latin, 5.0)).problems().get(0)
+                .message();
+        assertThat(m).contains("byte 0xE9").contains("line 3").contains("Latin-1").contains("save it as UTF-8");
+        // a UTF-8 file with a byte order mark is UTF-8
+        Path bom = dir.resolve("bom.yaml");
+        Files.write(bom, ("\uFEFF" + GOOD).getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        assertThat(PlanLoader.load(bom, 5.0).partNumber()).isEqualTo("P-1");
+    }
+
+    @Test
+    void aControlCharacterInAQuantityIsRefusedNotIgnored() {
+        // YAML's double-quoted escape \u0000 (YAML 1.1, 5.7) puts a NUL inside the quantity
+        String nul = GOOD.replace("amplitude: 3 V", "amplitude: \"3 V\\u0000\"");
+        assertThat(nul).contains("\\u0000");
+        ProblemsException e = catchThrowableOfType(ProblemsException.class, () -> PlanLoader.parse(nul, "nul.yaml", 5.0));
+        assertThat(e).isNotNull();
+        assertThat(e.problems().get(0).key()).endsWith("amplitude");
+        assertThat(e.problems().get(0).message()).contains("U+0000");
+    }
+
+    @Test
     void questionablePlansGetWarnings() throws Exception {
         Plan p = PlanLoader.parse(GOOD.replace("tolerance: 10 %", "tolerance: 60 %").replace("settle: 20 ms", "settle: 30 s"),
                 "p.yaml", 5.0);
