@@ -70,7 +70,13 @@ public final class PlanLoader {
     private static Plan read(YamlMap root, String source, double maxAmplitudeVolt) throws ProblemsException {
         root.integer("plan_format", true, 1, 1);
         String partNumber = root.text("part_number", true);
+        if (TextRules.partNumberProblem(partNumber) != null) {
+            root.problem("part_number", TextRules.partNumberProblem(partNumber));
+        }
         String description = root.text("description", false);
+        if (TextRules.lineProblem("a description", description) != null) {
+            root.problem("description", TextRules.lineProblem("a description", description));
+        }
         String supplier = root.text("supplier", false);
         if (supplier != null && (supplier.length() > 200 || supplier.chars().anyMatch(Character::isISOControl))) {
             // the same rule as a supplier named for a lot (results.Names.supplierProblem)

@@ -208,6 +208,25 @@ class PlanLoaderTests {
     }
 
     @Test
+    void aPartNumberThatCouldHarmAFileNameOrATerminalIsRefused() {
+        // part numbers reach file names, reports and the store: control characters, path separators, ".."
+        // and very long ones are refused at their position, the text echoed without its control characters
+        for (String bad : new String[] {"\"QFD\\nIND\\u0007\"", "\"A/B\"", "\"A\\\\B\"", "\"..x\"",
+            "\"" + "P".repeat(100_000) + "\""}) {
+            ProblemsException e = catchThrowableOfType(ProblemsException.class, () -> PlanLoader.parse(
+                    GOOD.replace("part_number: P-1", "part_number: " + bad), "pn.yaml", 5.0));
+            assertThat(e).as(bad.substring(0, Math.min(20, bad.length()))).isNotNull();
+            Problem p = e.problems().get(0);
+            assertThat(p.key()).isEqualTo("part_number");
+            assertThat(p.line()).isEqualTo(2);
+            assertThat(p.message()).doesNotContain("\n").doesNotContain("\u0007").hasSizeLessThan(300);
+        }
+        ProblemsException d = catchThrowableOfType(ProblemsException.class, () -> PlanLoader.parse(
+                GOOD.replace("part_number: P-1", "part_number: P-1\ndescription: \"two\\nlines\""), "d.yaml", 5.0));
+        assertThat(d.problems().get(0).key()).isEqualTo("description");
+    }
+
+    @Test
     void questionablePlansGetWarnings() throws Exception {
         Plan p = PlanLoader.parse(GOOD.replace("tolerance: 10 %", "tolerance: 60 %").replace("settle: 20 ms", "settle: 30 s"),
                 "p.yaml", 5.0);
