@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.plan.Plan;
+import org.lrbench.plan.PlanPositions;
 import org.lrbench.units.Dimension;
 import org.lrbench.units.Units;
 
@@ -18,6 +19,16 @@ import org.lrbench.units.Units;
 public final class PlanFit {
 
     private PlanFit() {
+    }
+
+    /** "10.00 GHz" for one frequency, "3 of the 7 sweep frequencies (27.14 MHz to 10.00 GHz)" for several. */
+    private static String count(List<Double> missing, List<Double> all) {
+        if (missing.size() == 1) {
+            return "the sweep frequency " + hz(missing.get(0)) + " is";
+        }
+        double lo = missing.stream().mapToDouble(Double::doubleValue).min().orElseThrow();
+        double hi = missing.stream().mapToDouble(Double::doubleValue).max().orElseThrow();
+        return missing.size() + " of the " + all.size() + " sweep frequencies (" + hz(lo) + " to " + hz(hi) + ") are";
     }
 
     /** The problems of a plan on the generator and digitizer these driver names load (each loaded once). */
@@ -40,14 +51,28 @@ public final class PlanFit {
         }
         String gen = "generator driver " + source.name() + " (" + source.source() + ")";
         String dig = "digitizer driver " + digitizer.name() + " (" + digitizer.source() + ")";
-        for (double[] a : asks) {
-            if (g.minFrequencyHz() != null && a[0] < g.minFrequencyHz()) {
-                out.add(plan.source() + ": " + hz(a[0]) + " is below the " + hz(g.minFrequencyHz()) + " that the " + gen
-                        + " declares");
+        // each limit once, at the key the frequencies came from, however many generated frequencies miss it
+        List<Double> sweep = plan.sweep().frequenciesHz();
+        if (g.minFrequencyHz() != null) {
+            List<Double> low = sweep.stream().filter(f -> f < g.minFrequencyHz()).toList();
+            if (!low.isEmpty()) {
+                out.add(PlanPositions.of(plan.source(), "sine_sweep.log_sweep.start", "sine_sweep.frequencies") + ": "
+                        + count(low, sweep) + " below the " + hz(g.minFrequencyHz()) + " that the " + gen + " declares");
             }
-            if (g.maxFrequencyHz() != null && a[0] > g.maxFrequencyHz()) {
-                out.add(plan.source() + ": " + hz(a[0]) + " is above the " + hz(g.maxFrequencyHz()) + " that the " + gen
-                        + " declares");
+            if (plan.triangle() != null && plan.triangle().frequencyHz() < g.minFrequencyHz()) {
+                out.add(PlanPositions.of(plan.source(), "triangle_check.frequency") + ": " + hz(plan.triangle().frequencyHz())
+                        + " is below the " + hz(g.minFrequencyHz()) + " that the " + gen + " declares");
+            }
+        }
+        if (g.maxFrequencyHz() != null) {
+            List<Double> high = sweep.stream().filter(f -> f > g.maxFrequencyHz()).toList();
+            if (!high.isEmpty()) {
+                out.add(PlanPositions.of(plan.source(), "sine_sweep.log_sweep.stop", "sine_sweep.frequencies") + ": "
+                        + count(high, sweep) + " above the " + hz(g.maxFrequencyHz()) + " that the " + gen + " declares");
+            }
+            if (plan.triangle() != null && plan.triangle().frequencyHz() > g.maxFrequencyHz()) {
+                out.add(PlanPositions.of(plan.source(), "triangle_check.frequency") + ": " + hz(plan.triangle().frequencyHz())
+                        + " is above the " + hz(g.maxFrequencyHz()) + " that the " + gen + " declares");
             }
         }
         double peak = plan.sweep().peakEmfVolt();
@@ -63,19 +88,35 @@ public final class PlanFit {
             asks.removeIf(a -> plan.sweep().frequenciesHz().contains(a[0]) && a[1] == plan.sweep().cycles());
             multisine(plan, source, gen, dig, d, out);
         }
+        double[] fastest = null;
+        int tooFast = 0;
+        double[] longest = null;
+        int tooLong = 0;
         for (double[] a : asks) {
             double interval = 1 / (a[0] * a[2]);
             if (d.minIntervalSecond() != null && interval < d.minIntervalSecond() * (1 - 1e-9)) {
-                out.add(String.format(Locale.ROOT, "%s: at %s the plan's %d samples per cycle need %s between samples;"
-                                + " the %s declares %s at the shortest", plan.source(), hz(a[0]), (int) a[2],
-                        Units.format(interval, Dimension.TIME), dig, Units.format(d.minIntervalSecond(), Dimension.TIME)));
+                tooFast++;
+                fastest = fastest == null || a[0] > fastest[0] ? a : fastest;
             }
             long samples = (long) a[1] * (long) a[2] + 2;
             if (d.maxRecordLength() != null && samples > d.maxRecordLength()) {
-                out.add(String.format(Locale.ROOT, "%s: at %s the plan's %d cycles of %d samples need a record of %d;"
-                        + " the %s declares %d at the longest", plan.source(), hz(a[0]), (int) a[1], (int) a[2], samples,
-                        dig, d.maxRecordLength()));
+                tooLong++;
+                longest = longest == null || samples > (long) longest[1] * (long) longest[2] + 2 ? a : longest;
             }
+        }
+        if (fastest != null) {
+            out.add(String.format(Locale.ROOT, "%s: at %d frequenc%s up to %s the plan's %d samples per cycle need"
+                            + " down to %s between samples; the %s declares %s at the shortest",
+                    PlanPositions.of(plan.source(), "sine_sweep.samples_per_cycle", "sine_sweep.log_sweep.stop",
+                            "sine_sweep.frequencies"), tooFast, tooFast == 1 ? "y" : "ies", hz(fastest[0]), (int) fastest[2],
+                    Units.format(1 / (fastest[0] * fastest[2]), Dimension.TIME), dig,
+                    Units.format(d.minIntervalSecond(), Dimension.TIME)));
+        }
+        if (longest != null) {
+            out.add(String.format(Locale.ROOT, "%s: %d frequenc%s need records up to %d samples (%d cycles of %d); the %s"
+                            + " declares %d at the longest", PlanPositions.of(plan.source(), "sine_sweep.cycles"), tooLong,
+                    tooLong == 1 ? "y" : "ies", (long) longest[1] * (long) longest[2] + 2, (int) longest[1],
+                    (int) longest[2], dig, d.maxRecordLength()));
         }
         return out;
     }

@@ -113,6 +113,10 @@ public final class Units {
             return String.format(Locale.ROOT, "%s %s", value, unit).trim();
         }
         String[] prefixes = {"p", "n", "u", "m", "", "k", "M", "G"};
+        if (Math.abs(value) < 1e-15 || Math.abs(value) >= 1e15) {
+            // beyond the prefixes' reach a prefixed figure would read 0.000 p or thousands of G: the exponent instead
+            return String.format(Locale.ROOT, "%.3e %s", value, unit).trim();
+        }
         int exp3 = (int) Math.floor(Math.log10(Math.abs(value)) / 3.0);
         exp3 = Math.max(-4, Math.min(3, exp3));
         double scaled = value / Math.pow(10, exp3 * 3);

@@ -433,6 +433,21 @@ class CommandLineTests {
                 .contains("is above the 2.000 V that the generator driver generic-source")
                 .contains("between samples; the digitizer driver generic-digitizer").contains("declares 10.00 us at the shortest");
         assertThat(run("check", PLAN).code()).isZero();
+        // a problem in generated frequencies is said once, at the key they came from, in sensible units
+        Path far = dir.resolve("far.yaml");
+        String text = Files.readString(Path.of(PLAN)).replace("    stop: 20 kHz", "    stop: 10 GHz")
+                .replace("    start: 200 Hz", "    start: 1e-30 Hz");
+        Files.writeString(far, text);
+        Outcome f = run("check", far.toString());
+        assertThat(f.code()).isEqualTo(2);
+        List<String> lines = f.err().lines().filter(l -> l.contains("generator driver")).toList();
+        assertThat(lines).hasSize(2);
+        int stopLine = text.lines().toList().indexOf(text.lines().filter(l -> l.contains("stop: 10 GHz")).findFirst()
+                .orElseThrow()) + 1;
+        assertThat(lines).anySatisfy(l -> assertThat(l).startsWith(far + ":" + stopLine + ":")
+                .contains("sine_sweep.log_sweep.stop").contains("above the 20.00 MHz"));
+        assertThat(lines).anySatisfy(l -> assertThat(l).contains("sine_sweep.log_sweep.start").contains("1.000e-30 Hz")
+                .doesNotContain("0.000 pHz"));
     }
 
     @Test
