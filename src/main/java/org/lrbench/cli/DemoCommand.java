@@ -104,7 +104,7 @@ final class DemoCommand implements Callable<Integer> {
             }
             LotRunner.Setup setup = ready.setup();
             System.out.println(setup.template().calibration().inForce());
-            ResultText.severity(System.out, setup.scheme());
+            ResultText.severity(System.out, setup.scheme(), setup.template().simulated());
             ResultText.samplingPlans(System.out, lotSize, setup.sampling());
             System.out.println();
             ResultText.tableHeader(System.out, qAt);

@@ -130,8 +130,14 @@ final class ResultText {
 
     /** The severity a lot is inspected under, the supplier's scheme and why, one line. */
     static void severity(PrintStream out, LotScheme scheme) {
-        out.printf(Locale.ROOT, "%s inspection, %s: %s%n", scheme.severity().word(),
-                scheme.supplier().isEmpty() ? "no supplier named" : "supplier " + scheme.supplier(), scheme.why());
+        severity(out, scheme, false);
+    }
+
+    /** As above; a lot on the simulated bench says its scheme is the simulated bench's, apart from the real one. */
+    static void severity(PrintStream out, LotScheme scheme, boolean simulated) {
+        out.printf(Locale.ROOT, "%s inspection, %s%s: %s%n", scheme.severity().word(),
+                scheme.supplier().isEmpty() ? "no supplier named" : "supplier " + scheme.supplier(),
+                simulated ? " (the simulated bench's scheme, apart from the real one)" : "", scheme.why());
     }
 
     /** The lot's sampling plans per class, one line. */

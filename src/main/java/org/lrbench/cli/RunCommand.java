@@ -263,7 +263,7 @@ final class RunCommand implements Callable<Integer> {
         try (ResultStore store = location.open()) {
             LotStart.Ready ready = start(request, store);
             LotRunner.Setup setup = ready.setup().withStop(stop);
-            ResultText.severity(System.out, setup.scheme());
+            ResultText.severity(System.out, setup.scheme(), setup.template().simulated());
             ResultText.samplingPlans(System.out, lotSize, setup.sampling());
             if (ready.isClosed()) {
                 return closed(ready.closed());
