@@ -67,10 +67,21 @@ class OperatorPageBrowserTests {
                 assertThat(browser.findElements(By.cssSelector("#plot circle"))).isNotEmpty();
                 // the plot's axes say what they are: frequency in Hz, |Z| in ohm
                 assertThat(browser.findElement(By.id("plot")).getText()).contains("Hz").contains("ohm");
-                // the latest verdict in words (and colour), the last part of the demo tray passes
+                // when the lot ends its result takes the large line where the last part's verdict stood (the
+                // last part of the demo tray passes, the lot is rejected: the page must not show PASS large)
                 WebElement verdict = browser.findElement(By.id("verdict"));
-                assertThat(verdict.getText()).startsWith("HC0417-0008: PASS");
-                assertThat(verdict.getAttribute("class")).isEqualTo("pass");
+                assertThat(verdict.getText()).startsWith("lot PAGE-1: REJECT").doesNotContain("PASS");
+                assertThat(verdict.getAttribute("class")).isEqualTo("reject");
+                assertThat(browser.findElement(By.id("status")).getText()).doesNotContain("point");
+                // one colour code with the report: fail and reject one colour, pass another, always with words
+                Object failColour = browser.executeScript("return getComputedStyle(document.querySelector('#parts td.fail')).color");
+                assertThat(browser.executeScript("return getComputedStyle(document.getElementById('verdict')).color"))
+                        .isEqualTo(failColour);
+                // at 1280 x 800 the lot's result is above the fold
+                browser.manage().window().setSize(new org.openqa.selenium.Dimension(1280, 800));
+                Object top = browser.executeScript("const r = document.getElementById('verdict').getBoundingClientRect();"
+                        + " return r.bottom <= window.innerHeight && r.top >= 0;");
+                assertThat(top).isEqualTo(Boolean.TRUE);
                 // an event the stream delivers again (a reconnect that replays) is ignored by its sequence number
                 int rowsBefore = browser.findElements(By.cssSelector("#parts tr")).size();
                 browser.executeScript("source.dispatchEvent(new MessageEvent('part_done', {data:"
