@@ -97,6 +97,10 @@ class OperatorPageBrowserTests {
                 }
                 Files.createDirectories(Path.of("target"));
                 Files.write(Path.of("target", "operator-page.png"), browser.getScreenshotAs(OutputType.BYTES));
+                // a reload shows the run's lot, not the form's default, and its result
+                browser.navigate().refresh();
+                wait.until(d -> "PAGE-1".equals(d.findElement(By.id("lot")).getAttribute("value")));
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("verdict"), "lot PAGE-1: REJECT"));
             } finally {
                 browser.quit();
             }
