@@ -93,7 +93,7 @@ public final class LotReport {
         sampling(h, l);
         limits(h, parts);
         h.append("<h2>Parts</h2><table id=\"parts\"><tr><th>#</th><th>serial</th><th>verdict</th><th>L &plusmn; U (k = 2)</th>"
-                + "<th>R_dc &plusmn; U (k = 2)</th><th>reason</th></tr>");
+                + "<th>R_dc &plusmn; U (k = 2), as measured at the bench</th><th>reason</th></tr>");
         int i = 1;
         for (PartResult p : parts) {
             h.append("<tr><td>").append(i++).append("</td><td>").append(esc(p.serial())).append("</td><td class=\"")
@@ -233,7 +233,13 @@ public final class LotReport {
         for (PartResult p : parts) {
             for (PartResult.LimitRecord r : p.limits()) {
                 Dimension d = dimensionOf(r.characteristic());
-                h.append("<tr><td>").append(esc(p.serial())).append("</td><td>").append(esc(r.name())).append("</td>")
+                // a value judged under conditions of its own (a winding resistance carried to the reference
+                // temperature) says so beside the limit's name, so it is not taken for the measured one
+                java.util.regex.Matcher at = java.util.regex.Pattern.compile(
+                        java.util.regex.Pattern.quote(r.name()) + " (at -?[0-9.]+ C \\([^)]*\\))").matcher(
+                        r.reason() == null ? "" : r.reason());
+                String label = r.name() + (at.lookingAt() ? ", " + at.group(1) : "");
+                h.append("<tr><td>").append(esc(p.serial())).append("</td><td>").append(esc(label)).append("</td>")
                         .append(withU(r.value(), r.expandedUncertainty(), d)).append("<td>").append(esc(r.spec()))
                         .append("</td><td>").append(esc(r.decisionRule())).append("</td><td>").append(esc(r.zone()))
                         .append("</td><td>").append(si(r.margin(), d)).append("</td><td class=\"")

@@ -76,6 +76,10 @@ class LotReportTests {
             assertThat(limitRows.get(1).select("td").get(2).text()).matches("[0-9.]+ ± [0-9.]+ [mu]H");
             assertThat(limitRows.get(1).select("td").get(4).text()).isEqualTo("simple");
             assertThat(limitRows.get(1).select("td").get(5).text()).isIn("clear", "outside", "marginal");
+            // every value says what it is: the winding resistance judged at the plan's reference temperature is
+            // labelled so; the parts table's R_dc is the one measured at the bench
+            assertThat(limitRows.get(2).select("td").get(1).text()).startsWith("winding resistance, at 20.00 C");
+            assertThat(d.select("#parts th").eachText()).anySatisfy(t -> assertThat(t).contains("as measured at the bench"));
             // a place to sign
             assertThat(d.getElementById("signoff").text()).contains("inspected by").contains("approved by")
                     .contains("date").contains("REJECT");
