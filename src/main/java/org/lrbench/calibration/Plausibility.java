@@ -30,8 +30,12 @@ public final class Plausibility {
      * well than that at low frequencies, where noise decides its reading (common practice, no source).
      */
     static final double OPEN_MIN_OHM = 1e3;
-    /** How many standard uncertainties a reading may stray past a bound. */
-    static final double COVERAGE = 3;
+    /**
+     * How many standard uncertainties a reading may stray past a bound: 5, so that a good bench is
+     * refused less than once in a million points (a normal tail; at 3 the coverage benchmark saw a good
+     * calibration refused for a 0.02 degree phase); miswiring is off by far more.
+     */
+    static final double COVERAGE = 5;
 
     private Plausibility() {
     }
