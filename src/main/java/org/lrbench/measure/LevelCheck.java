@@ -10,7 +10,6 @@ import org.lrbench.analysis.FrequencyEstimate;
 import org.lrbench.analysis.SineFit;
 import org.lrbench.analysis.SineFitResult;
 import org.lrbench.fixture.FixtureWiring;
-import org.lrbench.instrument.Coupling;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
 import org.lrbench.instrument.Trace;
@@ -107,15 +106,8 @@ public final class LevelCheck {
         Trace t1;
         Trace t2;
         try {
-            digitizer.batch(() -> {
-                digitizer.prepare();
-                for (int ch = 1; ch <= 2; ch++) {
-                    digitizer.setCoupling(ch, Coupling.DC);
-                    digitizer.setOffset(ch, 0.0);
-                }
-                // free running: a channel that reads nothing would never trigger, and the fit needs no trigger
-                digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
-            });
+            // free running: a channel that reads nothing would never trigger, and the fit needs no trigger
+            SweepRunner.prepareInputs(digitizer, TriggerSource.IMMEDIATE);
             digitizer.setTimingAndRanges(r.intervalSecond(), r.points(), range, range, new double[2]);
             generator.batch(() -> {
                 generator.prepare();

@@ -6,7 +6,6 @@ import java.util.List;
 import java.util.Locale;
 import java.util.TreeSet;
 import org.lrbench.analysis.FixturePhasors;
-import org.lrbench.instrument.Coupling;
 import org.lrbench.instrument.Digitizer;
 import org.lrbench.instrument.Generator;
 import org.lrbench.instrument.RangeLimits;
@@ -62,14 +61,7 @@ public final class RangeLinkCapture {
         double topVolt = RangeLadder.up(SweepRunner.START_RANGE_PER_PEAK * plan.sweep().peakEmfVolt());
         double att1 = SweepRunner.attenuation(plan, 1);
         double att2 = SweepRunner.attenuation(plan, 2);
-        digitizer.batch(() -> {
-            digitizer.prepare();
-            for (int ch = 1; ch <= 2; ch++) {
-                digitizer.setCoupling(ch, Coupling.DC);
-                digitizer.setOffset(ch, 0.0);
-            }
-            digitizer.setTrigger(TriggerSource.CHANNEL1, 0.0, true);
-        });
+        SweepRunner.prepareInputs(digitizer, TriggerSource.CHANNEL1);
         List<Double> rungs1 = granted(digitizer, 1, topVolt / att1);
         List<Double> rungs2 = granted(digitizer, 2, topVolt / att2);
         TimeBase.Request request = TimeBase.request(frequencyHz, CYCLES, SAMPLES_PER_CYCLE);
@@ -143,14 +135,7 @@ public final class RangeLinkCapture {
         if (rungs.size() < 2) {
             return new Result(frequencyHz, List.of(), List.of());
         }
-        digitizer.batch(() -> {
-            digitizer.prepare();
-            for (int ch = 1; ch <= 2; ch++) {
-                digitizer.setCoupling(ch, Coupling.DC);
-                digitizer.setOffset(ch, 0.0);
-            }
-            digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
-        });
+        SweepRunner.prepareInputs(digitizer, TriggerSource.IMMEDIATE);
         TimeBase.Request request = TimeBase.request(frequencyHz, CYCLES, SAMPLES_PER_CYCLE);
         digitizer.setTiming(request.intervalSecond(), request.points());
         double amplitude = plan.sweep().amplitudeVolt();

@@ -90,20 +90,9 @@ public final class SweepRunner {
                 ? MultisineCapture.design(sweep, generator.maxArbitrarySamples()) : null;
         // each instrument's reset and settings in one message where its driver can; the generator's
         // output comes on in its message, last
-        digitizer.batch(() -> {
-            digitizer.prepare();
-            for (int ch = 1; ch <= 2; ch++) {
-                digitizer.setCoupling(ch, Coupling.DC);
-                digitizer.setOffset(ch, 0.0);
-            }
-            // the sense-resistor voltage is the current: trigger on its rising zero crossing; with a DC
-            // offset the crossing level is unknown, so let the digitizer run free (the fit needs no trigger)
-            if (sweep.offsetVolt() == 0) {
-                digitizer.setTrigger(TriggerSource.CHANNEL1, 0.0, true);
-            } else {
-                digitizer.setTrigger(TriggerSource.IMMEDIATE, 0.0, true);
-            }
-        });
+        // the sense-resistor voltage is the current: trigger on its rising zero crossing; with a DC
+        // offset the crossing level is unknown, so let the digitizer run free (the fit needs no trigger)
+        prepareInputs(digitizer, sweep.offsetVolt() == 0 ? TriggerSource.CHANNEL1 : TriggerSource.IMMEDIATE);
         // no node of this passive circuit exceeds the source EMF: start both channels above it
         double start = START_RANGE_PER_PEAK * sweep.peakEmfVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
@@ -150,6 +139,21 @@ public final class SweepRunner {
                 generator.outputOff();
             }
         }
+    }
+
+    /**
+     * The digitizer reset and both inputs DC-coupled without offset, triggered as given, in one message
+     * where its driver can: how every capture of lrbench starts.
+     */
+    static void prepareInputs(Digitizer digitizer, TriggerSource trigger) {
+        digitizer.batch(() -> {
+            digitizer.prepare();
+            for (int ch = 1; ch <= 2; ch++) {
+                digitizer.setCoupling(ch, Coupling.DC);
+                digitizer.setOffset(ch, 0.0);
+            }
+            digitizer.setTrigger(trigger, 0.0, true);
+        });
     }
 
     /** The probe attenuation of a channel under the plan's wiring (1 without wiring). */
