@@ -168,37 +168,7 @@ public final class ScpiSession implements AutoCloseable {
      * ends a definite-length block with the message terminator (most do; some send the bytes only).
      */
     public synchronized byte[] queryBlock(String command, boolean terminated) {
-        write(command);
-        queries++;
-        long start = System.nanoTime();
-        deadline = start + timeout.toNanos();
-        blockProgress = "its header not received";
-        try {
-            byte[] block = readBlock(terminated);
-            if (IO.isDebugEnabled()) {
-                IO.debug("{} < block of {} bytes: {}", instrument, block.length, firstBytes(block));
-            }
-            return block;
-        } catch (BlockFormatException e) {
-            IO.debug("{} ! not a valid block: {}", instrument, e.getMessage());
-            stale = true;
-            flushLateReplies();
-            throw new InstrumentException(instrument + " (" + transport.address() + "): reply to '" + command
-                    + "' is not a valid block: " + e.getMessage(), e);
-        } catch (TransportTimeoutException e) {
-            stale = true;
-            flushLateReplies();
-            throw new InstrumentException(instrument + " (" + transport.address() + "): block reply to '" + command
-                    + "' incomplete after " + elapsedMillis(start) + " ms, " + blockProgress + " (timeout "
-                    + timeout.toMillis() + " ms, plus the block's bytes at " + Math.round(minimumBytesPerSecond)
-                    + " bytes/s at the slowest)", e);
-        } catch (IOException e) {
-            stale = true;
-            throw new InstrumentException(instrument + " (" + transport.address() + "): reading the block reply to '"
-                    + command + "' failed after " + elapsedMillis(start) + " ms: " + cause(e), e);
-        } finally {
-            ioNanos += System.nanoTime() - start;
-        }
+        return queryBlocks(command, 1, terminated).get(0);
     }
 
     /**
@@ -212,6 +182,7 @@ public final class ScpiSession implements AutoCloseable {
         long start = System.nanoTime();
         deadline = start + timeout.toNanos();
         blockProgress = "its header not received";
+        String what = count == 1 ? "a valid block" : count + " valid blocks";
         List<byte[]> out = new ArrayList<>();
         try {
             for (int i = 0; i < count; i++) {
@@ -223,24 +194,28 @@ public final class ScpiSession implements AutoCloseable {
                                 + " If not, leave out fetch_together)");
                     }
                 }
-                out.add(readBlock(false));
-            }
-            if (terminated) {
-                expectTerminator(count + " blocks");
+                // the last block is followed by the message terminator where the instrument sends one
+                byte[] block = readBlock(terminated && i == count - 1);
+                if (IO.isDebugEnabled()) {
+                    IO.debug("{} < block of {} bytes: {}", instrument, block.length, firstBytes(block));
+                }
+                out.add(block);
             }
             return out;
         } catch (BlockFormatException e) {
+            IO.debug("{} ! not {}: {}", instrument, what, e.getMessage());
             stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): reply to '" + command
-                    + "' is not " + count + " valid blocks: " + e.getMessage(), e);
+                    + "' is not " + what + ": " + e.getMessage(), e);
         } catch (TransportTimeoutException e) {
             stale = true;
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): block reply to '" + command
-                    + "' incomplete after " + elapsedMillis(start) + " ms, " + out.size() + " of " + count + " blocks and "
-                    + blockProgress + " (timeout " + timeout.toMillis() + " ms, plus the blocks' bytes at "
-                    + Math.round(minimumBytesPerSecond) + " bytes/s at the slowest)", e);
+                    + "' incomplete after " + elapsedMillis(start) + " ms, " + (count == 1 ? "" : out.size() + " of "
+                    + count + " blocks and ") + blockProgress + " (timeout " + timeout.toMillis() + " ms, plus the"
+                    + (count == 1 ? " block's" : " blocks'") + " bytes at " + Math.round(minimumBytesPerSecond)
+                    + " bytes/s at the slowest)", e);
         } catch (IOException e) {
             stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the block reply to '"
