@@ -106,8 +106,8 @@ public final class CoverageBenchmark {
                 ? "each seed another bench: sense resistor (0.1 %), range stages (0.025 % per channel), meter (0.015 %)"
                 + " drawn within their specifications"
                 : "bench errors off (sense resistor, range stages and meter exact)");
-        out.printf(Locale.ROOT, "%-44s %-10s %9s %15s %9s %8s%n", "part", "quantity", "coverage", "95 % interval",
-                "bias/sd", "errors");
+        out.printf(Locale.ROOT, "%-44s %-10s %9s %15s %9s %6s %8s%n", "part", "quantity", "coverage", "95 % interval",
+                "bias/sd", "sd/u", "errors");
         int misses = 0;
         for (Case c : cases()) {
             Plan plan = PlanLoader.parse(c.plan(), "coverage.yaml", b.maxAmplitudeVolt());
@@ -127,7 +127,8 @@ public final class CoverageBenchmark {
                         continue;
                     }
                     readings.computeIfAbsent(e.getKey(), k -> new ArrayList<>())
-                            .add(new double[] {e.getValue().value(), e.getValue().expandedUncertainty()});
+                            .add(new double[] {e.getValue().value(), e.getValue().expandedUncertainty(),
+                                    e.getValue().standardUncertainty()});
                 }
             }
             for (Map.Entry<String, List<double[]>> e : readings.entrySet()) {
@@ -138,11 +139,14 @@ public final class CoverageBenchmark {
                 double sd = Math.sqrt(v.stream().mapToDouble(x -> (x[0] - mean) * (x[0] - mean)).sum() / Math.max(1, v.size() - 1));
                 double coverage = 100.0 * covered / v.size();
                 double bias = sd > 0 ? (mean - t) / sd : Double.NaN;
+                // the readings' scatter over the budget's own u (root mean square): near 1 when the budget
+                // claims what the bench does; the bench errors drawn per seed are part of the scatter
+                double rmsU = Math.sqrt(v.stream().mapToDouble(x -> x[2] * x[2]).average().orElse(Double.NaN));
                 boolean miss = coverage < 93 || coverage > 99 || !(Math.abs(bias) < 0.3);
                 misses += miss ? 1 : 0;
                 double[] wilson = wilson(covered, v.size());
-                out.printf(Locale.ROOT, "%-44s %-10s %8.1f%% %6.1f-%5.1f %% %+9.2f %8d%s%n", c.name(), e.getKey(), coverage,
-                        wilson[0], wilson[1], bias, errors, miss ? "   MISS" : "");
+                out.printf(Locale.ROOT, "%-44s %-10s %8.1f%% %6.1f-%5.1f %% %+9.2f %6.2f %8d%s%n", c.name(), e.getKey(),
+                        coverage, wilson[0], wilson[1], bias, sd / rmsU, errors, miss ? "   MISS" : "");
             }
             if (readings.isEmpty()) {
                 misses++;
@@ -150,7 +154,8 @@ public final class CoverageBenchmark {
             }
         }
         out.printf(Locale.ROOT, "the interval is where the true coverage lies (Wilson score, 95 %%); the bias is known to"
-                + " +/- %.2f sigma (one standard error over %d seeds)%n", 1 / Math.sqrt(seeds), seeds);
+                + " +/- %.2f sigma (one standard error over %d seeds); sd/u is the readings' scatter over their root-mean-square"
+                + " standard uncertainty%n", 1 / Math.sqrt(seeds), seeds);
         out.println(misses == 0 ? "every goal met" : misses + " quantity/part pair(s) miss a goal (marked MISS)");
         return misses;
     }
@@ -196,7 +201,7 @@ public final class CoverageBenchmark {
                 .withErrorSeed(seed));
     }
 
-    private static PartResult once(BenchConfig bench, Plan plan, PartModel part, DriverLoader loader, long seed)
+    static PartResult once(BenchConfig bench, Plan plan, PartModel part, DriverLoader loader, long seed)
             throws Exception {
         BenchConfig b = benchOf(bench, seed);
         BenchConfig cal = b.withSimulation(b.simulation().withSeed(seed));

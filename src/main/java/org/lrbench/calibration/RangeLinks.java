@@ -127,17 +127,20 @@ public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs
         }
         List<String> unread = new ArrayList<>(unreadBefore);
         if (readings.size() < all.size()) {
-            unread.add((all.size() - readings.size()) + " reading(s) on ranges not linked to the others");
+            unread.add((all.size() - readings.size()) + NOT_LINKED);
         }
         return new RangeLinks(measuredAt, frequencyHz, List.copyOf(pairs), List.copyOf(all), Math.max(1, dof),
                 List.copyOf(unread));
     }
 
+    private static final String NOT_LINKED = " reading(s) on ranges not linked to the others";
+
     /** The same links with more readings, all solved again together. */
     public RangeLinks plus(String at, List<RangeLinkCapture.Reading> more, List<String> moreUnread) {
         List<RangeLinkCapture.Reading> all = new ArrayList<>(readings);
         all.addAll(more);
-        List<String> notes = new ArrayList<>(unread);
+        // solved again, so the old count of readings left out is replaced by the new one
+        List<String> notes = new ArrayList<>(unread.stream().filter(u -> !u.endsWith(NOT_LINKED)).toList());
         notes.addAll(moreUnread);
         return solve(at, frequencyHz, all, notes);
     }
@@ -161,21 +164,38 @@ public record RangeLinks(String measuredAt, double frequencyHz, List<Pair> pairs
         return row;
     }
 
-    /** The readings linked to the first one through shared ranges (the rest cannot be put on its scale). */
-    private static List<RangeLinkCapture.Reading> connected(List<RangeLinkCapture.Reading> all) {
-        java.util.Set<String> seen = new java.util.HashSet<>();
-        seen.add(key(all.get(0).channelA(), all.get(0).rangeA()));
-        boolean grown = true;
-        while (grown) {
-            grown = false;
-            for (RangeLinkCapture.Reading r : all) {
-                String a = key(r.channelA(), r.rangeA());
-                String b = key(r.channelB(), r.rangeB());
-                if ((seen.contains(a) || seen.contains(b)) && (seen.add(a) | seen.add(b))) {
-                    grown = true;
+    /**
+     * The readings of the largest group linked through shared ranges (the most readings; the rest cannot
+     * be put on its scale). A pair lost at the smallest ranges (clipped on noise) can leave one reading on
+     * its own there; the group is never chosen by the order in which the pairs were read.
+     */
+    static List<RangeLinkCapture.Reading> connected(List<RangeLinkCapture.Reading> all) {
+        List<RangeLinkCapture.Reading> best = List.of();
+        java.util.Set<String> placed = new java.util.HashSet<>();
+        for (RangeLinkCapture.Reading start : all) {
+            if (placed.contains(key(start.channelA(), start.rangeA()))) {
+                continue;
+            }
+            java.util.Set<String> seen = new java.util.HashSet<>();
+            seen.add(key(start.channelA(), start.rangeA()));
+            boolean grown = true;
+            while (grown) {
+                grown = false;
+                for (RangeLinkCapture.Reading r : all) {
+                    String a = key(r.channelA(), r.rangeA());
+                    String b = key(r.channelB(), r.rangeB());
+                    if ((seen.contains(a) || seen.contains(b)) && (seen.add(a) | seen.add(b))) {
+                        grown = true;
+                    }
                 }
             }
+            placed.addAll(seen);
+            List<RangeLinkCapture.Reading> group = all.stream()
+                    .filter(r -> seen.contains(key(r.channelA(), r.rangeA()))).toList();
+            if (group.size() > best.size()) {
+                best = group;
+            }
         }
-        return all.stream().filter(r -> seen.contains(key(r.channelA(), r.rangeA()))).toList();
+        return best;
     }
 }
