@@ -40,8 +40,14 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
     /**
      * @param divisions the screen's vertical divisions, for {@code per_division}
      * @param ranges    the instrument's ranges in its own unit, ascending; empty when its limits are queried
+     * @param rounding  how the instrument rounds a requested range to one of its own (null: not declared)
      */
-    public record Vertical(VerticalSetting setting, int divisions, List<Double> ranges) {
+    public record Vertical(VerticalSetting setting, int divisions, List<Double> ranges,
+                           org.lrbench.instrument.RangeLimits.Rounding rounding) {
+
+        public Vertical(VerticalSetting setting, int divisions, List<Double> ranges) {
+            this(setting, divisions, ranges, null);
+        }
 
         /** Instrument value per volt of full-scale peak-to-peak range. */
         public double perPeakToPeak() {

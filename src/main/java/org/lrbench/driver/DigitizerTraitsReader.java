@@ -7,6 +7,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import org.lrbench.instrument.RangeLimits;
 import org.lrbench.scpi.TraceEncoding;
 import org.lrbench.units.Dimension;
 import org.lrbench.yaml.YamlMap;
@@ -21,7 +22,7 @@ final class DigitizerTraitsReader {
     static DigitizerTraits read(YamlMap root, TraceEncoding encoding) {
         DigitizerTraits g = DigitizerTraits.GENERIC;
         DigitizerTraits.Vertical vertical = g.vertical();
-        YamlMap v = root.map("vertical", false, "setting", "divisions", "ranges");
+        YamlMap v = root.map("vertical", false, "setting", "divisions", "ranges", "rounding");
         if (v != null) {
             DigitizerTraits.VerticalSetting setting = v.has("setting") ? v.choice("setting", true, Map.of(
                     "peak_to_peak", DigitizerTraits.VerticalSetting.PEAK_TO_PEAK,
@@ -42,8 +43,11 @@ final class DigitizerTraitsReader {
                     ranges.add(r);
                 }
             }
+            RangeLimits.Rounding rounding = v.has("rounding") ? v.choice("rounding", true, Map.of(
+                    "up", RangeLimits.Rounding.UP, "down", RangeLimits.Rounding.DOWN,
+                    "nearest", RangeLimits.Rounding.NEAREST)) : null;
             vertical = new DigitizerTraits.Vertical(setting == null ? DigitizerTraits.VerticalSetting.PEAK_TO_PEAK : setting,
-                    divisions == null ? 1 : divisions, List.copyOf(ranges));
+                    divisions == null ? 1 : divisions, List.copyOf(ranges), rounding);
         }
         DigitizerTraits.Scaling scaling = g.scaling();
         YamlMap s = root.map("scaling", false, "source", "fields", "queries", "zero_code", "full_scale_codes", "clip_codes");

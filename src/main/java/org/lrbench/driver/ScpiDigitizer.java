@@ -53,7 +53,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     /** A channel's range limits, asked once: they are the instrument's, not a setting's. */
     @Override
     public RangeLimits rangeLimits(int channel) {
-        return limitsAsked.computeIfAbsent(channel, this::askRangeLimits);
+        return limitsAsked.computeIfAbsent(channel, c -> askRangeLimits(c).withRounding(traits.vertical().rounding()));
     }
 
     private RangeLimits askRangeLimits(int channel) {

@@ -45,6 +45,8 @@ public final class AutoRanger {
     private final RangeLimits[] limits;
     private final double[] request;
     private final double[] tooSmall = new double[3];
+    /** The smallest range known to hold the last excursion within {@value #HIGH_FILL}: asked past before acquiring. */
+    private final double[] need = new double[3];
     private final double[] holds = new double[3];
     private final double[] lastAsked = {Double.NaN, Double.NaN, Double.NaN};
     private final double[] lastGranted = new double[3];
@@ -80,7 +82,7 @@ public final class AutoRanger {
         timing[0] = digitizer.setTimingAndRangesThenAcquire(intervalSecond, points, request[1], request[2], g);
         for (int ch = 1; ch <= 2; ch++) {
             lastAsked[ch] = request[ch];
-            lastGranted[ch] = g[ch - 1];
+            lastGranted[ch] = checked(ch, request[ch], g[ch - 1]);
         }
         preAsked = true;
         begin();
@@ -102,6 +104,7 @@ public final class AutoRanger {
     private void begin() {
         for (int ch = 1; ch <= 2; ch++) {
             tooSmall[ch] = 0;
+            need[ch] = 0;
             holds[ch] = Double.POSITIVE_INFINITY;
             history.get(ch).clear();
             asked.get(ch).clear();
@@ -150,16 +153,22 @@ public final class AutoRanger {
         Timing t = digitizer.setTimingAndRanges(intervalSecond, points, request[1], request[2], g);
         for (int ch = 1; ch <= 2; ch++) {
             lastAsked[ch] = request[ch];
-            lastGranted[ch] = g[ch - 1];
+            lastGranted[ch] = checked(ch, request[ch], g[ch - 1]);
         }
         preAsked = true;
         return t;
     }
 
-    /** Sets the channel's requested range, stepping past any granted range known to be too small. */
+    /**
+     * Sets the channel's requested range, stepping past any granted range known to be too small before
+     * acquiring: one seen to clip or overfill, or one below what the last excursion needs (an instrument
+     * that rounds a request down or to the nearest of its ranges can grant less than was asked: a round
+     * trip more, not a capture more).
+     */
     private double set(int ch) {
         double g = ask(ch, request[ch]);
-        for (int step = 0; step < 40 && g <= tooSmall[ch] * (1 + SAME) && g < limits[ch].maxVolt() * (1 - SAME); step++) {
+        for (int step = 0; step < 40 && (g <= tooSmall[ch] * (1 + SAME) || g < need[ch] * (1 - SAME))
+                && g < limits[ch].maxVolt() * (1 - SAME); step++) {
             request[ch] = clamp(ch, Math.max(request[ch], g) * 1.5);
             g = ask(ch, request[ch]);
         }
@@ -176,8 +185,29 @@ public final class AutoRanger {
             asked.get(ch).add(request[ch]);
             history.get(ch).add("asked " + volts(request[ch]) + " got " + volts(g[ch - 1]));
             lastAsked[ch] = request[ch];
-            lastGranted[ch] = g[ch - 1];
+            lastGranted[ch] = checked(ch, request[ch], g[ch - 1]);
         }
+    }
+
+    /**
+     * A granted range, refused where it contradicts what the driver declares: a range from its list asked
+     * exactly and another granted, or a grant on the wrong side of the request for its declared rounding.
+     * Left unchecked, the ranger would plan on ranges the instrument does not give.
+     */
+    private double checked(int ch, double asked, double granted) {
+        RangeLimits lim = limits[ch];
+        boolean listed = lim.steps().stream().anyMatch(s -> Math.abs(s - asked) <= 1e-6 * s);
+        if (listed && Math.abs(granted - asked) > 1e-6 * asked) {
+            throw new org.lrbench.instrument.InstrumentException("the digitizer granted channel " + ch + " a range of "
+                    + volts(granted) + " when asked for " + volts(asked) + ", one of the ranges its driver lists"
+                    + " (vertical.ranges): the list, or the vertical setting's unit, is not the instrument's");
+        }
+        if (!listed && lim.rounding() != null && !lim.rounding().allows(asked, granted)) {
+            throw new org.lrbench.instrument.InstrumentException("the digitizer granted channel " + ch + " a range of "
+                    + volts(granted) + " when asked for " + volts(asked) + ", but its driver declares vertical.rounding: "
+                    + lim.rounding().name().toLowerCase(Locale.ROOT) + ": the declaration is not the instrument's");
+        }
+        return granted;
     }
 
     private double ask(int ch, double r) {
@@ -185,7 +215,7 @@ public final class AutoRanger {
             return lastGranted[ch]; // the instrument is on it already
         }
         asked.get(ch).add(r);
-        double g = digitizer.setRange(ch, r);
+        double g = checked(ch, r, digitizer.setRange(ch, r));
         history.get(ch).add("asked " + volts(r) + " got " + volts(g));
         lastAsked[ch] = r;
         lastGranted[ch] = g;
@@ -209,6 +239,9 @@ public final class AutoRanger {
                 return true; // held by the largest range, with less margin than wished
             }
             tooSmall[ch] = Math.max(tooSmall[ch], g);
+            if (!clipped) {
+                need[ch] = Math.max(need[ch], 2 * e / HIGH_FILL);
+            }
             // clipping tells nothing of the size: ten times larger, but no larger than a range seen to hold it
             double next = clipped ? Math.min(g * 10, holds[ch]) : 2 * e / TARGET_FILL;
             request[ch] = fresh(ch, clamp(ch, Math.max(next, g * 1.25)));

@@ -160,4 +160,31 @@ class PersonalityTests {
         assertThat(dig.rangeLimits(1).minVolt()).isCloseTo(0.01, within(1e-12));
         assertThat(dig.rangeLimits(2).maxVolt()).isCloseTo(100, within(1e-9));
     }
+
+    /**
+     * A range list that is not the instrument's (here each step half as large again as the per-division
+     * instrument's 1-2-5 volts per division, which it rounds to the nearest): the first listed range asked
+     * for comes back another, and the part ends in an instrument error that names the key, not in a
+     * ranger that plans on ranges it never gets.
+     */
+    @Test
+    void aRangeListThatIsNotTheInstrumentsIsNamedAtTheFirstGrant(@TempDir Path dir) throws Exception {
+        String text = Files.readString(HOME.resolve("drivers/sim-div8-digitizer.yaml")).replaceAll("(?m)^  ranges: .*$",
+                "  ranges: [1.5 mV, 3 mV, 7.5 mV, 15 mV, 30 mV, 75 mV, 150 mV, 300 mV, 750 mV, 1.5 V, 3 V, 7.5 V]");
+        Files.writeString(dir.resolve("div8-wrong-list.yaml"), text);
+        Files.copy(HOME.resolve("drivers/sim-source-matched.yaml"), dir.resolve("sim-source-matched.yaml"));
+        Files.copy(HOME.resolve("drivers/generic-source.yaml"), dir.resolve("generic-source.yaml"));
+        BenchConfig div8 = BenchLoader.load(HOME.resolve("simulator/bench-div8.yaml"));
+        BenchConfig b = new BenchConfig(div8.source(), div8.name(), div8.maxAmplitudeVolt(), div8.generator(),
+                new InstrumentLink("div8-wrong-list", div8.digitizer().address()), null, null, div8.simulation(),
+                div8.accuracy());
+        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
+        SimBench sim = new SimBench(b.simulation(), plan.wiring(), PartFile.load(HOME.resolve(
+                "simulator/parts/qfd-ind-1m0-nominal.yaml")));
+        try (BenchInstruments inst = BenchInstruments.open(b, new DriverLoader(dir), sim)) {
+            PartResult r = PartRun.measure(new PartRun.Request(plan, "0", b, "L", "S", true, "test", Calibration.NONE),
+                    inst, BenchClock.NONE, SweepListener.NONE);
+            assertThat(r.error()).contains("vertical.ranges").contains("when asked for");
+        }
+    }
 }

@@ -3,6 +3,7 @@ package org.lrbench.measure;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import java.util.Arrays;
+import java.util.List;
 import org.assertj.core.api.Assertions;
 import org.junit.jupiter.api.Test;
 import org.lrbench.TestBench;
@@ -100,5 +101,56 @@ class AutoRangerTests {
                 .isInstanceOf(MeasurementException.class)
                 .hasMessageContaining("largest range")
                 .hasMessageContaining("asked 0.01 V got 0.01 V (clipped)").hasMessageContaining("asked 0.05 V got 0.05 V (clipped)");
+    }
+
+    /**
+     * An instrument that rounds a request down or to the nearest of its 1-2-5 ranges (common practice,
+     * no source: both are found in oscilloscopes) can grant less than the ranger asked. The grant is read
+     * back before acquiring, so a range below what an earlier capture showed the signal needs is asked
+     * past with a round trip, never tried with a capture: once a channel has seen the signal unclipped,
+     * none of its later captures clips or fills past the ranger's high mark (a trace a code or two tall
+     * tells nothing of the size yet).
+     */
+    @Test
+    void aGrantBelowWhatTheSignalNeedsIsAskedPastBeforeAcquiring() throws Exception {
+        double[] set = RangeSetDigitizer.oneTwoFive(0.01, 50);
+        for (double start : new double[] {0.01, 0.3, 1.1, 2.6, 7, 100}) {
+            for (double amplitude : new double[] {0.4, 0.7, 1.2, 1.9, 3.0}) {
+            for (RangeSetDigitizer.Rounding rounding : RangeSetDigitizer.Rounding.values()) {
+                TestBench b = bench(5);
+                b.generator.setAmplitude(amplitude);
+                RangeSetDigitizer d = new RangeSetDigitizer(b.digitizer, set, rounding);
+                new AutoRanger(d, start, start).acquire();
+                for (int ch = 1; ch <= 2; ch++) {
+                    List<Double> f = d.fills.get(ch);
+                    int seen = 0;
+                    // a capture shows the size once unclipped and a few codes tall (8-bit: a code is 1/128 of the fill)
+                    while (seen < f.size() && !(f.get(seen) > 0.05 && f.get(seen) <= 1)) {
+                        seen++;
+                    }
+                    for (int i = seen + 1; i < f.size(); i++) {
+                        assertThat(f.get(i)).as("%s from %s V at %s V, channel %d, fills %s", rounding, start,
+                                amplitude, ch, f).isLessThanOrEqualTo(AutoRanger.HIGH_FILL);
+                    }
+                }
+            }
+            }
+        }
+    }
+
+    /** A declared rounding the instrument does not keep is refused naming the driver key, not ranged around. */
+    @Test
+    void aGrantAgainstTheDeclaredRoundingNamesTheKey() throws Exception {
+        TestBench b = bench(5);
+        RangeSetDigitizer d = new RangeSetDigitizer(b.digitizer, RangeSetDigitizer.oneTwoFive(0.01, 50),
+                RangeSetDigitizer.Rounding.DOWN);
+        d.declared = org.lrbench.instrument.RangeLimits.Rounding.UP;
+        Assertions.assertThatThrownBy(() -> new AutoRanger(d, 0.3, 0.3).acquire())
+                .isInstanceOf(org.lrbench.instrument.InstrumentException.class)
+                .hasMessageContaining("vertical.rounding: up");
+        RangeSetDigitizer agreeing = new RangeSetDigitizer(bench(5).digitizer, RangeSetDigitizer.oneTwoFive(0.01, 50),
+                RangeSetDigitizer.Rounding.DOWN);
+        agreeing.declared = org.lrbench.instrument.RangeLimits.Rounding.DOWN;
+        assertThat(new AutoRanger(agreeing, 0.3, 0.3).acquire().acquisitions()).isPositive();
     }
 }

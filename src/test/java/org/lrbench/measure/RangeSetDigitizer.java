@@ -22,6 +22,8 @@ final class RangeSetDigitizer implements Digitizer {
     private final double[] ranges;
     private final Rounding rounding;
     final List<Double> requests = new ArrayList<>();
+    /** The rounding a driver would declare for it (null: none declared). */
+    RangeLimits.Rounding declared;
     int acquisitions;
 
     RangeSetDigitizer(Digitizer inner, double[] ranges, Rounding rounding) {
@@ -81,7 +83,7 @@ final class RangeSetDigitizer implements Digitizer {
 
     @Override
     public RangeLimits rangeLimits(int channel) {
-        return new RangeLimits(ranges[0], ranges[ranges.length - 1]);
+        return new RangeLimits(ranges[0], ranges[ranges.length - 1], List.of(), declared);
     }
 
     @Override
@@ -120,8 +122,13 @@ final class RangeSetDigitizer implements Digitizer {
         inner.setTrigger(source, levelVolt, rising);
     }
 
+    /** Each fetched trace's fill (excursion over half its range; above 1: clipped), per channel, in order. */
+    final List<List<Double>> fills = List.of(new ArrayList<>(), new ArrayList<>(), new ArrayList<>());
+
     @Override
     public Trace fetch(int channel) {
-        return inner.fetch(channel);
+        Trace t = inner.fetch(channel);
+        fills.get(channel).add(t.clippedSamples() > 0 ? Double.POSITIVE_INFINITY : 2 * t.excursion() / t.rangeVolt());
+        return t;
     }
 }
