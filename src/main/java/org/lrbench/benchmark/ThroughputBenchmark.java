@@ -52,14 +52,14 @@ public final class ThroughputBenchmark {
      */
     public record Figures(SimTiming timing, double partSecond, double minimumSecond, double roundTripsPerPoint,
                           int maxRoundTrips, String verdict, double sweepSecond, double inductanceU,
-                          double resistanceU, double firstPartSecond) {
+                          double resistanceU, double firstPartSecond, long partRoundTrips, int points) {
         double ratio() {
             return partSecond / minimumSecond;
         }
     }
 
     public static int run(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part,
-                          List<SimTiming> profiles, SimLot lot) throws Exception {
+                          List<SimTiming> profiles, SimLot lot, List<BenchConfig> dialectBenches) throws Exception {
         out.printf(Locale.ROOT, "throughput of plan %s on the simulated bench, per timing profile: %d parts one after"
                 + " another on instruments kept open (a tray behind a switch); the ratio and parts/hour are of the parts"
                 + " after the first%n", plan.partNumber(), TRAY);
@@ -83,9 +83,40 @@ public final class ThroughputBenchmark {
             }
         }
         out.println("goals: part time at most 1.15x the physical minimum; at most 6 round trips per point");
+        misses += dialects(out, dialectBenches, plan, drivers, part);
         misses += excitations(out, bench, plan, drivers, part, profiles);
         misses += lotVerdicts(out, bench, plan, drivers, lot);
         out.println(misses == 0 ? "every goal met" : misses + " row(s) miss a goal (marked MISS)");
+        return misses;
+    }
+
+    /**
+     * Round trips of a whole part (sweep, triangle, DC resistance: everything from the part's first
+     * command to its result, on instruments kept open) over its sweep points, on each simulated bench:
+     * every digitizer dialect the simulator speaks. Goals: at most 5 on our own dialect (the generic
+     * driver, one message per exchange the instrument allows), at most 8 on a digitizer that needs
+     * polling or a scale reply per channel.
+     */
+    static int dialects(PrintStream out, List<BenchConfig> benches, Plan plan, Path drivers, PartModel part)
+            throws Exception {
+        if (benches.isEmpty()) {
+            return 0;
+        }
+        out.printf(Locale.ROOT, "%nround trips of a whole part per sweep point, per digitizer dialect (the second of two"
+                + " parts on instruments kept open)%n");
+        out.printf(Locale.ROOT, "%-28s %-30s %12s %8s %10s %6s%n", "bench", "digitizer driver", "round trips", "points",
+                "per point", "goal");
+        int misses = 0;
+        for (BenchConfig b : benches) {
+            Figures f = measure(b, plan.withSweep(plan.sweep().withMultisine(false)), drivers, part, SimTiming.NONE, 2);
+            boolean ours = b.digitizer().driver().startsWith("generic");
+            double perPoint = (double) f.partRoundTrips() / f.points();
+            int goal = ours ? 5 : 8;
+            boolean miss = !(perPoint <= goal);
+            misses += miss ? 1 : 0;
+            out.printf(Locale.ROOT, "%-28s %-30s %12d %8d %10.2f %6d%s%n", b.name(), b.digitizer().driver(),
+                    f.partRoundTrips(), f.points(), perPoint, goal, miss ? "   MISS" : "");
+        }
         return misses;
     }
 
@@ -194,7 +225,7 @@ public final class ThroughputBenchmark {
             }
             double next = parts > 1 ? later / (parts - 1) : first;
             return new Figures(timing, next, f.minimumSecond(), f.roundTripsPerPoint(), f.maxRoundTrips(), f.verdict(),
-                    f.sweepSecond(), f.inductanceU(), f.resistanceU(), first);
+                    f.sweepSecond(), f.inductanceU(), f.resistanceU(), first, f.partRoundTrips(), f.points());
         }
     }
 
@@ -258,7 +289,7 @@ public final class ThroughputBenchmark {
         var uR = r.budgets().get("series_resistance_dc");
         return new Figures(timing, seconds, minimum, perPoint, max, r.verdict().word(), (lastPoint[0] - started[0]) / 1e9,
                 uL == null ? Double.NaN : uL.expandedUncertainty(), uR == null ? Double.NaN : uR.expandedUncertainty(),
-                seconds);
+                seconds, queries(inst) - q0, points.size());
     }
 
     /** The settle the plan's rule asks for at a point. */

@@ -125,8 +125,13 @@ final class BenchmarkCommand implements Runnable {
             }
             BenchConfig bench = Inputs.bench(Home.defaultBench());
             Plan plan = demoPlan(bench);
+            // every digitizer dialect the simulator speaks, for the round trips of a whole part
+            List<BenchConfig> dialects = new java.util.ArrayList<>();
+            for (String name : List.of("bench.yaml", "bench-pm12.yaml", "bench-div8.yaml")) {
+                dialects.add(Inputs.bench(Home.root().resolve("simulator").resolve(name)));
+            }
             int misses = org.lrbench.benchmark.ThroughputBenchmark.run(System.out, bench, plan, Home.drivers(),
-                    nominalPart(), timings, org.lrbench.sim.SimLot.load(Home.demoLot()));
+                    nominalPart(), timings, org.lrbench.sim.SimLot.load(Home.demoLot()), dialects);
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }
