@@ -363,7 +363,19 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                 for (int ch : unscaled) {
                     message.append(';').append(driver.command("scale_query").render(channel(ch)));
                 }
-                List<String> replies = session.configure(message.toString(), driver.errorQuery());
+                List<String> replies;
+                try {
+                    replies = session.configure(message.toString(), driver.errorQuery());
+                } catch (InstrumentException e) {
+                    if (!timedOut(e)) {
+                        throw e;
+                    }
+                    throw new InstrumentException(e.getMessage() + ". No answer to *OPC? after arming within the driver's"
+                            + " timeout (" + driver.timeout().toMillis() + " ms): a digitizer that tells the end of a"
+                            + " capture only through a status query needs acquisition: {complete: poll, poll_query:"
+                            + " ..., until: ...} in its driver, one without *OPC? complete: wait; a record longer than"
+                            + " the timeout needs a longer timeout", e);
+                }
                 if (replies.size() != 1 + unscaled.size()) {
                     throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
                             + " replies; expected " + (1 + unscaled.size()));
@@ -401,6 +413,16 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                         + driver.timeout().toMillis() + " ms");
             }
         }
+    }
+
+    /** Whether the failure was a reply that never came (a timeout anywhere in its causes). */
+    private static boolean timedOut(Throwable e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof org.lrbench.transport.TransportTimeoutException) {
+                return true;
+            }
+        }
+        return false;
     }
 
     private static void pause(long nanos) {

@@ -187,4 +187,48 @@ class PersonalityTests {
             assertThat(r.error()).contains("vertical.ranges").contains("when asked for");
         }
     }
+
+    /**
+     * A polled digitizer driven by a driver that leaves out its acquisition section (so lrbench waits
+     * with *OPC?, the default), on an instrument that does not answer *OPC? while it captures: the error
+     * names what to declare (acquisition: complete: poll), not only "no reply".
+     */
+    @Test
+    void aPolledDigitizerWithoutItsPollSectionIsToldWhatToDeclare(@TempDir Path dir) throws Exception {
+        String text = Files.readString(HOME.resolve("drivers/sim-pm12-digitizer.yaml"))
+                .replaceAll("acquisition:\\n(  .*\\n)+", "").replaceAll("(?m)^timeout: .*$", "timeout: 200 ms");
+        Files.writeString(dir.resolve("pm12-no-poll.yaml"), text);
+        DriverFile d = new DriverLoader(dir).load("pm12-no-poll", DriverKind.DIGITIZER);
+        assertThat(d.digitizer().acquisition().complete()).isEqualTo(DigitizerTraits.Completion.OPC);
+        BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench-pm12.yaml"));
+        SimBench sim = new SimBench(b.simulation(), 100, PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")));
+        org.lrbench.transport.inproc.InProcessPeer inner = sim.digitizer();
+        // a message with *OPC? is taken in and never answered: the instrument knows no *OPC? while capturing
+        org.lrbench.transport.inproc.InProcessPeer deaf = new org.lrbench.transport.inproc.InProcessPeer() {
+            @Override
+            public void receive(byte[] bytes) {
+                if (!new String(bytes, java.nio.charset.StandardCharsets.ISO_8859_1).contains("*OPC?")) {
+                    inner.receive(bytes);
+                }
+            }
+
+            @Override
+            public int transmit(byte[] dst, int offset, int length) {
+                return inner.transmit(dst, offset, length);
+            }
+
+            @Override
+            public void discardOutput() {
+                inner.discardOutput();
+            }
+        };
+        ScpiDigitizer dig = new ScpiDigitizer(new ScpiSession("digitizer", new InProcessTransport("sim://digitizer", deaf),
+                d.timeout()), d);
+        dig.prepare();
+        dig.setRanges(2, 2);
+        dig.setTiming(1e-5, 1000);
+        org.assertj.core.api.Assertions.assertThatThrownBy(dig::acquire)
+                .isInstanceOf(org.lrbench.instrument.InstrumentException.class)
+                .hasMessageContaining("no reply").hasMessageContaining("complete: poll");
+    }
 }
