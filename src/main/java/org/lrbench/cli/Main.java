@@ -16,7 +16,7 @@ import picocli.CommandLine;
 @Command(name = "lrbench", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Inductor incoming inspection on a signal generator and digitizer bench.",
         subcommands = {DemoCommand.class, CheckCommand.class, RunCommand.class, CalibrateCommand.class, StoreCommands.Lots.class,
-                StoreCommands.Lot.class, StoreCommands.History.class, VerifyCommand.class, DriversCommand.class, ExerciseCommand.class, ReportCommand.class, ServeCommand.class, RehearseCommand.class, StudyCommand.class, StandardCommand.class, SchemeCommand.class, AnalyzeCommand.class, SimCommand.class,
+                StoreCommands.Lot.class, StoreCommands.History.class, VerifyCommand.class, AnchorCommand.class, DriversCommand.class, ExerciseCommand.class, ReportCommand.class, ServeCommand.class, RehearseCommand.class, StudyCommand.class, StandardCommand.class, SchemeCommand.class, AnalyzeCommand.class, SimCommand.class,
                 BenchmarkCommand.class, CompletionCommand.class, picocli.CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 

@@ -4,6 +4,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
+import org.lrbench.records.AnchorFile;
 import org.lrbench.records.RecordCheck;
 import org.lrbench.store.ResultStore;
 import picocli.CommandLine.Command;
@@ -25,11 +26,39 @@ final class VerifyCommand implements Callable<Integer> {
     @Option(names = "--lot", paramLabel = "LOT", description = "the lot to check (default: every lot in the store)")
     String lot;
 
+    @Option(names = "--anchor", paramLabel = "FILE", description = "an anchor file written by lrbench anchor: every"
+            + " lot in it must still hold every link it had then")
+    Path anchor;
+
+    @Option(names = "--anchor-sha256", paramLabel = "HEX", description = "the anchor's closing sha256 as kept outside"
+            + " the store: the anchor file must be the one it closes")
+    String anchorSha256;
+
     @Override
     public Integer call() {
         List<String> findings = new ArrayList<>();
         int lots = 0;
+        AnchorFile.Anchor anchored = null;
+        if (anchorSha256 != null && anchor == null) {
+            throw new BadInputException("--anchor-sha256 needs --anchor FILE");
+        }
+        if (anchor != null) {
+            try {
+                anchored = AnchorFile.read(anchor);
+            } catch (java.io.IOException e) {
+                throw new BadInputException("--anchor " + e.getMessage());
+            }
+            if (anchorSha256 != null && !anchored.sha256Line().equals("sha256: " + anchorSha256.trim().toLowerCase(
+                    java.util.Locale.ROOT).replaceFirst("^sha256: ", ""))) {
+                findings.add("anchor: " + anchor + " is not the anchor whose closing line was kept (" + anchored.sha256Line()
+                        + ", kept sha256: " + anchorSha256.trim() + ")");
+            }
+        }
         try (ResultStore s = store.open()) {
+            if (anchored != null) {
+                findings.addAll(s.anchorFindings(lot == null ? anchored.lots()
+                        : anchored.lots().stream().filter(a -> a.lot().equals(lot)).toList()));
+            }
             List<String> names = lot != null ? List.of(Inputs.name("--lot", lot)) : s.lotNames();
             if (lot != null && !s.lotNames().contains(lot)) {
                 throw new BadInputException("--lot " + lot + ": no such lot in the store");
@@ -50,6 +79,14 @@ final class VerifyCommand implements Callable<Integer> {
         if (findings.isEmpty()) {
             System.out.printf("%d lot(s) checked: every stored record, result file and trace archive is whole, and"
                     + " every file under the lot folders belongs to one%n", lots);
+            if (anchored != null) {
+                System.out.printf("every lot of the anchor taken %s still holds every link it had then%s%n",
+                        anchored.taken(), anchorSha256 == null ? " (the anchor file's own closing line was not given:"
+                        + " --anchor-sha256 ties it to the line kept outside the store)" : "");
+            } else {
+                System.out.println("without an anchor (lrbench anchor, verify --anchor) the chain cannot show that its"
+                        + " last links or a whole lot were removed together with their files");
+            }
             return ExitCodes.PASS;
         }
         System.out.printf("%d lot(s) checked: %d finding(s)%n", lots, findings.size());

@@ -58,6 +58,52 @@ final class ChainRows {
         }
     }
 
+    /** Every lot's chain as it stands, by lot. */
+    public List<ChainAnchor> anchors() {
+        List<ChainAnchor> out = new ArrayList<>();
+        try (Statement s = store.db.createStatement();
+             ResultSet r = s.executeQuery("SELECT lot, length, head_sha256 FROM lot_chain ORDER BY lot")) {
+            while (r.next()) {
+                out.add(new ChainAnchor(r.getString(1), r.getInt(2), r.getString(3)));
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the chain heads failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    /**
+     * What the store's chains say against anchors taken earlier and kept outside the store: each anchored
+     * lot must still have its chain, at least as long as it was, with the anchored hash at the anchored
+     * link (the links are read, not the head row, which can be rewritten with them). A chain cut back and
+     * re-pointed at an earlier link, or a lot deleted with its chain, is found here and only here.
+     */
+    public List<String> anchorFindings(List<ChainAnchor> anchored) {
+        List<String> out = new ArrayList<>();
+        try {
+            for (ChainAnchor a : anchored) {
+                List<ChainRecord> links = store.chain.links(a.lot());
+                String prefix = "anchor: lot " + a.lot() + ": ";
+                if (links.isEmpty()) {
+                    out.add(prefix + "anchored with " + a.length() + " link(s), and it has no chain in the store now"
+                            + " (the lot was deleted)");
+                    continue;
+                }
+                ChainRecord at = links.stream().filter(c -> c.seq() == a.length()).findFirst().orElse(null);
+                if (at == null) {
+                    out.add(prefix + "anchored with " + a.length() + " link(s); the chain has " + links.size()
+                            + " now: its tail was cut");
+                } else if (!at.recordSha256().equals(a.head())) {
+                    out.add(prefix + "link " + a.length() + " is not the one anchored (hash " + at.recordSha256()
+                            + ", anchored " + a.head() + "): the chain up to it was rewritten");
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the chains failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
     /** An attempt as stored with the two columns its content hash covers besides the record. */
     record HashedAttempt(Attempt attempt, String programVersion, String tracesSha256) {
     }

@@ -203,6 +203,16 @@ public final class ResultStore implements AutoCloseable {
         return chain.chainFindings(lot);
     }
 
+    /** Every lot's chain length and head as they stand (what an anchor keeps). */
+    public List<ChainAnchor> chainAnchors() {
+        return chain.anchors();
+    }
+
+    /** Findings of the chains against an anchor kept outside the store (see {@link ChainRows#anchorFindings}). */
+    public List<String> anchorFindings(List<ChainAnchor> anchored) {
+        return chain.anchorFindings(anchored);
+    }
+
     /** The traces SHA-256 recorded for each attempt of a lot, keyed "serial~attempt". */
     public Map<String, String> tracesHashes(String lot) {
         return chain.tracesHashes(lot);

@@ -688,4 +688,54 @@ class CommandLineTests {
         assertThat(found.out()).contains("HC0417-0004~2.json: a file no record").contains("GHOST/: a lot folder the store"
                 + " has no lot for").contains("says disposition accept, the store's is reject");
     }
+
+    /**
+     * A chain cut back with plain SQL (its last links, the attempts and the decision they record removed,
+     * the head re-pointed at an earlier link) is consistent in itself: only an anchor taken before, kept
+     * outside the store, shows the cut. The anchor file is never replaced, and one edited after it was
+     * taken, or not the one whose closing line was kept, is refused (hash chains and anchoring: common
+     * practice, no source).
+     */
+    @Test
+    void anAnchorKeptOutsideTheStoreShowsAChainCutBack(@TempDir Path dir) throws Exception {
+        Outcome demo = run("demo", "--runs", dir.resolve("runs").toString(), "--calibration", dir.resolve("cal").toString(),
+                "--data", dir.resolve("data").toString());
+        assertThat(demo.code()).as(demo.err()).isZero();
+        String data = dir.resolve("data").toString();
+        Path file = dir.resolve("anchors/2026-12-03.txt");
+        Outcome taken = run("anchor", file.toString(), "--data", data);
+        assertThat(taken.code()).as(taken.err()).isZero();
+        String kept = taken.out().replaceAll("(?s).*keep this line outside the store: sha256: ([0-9a-f]{64}).*", "$1");
+        assertThat(kept).hasSize(64);
+        assertThat(run("anchor", file.toString(), "--data", data).code()).isEqualTo(2);
+        String[] verify = {"verify", "--data", data, "--runs", dir.resolve("runs").toString(), "--anchor", file.toString(),
+            "--anchor-sha256", kept};
+        Outcome whole = run(verify);
+        assertThat(whole.code()).as(whole.out()).isZero();
+        assertThat(whole.out()).contains("still holds every link it had then");
+        try (var c = java.sql.DriverManager.getConnection("jdbc:sqlite:" + dir.resolve("data/lrbench.db"));
+             var st = c.createStatement()) {
+            int length;
+            try (var r = st.executeQuery("SELECT length FROM lot_chain")) {
+                r.next();
+                length = r.getInt(1);
+            }
+            int keep = length - 3;
+            st.executeUpdate("DELETE FROM attempt WHERE (serial, attempt, round) IN (SELECT serial, attempt, round"
+                    + " FROM chain_record WHERE kind = 'attempt' AND seq > " + keep + ")");
+            st.executeUpdate("UPDATE inspection SET disposition = NULL, disposition_reason = NULL, finished_at = NULL");
+            st.executeUpdate("DELETE FROM chain_record WHERE seq > " + keep);
+            st.executeUpdate("UPDATE lot_chain SET length = " + keep + ", head_sha256 = (SELECT record_sha256 FROM"
+                    + " chain_record WHERE seq = " + keep + ")");
+        }
+        Outcome cut = run("verify", "--data", data, "--anchor", file.toString(), "--anchor-sha256", kept, "--runs",
+                dir.resolve("runs").toString());
+        assertThat(cut.code()).isEqualTo(1);
+        assertThat(cut.out()).contains("its tail was cut");
+        // the anchor file edited to match the cut chain is refused by its own closing line
+        Files.writeString(file, Files.readString(file).replaceAll("\t\\d+\t", "\t1\t"));
+        Outcome edited = run(verify);
+        assertThat(edited.code()).isEqualTo(2);
+        assertThat(edited.err()).contains("the file was edited after it was taken");
+    }
 }
