@@ -36,8 +36,9 @@ public final class BenchLoader {
     private static BenchConfig read(YamlMap root, String source) throws ProblemsException {
         root.integer("bench_format", true, 1, 1);
         String name = root.text("name", true);
-        if (name != null && !name.matches("[A-Za-z0-9._-]{1,64}")) {
-            root.problem("name", "'" + name + "' must be 1 to 64 letters, digits, '.', '_' or '-'");
+        if (name != null && !org.lrbench.results.Names.valid(name)) {
+            // the bench's name reaches folder names (calibration, check-standard records): the lot number's rule
+            root.problem("name", org.lrbench.results.Names.problem("a bench name", name));
         }
         Double max = root.quantity("max_amplitude", Dimension.VOLTAGE, true);
         if (max != null && !(max > 0)) {
@@ -107,8 +108,8 @@ public final class BenchLoader {
             return null;
         }
         String serial = m.text("serial", true);
-        if (serial != null && !serial.matches("[A-Za-z0-9][A-Za-z0-9._-]{0,63}")) {
-            m.problem("serial", "'" + serial + "' must be 1 to 64 letters, digits, '.', '_' or '-'");
+        if (serial != null && !org.lrbench.results.Names.valid(serial)) {
+            m.problem("serial", org.lrbench.results.Names.problem("serial", serial));
         }
         Double l = m.quantity("inductance", Dimension.INDUCTANCE, true);
         if (l != null && !(l > 0)) {

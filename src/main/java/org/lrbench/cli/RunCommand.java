@@ -132,6 +132,13 @@ final class RunCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         logging.apply();
         Inputs.name("--lot", lot);
+        // the operator's name and a reason are kept with every record: one printable line each
+        if (operator != null && Names.operatorProblem(operator) != null) {
+            throw new BadInputException("--" + Names.operatorProblem(operator));
+        }
+        if (Names.reasonProblem("reason", reason) != null) {
+            throw new BadInputException("--" + Names.reasonProblem("reason", reason));
+        }
         if (lotSize != null) {
             return runLot();
         }

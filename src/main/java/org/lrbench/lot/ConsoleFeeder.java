@@ -66,6 +66,10 @@ public final class ConsoleFeeder implements PartFeeder {
                     out.println(line + " not measured again");
                     continue;
                 }
+                if (Names.reasonProblem("reason", reason) != null) {
+                    out.println(Names.reasonProblem("reason", reason) + "; " + line + " not measured again");
+                    continue;
+                }
                 return new Next(Action.MEASURE, line, null, reason);
             }
             return Next.measure(line, null);
@@ -89,6 +93,10 @@ public final class ConsoleFeeder implements PartFeeder {
         out.print("reason to measure it again: ");
         out.flush();
         String reason = read();
+        if (reason != null && !reason.isBlank() && Names.reasonProblem("reason", reason) != null) {
+            out.println(Names.reasonProblem("reason", reason) + "; " + serial + " is not measured again");
+            return null;
+        }
         return reason == null || reason.isBlank() ? null : reason;
     }
 

@@ -114,6 +114,12 @@ public final class LotStart {
         if (q.overrideCheckReason() != null && q.overrideCheckReason().isBlank()) {
             throw bad("overriding the check standard needs a reason, in words");
         }
+        for (String p : new String[] {Names.reasonProblem("reinspect reason", q.reinspectReason()),
+            Names.reasonProblem("override reason", q.overrideCheckReason()), Names.operatorProblem(q.operator())}) {
+            if (p != null) {
+                throw bad(p);
+            }
+        }
         String supplierProblem = Names.supplierProblem(q.supplier());
         if (supplierProblem != null) {
             throw bad(supplierProblem);

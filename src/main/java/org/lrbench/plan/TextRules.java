@@ -50,11 +50,33 @@ public final class TextRules {
 
     /** Why a one-line free text (a description) cannot be kept: control characters or over 200 characters. */
     public static String lineProblem(String what, String text) {
-        if (text == null || text.length() <= LINE_LENGTH && text.chars().noneMatch(Character::isISOControl)) {
-            return null;
-        }
-        return "'" + printable(text, 40) + "': " + what + " is one line of at most " + LINE_LENGTH
-                + " printable characters";
+        return oneLine(what, text, LINE_LENGTH);
     }
 
+    /** The longest operator's name kept. */
+    public static final int OPERATOR_LENGTH = 64;
+
+    /**
+     * Why {@code text} cannot be kept as {@code what}, one line of 1 to {@code max} printable characters,
+     * or null when it can (null text is for the caller to require). The message names the offending
+     * character and its position, as a control character's code (it would not show).
+     */
+    public static String oneLine(String what, String text, int max) {
+        if (text == null) {
+            return null;
+        }
+        if (text.isBlank() || text.length() > max) {
+            return "'" + printable(text, 40) + "' (" + text.length() + " characters): " + what + " is one line of 1 to "
+                    + max + " printable characters";
+        }
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            if (Character.isISOControl(c) || Character.getType(c) == Character.LINE_SEPARATOR
+                    || Character.getType(c) == Character.PARAGRAPH_SEPARATOR) {
+                return String.format(java.util.Locale.ROOT, "'%s' holds the control character U+%04X at position %d: %s"
+                        + " is one line of printable characters", printable(text, 40), (int) c, i + 1, what);
+            }
+        }
+        return null;
+    }
 }

@@ -191,6 +191,9 @@ public final class HttpApi implements AutoCloseable {
                 if (operator.isBlank()) {
                     throw new ServiceException(400, "operator: who measures, in words, is required");
                 }
+                if (Names.operatorProblem(operator) != null) {
+                    throw new ServiceException(400, Names.operatorProblem(operator));
+                }
                 String reinspect = text(b, "reinspect_reason", false);
                 if (reinspect != null && reinspect.isBlank()) {
                     throw new ServiceException(400, "reinspect_reason: a re-inspection needs a reason, in words");
@@ -198,6 +201,11 @@ public final class HttpApi implements AutoCloseable {
                 String override = text(b, "override_check_reason", false);
                 if (override != null && override.isBlank()) {
                     throw new ServiceException(400, "override_check_reason: starting despite the check needs a reason, in words");
+                }
+                for (String[] r : new String[][] {{"reinspect_reason", reinspect}, {"override_check_reason", override}}) {
+                    if (Names.reasonProblem(r[0], r[1]) != null) {
+                        throw new ServiceException(400, Names.reasonProblem(r[0], r[1]));
+                    }
                 }
                 String supplier = text(b, "supplier", false);
                 if (Names.supplierProblem(supplier) != null) {

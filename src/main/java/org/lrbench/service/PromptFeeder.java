@@ -59,6 +59,9 @@ final class PromptFeeder implements PartFeeder {
                 throw new ServiceException(409, a.serial() + " is not on the simulated tray");
             }
         }
+        if (Names.reasonProblem("reason", a.reason()) != null) {
+            throw new ServiceException(400, Names.reasonProblem("reason", a.reason()));
+        }
         if ("skip".equals(a.action()) && a.serial() != null && !Names.valid(a.serial())) {
             throw new ServiceException(400, Names.problem("serial", a.serial()));
         }

@@ -27,8 +27,14 @@ public record SimLot(String lot, Path plan, Integer lotSize, List<Part> parts) {
         YamlMap root = YamlFile.read(file, problems, "lot_format", "lot", "description", "plan", "lot_size", "parts");
         Integer lotSize = root.has("lot_size") ? root.integer("lot_size", true, 2, 100_000_000) : null;
         root.integer("lot_format", true, 1, 1);
-        root.text("description", false);
+        String description = root.text("description", false);
+        if (org.lrbench.plan.TextRules.lineProblem("a description", description) != null) {
+            root.problem("description", org.lrbench.plan.TextRules.lineProblem("a description", description));
+        }
         String lot = root.text("lot", true);
+        if (lot != null && !Names.valid(lot)) {
+            root.problem("lot", Names.problem("lot", lot));
+        }
         String plan = root.text("plan", true);
         List<Part> parts = new ArrayList<>();
         Set<String> serials = new HashSet<>();

@@ -738,4 +738,18 @@ class CommandLineTests {
         assertThat(edited.code()).isEqualTo(2);
         assertThat(edited.err()).contains("the file was edited after it was taken");
     }
+
+    /** The operator's name and a reason from the command line follow the same one-line rule as in the service. */
+    @Test
+    void anOperatorOrReasonWithAControlCharacterIsRefusedAtItsOption(@TempDir Path dir) throws Exception {
+        Outcome op = run("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(), "--lot", "L1", "--serial", "S1",
+                "--operator", "Ann\u001b[2J", "--runs", dir.resolve("runs").toString(), "--data", dir.resolve("data").toString());
+        assertThat(op.code()).isEqualTo(2);
+        assertThat(op.err()).contains("--operator: ").contains("U+001B at position 4").doesNotContain("\u001b");
+        Outcome why = run("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(), "--lot", "L1", "--serial", "S1",
+                "--reason", "slipped\nagain", "--runs", dir.resolve("runs").toString(), "--data", dir.resolve("data").toString());
+        assertThat(why.code()).isEqualTo(2);
+        assertThat(why.err()).contains("--reason: ").contains("U+000A at position 8");
+        assertThat(dir.resolve("runs")).doesNotExist();
+    }
 }

@@ -281,6 +281,20 @@ class BenchServiceApiTests {
                     + "\"suplier\":\"Other Supplier Ltd\"}", null);
             assertThat(misspelt.statusCode()).isEqualTo(400);
             assertThat(json(misspelt).get("error").asText()).startsWith("suplier: unknown key").contains("supplier");
+            // identifiers are one printable line each: the key, the character and its position are named
+            HttpResponse<String> bell = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Ta\\u0007m\",\"tray\":\"demo-lot.yaml\"}", null);
+            assertThat(bell.statusCode()).isEqualTo(400);
+            assertThat(json(bell).get("error").asText()).startsWith("operator:").contains("U+0007 at position 3");
+            HttpResponse<String> twoLines = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L\",\"lot_size\":40,\"operator\":\"Tam\",\"tray\":\"demo-lot.yaml\","
+                    + "\"supplier\":\"Other\\nLtd\"}", null);
+            assertThat(twoLines.statusCode()).isEqualTo(400);
+            assertThat(json(twoLines).get("error").asText()).startsWith("supplier:").contains("U+000A at position 6");
+            HttpResponse<String> slashLot = call(port, "POST", "/api/runs", "{\"plan\":\"qfd-ind-1m0.yaml\","
+                    + "\"lot\":\"L/../x\",\"lot_size\":40,\"operator\":\"Tam\",\"tray\":\"demo-lot.yaml\"}", null);
+            assertThat(slashLot.statusCode()).isEqualTo(400);
+            assertThat(json(slashLot).get("error").asText()).startsWith("lot:").contains("'/' at position 2");
             HttpResponse<String> answerKey = call(port, "POST", "/api/runs/current/answer",
                     "{\"prompt\":1,\"serail\":\"X\"}", null);
             assertThat(answerKey.statusCode()).isEqualTo(400);
