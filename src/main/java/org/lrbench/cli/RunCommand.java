@@ -169,6 +169,10 @@ final class RunCommand implements Callable<Integer> {
         } catch (SinglePart.Refused e) {
             throw new BadInputException(e.getMessage());
         }
+        // the record in the store's chain of single parts, so that verify checks its files as a lot's
+        try (ResultStore store = location.open()) {
+            SinglePart.keep(store, o);
+        }
         PartResult result = o.result();
         if (json != null) {
             ResultFiles.writeJson(json, result);

@@ -59,12 +59,18 @@ final class VerifyCommand implements Callable<Integer> {
                 findings.addAll(s.anchorFindings(lot == null ? anchored.lots()
                         : anchored.lots().stream().filter(a -> a.lot().equals(lot)).toList()));
             }
+            boolean single = lot != null && s.singleParts().stream().anyMatch(r -> r.lot().equals(lot));
             List<String> names = lot != null ? List.of(Inputs.name("--lot", lot)) : s.lotNames();
-            if (lot != null && !s.lotNames().contains(lot)) {
+            if (lot != null && !s.lotNames().contains(lot) && !single) {
                 throw new BadInputException("--lot " + lot + ": no such lot in the store");
             }
+            findings.addAll(RecordCheck.singlePartFindings(s, runsOption.runs, lot));
             for (String l : names) {
                 lots++;
+                if (!s.lotNames().contains(l)) {
+                    findings.addAll(RecordCheck.lotFolderFindings(s, runsOption.runs, l));
+                    continue; // a lot of single parts only: their records were checked above
+                }
                 findings.addAll(RecordCheck.findings(s, runsOption.runs, l));
                 if (lot != null) {
                     findings.addAll(RecordCheck.lotFolderFindings(s, runsOption.runs, l));

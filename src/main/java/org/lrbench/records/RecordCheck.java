@@ -11,6 +11,7 @@ import java.util.Map;
 import org.lrbench.results.Attempt;
 import org.lrbench.store.Canonical;
 import org.lrbench.store.ResultStore;
+import org.lrbench.store.SingleRecord;
 
 /**
  * Re-reads a lot's records and names everything that is not as it was written: store rows altered,
@@ -40,6 +41,48 @@ public final class RecordCheck {
     }
 
     /**
+     * The records of parts measured outside a lot's sample: the store's chain of them (whole store only:
+     * {@code lot} null), and each record's result file and trace archive against the size and SHA-256 the
+     * store keeps (of one lot, or of all).
+     */
+    public static List<String> singlePartFindings(ResultStore store, Path runs, String lot) {
+        List<String> out = new ArrayList<>();
+        if (lot == null) {
+            out.addAll(store.singlePartFindings());
+        }
+        for (SingleRecord r : store.singleParts()) {
+            if (lot != null && !lot.equals(r.lot())) {
+                continue;
+            }
+            String what = "attempt " + r.attempt() + " of " + r.serial() + " (measured on its own)";
+            checkFile(out, runs.resolve(r.lot()).resolve(r.resultFile()), r.resultBytes(), r.resultSha256(), what);
+            if (r.tracesFile() != null) {
+                checkFile(out, runs.resolve(r.lot()).resolve(r.tracesFile()), r.tracesBytes() == null ? -1 : r.tracesBytes(),
+                        r.tracesSha256(), "trace archive of " + what);
+            }
+        }
+        return out;
+    }
+
+    private static void checkFile(List<String> out, Path file, long bytes, String sha, String what) {
+        try {
+            if (!Files.exists(file)) {
+                out.add(file + ": missing (" + what + " is stored)");
+                return;
+            }
+            long size = Files.size(file);
+            if (bytes >= 0 && size != bytes) {
+                out.add(file + ": " + (size < bytes ? "truncated" : "has bytes added") + " (" + size
+                        + " bytes; the store recorded " + bytes + " for " + what + ")");
+            } else if (sha != null && !sha.equals(Canonical.sha256(Files.readAllBytes(file)))) {
+                out.add(file + ": altered (its SHA-256 is not the one the store recorded for " + what + ")");
+            }
+        } catch (IOException e) {
+            out.add(file + ": cannot be read: " + e.getMessage());
+        }
+    }
+
+    /**
      * What the store cannot account for under the runs folder: a lot folder of no lot in the store (added,
      * or its lot removed from the store behind lrbench's back), and in a stored lot's folder every file no
      * record names ({@link #lotFolderFindings}). The check standard's folder is its own log's.
@@ -50,6 +93,7 @@ public final class RecordCheck {
             return out;
         }
         java.util.Set<String> lots = new java.util.HashSet<>(store.lotNames());
+        store.singleParts().forEach(r -> lots.add(r.lot()));
         try (var dirs = Files.list(runs)) {
             for (Path d : dirs.sorted().toList()) {
                 String name = d.getFileName().toString();
@@ -92,6 +136,15 @@ public final class RecordCheck {
                 named.add(a.tracesFile());
             }
             serials.add(a.serial());
+        }
+        for (SingleRecord r : store.singleParts()) {
+            if (r.lot().equals(lot)) {
+                named.add(r.resultFile());
+                if (r.tracesFile() != null) {
+                    named.add(r.tracesFile());
+                }
+                serials.add(r.serial());
+            }
         }
         try (var files = Files.list(dir)) {
             for (Path f : files.sorted().toList()) {

@@ -3,6 +3,7 @@ package org.lrbench.records;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Instant;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.SimulatedPart;
 import org.lrbench.driver.DriverLoader;
@@ -15,6 +16,9 @@ import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.PartRun;
+import org.lrbench.store.Canonical;
+import org.lrbench.store.ResultStore;
+import org.lrbench.store.SingleRecord;
 import org.lrbench.traces.TraceArchive;
 import org.lrbench.yaml.ProblemsException;
 
@@ -31,8 +35,12 @@ public final class SinglePart {
                           String reason, boolean keepTraces, Path runs) {
     }
 
-    /** The result as recorded, its attempt number, the record and (kept traces) the archive with its size. */
-    public record Outcome(PartResult result, int attempt, Path record, Path archive, long archiveBytes) {
+    /**
+     * The result as recorded, its attempt number, the record and (kept traces) the archive with its size,
+     * and what the store keeps of them (see {@link #keep}).
+     */
+    public record Outcome(PartResult result, int attempt, Path record, Path archive, long archiveBytes,
+                          SingleRecord stored) {
     }
 
     /** A part that may not be measured under this name now (measured before without a reason, or a reason for nothing). */
@@ -84,15 +92,30 @@ public final class SinglePart {
         Path dir = q.runs().resolve(p.lot());
         Path archive = null;
         long bytes = 0;
+        String tracesSha = null;
         if (q.keepTraces()) {
             byte[] traces = TraceArchive.encode(p.lot(), p.serial(), plan.partNumber(), plan.senseResistanceOhm(),
                     plan.wiring(), ResultFiles.JSON.valueToTree(result.instruments()), m.points());
             archive = dir.resolve(Attempt.fileName(p.serial(), number, "lrtraces"));
             ResultFiles.writeNew(archive, traces);
             bytes = traces.length;
+            tracesSha = Canonical.sha256(traces);
         }
         Path record = dir.resolve(Attempt.fileName(p.serial(), number, "json"));
-        ResultFiles.writeNew(record, ResultFiles.JSON.writeValueAsBytes(result));
-        return new Outcome(result, number, record, archive, bytes);
+        byte[] json = ResultFiles.JSON.writeValueAsBytes(result);
+        ResultFiles.writeNew(record, json);
+        SingleRecord stored = new SingleRecord(p.lot(), p.serial(), number, record.getFileName().toString(), json.length,
+                Canonical.sha256(json), archive == null ? null : archive.getFileName().toString(),
+                archive == null ? null : bytes, tracesSha, q.simulated() != null, Instant.now().toString());
+        return new Outcome(result, number, record, archive, bytes, stored);
+    }
+
+    /**
+     * Keeps the outcome's record in the store, as the next link of the single parts' hash chain, so that
+     * {@code verify} checks its files as it checks a lot's. The files are written first: a failure here
+     * leaves them whole and named by {@code verify} as files no record names.
+     */
+    public static void keep(ResultStore store, Outcome o) {
+        store.recordSinglePart(o.stored());
     }
 }

@@ -80,5 +80,16 @@ final class Migrations {
             // toward a real supplier's scheme, history or statistics (earlier lots stay as recorded: real)
             List.of(
                     "ALTER TABLE inspection ADD COLUMN simulated INTEGER NOT NULL DEFAULT 0",
-                    "ALTER TABLE scheme_decision ADD COLUMN simulated INTEGER NOT NULL DEFAULT 0"));
+                    "ALTER TABLE scheme_decision ADD COLUMN simulated INTEGER NOT NULL DEFAULT 0"),
+            // step 7: parts measured outside a lot's sample (run --serial), each a link of one hash chain
+            List.of(
+                    "CREATE TABLE single_part_chain (id INTEGER PRIMARY KEY CHECK (id = 1), length INTEGER NOT NULL,"
+                            + " head_sha256 TEXT NOT NULL)",
+                    "INSERT INTO single_part_chain (id, length, head_sha256) VALUES (1, 0, '" + Canonical.GENESIS + "')",
+                    "CREATE TABLE single_part (seq INTEGER PRIMARY KEY CHECK (seq >= 1), lot TEXT NOT NULL,"
+                            + " serial TEXT NOT NULL, attempt INTEGER NOT NULL CHECK (attempt >= 1), result_file TEXT NOT NULL,"
+                            + " result_bytes BIGINT NOT NULL, result_sha256 TEXT NOT NULL, traces_file TEXT, traces_bytes BIGINT,"
+                            + " traces_sha256 TEXT, simulated INTEGER NOT NULL, recorded_at TEXT NOT NULL,"
+                            + " content_sha256 TEXT NOT NULL, previous_sha256 TEXT NOT NULL, record_sha256 TEXT NOT NULL,"
+                            + " UNIQUE (lot, serial, attempt))"));
 }

@@ -34,6 +34,7 @@ public final class ResultStore implements AutoCloseable {
     private final SchemeRows schemes;
     private final AttemptRows attempts;
     private final ChainRows chain;
+    private final SinglePartRows singles;
     private final LotQueries queries;
     private final StoreSchema schema;
 
@@ -43,6 +44,7 @@ public final class ResultStore implements AutoCloseable {
         this.schemes = new SchemeRows(db);
         this.attempts = new AttemptRows(db, inspections);
         this.chain = new ChainRows(db, inspections);
+        this.singles = new SinglePartRows(db);
         this.queries = new LotQueries(db, inspections);
         this.schema = new StoreSchema(db, inspections, chain);
     }
@@ -203,14 +205,38 @@ public final class ResultStore implements AutoCloseable {
         return chain.chainFindings(lot);
     }
 
-    /** Every lot's chain length and head as they stand (what an anchor keeps). */
+    /** Every lot's chain length and head as they stand, and the single parts' chain (what an anchor keeps). */
     public List<ChainAnchor> chainAnchors() {
-        return chain.anchors();
+        List<ChainAnchor> out = new java.util.ArrayList<>(chain.anchors());
+        ChainAnchor s = singles.anchor();
+        if (s != null && s.length() > 0) {
+            out.add(s);
+        }
+        return out;
     }
 
     /** Findings of the chains against an anchor kept outside the store (see {@link ChainRows#anchorFindings}). */
     public List<String> anchorFindings(List<ChainAnchor> anchored) {
-        return chain.anchorFindings(anchored);
+        List<String> out = new java.util.ArrayList<>(chain.anchorFindings(anchored.stream()
+                .filter(a -> !a.lot().equals(SinglePartRows.ANCHOR_NAME)).toList()));
+        anchored.stream().filter(a -> a.lot().equals(SinglePartRows.ANCHOR_NAME)).map(singles::anchorFinding)
+                .filter(java.util.Objects::nonNull).forEach(out::add);
+        return out;
+    }
+
+    /** Keeps the record of a part measured outside a lot's sample, as the next link of the single parts' chain. */
+    public void recordSinglePart(SingleRecord r) {
+        singles.record(r);
+    }
+
+    /** Every single part's record, in the order they were kept. */
+    public List<SingleRecord> singleParts() {
+        return singles.all();
+    }
+
+    /** The single parts' chain's breaks (empty when whole). */
+    public List<String> singlePartFindings() {
+        return singles.findings();
     }
 
     /** The traces SHA-256 recorded for each attempt of a lot, keyed "serial~attempt". */

@@ -33,7 +33,18 @@ class CommandLineTests {
     record Outcome(int code, String out, String err) {
     }
 
-    static Outcome run(String... args) {
+    static Outcome run(String... given) {
+        String[] args = given;
+        List<String> list = List.of(given);
+        if (given.length > 0 && given[0].equals("run") && !list.contains("--data") && !list.contains("--store")) {
+            // a single part is kept in a results store: each such test its own, never the working folder's
+            try {
+                args = java.util.stream.Stream.concat(list.stream(), java.util.stream.Stream.of("--data",
+                        Files.createTempDirectory("lrbench-test-data").toString())).toArray(String[]::new);
+            } catch (IOException e) {
+                throw new java.io.UncheckedIOException(e);
+            }
+        }
         PrintStream oldOut = System.out;
         PrintStream oldErr = System.err;
         ByteArrayOutputStream out = new ByteArrayOutputStream();
@@ -285,7 +296,8 @@ class CommandLineTests {
         assertThat(tightened.out()).contains("tightened inspection").contains("n = 13");
         Outcome twoLines = lotRun(dir, "S4", "40", "--supplier", "Brack\nwater");
         assertThat(twoLines.code()).isEqualTo(2);
-        assertThat(twoLines.err()).contains("--supplier: a supplier's name is one line");
+        assertThat(twoLines.err()).contains("--supplier: ").contains("U+000A at position 6")
+                .contains("a supplier's name is one line");
     }
 
     @Test
@@ -751,5 +763,43 @@ class CommandLineTests {
         assertThat(why.code()).isEqualTo(2);
         assertThat(why.err()).contains("--reason: ").contains("U+000A at position 8");
         assertThat(dir.resolve("runs")).doesNotExist();
+    }
+
+    /**
+     * A part measured on its own (run --serial) is a link of the store's chain of single parts: verify
+     * checks its files as it checks a lot's. A verdict changed from fail to pass in the file, a record
+     * removed from the store, or a cut tail (against an anchor) is named, never "whole".
+     */
+    @Test
+    void aSinglePartsRecordIsUnderTheChainAndItsFilesAreChecked(@TempDir Path dir) throws Exception {
+        String data = dir.resolve("data").toString();
+        String runs = dir.resolve("runs").toString();
+        for (String serial : new String[] {"S1", "S2"}) {
+            Outcome o = run("run", PLAN, "--lot", "SINGLES", "--serial", serial, "--sim",
+                    HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", runs, "--data", data,
+                    "--calibration", dir.resolve("none").toString());
+            assertThat(o.code()).as(o.out() + o.err()).isZero();
+        }
+        Path anchor = dir.resolve("anchor.txt");
+        assertThat(run("anchor", anchor.toString(), "--data", data).code()).isZero();
+        assertThat(Files.readString(anchor)).contains("~single-parts\t2\t");
+        Outcome whole = run("verify", "--data", data, "--runs", runs, "--anchor", anchor.toString());
+        assertThat(whole.code()).as(whole.out()).isZero();
+        Outcome one = run("verify", "--lot", "SINGLES", "--data", data, "--runs", runs);
+        assertThat(one.code()).as(one.out() + one.err()).isZero();
+        Path record = dir.resolve("runs/SINGLES/S1.json");
+        Files.writeString(record, Files.readString(record).replace("\"pass\"", "\"fail\""));
+        Outcome altered = run("verify", "--data", data, "--runs", runs);
+        assertThat(altered.code()).isEqualTo(1);
+        assertThat(altered.out()).contains("S1.json: altered");
+        try (var c = java.sql.DriverManager.getConnection("jdbc:sqlite:" + dir.resolve("data/lrbench.db"));
+             var st = c.createStatement()) {
+            st.executeUpdate("DELETE FROM single_part WHERE seq = 2");
+            st.executeUpdate("UPDATE single_part_chain SET length = 1, head_sha256 = (SELECT record_sha256 FROM single_part"
+                    + " WHERE seq = 1)");
+        }
+        Outcome cut = run("verify", "--data", data, "--runs", runs, "--anchor", anchor.toString());
+        assertThat(cut.code()).isEqualTo(1);
+        assertThat(cut.out()).contains("single parts: anchored with 2 record(s)").contains("S2.json: a file no record");
     }
 }

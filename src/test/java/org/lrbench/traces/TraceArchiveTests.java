@@ -72,7 +72,7 @@ public class TraceArchiveTests {
     @Test
     void reAnalysisReproducesTheMeasuredPointsAndAddsARecord(@TempDir Path dir) throws Exception {
         Path home = TestBench.home();
-        int code = Main.execute("run", home.resolve("plans/qfd-ind-1m0.yaml").toString(), "--lot", "L", "--serial", "S",
+        int code = Main.execute("run", home.resolve("plans/qfd-ind-1m0.yaml").toString(), "--lot", "L", "--serial", "S", "--data", dir.resolve("data").toString(),
                 "--sim", home.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString(),
                 "--calibration", dir.resolve("none").toString());
         assertThat(code).isZero();
@@ -125,7 +125,7 @@ public class TraceArchiveTests {
                         + " channel2: {kind: single_ended, attenuation: 10}}");
         Path planFile = dir.resolve("low-side.yaml");
         Files.writeString(planFile, plan);
-        int code = Main.execute("run", planFile.toString(), "--lot", "W", "--serial", "S",
+        int code = Main.execute("run", planFile.toString(), "--lot", "W", "--serial", "S", "--data", dir.resolve("data").toString(),
                 "--sim", home.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString(),
                 "--calibration", dir.resolve("none").toString());
         // measured (10x probes on a 100 ohm sense resistor see a noisier signal: the verdict may be either)
@@ -152,7 +152,7 @@ public class TraceArchiveTests {
         Path planFile = dir.resolve("multisine.yaml");
         Files.writeString(planFile, Files.readString(home.resolve("plans/qfd-ind-1m0.yaml"))
                 .replace("  settle: 20 ms", "  settle: 20 ms\n  excitation: multisine"));
-        int code = Main.execute("run", planFile.toString(), "--lot", "M", "--serial", "S",
+        int code = Main.execute("run", planFile.toString(), "--lot", "M", "--serial", "S", "--data", dir.resolve("data").toString(),
                 "--sim", home.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString(),
                 "--calibration", dir.resolve("none").toString());
         assertThat(code).isIn(0, 1);

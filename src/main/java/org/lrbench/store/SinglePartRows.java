@@ -1,0 +1,170 @@
+package org.lrbench.store;
+
+import java.sql.PreparedStatement;
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.sql.Statement;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Parts measured outside a lot's sample, each a link of one store-wide hash chain (table
+ * {@code single_part}; its length and head in the one row of {@code single_part_chain}, which a writer
+ * takes first, so that two benches take turns). A record altered, removed, inserted or reordered
+ * behind lrbench's back breaks the chain; a cut tail shows against an anchor.
+ */
+final class SinglePartRows {
+    /** The name the single parts' chain has in an anchor: never a lot number (lot numbers have no '~'). */
+    static final String ANCHOR_NAME = "~single-parts";
+    private static final String COLUMNS = "lot, serial, attempt, result_file, result_bytes, result_sha256, traces_file,"
+            + " traces_bytes, traces_sha256, simulated, recorded_at";
+
+    private final StoreDb store;
+
+    SinglePartRows(StoreDb store) {
+        this.store = store;
+    }
+
+    void record(SingleRecord r) {
+        try {
+            store.inTransaction(() -> {
+                try (Statement s = store.db.createStatement()) {
+                    s.executeUpdate("UPDATE single_part_chain SET length = length WHERE id = 1");
+                }
+                ChainCheck.State st = state();
+                String content = Canonical.sha256(r.content());
+                String link = Canonical.chain(st.head(), content);
+                try (PreparedStatement p = store.db.prepareStatement("INSERT INTO single_part (seq, " + COLUMNS
+                        + ", content_sha256, previous_sha256, record_sha256) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?,"
+                        + " ?, ?, ?)")) {
+                    p.setInt(1, st.length() + 1);
+                    p.setString(2, r.lot());
+                    p.setString(3, r.serial());
+                    p.setInt(4, r.attempt());
+                    p.setString(5, r.resultFile());
+                    p.setLong(6, r.resultBytes());
+                    p.setString(7, r.resultSha256());
+                    p.setString(8, r.tracesFile());
+                    p.setObject(9, r.tracesBytes());
+                    p.setString(10, r.tracesSha256());
+                    p.setInt(11, r.simulated() ? 1 : 0);
+                    p.setString(12, r.recordedAt());
+                    p.setString(13, content);
+                    p.setString(14, st.head());
+                    p.setString(15, link);
+                    p.executeUpdate();
+                }
+                try (PreparedStatement p = store.db.prepareStatement(
+                        "UPDATE single_part_chain SET length = ?, head_sha256 = ? WHERE id = 1")) {
+                    p.setInt(1, st.length() + 1);
+                    p.setString(2, link);
+                    p.executeUpdate();
+                }
+                return null;
+            });
+        } catch (SQLException e) {
+            throw new StoreException("recording " + r.serial() + " (attempt " + r.attempt() + ") of lot " + r.lot()
+                    + " failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    ChainCheck.State state() throws SQLException {
+        try (Statement s = store.db.createStatement();
+             ResultSet r = s.executeQuery("SELECT length, head_sha256 FROM single_part_chain WHERE id = 1")) {
+            return r.next() ? new ChainCheck.State(r.getInt(1), r.getString(2)) : null;
+        }
+    }
+
+    /** Every record, in the chain's order. */
+    List<SingleRecord> all() {
+        List<SingleRecord> out = new ArrayList<>();
+        for (Row row : rows()) {
+            out.add(row.record());
+        }
+        return out;
+    }
+
+    private record Row(int seq, SingleRecord record, String content, String previous, String link) {
+    }
+
+    private List<Row> rows() {
+        List<Row> out = new ArrayList<>();
+        try (Statement s = store.db.createStatement(); ResultSet r = s.executeQuery("SELECT seq, " + COLUMNS
+                + ", content_sha256, previous_sha256, record_sha256 FROM single_part ORDER BY seq")) {
+            while (r.next()) {
+                long traces = r.getLong(9);
+                Long tracesBytes = r.wasNull() ? null : traces;
+                SingleRecord rec = new SingleRecord(r.getString(2), r.getString(3), r.getInt(4), r.getString(5),
+                        r.getLong(6), r.getString(7), r.getString(8), tracesBytes, r.getString(10), r.getInt(11) != 0,
+                        r.getString(12));
+                out.add(new Row(r.getInt(1), rec, r.getString(13), r.getString(14), r.getString(15)));
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the single parts' records failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    /** The chain's breaks: a record altered, removed, inserted or reordered, or a head that is not its last link. */
+    List<String> findings() {
+        List<String> out = new ArrayList<>();
+        String previous = Canonical.GENESIS;
+        int expected = 1;
+        String prefix = "store: single parts: ";
+        for (Row row : rows()) {
+            String what = "record " + row.seq() + " (" + row.record().serial() + ", attempt " + row.record().attempt()
+                    + " in lot " + row.record().lot() + ")";
+            if (row.seq() != expected) {
+                out.add(prefix + "record " + expected + " is missing (removed) before " + what);
+                expected = row.seq();
+            }
+            if (!row.previous().equals(previous)) {
+                out.add(prefix + what + " does not follow the record before it: a record was removed, inserted or"
+                        + " reordered");
+            }
+            if (!Canonical.sha256(row.record().content()).equals(row.content())
+                    || !Canonical.chain(row.previous(), row.content()).equals(row.link())) {
+                out.add(prefix + what + ": the stored row was altered (its content no longer matches its hash)");
+            }
+            previous = row.link();
+            expected++;
+        }
+        try {
+            ChainCheck.State st = state();
+            if (st == null) {
+                out.add(prefix + "the chain's head row is missing");
+            } else if (st.length() != expected - 1 || !st.head().equals(previous)) {
+                out.add(prefix + "the chain's head (" + st.length() + " record(s)) is not its last record (" + (expected - 1)
+                        + "): records were removed or added outside lrbench");
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the single parts' chain failed: " + StoreErrors.describe(e), e);
+        }
+        return out;
+    }
+
+    /** The chain as an anchor keeps it. */
+    ChainAnchor anchor() {
+        try {
+            ChainCheck.State st = state();
+            return st == null ? null : new ChainAnchor(ANCHOR_NAME, st.length(), st.head());
+        } catch (SQLException e) {
+            throw new StoreException("reading the single parts' chain failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
+    /** Whether the record at {@code length} still has the anchored hash (null: it does). */
+    String anchorFinding(ChainAnchor a) {
+        if (a.length() == 0) {
+            return null;
+        }
+        for (Row row : rows()) {
+            if (row.seq() == a.length()) {
+                return row.link().equals(a.head()) ? null : "anchor: single parts: record " + a.length()
+                        + " is not the one anchored: the chain up to it was rewritten";
+            }
+        }
+        return "anchor: single parts: anchored with " + a.length() + " record(s); the chain has fewer now: its tail"
+                + " was cut";
+    }
+}
