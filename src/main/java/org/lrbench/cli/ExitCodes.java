@@ -10,6 +10,8 @@ final class ExitCodes {
     static final int INSTRUMENT = 3;
     static final int INTERNAL = 4;
     static final int LOT_OPEN = 5;
+    /** Another run holds the lot (it is measuring it now); nothing was measured. */
+    static final int LOT_HELD = 6;
 
     private ExitCodes() {
     }

@@ -33,6 +33,10 @@ public final class Main implements Runnable {
                 ResultText.problems(commandLine.getErr(), p.problems());
                 return ExitCodes.BAD_INPUT;
             }
+            if (e instanceof LotRefused held && held.kind() == LotRefused.Kind.HELD) {
+                commandLine.getErr().println("lrbench: " + e.getMessage());
+                return ExitCodes.LOT_HELD;
+            }
             if (e instanceof BadInputException || e instanceof LotRefused
                     || e instanceof AddressException) {
                 commandLine.getErr().println("lrbench: " + e.getMessage());

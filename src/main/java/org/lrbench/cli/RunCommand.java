@@ -31,6 +31,7 @@ import org.lrbench.plan.PlanIdentity;
 import org.lrbench.records.SinglePart;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotSummary;
+import org.lrbench.lot.LotHoldKeeper;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
@@ -271,7 +272,8 @@ final class RunCommand implements Callable<Integer> {
         LotStop stop = new LotStop();
         LotRunner.Outcome outcome;
         LotSummary summary;
-        try (ResultStore store = location.open()) {
+        try (ResultStore store = location.open();
+             LotHoldKeeper hold = LotHoldKeeper.take(store, location::open, lot, b.name())) {
             LotStart.Ready ready = start(request, store);
             LotRunner.Setup setup = ready.setup().withStop(stop);
             ResultText.severity(System.out, setup.scheme(), setup.template().simulated());

@@ -14,7 +14,9 @@ public final class LotRefused extends RuntimeException {
         /** The request is sound but the lot's state forbids it: other terms, an open inspection, a discontinued scheme. */
         CONFLICT,
         /** The bench's check standard or corrections refuse the lot; an override with a reason starts it anyway. */
-        CHECK_REFUSED
+        CHECK_REFUSED,
+        /** Another run holds the lot (it is measuring it now): the message names it. */
+        HELD
     }
 
     private final Kind kind;

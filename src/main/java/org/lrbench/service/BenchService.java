@@ -13,6 +13,7 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.BenchLoader;
 import org.lrbench.calibration.CalibrationStore;
 import org.lrbench.driver.DriverLoader;
+import org.lrbench.lot.LotHoldKeeper;
 import org.lrbench.lot.LotRefused;
 import org.lrbench.lot.LotRunner;
 import org.lrbench.lot.LotStart;
@@ -176,24 +177,31 @@ public final class BenchService implements AutoCloseable {
                 new LotStart.Folders(config.calibration(), config.runs(), config.samplingTables()), config.programVersion());
         ResultStore store = openStore();
         LotStart.Ready ready;
+        LotHoldKeeper hold = null;
         try {
+            hold = LotHoldKeeper.take(store, this::openStore, q.lot(), bench.name());
             ready = LotStart.prepare(request, store);
         } catch (LotRefused e) {
+            closeQuietly(hold);
             store.close();
             throw switch (e.kind()) {
                 case BAD_INPUT -> new ServiceException(400, e.getMessage());
-                case CONFLICT -> new ServiceException(409, e.getMessage());
+                case CONFLICT, HELD -> new ServiceException(409, e.getMessage());
                 case CHECK_REFUSED -> new ServiceException(409, e.getMessage()
                         + " (start anyway with override_check_reason, recorded with the operator's name)");
             };
         } catch (ProblemsException e) {
+            closeQuietly(hold);
             store.close();
             throw new ServiceException(400, e.getMessage());
         } catch (IOException | RuntimeException e) {
+            closeQuietly(hold);
             store.close();
             throw e;
         }
+        LotHoldKeeper held = hold;
         if (ready.isClosed()) {
+            held.close();
             store.close();
             Inspection closed = ready.closed();
             throw new ServiceException(409, "lot " + closed.lot() + " is closed: inspection " + closed.round()
@@ -223,7 +231,7 @@ public final class BenchService implements AutoCloseable {
         r.events.add("run_started", started);
         LotRunner.Setup go = setup.withListener(points);
         r.thread = new Thread(() -> {
-            try (store) {
+            try (store; held) {
                 LotRunner.Outcome o = LotRunner.run(go, feeder, part -> {
                     // called once the part is committed: the event never shows an unstored verdict
                     List<Attempt> counting = store.parts(q.lot());
@@ -306,6 +314,12 @@ public final class BenchService implements AutoCloseable {
     }
 
     /** The results store: the shared one when configured (every bench's lots), else the local file. */
+    private static void closeQuietly(LotHoldKeeper hold) {
+        if (hold != null) {
+            hold.close();
+        }
+    }
+
     public ResultStore openStore() {
         return config.storeUrl() != null ? ResultStore.openUrl(config.storeUrl()) : ResultStore.open(dataFile());
     }

@@ -91,5 +91,9 @@ final class Migrations {
                             + " result_bytes BIGINT NOT NULL, result_sha256 TEXT NOT NULL, traces_file TEXT, traces_bytes BIGINT,"
                             + " traces_sha256 TEXT, simulated INTEGER NOT NULL, recorded_at TEXT NOT NULL,"
                             + " content_sha256 TEXT NOT NULL, previous_sha256 TEXT NOT NULL, record_sha256 TEXT NOT NULL,"
-                            + " UNIQUE (lot, serial, attempt))"));
+                            + " UNIQUE (lot, serial, attempt))"),
+            // step 8: who holds a lot being measured, so that two runs of one lot meet a clear refusal
+            List.of(
+                    "CREATE TABLE lot_hold (lot TEXT PRIMARY KEY, holder TEXT NOT NULL, bench TEXT NOT NULL,"
+                            + " host TEXT NOT NULL, pid BIGINT NOT NULL, since TEXT NOT NULL, renewed_at TEXT NOT NULL)"));
 }

@@ -35,6 +35,7 @@ public final class ResultStore implements AutoCloseable {
     private final AttemptRows attempts;
     private final ChainRows chain;
     private final SinglePartRows singles;
+    private final LotHolds holds;
     private final LotQueries queries;
     private final StoreSchema schema;
 
@@ -45,6 +46,7 @@ public final class ResultStore implements AutoCloseable {
         this.attempts = new AttemptRows(db, inspections);
         this.chain = new ChainRows(db, inspections);
         this.singles = new SinglePartRows(db);
+        this.holds = new LotHolds(db);
         this.queries = new LotQueries(db, inspections);
         this.schema = new StoreSchema(db, inspections, chain);
     }
@@ -222,6 +224,30 @@ public final class ResultStore implements AutoCloseable {
         anchored.stream().filter(a -> a.lot().equals(SinglePartRows.ANCHOR_NAME)).map(singles::anchorFinding)
                 .filter(java.util.Objects::nonNull).forEach(out::add);
         return out;
+    }
+
+    /**
+     * Takes the hold on a lot for a run (see {@link LotHold}): null when it is this run's now, else the
+     * hold of the run in its way. One not renewed for {@code stale}, or of a process gone from this host,
+     * is taken over.
+     */
+    public LotHold holdLot(LotHold mine, java.time.Duration stale) {
+        return holds.take(mine, stale);
+    }
+
+    /** Renews this run's hold; false when it is no longer this run's (it was taken over as stale). */
+    public boolean renewHold(LotHold mine, java.time.Instant at) {
+        return holds.renew(mine, at);
+    }
+
+    /** Gives this run's hold back. */
+    public void releaseHold(LotHold mine) {
+        holds.release(mine);
+    }
+
+    /** The hold on a lot, or null when no run holds it. */
+    public LotHold heldBy(String lot) {
+        return holds.held(lot);
     }
 
     /** Keeps the record of a part measured outside a lot's sample, as the next link of the single parts' chain. */

@@ -802,4 +802,33 @@ class CommandLineTests {
         assertThat(cut.code()).isEqualTo(1);
         assertThat(cut.out()).contains("single parts: anchored with 2 record(s)").contains("S2.json: a file no record");
     }
+
+    /**
+     * A lot another run holds (its process alive) is refused before anything is measured, naming the holder,
+     * with exit code 6; once that run has given it back, the lot runs, and gives its own hold back at the end.
+     */
+    @Test
+    void aLotAnotherRunHoldsIsRefusedNamingItsHolder(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("data/lrbench.db");
+        Files.createDirectories(db.getParent());
+        java.time.Instant now = java.time.Instant.now();
+        var other = new org.lrbench.store.LotHold("H1", "someone-else", "bench-east", "lab-pc-2",
+                ProcessHandle.current().pid(), now, now);
+        try (var s = org.lrbench.store.ResultStore.open(db)) {
+            assertThat(s.holdLot(other, java.time.Duration.ofMinutes(5))).isNull();
+        }
+        Outcome held = lotRun(dir, "H1", "40");
+        assertThat(held.code()).as(held.out() + held.err()).isEqualTo(6);
+        assertThat(held.err()).contains("lot H1 is being measured by another run: bench bench-east")
+                .contains("lab-pc-2").contains("Nothing was measured");
+        assertThat(dir.resolve("runs/H1")).doesNotExist();
+        try (var s = org.lrbench.store.ResultStore.open(db)) {
+            s.releaseHold(other);
+        }
+        Outcome ran = lotRun(dir, "H1", "40");
+        assertThat(ran.code()).as(ran.err()).isIn(0, 1);
+        try (var s = org.lrbench.store.ResultStore.open(db)) {
+            assertThat(s.heldBy("H1")).isNull();
+        }
+    }
 }
