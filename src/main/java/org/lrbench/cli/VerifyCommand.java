@@ -26,6 +26,11 @@ final class VerifyCommand implements Callable<Integer> {
     @Option(names = "--lot", paramLabel = "LOT", description = "the lot to check (default: every lot in the store)")
     String lot;
 
+    @Option(names = "--files-of", paramLabel = "BENCH", description = "where each bench keeps its own runs folder:"
+            + " the result files and archives checked in --runs are those of lots measured on these benches (repeat for"
+            + " several), and of any other lot whose folder is there; every lot's chain in the store is checked")
+    List<String> filesOf;
+
     @Option(names = "--anchor", paramLabel = "FILE", description = "an anchor file written by lrbench anchor: every"
             + " lot in it must still hold every link it had then")
     Path anchor;
@@ -33,6 +38,14 @@ final class VerifyCommand implements Callable<Integer> {
     @Option(names = "--anchor-sha256", paramLabel = "HEX", description = "the anchor's closing sha256 as kept outside"
             + " the store: the anchor file must be the one it closes")
     String anchorSha256;
+
+    /** Whether the lot's files are to be found in this runs folder: no --files-of, its bench named, or its folder here. */
+    private boolean filesHere(ResultStore s, String l) {
+        if (filesOf == null || java.nio.file.Files.isDirectory(runsOption.runs.resolve(l))) {
+            return true;
+        }
+        return s.latestInspection(l).map(i -> filesOf.contains(i.terms().bench())).orElse(true);
+    }
 
     @Override
     public Integer call() {
@@ -64,12 +77,22 @@ final class VerifyCommand implements Callable<Integer> {
             if (lot != null && !s.lotNames().contains(lot) && !single) {
                 throw new BadInputException("--lot " + lot + ": no such lot in the store");
             }
-            findings.addAll(RecordCheck.singlePartFindings(s, runsOption.runs, lot));
+            if (filesOf != null) {
+                for (String b : filesOf) {
+                    Inputs.name("--files-of", b);
+                }
+            }
+            findings.addAll(RecordCheck.singlePartFindings(s, runsOption.runs, lot,
+                    filesOf == null ? null : java.util.Set.copyOf(filesOf)));
             for (String l : names) {
                 lots++;
                 if (!s.lotNames().contains(l)) {
                     findings.addAll(RecordCheck.lotFolderFindings(s, runsOption.runs, l));
                     continue; // a lot of single parts only: their records were checked above
+                }
+                if (!filesHere(s, l)) {
+                    findings.addAll(s.chainFindings(l)); // another bench's lot: its files live in its own folder
+                    continue;
                 }
                 findings.addAll(RecordCheck.findings(s, runsOption.runs, l));
                 if (lot != null) {

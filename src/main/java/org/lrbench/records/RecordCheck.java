@@ -46,12 +46,23 @@ public final class RecordCheck {
      * store keeps (of one lot, or of all).
      */
     public static List<String> singlePartFindings(ResultStore store, Path runs, String lot) {
+        return singlePartFindings(store, runs, lot, null);
+    }
+
+    /**
+     * As above, the files checked only of records made on {@code benches} (null: all) or whose lot's folder
+     * is in {@code runs}: where each bench keeps its own runs folder.
+     */
+    public static List<String> singlePartFindings(ResultStore store, Path runs, String lot, java.util.Set<String> benches) {
         List<String> out = new ArrayList<>();
         if (lot == null) {
             out.addAll(store.singlePartFindings());
         }
         for (SingleRecord r : store.singleParts()) {
             if (lot != null && !lot.equals(r.lot())) {
+                continue;
+            }
+            if (benches != null && !benches.contains(r.bench()) && !Files.isDirectory(runs.resolve(r.lot()))) {
                 continue;
             }
             String what = "attempt " + r.attempt() + " of " + r.serial() + " (measured on its own)";

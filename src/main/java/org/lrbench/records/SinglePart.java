@@ -104,7 +104,8 @@ public final class SinglePart {
         Path record = dir.resolve(Attempt.fileName(p.serial(), number, "json"));
         byte[] json = ResultFiles.JSON.writeValueAsBytes(result);
         ResultFiles.writeNew(record, json);
-        SingleRecord stored = new SingleRecord(p.lot(), p.serial(), number, record.getFileName().toString(), json.length,
+        SingleRecord stored = new SingleRecord(p.lot(), p.serial(), number, b.name(), record.getFileName().toString(),
+                json.length,
                 Canonical.sha256(json), archive == null ? null : archive.getFileName().toString(),
                 archive == null ? null : bytes, tracesSha, q.simulated() != null, Instant.now().toString());
         return new Outcome(result, number, record, archive, bytes, stored);

@@ -87,7 +87,8 @@ final class Migrations {
                             + " head_sha256 TEXT NOT NULL)",
                     "INSERT INTO single_part_chain (id, length, head_sha256) VALUES (1, 0, '" + Canonical.GENESIS + "')",
                     "CREATE TABLE single_part (seq INTEGER PRIMARY KEY CHECK (seq >= 1), lot TEXT NOT NULL,"
-                            + " serial TEXT NOT NULL, attempt INTEGER NOT NULL CHECK (attempt >= 1), result_file TEXT NOT NULL,"
+                            + " serial TEXT NOT NULL, attempt INTEGER NOT NULL CHECK (attempt >= 1), bench TEXT NOT NULL,"
+                            + " result_file TEXT NOT NULL,"
                             + " result_bytes BIGINT NOT NULL, result_sha256 TEXT NOT NULL, traces_file TEXT, traces_bytes BIGINT,"
                             + " traces_sha256 TEXT, simulated INTEGER NOT NULL, recorded_at TEXT NOT NULL,"
                             + " content_sha256 TEXT NOT NULL, previous_sha256 TEXT NOT NULL, record_sha256 TEXT NOT NULL,"

@@ -16,7 +16,7 @@ import java.util.List;
 final class SinglePartRows {
     /** The name the single parts' chain has in an anchor: never a lot number (lot numbers have no '~'). */
     static final String ANCHOR_NAME = "~single-parts";
-    private static final String COLUMNS = "lot, serial, attempt, result_file, result_bytes, result_sha256, traces_file,"
+    private static final String COLUMNS = "lot, serial, attempt, bench, result_file, result_bytes, result_sha256, traces_file,"
             + " traces_bytes, traces_sha256, simulated, recorded_at";
 
     private final StoreDb store;
@@ -36,22 +36,23 @@ final class SinglePartRows {
                 String link = Canonical.chain(st.head(), content);
                 try (PreparedStatement p = store.db.prepareStatement("INSERT INTO single_part (seq, " + COLUMNS
                         + ", content_sha256, previous_sha256, record_sha256) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?,"
-                        + " ?, ?, ?)")) {
+                        + " ?, ?, ?, ?)")) {
                     p.setInt(1, st.length() + 1);
                     p.setString(2, r.lot());
                     p.setString(3, r.serial());
                     p.setInt(4, r.attempt());
-                    p.setString(5, r.resultFile());
-                    p.setLong(6, r.resultBytes());
-                    p.setString(7, r.resultSha256());
-                    p.setString(8, r.tracesFile());
-                    p.setObject(9, r.tracesBytes());
-                    p.setString(10, r.tracesSha256());
-                    p.setInt(11, r.simulated() ? 1 : 0);
-                    p.setString(12, r.recordedAt());
-                    p.setString(13, content);
-                    p.setString(14, st.head());
-                    p.setString(15, link);
+                    p.setString(5, r.bench());
+                    p.setString(6, r.resultFile());
+                    p.setLong(7, r.resultBytes());
+                    p.setString(8, r.resultSha256());
+                    p.setString(9, r.tracesFile());
+                    p.setObject(10, r.tracesBytes());
+                    p.setString(11, r.tracesSha256());
+                    p.setInt(12, r.simulated() ? 1 : 0);
+                    p.setString(13, r.recordedAt());
+                    p.setString(14, content);
+                    p.setString(15, st.head());
+                    p.setString(16, link);
                     p.executeUpdate();
                 }
                 try (PreparedStatement p = store.db.prepareStatement(
@@ -92,12 +93,12 @@ final class SinglePartRows {
         try (Statement s = store.db.createStatement(); ResultSet r = s.executeQuery("SELECT seq, " + COLUMNS
                 + ", content_sha256, previous_sha256, record_sha256 FROM single_part ORDER BY seq")) {
             while (r.next()) {
-                long traces = r.getLong(9);
+                long traces = r.getLong(10);
                 Long tracesBytes = r.wasNull() ? null : traces;
                 SingleRecord rec = new SingleRecord(r.getString(2), r.getString(3), r.getInt(4), r.getString(5),
-                        r.getLong(6), r.getString(7), r.getString(8), tracesBytes, r.getString(10), r.getInt(11) != 0,
-                        r.getString(12));
-                out.add(new Row(r.getInt(1), rec, r.getString(13), r.getString(14), r.getString(15)));
+                        r.getString(6), r.getLong(7), r.getString(8), r.getString(9), tracesBytes, r.getString(11),
+                        r.getInt(12) != 0, r.getString(13));
+                out.add(new Row(r.getInt(1), rec, r.getString(14), r.getString(15), r.getString(16)));
             }
         } catch (SQLException e) {
             throw new StoreException("reading the single parts' records failed: " + StoreErrors.describe(e), e);

@@ -831,4 +831,37 @@ class CommandLineTests {
             assertThat(s.heldBy("H1")).isNull();
         }
     }
+
+    /**
+     * Two benches, one store, each bench its own runs folder: verify of one folder with --files-of its bench
+     * checks that bench's files and every lot's chain, and does not report the other bench's files as missing.
+     */
+    @Test
+    void verifyChecksEachBenchsOwnRunsFolder(@TempDir Path dir) throws Exception {
+        String data = dir.resolve("data").toString();
+        Path east = dir.resolve("east");
+        Path west = dir.resolve("west");
+        Outcome a = run("run", PLAN, "--lot", "LE", "--lot-size", "40", "--sim-lot", LOT_FILE, "--runs", east.toString(),
+                "--data", data, "--calibration", dir.resolve("none").toString(), "--operator", "Tam");
+        assertThat(a.code()).as(a.err()).isIn(0, 1);
+        Outcome b = run("run", PLAN, "--lot", "LW", "--lot-size", "40", "--sim-lot", LOT_FILE, "--runs", west.toString(),
+                "--data", data, "--calibration", dir.resolve("none").toString(), "--operator", "Tam", "--bench",
+                HOME.resolve("simulator/bench-pm12.yaml").toString());
+        assertThat(b.code()).as(b.err()).isIn(0, 1);
+        Outcome mixed = run("verify", "--data", data, "--runs", east.toString());
+        assertThat(mixed.code()).isEqualTo(1);
+        assertThat(mixed.out()).contains("LW").contains("missing");
+        Outcome eastOnly = run("verify", "--data", data, "--runs", east.toString(), "--files-of", "sim-bench-1");
+        assertThat(eastOnly.code()).as(eastOnly.out()).isZero();
+        Outcome westOnly = run("verify", "--data", data, "--runs", west.toString(), "--files-of", "sim-bench-pm12");
+        assertThat(westOnly.code()).as(westOnly.out()).isZero();
+        // the other bench's chain is still checked from either folder
+        try (var c = java.sql.DriverManager.getConnection("jdbc:sqlite:" + dir.resolve("data/lrbench.db"));
+             var st = c.createStatement()) {
+            st.executeUpdate("UPDATE attempt SET operator = 'Someone' WHERE lot = 'LW'");
+        }
+        Outcome altered = run("verify", "--data", data, "--runs", east.toString(), "--files-of", "sim-bench-1");
+        assertThat(altered.code()).isEqualTo(1);
+        assertThat(altered.out()).contains("lot LW").contains("altered");
+    }
 }
