@@ -32,6 +32,7 @@ import org.lrbench.records.SinglePart;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.LotSummary;
 import org.lrbench.lot.LotHoldKeeper;
+import org.lrbench.lot.ScannedTray;
 import org.lrbench.results.Names;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
@@ -83,6 +84,10 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--sim-lot", paramLabel = "TRAY.yaml",
             description = "with --lot-size: measure a tray of simulated parts unattended instead of asking the operator")
     Path simLot;
+
+    @Option(names = "--at-prompts", description = "with --sim-lot: the operator is prompted for each part as on a real"
+            + " bench (serials scanned or typed, s, q, r) and the part measured is the tray's part of that serial")
+    boolean atPrompts;
 
     @Option(names = "--tray", paramLabel = "SERIALS.txt",
             description = "with --lot-size on a bench with a switch unit: the serials in the fixture's positions,"
@@ -254,6 +259,10 @@ final class RunCommand implements Callable<Integer> {
         if (Names.supplierProblem(supplier) != null) {
             throw new BadInputException("--" + Names.supplierProblem(supplier));
         }
+        if (atPrompts && simLot == null) {
+            throw new BadInputException("--at-prompts is for a simulated tray: give --sim-lot TRAY.yaml (on a real bench"
+                    + " the prompts are the default)");
+        }
         BenchConfig b = addresses.applyTo(benchOptions.load());
         SimLot tray = null;
         List<String> serials = null;
@@ -297,7 +306,12 @@ final class RunCommand implements Callable<Integer> {
                  LotProgress progress = LotProgress.start(Math.max(0, setup.sampleSize() - ready.alreadyMeasured()),
                          ready.plan().sweep().frequenciesHz().size())) {
                 setup = setup.withListener(progress);
-                if (tray != null) {
+                if (tray != null && atPrompts) {
+                    PartFeeder prompts = new ConsoleFeeder(new BufferedReader(new InputStreamReader(System.in,
+                            StandardCharsets.UTF_8)), System.out);
+                    outcome = LotRunner.run(setup, new ScannedTray(prompts, SimulatedPart.tray(tray.parts()), System.out),
+                            row);
+                } else if (tray != null) {
                     outcome = TrayRun.simulated(setup, tray, row);
                 } else if (serials != null) {
                     outcome = TrayRun.switched(setup, serials, row);

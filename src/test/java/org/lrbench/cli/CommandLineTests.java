@@ -864,4 +864,32 @@ class CommandLineTests {
         assertThat(altered.code()).isEqualTo(1);
         assertThat(altered.out()).contains("lot LW").contains("altered");
     }
+
+    /**
+     * A prompted lot on the in-process simulated bench: serials typed at the prompts pick the tray's parts,
+     * a serial not on the tray is refused and asked again, and the lot ends as the same parts unattended do.
+     */
+    @Test
+    void aPromptedLotRunsOnTheSimulatedBench(@TempDir Path dir) throws Exception {
+        StringBuilder typed = new StringBuilder("NOT-ON-TRAY\n");
+        for (int i = 1; i <= 8; i++) {
+            typed.append("HC0417-000").append(i).append("\n\n");
+        }
+        java.io.InputStream before = System.in;
+        Outcome o;
+        try {
+            System.setIn(new java.io.ByteArrayInputStream(typed.toString().getBytes(StandardCharsets.UTF_8)));
+            o = lotRun(dir, "P1", "40", "--at-prompts");
+        } finally {
+            System.setIn(before);
+        }
+        assertThat(o.code()).as(o.out() + o.err()).isIn(0, 1);
+        assertThat(o.out()).contains("NOT-ON-TRAY is not on the simulated tray").contains("HC0417-0001");
+        Outcome unattended = lotRun(dir, "P2", "40");
+        assertThat(o.code()).isEqualTo(unattended.code());
+        Outcome noTray = run("run", PLAN, "--lot", "P4", "--lot-size", "40", "--at-prompts", "--data",
+                dir.resolve("data").toString());
+        assertThat(noTray.code()).isEqualTo(2);
+        assertThat(noTray.err()).contains("--at-prompts is for a simulated tray");
+    }
 }
