@@ -87,6 +87,18 @@ public final class CoverageBenchmark {
      */
     public static int run(PrintStream out, BenchConfig bench, Path drivers, int seeds, boolean benchErrors)
             throws Exception {
+        return run(out, bench, drivers, seeds, benchErrors, null);
+    }
+
+    /** The matrix's parts whose name contains one of {@code parts} (all for null). */
+    static List<Case> cases(List<String> parts) {
+        return parts == null ? cases() : cases().stream()
+                .filter(c -> parts.stream().anyMatch(p -> c.name().contains(p.trim()))).toList();
+    }
+
+    /** As above, on the parts {@code parts} names (null: the whole matrix). */
+    public static int run(PrintStream out, BenchConfig bench, Path drivers, int seeds, boolean benchErrors,
+                          List<String> parts) throws Exception {
         BenchAccuracy accuracy = benchErrors
                 ? new BenchAccuracy(SENSE_TOLERANCE, 0, 0, 0, RANGE_MATCH, Double.POSITIVE_INFINITY, null, null,
                         METER_ACCURACY, 0)
@@ -112,7 +124,7 @@ public final class CoverageBenchmark {
         // per quantity over every part: runs covered, runs (a pooled figure far tighter than one pair's)
         Map<String, long[]> pooled = new LinkedHashMap<>();
         int pairs = 0;
-        for (Case c : cases()) {
+        for (Case c : cases(parts)) {
             Plan plan = PlanLoader.parse(c.plan(), "coverage.yaml", b.maxAmplitudeVolt());
             double[] truth = {c.part().seriesResistanceOhm(), c.part().inductanceHenry(), c.part().parallelCapacitanceFarad(),
                 c.part().wireDiameterMetre() > 0 ? SkinEffect.coefficient(c.part().wireDiameterMetre()) : 0,

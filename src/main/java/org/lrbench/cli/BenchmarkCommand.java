@@ -167,11 +167,18 @@ final class BenchmarkCommand implements Runnable {
                 "both (default): one after the other"})
         String benchErrors;
 
+        @Option(names = "--parts", split = ",", paramLabel = "TEXT", description = "only the parts whose name contains"
+                + " one of these (e.g. '4.7 mH,22 mH'), to look closer at some with more seeds")
+        List<String> parts;
+
         @picocli.CommandLine.Mixin
         BenchOptions benchOptions;
 
         @Override
         public Integer call() throws Exception {
+            if (parts != null && CoverageBenchmark.cases(parts).isEmpty()) {
+                throw new BadInputException("--parts " + String.join(",", parts) + ": no part of the matrix matches");
+            }
             if (seeds < 5 || seeds > 10_000) {
                 throw new BadInputException("--seeds 5..10000");
             }
@@ -180,10 +187,12 @@ final class BenchmarkCommand implements Runnable {
             }
             int misses = 0;
             if (!benchErrors.equals("on")) {
-                misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, false);
+                misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, false,
+                        parts);
             }
             if (!benchErrors.equals("off")) {
-                misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, true);
+                misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, true,
+                        parts);
             }
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }

@@ -65,6 +65,9 @@ public final class Names {
 
     /** Why {@code name} cannot be a supplier's name (one line, at most 200 characters), or null when it can. */
     public static String supplierProblem(String name) {
+        if (name != null && name.isBlank()) {
+            return null; // no supplier named: the scheme of parts without one
+        }
         return keyed("supplier", org.lrbench.plan.TextRules.oneLine("a supplier's name", name, SUPPLIER_LENGTH));
     }
 }

@@ -38,7 +38,7 @@ class ConsoleFeederTests {
         PartFeeder.Next n = f.next(new PartFeeder.Prompt(1, 8, Set.of()));
         assertThat(n.serial()).isEqualTo("HC-2");
         assertThat(n.reason()).isNull();
-        assertThat(out.toString(StandardCharsets.UTF_8)).contains("serial '../x': use 1 to 64 letters");
+        assertThat(out.toString(StandardCharsets.UTF_8)).contains("serial '../x' ('.' at position 1): use 1 to 64 letters");
     }
 
     @Test
