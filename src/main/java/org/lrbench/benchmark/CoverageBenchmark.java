@@ -90,6 +90,11 @@ public final class CoverageBenchmark {
         return run(out, bench, drivers, seeds, benchErrors, null);
     }
 
+    /** Whether any part of the matrix is named by {@code parts}. */
+    public static boolean names(List<String> parts) {
+        return !cases(parts).isEmpty();
+    }
+
     /** The matrix's parts whose name contains one of {@code parts} (all for null). */
     static List<Case> cases(List<String> parts) {
         return parts == null ? cases() : cases().stream()

@@ -176,7 +176,7 @@ final class BenchmarkCommand implements Runnable {
 
         @Override
         public Integer call() throws Exception {
-            if (parts != null && CoverageBenchmark.cases(parts).isEmpty()) {
+            if (parts != null && !CoverageBenchmark.names(parts)) {
                 throw new BadInputException("--parts " + String.join(",", parts) + ": no part of the matrix matches");
             }
             if (seeds < 5 || seeds > 10_000) {
