@@ -81,7 +81,11 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
      * @param recordLengths the record lengths the instrument offers, ascending; empty when any length
      *                      goes (the shortest listed length that holds the request is asked for)
      */
-    public record Timebase(boolean rate, List<Integer> recordLengths) {
+    public record Timebase(boolean rate, List<Integer> recordLengths, org.lrbench.instrument.RangeLimits.Rounding rounding) {
+
+        public Timebase(boolean rate, List<Integer> recordLengths) {
+            this(rate, recordLengths, null);
+        }
     }
 
     /** How the end of an acquisition is known. */

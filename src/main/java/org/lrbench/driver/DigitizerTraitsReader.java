@@ -140,7 +140,7 @@ final class DigitizerTraitsReader {
                     Map.copyOf(fields), Map.copyOf(queries), zero == null ? 0 : zero, full == null ? 0 : full, clipLow, clipHigh);
         }
         DigitizerTraits.Timebase timebase = g.timebase();
-        YamlMap t = root.map("timebase", false, "setting", "record_lengths");
+        YamlMap t = root.map("timebase", false, "setting", "record_lengths", "rounding");
         if (t != null) {
             Boolean rate = t.has("setting") ? t.choice("setting", true, Map.of("interval", false, "rate", true)) : Boolean.FALSE;
             List<Integer> lengths = new ArrayList<>();
@@ -156,7 +156,10 @@ final class DigitizerTraitsReader {
                     }
                 }
             }
-            timebase = new DigitizerTraits.Timebase(rate != null && rate, List.copyOf(lengths));
+            RangeLimits.Rounding rounding = t.has("rounding") ? t.choice("rounding", true, Map.of(
+                    "up", RangeLimits.Rounding.UP, "down", RangeLimits.Rounding.DOWN,
+                    "nearest", RangeLimits.Rounding.NEAREST)) : null;
+            timebase = new DigitizerTraits.Timebase(rate != null && rate, List.copyOf(lengths), rounding);
         }
         DigitizerTraits.Acquisition acquisition = g.acquisition();
         YamlMap a = root.map("acquisition", false, "complete", "poll_query", "until", "wait");

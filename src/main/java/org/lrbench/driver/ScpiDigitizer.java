@@ -291,7 +291,8 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     /** A time-base request: the settings and their read-back queries, as one command string. */
-    private record TimingMessage(String command, String intervalQuery, String pointsQuery, boolean rate) {
+    private record TimingMessage(String command, String intervalQuery, String pointsQuery, boolean rate,
+                                 double askedInterval) {
     }
 
     private TimingMessage timingMessage(double sampleIntervalSecond, int wanted) {
@@ -308,7 +309,7 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                         "duration", ScpiNumbers.nr3(sampleIntervalSecond * requestedPoints)))
                 + ";" + driver.command("points").render(Map.of("points", ScpiNumbers.nr1(requestedPoints)))
                 + ";" + intervalQuery + ";" + pointsQuery;
-        return new TimingMessage(command, intervalQuery, pointsQuery, traits.timebase().rate());
+        return new TimingMessage(command, intervalQuery, pointsQuery, traits.timebase().rate(), sampleIntervalSecond);
     }
 
     private Timing acceptTiming(TimingMessage m, String intervalReply, String pointsReply) {
@@ -317,6 +318,13 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new InstrumentException(session.instrument() + ": '" + m.intervalQuery() + "' answered " + answered);
         }
         interval = m.rate() ? 1 / answered : answered;
+        org.lrbench.instrument.RangeLimits.Rounding declared = traits.timebase().rounding();
+        if (declared != null && !declared.allows(m.askedInterval(), interval)) {
+            throw new InstrumentException(session.instrument() + ": asked for a sample interval of "
+                    + ScpiNumbers.nr3(m.askedInterval()) + " s, granted " + ScpiNumbers.nr3(interval) + " s, but the driver"
+                    + " declares timebase.rounding: " + declared.name().toLowerCase(java.util.Locale.ROOT)
+                    + ": the declaration is not the instrument's");
+        }
         double n = number(m.pointsQuery(), pointsReply);
         if (n != Math.rint(n) || n < 1) {
             throw new InstrumentException(session.instrument() + ": record length reply " + n + " is not a count");

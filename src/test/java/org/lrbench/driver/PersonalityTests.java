@@ -231,4 +231,33 @@ class PersonalityTests {
                 .isInstanceOf(org.lrbench.instrument.InstrumentException.class)
                 .hasMessageContaining("no reply").hasMessageContaining("complete: poll");
     }
+
+    /**
+     * The generic simulated digitizer divides its clock by whole numbers, so it rounds a requested interval
+     * down: a driver declaring timebase.rounding: down is kept, one declaring up is refused at the first
+     * interval granted finer than asked, naming the key.
+     */
+    @Test
+    void aDeclaredIntervalRoundingIsHeldToTheInstrument(@TempDir Path dir) throws Exception {
+        String base = Files.readString(HOME.resolve("drivers/generic-digitizer.yaml"));
+        BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
+        for (String rounding : new String[] {"down", "up"}) {
+            Files.writeString(dir.resolve("generic-" + rounding + ".yaml"), base + "\ntimebase:\n  rounding: " + rounding + "\n");
+            DriverFile d = new DriverLoader(dir).load("generic-" + rounding, DriverKind.DIGITIZER);
+            SimBench sim = new SimBench(b.simulation(), 100, PartFile.load(HOME.resolve(
+                    "simulator/parts/qfd-ind-1m0-nominal.yaml")));
+            ScpiDigitizer dig = new ScpiDigitizer(new ScpiSession("digitizer", new InProcessTransport("sim://digitizer",
+                    sim.digitizer()), Duration.ofSeconds(1)), d);
+            dig.prepare();
+            // an interval between two of the clock's: granted the one below
+            double asked = 1.3705e-6; // the clock is 1 ns: granted 1.370 us
+            if (rounding.equals("down")) {
+                assertThat(dig.setTiming(asked, 1000).sampleIntervalSecond()).isLessThan(asked);
+            } else {
+                org.assertj.core.api.Assertions.assertThatThrownBy(() -> dig.setTiming(asked, 1000))
+                        .isInstanceOf(org.lrbench.instrument.InstrumentException.class)
+                        .hasMessageContaining("timebase.rounding: up");
+            }
+        }
+    }
 }
