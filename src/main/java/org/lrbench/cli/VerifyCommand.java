@@ -82,6 +82,9 @@ final class VerifyCommand implements Callable<Integer> {
                     Inputs.name("--files-of", b);
                 }
             }
+            if (lot == null) {
+                findings.addAll(s.decisionFindings());
+            }
             findings.addAll(RecordCheck.singlePartFindings(s, runsOption.runs, lot,
                     filesOf == null ? null : java.util.Set.copyOf(filesOf)));
             for (String l : names) {

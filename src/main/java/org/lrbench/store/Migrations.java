@@ -96,5 +96,15 @@ final class Migrations {
             // step 8: who holds a lot being measured, so that two runs of one lot meet a clear refusal
             List.of(
                     "CREATE TABLE lot_hold (lot TEXT PRIMARY KEY, holder TEXT NOT NULL, bench TEXT NOT NULL,"
-                            + " host TEXT NOT NULL, pid BIGINT NOT NULL, since TEXT NOT NULL, renewed_at TEXT NOT NULL)"));
+                            + " host TEXT NOT NULL, pid BIGINT NOT NULL, since TEXT NOT NULL, renewed_at TEXT NOT NULL)"),
+            // step 9: decisions on suppliers' schemes become links of a hash chain of their own (earlier ones
+            // stay unlinked and are listed as unverifiable)
+            List.of(
+                    "ALTER TABLE scheme_decision ADD COLUMN chain_seq INTEGER",
+                    "ALTER TABLE scheme_decision ADD COLUMN content_sha256 TEXT",
+                    "ALTER TABLE scheme_decision ADD COLUMN previous_sha256 TEXT",
+                    "ALTER TABLE scheme_decision ADD COLUMN record_sha256 TEXT",
+                    "CREATE TABLE decision_chain (id INTEGER PRIMARY KEY CHECK (id = 1), length INTEGER NOT NULL,"
+                            + " head_sha256 TEXT NOT NULL)",
+                    "INSERT INTO decision_chain (id, length, head_sha256) VALUES (1, 0, '" + Canonical.GENESIS + "')"));
 }

@@ -36,6 +36,7 @@ public final class ResultStore implements AutoCloseable {
     private final ChainRows chain;
     private final SinglePartRows singles;
     private final LotHolds holds;
+    private final DecisionChain decisions;
     private final LotQueries queries;
     private final StoreSchema schema;
 
@@ -47,6 +48,7 @@ public final class ResultStore implements AutoCloseable {
         this.chain = new ChainRows(db, inspections);
         this.singles = new SinglePartRows(db);
         this.holds = new LotHolds(db);
+        this.decisions = new DecisionChain(db);
         this.queries = new LotQueries(db, inspections);
         this.schema = new StoreSchema(db, inspections, chain);
     }
@@ -210,9 +212,10 @@ public final class ResultStore implements AutoCloseable {
     /** Every lot's chain length and head as they stand, and the single parts' chain (what an anchor keeps). */
     public List<ChainAnchor> chainAnchors() {
         List<ChainAnchor> out = new java.util.ArrayList<>(chain.anchors());
-        ChainAnchor s = singles.anchor();
-        if (s != null && s.length() > 0) {
-            out.add(s);
+        for (ChainAnchor c : new ChainAnchor[] {singles.anchor(), decisions.anchor()}) {
+            if (c != null && c.length() > 0) {
+                out.add(c);
+            }
         }
         return out;
     }
@@ -220,10 +223,17 @@ public final class ResultStore implements AutoCloseable {
     /** Findings of the chains against an anchor kept outside the store (see {@link ChainRows#anchorFindings}). */
     public List<String> anchorFindings(List<ChainAnchor> anchored) {
         List<String> out = new java.util.ArrayList<>(chain.anchorFindings(anchored.stream()
-                .filter(a -> !a.lot().equals(SinglePartRows.ANCHOR_NAME)).toList()));
+                .filter(a -> !a.lot().startsWith("~")).toList()));
         anchored.stream().filter(a -> a.lot().equals(SinglePartRows.ANCHOR_NAME)).map(singles::anchorFinding)
                 .filter(java.util.Objects::nonNull).forEach(out::add);
+        anchored.stream().filter(a -> a.lot().equals(DecisionChain.ANCHOR_NAME)).map(decisions::anchorFinding)
+                .filter(java.util.Objects::nonNull).forEach(out::add);
         return out;
+    }
+
+    /** The scheme decisions' chain's breaks (empty when whole). */
+    public List<String> decisionFindings() {
+        return decisions.findings();
     }
 
     /**

@@ -142,6 +142,7 @@ final class SchemeRows {
                     p.setInt(8, override ? 1 : 0);
                     p.executeUpdate();
                 }
+                new DecisionChain(store).link(partNumber, supplier, seq);
                 return SwitchingRules.replay(schemeEvents(partNumber, supplier, simulated));
             });
         } catch (SQLException e) {

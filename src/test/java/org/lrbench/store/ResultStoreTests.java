@@ -289,4 +289,42 @@ public class ResultStoreTests {
         assertThatThrownBy(() -> ResultStore.open(db)).isInstanceOf(StoreException.class)
                 .hasMessageContaining("corrupt or not an lrbench store");
     }
+
+    /**
+     * Decisions on a supplier's scheme are links of a chain of their own: a reason edited behind lrbench's
+     * back, or the last decision removed with the head re-pointed (then only an anchor shows it), is found
+     * (hash chains: common practice, no source).
+     */
+    @Test
+    void schemeDecisionsAreLinksOfAChain(@TempDir Path dir) throws Exception {
+        Path db = dir.resolve("s.db");
+        List<ChainAnchor> anchor;
+        try (ResultStore s = ResultStore.open(db)) {
+            s.decideScheme("P-1", "S", org.lrbench.sampling.Severity.TIGHTENED, "three rejects", "qa", true,
+                    "2026-01-01T00:00:00Z");
+            s.decideScheme("P-1", "S", org.lrbench.sampling.Severity.NORMAL, "process fixed", "qa", true,
+                    "2026-01-02T00:00:00Z");
+            assertThat(s.decisionFindings()).isEmpty();
+            anchor = s.chainAnchors();
+            assertThat(anchor).anySatisfy(a -> assertThat(a.lot()).isEqualTo("~scheme-decisions"));
+        }
+        try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
+            st.executeUpdate("UPDATE scheme_decision SET reason = 'asked by purchasing' WHERE seq = 1");
+        }
+        try (ResultStore s = ResultStore.open(db)) {
+            assertThat(s.decisionFindings()).anySatisfy(f -> assertThat(f).contains("decision 1 on P-1 / S")
+                    .contains("altered"));
+        }
+        try (var c = DriverManager.getConnection("jdbc:sqlite:" + db); var st = c.createStatement()) {
+            st.executeUpdate("UPDATE scheme_decision SET reason = 'three rejects' WHERE seq = 1");
+            st.executeUpdate("DELETE FROM scheme_decision WHERE seq = 2");
+            st.executeUpdate("UPDATE decision_chain SET length = 1, head_sha256 = (SELECT record_sha256 FROM"
+                    + " scheme_decision WHERE seq = 1)");
+        }
+        try (ResultStore s = ResultStore.open(db)) {
+            assertThat(s.decisionFindings()).isEmpty(); // consistent in itself
+            assertThat(s.anchorFindings(anchor)).anySatisfy(f -> assertThat(f).contains("scheme decisions")
+                    .contains("tail was cut"));
+        }
+    }
 }
