@@ -27,7 +27,7 @@ public final class ConsoleFeeder implements PartFeeder {
     @Override
     public Next next(Prompt prompt) {
         while (true) {
-            out.printf("place part %d of %d, enter or scan its serial (s skip, q stop): ", prompt.index(), prompt.of());
+            out.printf("%s, enter or scan its serial (s skip, q stop): ", prompt.words());
             String line;
             if (pending != null) {
                 // scanned at the question after the last part: it is this prompt's entry

@@ -196,7 +196,8 @@ public final class LotRunner {
             }
             Set<String> measured = counting.stream().filter(Attempt::judged).map(Attempt::serial).collect(Collectors.toSet());
             stop.waiting(judged, n);
-            PartFeeder.Next next = feeder.next(new PartFeeder.Prompt(judged + 1, n, Set.copyOf(measured)));
+            int skips = (int) counting.stream().filter(a -> a.verdict() == Verdict.SKIPPED).count();
+            PartFeeder.Next next = feeder.next(new PartFeeder.Prompt(judged + 1, n, Set.copyOf(measured), skips));
             stop.working();
             if (next.action() == PartFeeder.Action.STOP || stop.requested()) {
                 stopped = stop.requested();

@@ -15,7 +15,21 @@ public interface PartFeeder {
      * measured (pass or fail) in this inspection, which may be measured again only on purpose,
      * with a reason.
      */
-    record Prompt(int index, int of, Set<String> measured) {
+    record Prompt(int index, int of, Set<String> measured, int skipped) {
+
+        public Prompt(int index, int of, Set<String> measured) {
+            this(index, of, measured, 0);
+        }
+
+        /**
+         * The prompt in words: which sample part is wanted and, after skips, that another part takes the
+         * skipped position's place (so a skip visibly moves the prompt on).
+         */
+        public String words() {
+            return "place part " + index + " of " + of + (skipped == 0 ? "" : " (" + skipped + " position"
+                    + (skipped == 1 ? "" : "s") + " skipped: another part takes " + (skipped == 1 ? "its" : "their")
+                    + " place)");
+        }
     }
 
     /**

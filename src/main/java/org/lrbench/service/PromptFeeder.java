@@ -91,7 +91,8 @@ final class PromptFeeder implements PartFeeder {
         e.put("prompt", openId);
         e.put("position", prompt.index());
         e.put("of", prompt.of());
-        e.put("text", "place part " + prompt.index() + " of " + prompt.of() + ", enter or scan its serial");
+        e.put("skipped", prompt.skipped());
+        e.put("text", prompt.words() + ", enter or scan its serial");
         events.add("prompt", e);
         try {
             while (answer == null && !stopped) {

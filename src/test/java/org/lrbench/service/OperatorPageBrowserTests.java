@@ -101,6 +101,22 @@ class OperatorPageBrowserTests {
                 browser.navigate().refresh();
                 wait.until(d -> "PAGE-1".equals(d.findElement(By.id("lot")).getAttribute("value")));
                 wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("verdict"), "lot PAGE-1: REJECT"));
+                // a new lot starts clean: the last lot's result and point status are gone
+                WebElement next = browser.findElement(By.id("lot"));
+                next.clear();
+                next.sendKeys("PAGE-3");
+                WebElement who = browser.findElement(By.id("operator"));
+                who.clear();
+                who.sendKeys("Tam");
+                browser.findElement(By.id("start")).click();
+                wait.until(d -> d.findElement(By.id("prompt")).getText().contains("place part 1 of 8")
+                        || !d.findElement(By.id("startmsg")).getText().isBlank());
+                assertThat(browser.findElement(By.id("startmsg")).getText()).as("start refused").isBlank();
+                assertThat(browser.findElement(By.id("verdict")).getText()).doesNotContain("PAGE-1").doesNotContain("REJECT");
+                assertThat(browser.findElement(By.id("status")).getText()).doesNotContain("point 7");
+                assertThat(browser.findElements(By.cssSelector("#parts td.fail"))).isEmpty();
+                browser.findElement(By.id("stop")).click();
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "stopped"));
             } finally {
                 browser.quit();
             }
@@ -153,6 +169,21 @@ class OperatorPageBrowserTests {
                 wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() >= 3);
                 assertThat(browser.findElement(By.id("parts")).getText()).contains("HC0417-0001").contains("HC0417-0002");
                 assertThat(browser.findElement(By.id("status")).getText()).contains("already measured");
+                // a skip is shown as a skip, and the prompt moves on to the next position
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "place part"));
+                String at = browser.findElement(By.id("prompt")).getText().replaceAll("(?s).*place part (\\d+) of.*", "$1");
+                int rows = browser.findElements(By.cssSelector("#parts tr")).size();
+                browser.findElement(By.id("skip")).click();
+                // the sample still needs that part: the prompt moves on to the same part number, saying another
+                // part takes the skipped position's place
+                wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"),
+                        "place part " + at + " of 8 (1 position skipped: another part takes its place)"));
+                wait.until(d -> d.findElements(By.cssSelector("#parts tr")).size() > rows);
+                assertThat(browser.findElement(By.id("parts")).getText()).contains("(position skipped)")
+                        .doesNotContain("skipped-");
+                assertThat(browser.findElement(By.id("verdict")).getText()).contains("position skipped");
+                Files.createDirectories(Path.of("target"));
+                Files.write(Path.of("target", "operator-page-skip.png"), browser.getScreenshotAs(OutputType.BYTES));
             } finally {
                 browser.quit();
             }
