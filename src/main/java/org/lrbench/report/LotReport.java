@@ -121,6 +121,7 @@ public final class LotReport {
             + "table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #bbb;padding:.2em .6em;"
             + "text-align:left;vertical-align:top}th{background:#eee}"
             + ".reject,.fail,.error{color:#7b2d8e;font-weight:bold}.accept,.pass{color:#1b4f8c;font-weight:bold}"
+            + ".multiples{display:flex;flex-wrap:wrap;gap:6px}.multiples figure{margin:0;font-size:11px;break-inside:avoid}"
             + ".banner{border:3px solid #d97a00;background:#fff3e0;padding:.6em;font-weight:bold;margin-bottom:1em}"
             + ".warn{color:#8a5a00}img{max-width:100%}.signoff td{height:2.4em;min-width:14em}.foot{color:#555;font-size:90%}"
             + "@page{margin:15mm}"
@@ -345,46 +346,71 @@ public final class LotReport {
         }
     }
 
+    /** From this many parts with curves on, the impedance plots are small multiples, not one full chart each. */
+    static final int SMALL_MULTIPLES_FROM = 25;
+
+    /** One part's curve: the corrected points and the fitted model on a log frequency grid. */
+    private record Curve(PartResult part, double[] f, double[] mag, double[] phase, double[] fm, double[] mm, double[] pm) {
+    }
+
     private static void impedance(StringBuilder h, List<PartResult> parts) throws IOException {
-        h.append("<h2>Impedance per part</h2>\n<p>Points: each frequency after the bench's corrections (what the"
-                + " model was fitted to); lines: the fitted model. Records kept before corrected points were stored show"
-                + " the points as measured.</p>\n");
+        List<Curve> curves = new ArrayList<>();
         for (PartResult p : parts) {
             if (p.points() == null || p.points().isEmpty() || p.model() == null) {
                 continue;
             }
-            int n = p.points().size();
-            double[] f = new double[n];
-            double[] mag = new double[n];
-            double[] ph = new double[n];
-            for (int i = 0; i < n; i++) {
-                var pt = p.points().get(i);
-                f[i] = pt.frequencyHz();
-                Complex z = pt.correctedResistanceOhm() != null && pt.correctedReactanceOhm() != null
-                        ? new Complex(pt.correctedResistanceOhm(), pt.correctedReactanceOhm())
-                        : new Complex(pt.resistanceOhm(), pt.reactanceOhm());
-                mag[i] = z.abs();
-                ph[i] = Math.toDegrees(z.getArgument());
-            }
-            double[] params = new double[LumpedParameter.values().length];
-            for (LumpedParameter q : LumpedParameter.values()) {
-                var rec = p.model().parameters().get(q.key());
-                params[q.ordinal()] = rec == null ? 0 : rec.value();
-            }
-            int m = 60;
-            double[] fm = new double[m];
-            double[] mm = new double[m];
-            double[] pm = new double[m];
-            for (int i = 0; i < m; i++) {
-                fm[i] = f[0] * Math.pow(f[n - 1] / f[0], i / (m - 1.0));
-                Complex z = LumpedModel.impedance(params, fm[i]);
-                mm[i] = z.abs();
-                pm[i] = Math.toDegrees(z.getArgument());
-            }
+            curves.add(curve(p));
+        }
+        h.append("<h2>Impedance per part</h2>\n<p>Points: each frequency after the bench's corrections (what the"
+                + " model was fitted to); lines: the fitted model. Records kept before corrected points were stored show"
+                + " the points as measured.");
+        if (curves.size() >= SMALL_MULTIPLES_FROM) {
+            h.append(" With ").append(curves.size()).append(" parts, |Z| of each on the same axes, small, so the"
+                    + " parts compare at a glance; every part's numbers are in the tables above.</p>\n");
+            SmallMultiples.write(h, curves.stream().map(c -> new SmallMultiples.Tile(c.part().serial(),
+                    c.part().verdict().word(), c.f(), c.mag(), c.fm(), c.mm())).toList());
+            return;
+        }
+        h.append("</p>\n");
+        for (Curve c : curves) {
+            PartResult p = c.part();
             h.append("<h3>").append(esc(p.serial())).append(" <span class=\"").append(esc(p.verdict().word())).append("\">")
                     .append(esc(p.verdict().word())).append("</span></h3><img alt=\"impedance of ").append(esc(p.serial()))
-                    .append("\" src=\"").append(Charts.impedance(p.serial(), f, mag, ph, fm, mm, pm)).append("\">\n");
+                    .append("\" src=\"").append(Charts.impedance(p.serial(), c.f(), c.mag(), c.phase(), c.fm(), c.mm(),
+                            c.pm())).append("\">\n");
         }
+    }
+
+    private static Curve curve(PartResult p) {
+        int n = p.points().size();
+        double[] f = new double[n];
+        double[] mag = new double[n];
+        double[] ph = new double[n];
+        for (int i = 0; i < n; i++) {
+            var pt = p.points().get(i);
+            f[i] = pt.frequencyHz();
+            Complex z = pt.correctedResistanceOhm() != null && pt.correctedReactanceOhm() != null
+                    ? new Complex(pt.correctedResistanceOhm(), pt.correctedReactanceOhm())
+                    : new Complex(pt.resistanceOhm(), pt.reactanceOhm());
+            mag[i] = z.abs();
+            ph[i] = Math.toDegrees(z.getArgument());
+        }
+        double[] params = new double[LumpedParameter.values().length];
+        for (LumpedParameter q : LumpedParameter.values()) {
+            var rec = p.model().parameters().get(q.key());
+            params[q.ordinal()] = rec == null ? 0 : rec.value();
+        }
+        int m = 60;
+        double[] fm = new double[m];
+        double[] mm = new double[m];
+        double[] pm = new double[m];
+        for (int i = 0; i < m; i++) {
+            fm[i] = f[0] * Math.pow(f[n - 1] / f[0], i / (m - 1.0));
+            Complex z = LumpedModel.impedance(params, fm[i]);
+            mm[i] = z.abs();
+            pm[i] = Math.toDegrees(z.getArgument());
+        }
+        return new Curve(p, f, mag, ph, fm, mm, pm);
     }
 
     private static void history(StringBuilder h, List<LotStatistics> lots, String partNumber) throws IOException {

@@ -41,7 +41,7 @@ public class LotRunTests {
         return setup(store, runs, 40);
     }
 
-    static LotRunner.Setup setup(ResultStore store, Path runs, int lotSize) throws Exception {
+    public static LotRunner.Setup setup(ResultStore store, Path runs, int lotSize) throws Exception {
         BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
         Plan p = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), b.maxAmplitudeVolt());
         byte[] content = Files.readAllBytes(HOME.resolve("plans/qfd-ind-1m0.yaml"));

@@ -4,7 +4,9 @@ import org.lrbench.bench.SimulatedPart;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Base64;
 import org.jsoup.Jsoup;
 import org.jsoup.nodes.Document;
@@ -120,6 +122,35 @@ class LotReportTests {
             // measured 2026-11-29, the lot started today: days before, and the fixture compensation missing
             assertThat(identity.text()).containsPattern("channel match 2026-11-29T08:00:00Z \\(\\d+ days before the lot started\\)")
                     .contains("fixture short/open none");
+        }
+    }
+
+    /**
+     * A big lot's record stays a document: from 25 parts on, each part's |Z| is a small SVG tile on the
+     * lot's common axes instead of a full chart image, so 50 parts (lot of 300: ISO 2859-1 letter H, n = 50)
+     * add a few kilobytes each; every part's numbers stay in the tables.
+     */
+    @Test
+    void aBigLotsPlotsAreSmallMultiples(@TempDir Path dir) throws Exception {
+        List<SimulatedPart.Slot> tray = new java.util.ArrayList<>();
+        for (int i = 1; i <= 50; i++) {
+            tray.add(new SimulatedPart.Slot(String.format("BIG-%04d", i),
+                    SimulatedPart.of(new org.lrbench.sim.PartModel(1e-3 * (1 + 0.002 * (i % 7 - 3)), 2.3, 15e-12))));
+        }
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
+            LotRunner.run(LotRunTests.setup(store, dir, 300), new TrayFeeder(tray), r -> { });
+            String html = LotReport.html(store, "LOT-1");
+            Files.createDirectories(Path.of("target"));
+            Files.writeString(Path.of("target", "big-lot-report.html"), html);
+            Document d = Jsoup.parse(html);
+            assertThat(d.select(".multiples figure")).hasSize(50);
+            assertThat(d.select(".multiples figure svg circle")).hasSizeGreaterThan(50 * 5);
+            assertThat(d.select(".multiples figcaption").eachText()).allSatisfy(t -> assertThat(t).matches("BIG-\\d{4} \\w+"));
+            // 3 characteristics with a run chart and a histogram each, and the history: no image per part
+            assertThat(d.select("img")).hasSize(7);
+            assertThat(d.select("#parts tr")).hasSize(51);
+            int tiles = d.select(".multiples").outerHtml().length();
+            assertThat(tiles / 50).as("bytes per part's tile").isLessThan(4000);
         }
     }
 }
