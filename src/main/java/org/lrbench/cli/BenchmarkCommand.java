@@ -18,7 +18,7 @@ import picocli.CommandLine.Option;
 @Command(name = "benchmark", mixinStandardHelpOptions = true, description = "Print measured speed figures and their ratios to a baseline.",
         subcommands = {BenchmarkCommand.Links.class, BenchmarkCommand.Fits.class, BenchmarkCommand.Accuracy.class,
             BenchmarkCommand.Service.class, BenchmarkCommand.Kills.class, BenchmarkCommand.Coverage.class,
-            BenchmarkCommand.Throughput.class})
+            BenchmarkCommand.Throughput.class, BenchmarkCommand.Records.class})
 final class BenchmarkCommand implements Runnable {
 
     /** The demo plan, which the link and throughput benchmarks measure. */
@@ -34,7 +34,7 @@ final class BenchmarkCommand implements Runnable {
 
     @Override
     public void run() {
-        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage | throughput");
+        System.out.println("use: lrbench benchmark links | fits | accuracy | service | kills | coverage | throughput | records");
     }
 
     @Command(name = "fits", mixinStandardHelpOptions = true, description = "Sine-fit throughput on 1 M and 10 M samples against a plain summing pass.")
@@ -132,6 +132,25 @@ final class BenchmarkCommand implements Runnable {
             }
             int misses = org.lrbench.benchmark.ThroughputBenchmark.run(System.out, bench, plan, Home.drivers(),
                     nominalPart(), timings, org.lrbench.sim.SimLot.load(Home.demoLot()), dialects);
+            return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
+        }
+    }
+
+    @Command(name = "records", mixinStandardHelpOptions = true, description = {"A lab's records at size: the lot report's"
+            + " size and time and the verify time per sample size (8 to 315 parts),", "and runs racing for one lot."})
+    static final class Records implements Callable<Integer> {
+        @Option(names = "--largest", defaultValue = "315", description = "the largest sample measured: 8, 50, 125 or 315"
+                + " (default: ${DEFAULT-VALUE})")
+        int largest;
+
+        @Override
+        public Integer call() throws Exception {
+            if (!List.of(8, 50, 125, 315).contains(largest)) {
+                throw new BadInputException("--largest " + largest + ": allowed are 8, 50, 125, 315");
+            }
+            BenchConfig bench = Inputs.bench(Home.defaultBench());
+            int misses = org.lrbench.benchmark.RecordsBenchmark.run(System.out, bench,
+                    Home.root().resolve("plans/qfd-ind-1m0.yaml"), Home.drivers(), largest);
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
     }
