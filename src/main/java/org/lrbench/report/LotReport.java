@@ -121,7 +121,7 @@ public final class LotReport {
             + "table{border-collapse:collapse;margin:.5em 0}td,th{border:1px solid #bbb;padding:.2em .6em;"
             + "text-align:left;vertical-align:top}th{background:#eee}"
             + ".reject,.fail,.error{color:#7b2d8e;font-weight:bold}.accept,.pass{color:#1b4f8c;font-weight:bold}"
-            + ".multiples{display:flex;flex-wrap:wrap;gap:6px}.multiples figure{margin:0;font-size:11px;break-inside:avoid}"
+            + "#limits-wide td:first-child{white-space:nowrap}.multiples{display:flex;flex-wrap:wrap;gap:6px}.multiples figure{margin:0;font-size:11px;break-inside:avoid}"
             + ".banner{border:3px solid #d97a00;background:#fff3e0;padding:.6em;font-weight:bold;margin-bottom:1em}"
             + ".warn{color:#8a5a00}img{max-width:100%}.signoff td{height:2.4em;min-width:14em}.foot{color:#555;font-size:90%}"
             + "@page{margin:15mm}"
@@ -229,6 +229,65 @@ public final class LotReport {
 
     /** Per part and limit: value +/- U, the decision rule, the zone, the margin; then the part's warnings. */
     private static void perPart(StringBuilder h, List<PartResult> parts) {
+        if (parts.size() >= SMALL_MULTIPLES_FROM) {
+            perPartWide(h, parts);
+        } else {
+            perPartRows(h, parts);
+        }
+        warnings(h, parts);
+    }
+
+    /**
+     * A big lot's limits, one row per part and one column per limit (the specification and decision rule
+     * once, in the column's head): every number of the row-per-limit table, in a third of the rows.
+     */
+    private static void perPartWide(StringBuilder h, List<PartResult> parts) {
+        List<String> names = new ArrayList<>();
+        java.util.Map<String, PartResult.LimitRecord> first = new java.util.LinkedHashMap<>();
+        for (PartResult p : parts) {
+            for (PartResult.LimitRecord r : p.limits()) {
+                if (first.putIfAbsent(r.name(), r) == null) {
+                    names.add(r.name());
+                }
+            }
+        }
+        h.append("<h2>Limits per part</h2>\n<p>Each cell: value &plusmn; U (k = 2), zone, margin, result.</p>\n"
+                + "<table id=\"limits-wide\"><tr><th>serial</th>");
+        for (String n : names) {
+            PartResult.LimitRecord r = first.get(n);
+            h.append("<th>").append(esc(n)).append("<br><small>").append(esc(r.spec())).append("; ")
+                    .append(esc(r.decisionRule())).append("</small></th>");
+        }
+        h.append("</tr>");
+        for (PartResult p : parts) {
+            h.append("<tr><td>").append(esc(p.serial())).append("</td>");
+            for (String n : names) {
+                PartResult.LimitRecord r = p.limits().stream().filter(x -> x.name().equals(n)).findFirst().orElse(null);
+                if (r == null) {
+                    h.append("<td>-</td>");
+                    continue;
+                }
+                Dimension d = dimensionOf(r.characteristic());
+                String at = conditions(r);
+                String cell = withU(r.value(), r.expandedUncertainty(), d);
+                h.append(cell, 0, cell.length() - "</td>".length()).append(at.isEmpty() ? "" : " <small>" + esc(at) + "</small>")
+                        .append(", ").append(esc(r.zone())).append(", ").append(si(r.margin(), d)).append(", <span class=\"")
+                        .append(r.pass() ? "pass\">pass" : "fail\">fail").append("</span></td>");
+            }
+            h.append("</tr>");
+        }
+        h.append("</table>\n");
+    }
+
+    /** The conditions a value was judged under, when its own (a winding resistance at the reference temperature). */
+    private static String conditions(PartResult.LimitRecord r) {
+        java.util.regex.Matcher at = java.util.regex.Pattern.compile(
+                java.util.regex.Pattern.quote(r.name()) + " (at -?[0-9.]+ C \\([^)]*\\))").matcher(
+                r.reason() == null ? "" : r.reason());
+        return at.lookingAt() ? at.group(1) : "";
+    }
+
+    private static void perPartRows(StringBuilder h, List<PartResult> parts) {
         h.append("<h2>Limits per part</h2>\n<table id=\"limits\"><tr><th>serial</th><th>limit</th><th>value &plusmn; U (k = 2)</th>"
                 + "<th>specification</th><th>decision rule</th><th>zone</th><th>margin</th><th>result</th></tr>");
         for (PartResult p : parts) {
@@ -236,10 +295,8 @@ public final class LotReport {
                 Dimension d = dimensionOf(r.characteristic());
                 // a value judged under conditions of its own (a winding resistance carried to the reference
                 // temperature) says so beside the limit's name, so it is not taken for the measured one
-                java.util.regex.Matcher at = java.util.regex.Pattern.compile(
-                        java.util.regex.Pattern.quote(r.name()) + " (at -?[0-9.]+ C \\([^)]*\\))").matcher(
-                        r.reason() == null ? "" : r.reason());
-                String label = r.name() + (at.lookingAt() ? ", " + at.group(1) : "");
+                String at = conditions(r);
+                String label = r.name() + (at.isEmpty() ? "" : ", " + at);
                 h.append("<tr><td>").append(esc(p.serial())).append("</td><td>").append(esc(label)).append("</td>")
                         .append(withU(r.value(), r.expandedUncertainty(), d)).append("<td>").append(esc(r.spec()))
                         .append("</td><td>").append(esc(r.decisionRule())).append("</td><td>").append(esc(r.zone()))
@@ -248,6 +305,9 @@ public final class LotReport {
             }
         }
         h.append("</table>\n");
+    }
+
+    private static void warnings(StringBuilder h, List<PartResult> parts) {
         boolean any = false;
         for (PartResult p : parts) {
             if (p.warnings() != null && !p.warnings().isEmpty()) {

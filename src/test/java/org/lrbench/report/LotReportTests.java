@@ -149,6 +149,12 @@ class LotReportTests {
             // 3 characteristics with a run chart and a histogram each, and the history: no image per part
             assertThat(d.select("img")).hasSize(7);
             assertThat(d.select("#parts tr")).hasSize(51);
+            // the limits one row per part, a column per limit, every number kept
+            var wide = d.select("#limits-wide tr");
+            assertThat(wide).hasSize(51);
+            assertThat(wide.get(0).select("th")).hasSize(4);
+            assertThat(wide.get(1).select("td").get(1).text()).matches("[0-9.]+ ± [0-9.]+ [mu]H, \\w+, .*, (pass|fail)");
+            assertThat(wide.get(1).select("td").get(1).attr("data-value")).isNotEmpty();
             int tiles = d.select(".multiples").outerHtml().length();
             assertThat(tiles / 50).as("bytes per part's tile").isLessThan(4000);
         }
