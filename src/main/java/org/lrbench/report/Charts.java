@@ -203,6 +203,11 @@ final class Charts {
         x.setGridBandsVisible(false);
         x.setVerticalTickLabels(lots.size() > 6);
         x.setRange(-0.5, Math.max(0.5, lots.size() - 0.5));
+        if (lots.size() > 25) {
+            // many lots: every k-th named, so the names stay readable (every lot keeps its point and its table row)
+            x.setAutoTickUnitSelection(false);
+            x.setTickUnit(new org.jfree.chart.axis.NumberTickUnit(Math.ceil(lots.size() / 25.0)));
+        }
         p.setDomainAxis(x);
         NumberAxis y = siAxis(axisLabel(unit), unit);
         p.setRangeAxis(y);

@@ -108,7 +108,8 @@ public final class LotReport {
         attempts(h, inspections, attempts);
         impedance(h, parts);
         // the history of the lot's own kind: a simulated lot's report shows simulated lots, a real one real lots
-        history(h, store.history(l.partNumber(), l.simulated()), l.partNumber());
+        String supplier = l.supplier() == null ? "" : l.supplier();
+        history(h, store.history(l.partNumber(), supplier, l.simulated()), l.partNumber(), supplier);
         signOff(h, disp);
         h.append("<p class=\"foot\">Written by lrbench from the results store. Hash chain head SHA-256 ")
                 .append(esc(String.valueOf(store.chainHead(lot)))).append("; check the records with lrbench verify.</p>")
@@ -473,8 +474,11 @@ public final class LotReport {
         return new Curve(p, f, mag, ph, fm, mm, pm);
     }
 
-    private static void history(StringBuilder h, List<LotStatistics> lots, String partNumber) throws IOException {
-        h.append("<h2>").append(esc(partNumber)).append(" over time</h2>\n<table><tr><th>lot</th><th>started</th>"
+    private static void history(StringBuilder h, List<LotStatistics> lots, String partNumber, String supplier)
+            throws IOException {
+        // one supplier's lots: a trend mixing suppliers says nothing of either
+        h.append("<h2>").append(esc(partNumber)).append(" over time, ").append(supplier.isEmpty() ? "lots without a supplier"
+                : "supplier " + esc(supplier)).append("</h2>\n<table><tr><th>lot</th><th>started</th>"
                 + "<th>disposition</th><th>measured</th><th>yield</th><th>mean L</th><th>s(L)</th><th>mean R_dc</th>"
                 + "<th>s(R_dc)</th></tr>");
         List<String> names = new ArrayList<>();

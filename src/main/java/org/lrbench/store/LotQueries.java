@@ -100,11 +100,20 @@ final class LotQueries {
 
     /** As above, of real lots only, or of lots on the simulated bench only: the two are never mixed. */
     public List<LotStatistics> history(String partNumber, boolean simulated) {
+        return history(partNumber, null, simulated);
+    }
+
+    /** As above, of one supplier's lots only ("" for lots without a supplier; null: every supplier's). */
+    public List<LotStatistics> history(String partNumber, String supplier, boolean simulated) {
         List<LotStatistics> out = new ArrayList<>();
         try {
             Map<String, List<Attempt>> byRound = summaries(null);
             for (Inspection i : inspections.inspections(null)) {
                 if (!i.terms().partNumber().equals(partNumber) || i.terms().simulated() != simulated) {
+                    continue;
+                }
+                String theirs = i.terms().supplier() == null ? "" : i.terms().supplier();
+                if (supplier != null && !supplier.equals(theirs)) {
                     continue;
                 }
                 List<Attempt> judged = Attempt.counting(byRound.getOrDefault(i.lot() + "\n" + i.round(), List.of()))

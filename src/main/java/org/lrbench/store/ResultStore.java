@@ -304,6 +304,11 @@ public final class ResultStore implements AutoCloseable {
         return queries.history(partNumber, simulated);
     }
 
+    /** A part number's lots over time from one supplier ("" for none; null: all), real or simulated. */
+    public List<LotStatistics> history(String partNumber, String supplier, boolean simulated) {
+        return queries.history(partNumber, supplier, simulated);
+    }
+
     @Override
     public void close() {
         db.close();

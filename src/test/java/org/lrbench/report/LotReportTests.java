@@ -159,4 +159,24 @@ class LotReportTests {
             assertThat(tiles / 50).as("bytes per part's tile").isLessThan(4000);
         }
     }
+
+    /** The part number's history in a lot's record is its supplier's lots only: a trend mixing suppliers says nothing. */
+    @Test
+    void theHistoryIsTheLotsSuppliers(@TempDir Path dir) throws Exception {
+        SimLot tray = SimLot.load(TestBench.home().resolve("simulator/demo-lot.yaml"));
+        try (ResultStore store = ResultStore.open(dir.resolve("s.db"))) {
+            for (String[] lot : new String[][] {{"LOT-A", "Alpha Coils"}, {"LOT-B", "Beta Magnetics"}, {"LOT-C", "Alpha Coils"}}) {
+                LotRunner.Setup s = LotRunTests.setup(store, dir);
+                var t = s.template();
+                var named = new org.lrbench.run.PartRun.Request(t.plan(), t.planSha256(), t.bench(), lot[0], "-", true, "test");
+                LotRunner.run(LotRunner.Setup.of(named, 40, s.drivers(), s.ledger()).withOperator("tester")
+                        .withScheme(org.lrbench.lot.LotScheme.of(lot[1], dir.resolve("sampling"))),
+                        new TrayFeeder(SimulatedPart.tray(tray.parts())), r -> { });
+            }
+            Document d = Jsoup.parse(LotReport.html(store, "LOT-C"));
+            assertThat(d.select("h2:contains(over time)").text()).contains("supplier Alpha Coils");
+            String history = d.select("h2:contains(over time) + table").text();
+            assertThat(history).contains("LOT-A").contains("LOT-C").doesNotContain("LOT-B");
+        }
+    }
 }
