@@ -892,4 +892,47 @@ class CommandLineTests {
         assertThat(noTray.code()).isEqualTo(2);
         assertThat(noTray.err()).contains("--at-prompts is for a simulated tray");
     }
+
+    /**
+     * Separate processes started at one instant on one lot (each a JVM of its own, as benches are): every one
+     * ends in a clear outcome: the run that holds the lot measures it, the others are refused naming it (exit 6)
+     * or, started after it ended, find the lot closed; none meets a database error and no part is measured twice.
+     */
+    @Test
+    void processesStartingOneLotAtOnceMeetOutcomesNotErrors(@TempDir Path dir) throws Exception {
+        String javaBin = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        int refused = 0;
+        for (int round = 0; round < 2; round++) {
+            String lot = "RACE-" + round;
+            List<Process> runs = new ArrayList<>();
+            for (int k = 0; k < 3; k++) {
+                runs.add(new ProcessBuilder(javaBin, "-cp", System.getProperty("java.class.path"), "-Dlrbench.home=" + HOME,
+                        "org.lrbench.cli.Main", "run", PLAN, "--lot", lot, "--lot-size", "40", "--sim-lot", LOT_FILE,
+                        "--data", dir.resolve("data").toString(), "--runs", dir.resolve("runs").toString(),
+                        "--calibration", dir.resolve("none").toString(), "--operator", "bench" + k)
+                        .redirectErrorStream(true).redirectOutput(dir.resolve(lot + "-" + k + ".out").toFile()).start());
+            }
+            List<Integer> codes = new ArrayList<>();
+            for (int k = 0; k < runs.size(); k++) {
+                assertThat(runs.get(k).waitFor(180, java.util.concurrent.TimeUnit.SECONDS)).isTrue();
+                codes.add(runs.get(k).exitValue());
+                String out = Files.readString(dir.resolve(lot + "-" + k + ".out"));
+                assertThat(out).as("run %d: %s", k, out).doesNotContainIgnoringCase("SQL").doesNotContain("constraint")
+                        .doesNotContain("internal error");
+                if (runs.get(k).exitValue() == 6) {
+                    assertThat(out).contains("is being measured by another run: bench sim-bench-1");
+                }
+            }
+            assertThat(codes).as("round %d", round).allSatisfy(c -> assertThat(c).isIn(0, 1, 6));
+            refused += (int) codes.stream().filter(c -> c == 6).count();
+            try (var store = org.lrbench.store.ResultStore.open(dir.resolve("data/lrbench.db"))) {
+                var counting = org.lrbench.results.Attempt.counting(store.attempts(lot));
+                assertThat(counting).hasSize(8);
+                assertThat(store.attempts(lot)).hasSize(8); // each part measured once
+                assertThat(store.heldBy(lot)).isNull();
+            }
+        }
+        // started together, a run takes seconds: the others meet its hold (a JVM's start-up is far shorter)
+        assertThat(refused).isPositive();
+    }
 }
