@@ -15,14 +15,10 @@ import org.lrbench.bench.BenchConfig;
 import org.lrbench.bench.SimulatedPart;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.lot.LotRunner;
+import org.lrbench.lot.LotStart;
 import org.lrbench.lot.TrayFeeder;
-import org.lrbench.plan.Plan;
-import org.lrbench.plan.PlanIdentity;
-import org.lrbench.plan.PlanLoader;
 import org.lrbench.records.RecordCheck;
-import org.lrbench.records.StoreLedger;
 import org.lrbench.report.LotReport;
-import org.lrbench.run.PartRun;
 import org.lrbench.sim.PartModel;
 import org.lrbench.store.LotHold;
 import org.lrbench.store.ResultStore;
@@ -42,7 +38,6 @@ public final class RecordsBenchmark {
 
     public static int run(PrintStream out, BenchConfig bench, Path planFile, Path drivers, int largest) throws Exception {
         Path dir = Files.createTempDirectory("lrbench-records-bench");
-        Plan plan = PlanLoader.load(planFile, bench.maxAmplitudeVolt());
         int misses = 0;
         out.printf(Locale.ROOT, "records at size: one simulated lot per sample size, report and verify timed (best of 3)%n");
         out.printf(Locale.ROOT, "%8s %8s %12s %14s %12s %14s%n", "lot size", "parts", "report", "report time", "per part",
@@ -59,11 +54,11 @@ public final class RecordsBenchmark {
                     tray.add(new SimulatedPart.Slot(String.format(Locale.ROOT, "S%d-%04d", lot[1], i), SimulatedPart.of(
                             new PartModel(1e-3 * (1 + 0.01 * ((i * 7919) % 11 - 5) / 5.0), 2.3, 15e-12))));
                 }
-                PartRun.Request t = new PartRun.Request(plan, PlanIdentity.sha256(planFile), bench, name, "-", true,
-                        "benchmark");
-                LotRunner.Setup setup = LotRunner.Setup.of(t, lot[0], new DriverLoader(drivers),
-                        new StoreLedger(store, dir.resolve("runs"), false)).withOperator("benchmark");
-                LotRunner.run(setup, new TrayFeeder(tray), r -> { });
+                // started as every lot is (lot.LotStart), on the simulated bench, traces not kept
+                LotStart.Ready ready = LotStart.prepare(new LotStart.Request(planFile, bench, new DriverLoader(drivers),
+                        name, lot[0], "benchmark", null, null, null, true, false, new LotStart.Folders(dir.resolve("cal"),
+                        dir.resolve("runs"), dir.resolve("tables")), "benchmark"), store);
+                LotRunner.run(ready.setup(), new TrayFeeder(tray), r -> { });
                 long best = Long.MAX_VALUE;
                 byte[] report = new byte[0];
                 for (int k = 0; k < 3; k++) {
