@@ -115,6 +115,13 @@ class OperatorPageBrowserTests {
                 assertThat(browser.findElement(By.id("verdict")).getText()).doesNotContain("PAGE-1").doesNotContain("REJECT");
                 assertThat(browser.findElement(By.id("status")).getText()).doesNotContain("point 7");
                 assertThat(browser.findElements(By.cssSelector("#parts td.fail"))).isEmpty();
+                for (int[] size : new int[][] {{1280, 800}, {800, 600}}) {
+                    browser.manage().window().setSize(new org.openqa.selenium.Dimension(size[0], size[1]));
+                    Object fits = browser.executeScript("const r = document.getElementById('prompt')"
+                            + ".getBoundingClientRect(); return r.bottom <= window.innerHeight && r.top >= 0;");
+                    assertThat(fits).as("the new lot's prompt above the fold at " + size[0] + "x" + size[1])
+                            .isEqualTo(Boolean.TRUE);
+                }
                 browser.findElement(By.id("stop")).click();
                 wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("prompt"), "stopped"));
             } finally {
@@ -182,6 +189,15 @@ class OperatorPageBrowserTests {
                 assertThat(browser.findElement(By.id("parts")).getText()).contains("(position skipped)")
                         .doesNotContain("skipped-");
                 assertThat(browser.findElement(By.id("verdict")).getText()).contains("position skipped");
+                // at both window sizes the skip and the prompt that moved on are above the fold
+                for (int[] size : new int[][] {{1280, 800}, {800, 600}}) {
+                    browser.manage().window().setSize(new org.openqa.selenium.Dimension(size[0], size[1]));
+                    for (String id : new String[] {"prompt", "verdict"}) {
+                        Object fits = browser.executeScript("const r = document.getElementById(arguments[0])"
+                                + ".getBoundingClientRect(); return r.bottom <= window.innerHeight && r.top >= 0;", id);
+                        assertThat(fits).as(id + " above the fold at " + size[0] + "x" + size[1]).isEqualTo(Boolean.TRUE);
+                    }
+                }
                 Files.createDirectories(Path.of("target"));
                 Files.write(Path.of("target", "operator-page-skip.png"), browser.getScreenshotAs(OutputType.BYTES));
             } finally {
