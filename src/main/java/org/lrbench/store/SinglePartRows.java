@@ -20,18 +20,17 @@ final class SinglePartRows {
             + " traces_bytes, traces_sha256, simulated, recorded_at";
 
     private final StoreDb store;
+    private final LinkChain chain;
 
     SinglePartRows(StoreDb store) {
         this.store = store;
+        this.chain = new LinkChain(store, "single_part_chain", "single parts", ANCHOR_NAME);
     }
 
     void record(SingleRecord r) {
         try {
             store.inTransaction(() -> {
-                try (Statement s = store.db.createStatement()) {
-                    s.executeUpdate("UPDATE single_part_chain SET length = length WHERE id = 1");
-                }
-                ChainCheck.State st = state();
+                ChainCheck.State st = chain.lock();
                 String content = Canonical.sha256(r.content());
                 String link = Canonical.chain(st.head(), content);
                 try (PreparedStatement p = store.db.prepareStatement("INSERT INTO single_part (seq, " + COLUMNS
@@ -55,24 +54,12 @@ final class SinglePartRows {
                     p.setString(16, link);
                     p.executeUpdate();
                 }
-                try (PreparedStatement p = store.db.prepareStatement(
-                        "UPDATE single_part_chain SET length = ?, head_sha256 = ? WHERE id = 1")) {
-                    p.setInt(1, st.length() + 1);
-                    p.setString(2, link);
-                    p.executeUpdate();
-                }
+                chain.advance(st, link);
                 return null;
             });
         } catch (SQLException e) {
             throw new StoreException("recording " + r.serial() + " (attempt " + r.attempt() + ") of lot " + r.lot()
                     + " failed: " + StoreErrors.describe(e), e);
-        }
-    }
-
-    ChainCheck.State state() throws SQLException {
-        try (Statement s = store.db.createStatement();
-             ResultSet r = s.executeQuery("SELECT length, head_sha256 FROM single_part_chain WHERE id = 1")) {
-            return r.next() ? new ChainCheck.State(r.getInt(1), r.getString(2)) : null;
         }
     }
 
@@ -108,64 +95,22 @@ final class SinglePartRows {
 
     /** The chain's breaks: a record altered, removed, inserted or reordered, or a head that is not its last link. */
     List<String> findings() {
-        List<String> out = new ArrayList<>();
-        String previous = Canonical.GENESIS;
-        int expected = 1;
-        String prefix = "store: single parts: ";
+        List<LinkChain.Link> links = new ArrayList<>();
         for (Row row : rows()) {
-            String what = "record " + row.seq() + " (" + row.record().serial() + ", attempt " + row.record().attempt()
-                    + " in lot " + row.record().lot() + ")";
-            if (row.seq() != expected) {
-                out.add(prefix + "record " + expected + " is missing (removed) before " + what);
-                expected = row.seq();
-            }
-            if (!row.previous().equals(previous)) {
-                out.add(prefix + what + " does not follow the record before it: a record was removed, inserted or"
-                        + " reordered");
-            }
-            if (!Canonical.sha256(row.record().content()).equals(row.content())
-                    || !Canonical.chain(row.previous(), row.content()).equals(row.link())) {
-                out.add(prefix + what + ": the stored row was altered (its content no longer matches its hash)");
-            }
-            previous = row.link();
-            expected++;
+            links.add(new LinkChain.Link(row.seq(), "record " + row.seq() + " (" + row.record().serial() + ", attempt "
+                    + row.record().attempt() + " in lot " + row.record().lot() + ")",
+                    Canonical.sha256(row.record().content()), row.content(), row.previous(), row.link()));
         }
-        try {
-            ChainCheck.State st = state();
-            if (st == null) {
-                out.add(prefix + "the chain's head row is missing");
-            } else if (st.length() != expected - 1 || !st.head().equals(previous)) {
-                out.add(prefix + "the chain's head (" + st.length() + " record(s)) is not its last record (" + (expected - 1)
-                        + "): records were removed or added outside lrbench");
-            }
-        } catch (SQLException e) {
-            throw new StoreException("reading the single parts' chain failed: " + StoreErrors.describe(e), e);
-        }
-        return out;
+        return chain.findings(links);
     }
 
-    /** The chain as an anchor keeps it. */
     ChainAnchor anchor() {
-        try {
-            ChainCheck.State st = state();
-            return st == null ? null : new ChainAnchor(ANCHOR_NAME, st.length(), st.head());
-        } catch (SQLException e) {
-            throw new StoreException("reading the single parts' chain failed: " + StoreErrors.describe(e), e);
-        }
+        return chain.anchor();
     }
 
-    /** Whether the record at {@code length} still has the anchored hash (null: it does). */
+    /** Whether the record at the anchored length still has the anchored hash (null: it does). */
     String anchorFinding(ChainAnchor a) {
-        if (a.length() == 0) {
-            return null;
-        }
-        for (Row row : rows()) {
-            if (row.seq() == a.length()) {
-                return row.link().equals(a.head()) ? null : "anchor: single parts: record " + a.length()
-                        + " is not the one anchored: the chain up to it was rewritten";
-            }
-        }
-        return "anchor: single parts: anchored with " + a.length() + " record(s); the chain has fewer now: its tail"
-                + " was cut";
+        String at = rows().stream().filter(r -> r.seq() == a.length()).map(Row::link).findFirst().orElse(null);
+        return chain.anchorFinding(a, at);
     }
 }

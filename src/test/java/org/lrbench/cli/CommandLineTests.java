@@ -800,7 +800,7 @@ class CommandLineTests {
         }
         Outcome cut = run("verify", "--data", data, "--runs", runs, "--anchor", anchor.toString());
         assertThat(cut.code()).isEqualTo(1);
-        assertThat(cut.out()).contains("single parts: anchored with 2 record(s)").contains("S2.json: a file no record");
+        assertThat(cut.out()).contains("single parts: anchored with 2 link(s)").contains("S2.json: a file no record");
     }
 
     /**
