@@ -73,8 +73,11 @@ final class VerifyCommand implements Callable<Integer> {
                         : anchored.lots().stream().filter(a -> a.lot().equals(lot)).toList()));
             }
             boolean single = lot != null && s.singleParts().stream().anyMatch(r -> r.lot().equals(lot));
-            List<String> names = lot != null ? List.of(Inputs.name("--lot", lot)) : s.lotNames();
-            if (lot != null && !s.lotNames().contains(lot) && !single) {
+            // read once: the loop below asks of every lot whether the store has it
+            List<String> all = s.lotNames();
+            java.util.Set<String> stored = new java.util.HashSet<>(all);
+            List<String> names = lot != null ? List.of(Inputs.name("--lot", lot)) : all;
+            if (lot != null && !stored.contains(lot) && !single) {
                 throw new BadInputException("--lot " + lot + ": no such lot in the store");
             }
             if (filesOf != null) {
@@ -89,7 +92,7 @@ final class VerifyCommand implements Callable<Integer> {
                     filesOf == null ? null : java.util.Set.copyOf(filesOf)));
             for (String l : names) {
                 lots++;
-                if (!s.lotNames().contains(l)) {
+                if (!stored.contains(l)) {
                     findings.addAll(RecordCheck.lotFolderFindings(s, runsOption.runs, l));
                     continue; // a lot of single parts only: their records were checked above
                 }

@@ -104,7 +104,8 @@ public final class RecordCheck {
             return out;
         }
         java.util.Set<String> lots = new java.util.HashSet<>(store.lotNames());
-        store.singleParts().forEach(r -> lots.add(r.lot()));
+        List<SingleRecord> singles = store.singleParts();
+        singles.forEach(r -> lots.add(r.lot()));
         try (var dirs = Files.list(runs)) {
             for (Path d : dirs.sorted().toList()) {
                 String name = d.getFileName().toString();
@@ -116,7 +117,7 @@ public final class RecordCheck {
                 } else if (!lots.contains(name)) {
                     out.add(d + "/: a lot folder the store has no lot for (added, or its lot removed from the store)");
                 } else {
-                    out.addAll(lotFolderFindings(store, runs, name));
+                    out.addAll(lotFolderFindings(store, runs, name, singles));
                 }
             }
         } catch (IOException e) {
@@ -132,6 +133,11 @@ public final class RecordCheck {
      * store's.
      */
     public static List<String> lotFolderFindings(ResultStore store, Path runs, String lot) {
+        return lotFolderFindings(store, runs, lot, store.singleParts());
+    }
+
+    /** As above, with the single parts' records read once for every folder. */
+    private static List<String> lotFolderFindings(ResultStore store, Path runs, String lot, List<SingleRecord> singles) {
         List<String> out = new ArrayList<>();
         Path dir = runs.resolve(lot);
         if (!Files.isDirectory(dir)) {
@@ -148,7 +154,7 @@ public final class RecordCheck {
             }
             serials.add(a.serial());
         }
-        for (SingleRecord r : store.singleParts()) {
+        for (SingleRecord r : singles) {
             if (r.lot().equals(lot)) {
                 named.add(r.resultFile());
                 if (r.tracesFile() != null) {
