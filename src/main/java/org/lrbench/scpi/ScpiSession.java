@@ -31,6 +31,8 @@ public final class ScpiSession implements AutoCloseable {
     /** Quiet time that ends an indefinite-length block on a link without message boundaries. */
     static final Duration INDEFINITE_BLOCK_QUIET = Duration.ofMillis(50);
     private static final int MAX_ERRORS_DRAINED = 64;
+    /** How long the error query after a timed-out message is waited for: a queue answers at once. */
+    private static final Duration AFTER_TIMEOUT = Duration.ofSeconds(1);
 
     private final String instrument;
     private final Transport transport;
@@ -125,12 +127,16 @@ public final class ScpiSession implements AutoCloseable {
 
     /** Sends a query whose response is {@code lines} lines (an ASCII list one value per line). */
     public synchronized List<String> queryLines(String command, int lines) {
+        return queryLines(command, lines, timeout);
+    }
+
+    private List<String> queryLines(String command, int lines, Duration within) {
         write(command);
         queries++;
         long start = System.nanoTime();
         // the whole reply within the timeout; a reply of many lines (an ASCII trace) also gets its
         // bytes' time at the slowest accepted rate (about 16 bytes a line)
-        deadline = start + timeout.toNanos() + (lines > 1 ? (long) (lines * 16 / minimumBytesPerSecond * 1e9) : 0);
+        deadline = start + within.toNanos() + (lines > 1 ? (long) (lines * 16 / minimumBytesPerSecond * 1e9) : 0);
         List<String> out = new ArrayList<>(lines);
         try {
             for (int i = 0; i < lines; i++) {
@@ -148,7 +154,7 @@ public final class ScpiSession implements AutoCloseable {
             flushLateReplies();
             throw new InstrumentException(instrument + " (" + transport.address() + "): " + (lines == 1 ? "no reply"
                     : out.size() + " of " + lines + " lines of the reply") + " to '" + command + "' after "
-                    + elapsedMillis(start) + " ms (timeout " + timeout.toMillis() + " ms)", e);
+                    + elapsedMillis(start) + " ms (timeout " + within.toMillis() + " ms)", e);
         } catch (IOException e) {
             stale = true;
             throw new InstrumentException(instrument + " (" + transport.address() + "): reading the reply to '"
@@ -281,7 +287,27 @@ public final class ScpiSession implements AutoCloseable {
         try {
             replies = ScpiReplies.split(query(message));
         } catch (InstrumentException timeout) {
-            List<ScpiError> errors = drainErrors(errorQuery);
+            if (!(timeout.getCause() instanceof TransportTimeoutException)) {
+                throw timeout;
+            }
+            // an instrument that drops a message's rest after an error answers the error query at once;
+            // one that answers nothing (busy, or deaf to a query it does not know) is not waited for twice
+            Duration brief = AFTER_TIMEOUT.compareTo(this.timeout) < 0 ? AFTER_TIMEOUT : this.timeout;
+            ScpiError error;
+            try {
+                error = parseError(queryLines(errorQuery, 1, brief).get(0));
+            } catch (InstrumentException silent) {
+                if (!(silent.getCause() instanceof TransportTimeoutException)) {
+                    throw silent;
+                }
+                throw new InstrumentException(timeout.getMessage() + "; '" + errorQuery + "' was not answered within "
+                        + brief.toMillis() + " ms either", timeout);
+            }
+            List<ScpiError> errors = new ArrayList<>();
+            if (!error.isNoError()) {
+                errors.add(error);
+                errors.addAll(drainErrors(errorQuery));
+            }
             throw new InstrumentException(errors.isEmpty() ? timeout.getMessage()
                     : instrument + ": '" + printable(command) + "' caused " + errors, timeout);
         }

@@ -191,23 +191,29 @@ class PersonalityTests {
     /**
      * A polled digitizer driven by a driver that leaves out its acquisition section (so lrbench waits
      * with *OPC?, the default), on an instrument that does not answer *OPC? while it captures: the error
-     * names what to declare (acquisition: complete: poll), not only "no reply".
+     * names what to declare (acquisition: complete: poll), not only "no reply". An instrument that,
+     * once sent *OPC?, answers nothing more (blocked on it) is not waited for a second whole timeout
+     * by the error query that follows: that query gets one second.
      */
     @Test
     void aPolledDigitizerWithoutItsPollSectionIsToldWhatToDeclare(@TempDir Path dir) throws Exception {
         String text = Files.readString(HOME.resolve("drivers/sim-pm12-digitizer.yaml"))
-                .replaceAll("acquisition:\\n(  .*\\n)+", "").replaceAll("(?m)^timeout: .*$", "timeout: 200 ms");
+                .replaceAll("acquisition:\\n(  .*\\n)+", "").replaceAll("(?m)^timeout: .*$", "timeout: 3 s");
         Files.writeString(dir.resolve("pm12-no-poll.yaml"), text);
         DriverFile d = new DriverLoader(dir).load("pm12-no-poll", DriverKind.DIGITIZER);
         assertThat(d.digitizer().acquisition().complete()).isEqualTo(DigitizerTraits.Completion.OPC);
         BenchConfig b = BenchLoader.load(HOME.resolve("simulator/bench-pm12.yaml"));
         SimBench sim = new SimBench(b.simulation(), 100, PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml")));
         org.lrbench.transport.inproc.InProcessPeer inner = sim.digitizer();
-        // a message with *OPC? is taken in and never answered: the instrument knows no *OPC? while capturing
+        // a message with *OPC? is taken in and never answered, nor is anything after it: the instrument
+        // blocks on an *OPC? it cannot complete while capturing
         org.lrbench.transport.inproc.InProcessPeer deaf = new org.lrbench.transport.inproc.InProcessPeer() {
+            private boolean blocked;
+
             @Override
             public void receive(byte[] bytes) {
-                if (!new String(bytes, java.nio.charset.StandardCharsets.ISO_8859_1).contains("*OPC?")) {
+                blocked |= new String(bytes, java.nio.charset.StandardCharsets.ISO_8859_1).contains("*OPC?");
+                if (!blocked) {
                     inner.receive(bytes);
                 }
             }
@@ -229,7 +235,8 @@ class PersonalityTests {
         dig.setTiming(1e-5, 1000);
         org.assertj.core.api.Assertions.assertThatThrownBy(dig::acquire)
                 .isInstanceOf(org.lrbench.instrument.InstrumentException.class)
-                .hasMessageContaining("no reply").hasMessageContaining("complete: poll");
+                .hasMessageContaining("no reply").hasMessageContaining("complete: poll")
+                .hasMessageContaining("timeout 3000 ms").hasMessageContaining("not answered within 1000 ms either");
     }
 
     /**
