@@ -119,4 +119,64 @@ class DriverDocumentationTests {
         // setting (vertical), source, setting (timebase), complete, rounding
         assertThat(choices).isGreaterThanOrEqualTo(5);
     }
+
+    /**
+     * The worked examples: each bullet of "Writing a driver, worked through the simulated personalities"
+     * that names a driver file quotes pieces of it as {@code key: value}; every such piece is read as
+     * YAML and must be found in that file (a mapping somewhere in it with that key and a value that
+     * holds every quoted entry; {@code ...} stands for what is left out).
+     */
+    @Test
+    void theWorkedExamplesQuoteTheDriverFilesTheyName() throws Exception {
+        String doc = Files.readString(TestBench.home().resolve("DEVELOPERS.md"));
+        int start = doc.indexOf("### Writing a driver, worked through");
+        assertThat(start).isPositive();
+        int end = doc.indexOf("\n#", start + 10);
+        String section = doc.substring(start, end < 0 ? doc.length() : end);
+        Matcher bullet = Pattern.compile("(?m)^- `(drivers/[a-z0-9-]+\\.yaml)`(.*(?:\\n  .*)*)").matcher(section);
+        int bullets = 0;
+        int quoted = 0;
+        org.yaml.snakeyaml.Yaml yaml = new org.yaml.snakeyaml.Yaml();
+        while (bullet.find()) {
+            bullets++;
+            Object driver = yaml.load(Files.readString(TestBench.home().resolve(bullet.group(1))));
+            String text = bullet.group(2).replaceAll("\\s*\\n\\s*", " ");
+            Matcher piece = Pattern.compile("`([a-z_]+: [^`]+)`").matcher(text);
+            while (piece.find()) {
+                Map<?, ?> example = (Map<?, ?>) yaml.load(piece.group(1));
+                for (Map.Entry<?, ?> e : example.entrySet()) {
+                    quoted++;
+                    assertThat(foundIn(driver, e.getKey(), e.getValue()))
+                            .as("DEVELOPERS.md quotes `%s` from %s", piece.group(1), bullet.group(1)).isTrue();
+                }
+            }
+        }
+        assertThat(bullets).as("bullets naming a driver file").isGreaterThanOrEqualTo(5);
+        assertThat(quoted).as("quoted pieces").isGreaterThanOrEqualTo(10);
+    }
+
+    /** Whether some mapping in {@code tree} has {@code key} with a value that holds {@code value}. */
+    private static boolean foundIn(Object tree, Object key, Object value) {
+        if (tree instanceof Map<?, ?> m) {
+            if (m.containsKey(key) && holds(m.get(key), value)) {
+                return true;
+            }
+            return m.values().stream().anyMatch(v -> foundIn(v, key, value));
+        }
+        if (tree instanceof List<?> l) {
+            return l.stream().anyMatch(v -> foundIn(v, key, value));
+        }
+        return false;
+    }
+
+    private static boolean holds(Object actual, Object quoted) {
+        if ("...".equals(quoted) || List.of("...").equals(quoted)) {
+            return true; // left out in the text
+        }
+        if (quoted instanceof Map<?, ?> q) {
+            return actual instanceof Map<?, ?> a && q.entrySet().stream()
+                    .allMatch(e -> a.containsKey(e.getKey()) && holds(a.get(e.getKey()), e.getValue()));
+        }
+        return String.valueOf(quoted).equals(String.valueOf(actual));
+    }
 }
