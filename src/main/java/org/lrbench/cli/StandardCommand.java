@@ -17,7 +17,8 @@ import picocli.CommandLine.Mixin;
     "Measure the bench's check standard and judge the reading on its control chart.",
     "The standard is the bench file's check_standard. A reading is judged against the certificate"
         + " (normalized error) until the history has its readings, then on an individuals chart;"
-        + " each reading is recorded and RUNS/check-standard/BENCH/chart.html rewritten.",
+        + " each reading is recorded (its file a link of the store's chain of check files) and"
+        + " RUNS/check-standard/BENCH/chart.html rewritten.",
     "A lot run on this bench refuses to start while the last check is out of control or too old.",
     "Exit 0 in control, 1 out of control, 2 bad input, 3 instrument error."})
 final class StandardCommand implements Callable<Integer> {
@@ -30,6 +31,9 @@ final class StandardCommand implements Callable<Integer> {
 
     @Mixin
     FolderOptions.Calibration calibration = new FolderOptions.Calibration();
+
+    @Mixin
+    StoreLocation store;
 
     @Override
     public Integer call() throws Exception {
@@ -48,7 +52,10 @@ final class StandardCommand implements Callable<Integer> {
                 throw new BadInputException("no answer on the console: the check standard was not placed");
             }
         }
-        StandardCheck.Outcome o = StandardCheck.measure(q);
+        StandardCheck.Outcome o;
+        try (var results = store.open()) {
+            o = StandardCheck.measure(q, results);
+        }
         if (o.state() == null) {
             System.err.println("lrbench: the check standard's measurement ended in error (nothing recorded): "
                     + o.result().error());

@@ -87,6 +87,8 @@ final class VerifyCommand implements Callable<Integer> {
             }
             if (lot == null) {
                 findings.addAll(s.decisionFindings());
+                findings.addAll(RecordCheck.checkFileFindings(s, runsOption.runs,
+                        filesOf == null ? null : java.util.Set.copyOf(filesOf)));
             }
             findings.addAll(RecordCheck.singlePartFindings(s, runsOption.runs, lot,
                     filesOf == null ? null : java.util.Set.copyOf(filesOf)));

@@ -20,6 +20,7 @@ import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.Names;
 import org.lrbench.run.PartRun;
+import org.lrbench.store.CheckFile;
 import org.lrbench.store.ResultStore;
 import org.lrbench.yaml.ProblemsException;
 
@@ -77,7 +78,7 @@ public final class LotStart {
         Plan plan = loadPlan(q);
         // loaded once: the check gate and every part's corrections are the same ones
         Calibration corrections = new CalibrationStore(q.folders().calibration(), q.bench().name()).load();
-        String refusal = checkRefusal(q, corrections);
+        String refusal = checkRefusal(q, corrections, store);
         PartRun.Request template = new PartRun.Request(plan, PlanIdentity.sha256(q.planFile()), q.bench(), q.lot(), "-",
                 q.simulated(), q.programVersion(), corrections);
         StoreLedger ledger = new StoreLedger(store, q.folders().runs(), q.keepTraces());
@@ -95,6 +96,7 @@ public final class LotStart {
             // recorded only for a run that goes on to measure
             overrideRecord = new CheckStandardLog(q.folders().runs(), q.bench().name())
                     .override(Instant.now(), q.lot(), q.operator(), q.overrideCheckReason(), refusal);
+            CheckStandardLog.keep(store, q.folders().runs(), q.bench().name(), CheckFile.OVERRIDE, overrideRecord);
         }
         return new Ready(setup, ledger, closed, closed != null ? 0 : measured, closed == null ? refusal : null,
                 overrideRecord);
@@ -154,11 +156,15 @@ public final class LotStart {
      * within its interval and the corrections within theirs: the refusal, or null. Without an
      * override the refusal ends the start here.
      */
-    private static String checkRefusal(Request q, Calibration corrections) throws IOException {
+    private static String checkRefusal(Request q, Calibration corrections, ResultStore store) throws IOException {
         if (q.bench().checkStandard() == null) {
             return null;
         }
         String refusal = CheckStandardLog.gate(q.bench(), q.folders().runs(), corrections, Instant.now());
+        if (refusal == null) {
+            refusal = new CheckStandardLog(q.folders().runs(), q.bench().name()).unrecordedLast(store, q.folders().runs(),
+                    q.bench().name());
+        }
         if (refusal != null && q.overrideCheckReason() == null) {
             throw new LotRefused(LotRefused.Kind.CHECK_REFUSED, "lot " + q.lot() + " not started: " + refusal);
         }

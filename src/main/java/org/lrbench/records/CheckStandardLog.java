@@ -12,6 +12,9 @@ import java.util.List;
 import java.util.stream.Stream;
 import org.lrbench.bench.CheckStandard;
 import org.lrbench.results.ResultFiles;
+import org.lrbench.store.Canonical;
+import org.lrbench.store.CheckFile;
+import org.lrbench.store.ResultStore;
 import org.lrbench.study.ControlChart;
 
 /**
@@ -143,6 +146,62 @@ public final class CheckStandardLog {
         Path file = dir.resolve(NAME.format(at) + "-" + lot + ".json");
         ResultFiles.writeNew(file, ResultFiles.JSON.writeValueAsBytes(o));
         return file;
+    }
+
+    /**
+     * Keeps {@code file}, just written under {@code runs} by this log, as the next link of the store's chain
+     * of check files; when the store refuses, the file is removed again (no reading or override stands
+     * that the store does not hold) and the store's error thrown.
+     */
+    public static void keep(ResultStore store, Path runs, String bench, String kind, Path file) throws IOException {
+        byte[] bytes = Files.readAllBytes(file);
+        try {
+            store.recordCheckFile(new CheckFile(bench, kind, relative(runs, file), bytes.length, Canonical.sha256(bytes),
+                    Instant.now().toString()));
+        } catch (RuntimeException e) {
+            Files.deleteIfExists(file);
+            throw e;
+        }
+    }
+
+    /** A file's path under the runs folder as the store keeps it ('/' between names). */
+    public static String relative(Path runs, Path file) {
+        return runs.toAbsolutePath().normalize().relativize(file.toAbsolutePath().normalize()).toString()
+                .replace(java.io.File.separatorChar, '/');
+    }
+
+    /**
+     * Why the last reading cannot be trusted to open the gate (null: it can): its file is not the one the
+     * store recorded (added or altered behind lrbench's back). Readings taken before the store kept them
+     * count as recorded when the store holds none of this bench's.
+     */
+    public String unrecordedLast(ResultStore store, Path runs, String bench) throws IOException {
+        if (!Files.isDirectory(folder)) {
+            return null;
+        }
+        List<Path> files;
+        try (Stream<Path> s = Files.list(folder)) {
+            files = s.filter(p -> p.getFileName().toString().endsWith(".json")).sorted().toList();
+        }
+        if (files.isEmpty()) {
+            return null;
+        }
+        List<CheckFile> kept = store.checkFiles().stream()
+                .filter(f -> f.bench().equals(bench) && f.kind().equals(CheckFile.READING)).toList();
+        if (kept.isEmpty()) {
+            return null;
+        }
+        Path last = files.get(files.size() - 1);
+        String name = relative(runs, last);
+        String sha = Canonical.sha256(Files.readAllBytes(last));
+        for (CheckFile f : kept) {
+            if (f.file().equals(name)) {
+                return f.sha256().equals(sha) ? null : "the last check-standard reading " + last
+                        + " is not the one the store recorded (altered): run lrbench verify, then lrbench standard";
+            }
+        }
+        return "the last check-standard reading " + last + " is not one the store recorded (added behind lrbench's back?):"
+                + " run lrbench verify, then lrbench standard";
     }
 
     private static String hours(long seconds) {

@@ -75,6 +75,47 @@ public final class RecordCheck {
         return out;
     }
 
+    /**
+     * The files of the benches' checks (check-standard readings, overrides of the gate) against the store's
+     * chain of them: the chain whole, every recorded file present with its size and SHA-256, and every
+     * reading or override file under {@code RUNS/check-standard/} one the store recorded. Only the benches
+     * in {@code benches} (null: all) where each bench keeps its own runs folder; the chart page, rewritten
+     * at each reading, is exempt.
+     */
+    public static List<String> checkFileFindings(ResultStore store, Path runs, java.util.Set<String> benches) {
+        List<String> out = new ArrayList<>(store.checkFileFindings());
+        java.util.Set<String> recorded = new java.util.HashSet<>();
+        for (org.lrbench.store.CheckFile f : store.checkFiles()) {
+            recorded.add(f.file());
+            if (benches != null && !benches.contains(f.bench())) {
+                continue;
+            }
+            checkFile(out, runs.resolve(f.file()), f.bytes(), f.sha256(), "the check-standard " + f.kind() + " of bench "
+                    + f.bench());
+        }
+        Path root = runs.resolve("check-standard");
+        if (!Files.isDirectory(root)) {
+            return out;
+        }
+        try (var walk = Files.walk(root)) {
+            for (Path f : walk.filter(Files::isRegularFile).sorted().toList()) {
+                String name = f.getFileName().toString();
+                Path rel = root.relativize(f);
+                if (name.equals("chart.html") && rel.getNameCount() == 2 || name.startsWith(".") && name.endsWith(".partial")
+                        || benches != null && !benches.contains(rel.getName(0).toString())) {
+                    continue;
+                }
+                if (!recorded.contains(CheckStandardLog.relative(runs, f))) {
+                    out.add(f + ": a check-standard file no record of the store names (added, or written before the"
+                            + " store kept them: schema 9 or older)");
+                }
+            }
+        } catch (IOException e) {
+            out.add(root + ": cannot be listed: " + e.getMessage());
+        }
+        return out;
+    }
+
     private static void checkFile(List<String> out, Path file, long bytes, String sha, String what) {
         try {
             if (!Files.exists(file)) {

@@ -24,6 +24,8 @@ import org.lrbench.plan.PlanLoader;
 import org.lrbench.report.ControlChartPage;
 import org.lrbench.results.PartResult;
 import org.lrbench.results.ResultFiles;
+import org.lrbench.store.CheckFile;
+import org.lrbench.store.ResultStore;
 import org.lrbench.run.BenchInstruments;
 import org.lrbench.run.PartRun;
 import org.lrbench.study.ControlChart;
@@ -97,8 +99,9 @@ public final class StandardCheck {
     /**
      * Measures the standard and, when the measurement completed, records the reading, judges it and
      * rewrites the chart. A measurement that ended in error records nothing: its outcome has no state.
+     * The reading's file is a link of the store's chain of check files.
      */
-    public static Outcome measure(Prepared q) throws ProblemsException, IOException {
+    public static Outcome measure(Prepared q, ResultStore store) throws ProblemsException, IOException {
         BenchConfig b = q.bench();
         CheckStandard cs = q.standard();
         CheckStandardLog log = new CheckStandardLog(q.runs(), b.name());
@@ -123,6 +126,7 @@ public final class StandardCheck {
                 cs.historyPoints());
         Path record = log.append(at, cs.serial(), q.planFile().toString(), reading.value(), reading.expandedUncertainty(),
                 r.verdict().word(), state);
+        CheckStandardLog.keep(store, q.runs(), b.name(), CheckFile.READING, record);
         List<String> times = new ArrayList<>(before.stream().map(e -> e.at().toString()).toList());
         times.add(at.toString());
         double[] values = history.stream().mapToDouble(ControlChart.Reading::value).toArray();

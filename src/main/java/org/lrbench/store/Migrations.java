@@ -106,5 +106,15 @@ final class Migrations {
                     "ALTER TABLE scheme_decision ADD COLUMN record_sha256 TEXT",
                     "CREATE TABLE decision_chain (id INTEGER PRIMARY KEY CHECK (id = 1), length INTEGER NOT NULL,"
                             + " head_sha256 TEXT NOT NULL)",
-                    "INSERT INTO decision_chain (id, length, head_sha256) VALUES (1, 0, '" + Canonical.GENESIS + "')"));
+                    "INSERT INTO decision_chain (id, length, head_sha256) VALUES (1, 0, '" + Canonical.GENESIS + "')"),
+            // step 10: the files of a bench's checks (check-standard readings, overrides of the gate), each
+            // a link of one hash chain, so that a forged in-control reading or a removed override shows
+            List.of(
+                    "CREATE TABLE check_file_chain (id INTEGER PRIMARY KEY CHECK (id = 1), length INTEGER NOT NULL,"
+                            + " head_sha256 TEXT NOT NULL)",
+                    "INSERT INTO check_file_chain (id, length, head_sha256) VALUES (1, 0, '" + Canonical.GENESIS + "')",
+                    "CREATE TABLE check_file (seq INTEGER PRIMARY KEY CHECK (seq >= 1), bench TEXT NOT NULL,"
+                            + " kind TEXT NOT NULL, file TEXT NOT NULL UNIQUE, bytes BIGINT NOT NULL, sha256 TEXT NOT NULL,"
+                            + " recorded_at TEXT NOT NULL, content_sha256 TEXT NOT NULL, previous_sha256 TEXT NOT NULL,"
+                            + " record_sha256 TEXT NOT NULL)"));
 }

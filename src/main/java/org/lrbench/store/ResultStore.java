@@ -37,6 +37,7 @@ public final class ResultStore implements AutoCloseable {
     private final SinglePartRows singles;
     private final LotHolds holds;
     private final DecisionChain decisions;
+    private final CheckFileRows checkFiles;
     private final LotQueries queries;
     private final StoreSchema schema;
 
@@ -49,6 +50,7 @@ public final class ResultStore implements AutoCloseable {
         this.singles = new SinglePartRows(db);
         this.holds = new LotHolds(db);
         this.decisions = new DecisionChain(db);
+        this.checkFiles = new CheckFileRows(db);
         this.queries = new LotQueries(db, inspections);
         this.schema = new StoreSchema(db, inspections, chain);
     }
@@ -212,7 +214,7 @@ public final class ResultStore implements AutoCloseable {
     /** Every lot's chain length and head as they stand, and the single parts' chain (what an anchor keeps). */
     public List<ChainAnchor> chainAnchors() {
         List<ChainAnchor> out = new java.util.ArrayList<>(chain.anchors());
-        for (ChainAnchor c : new ChainAnchor[] {singles.anchor(), decisions.anchor()}) {
+        for (ChainAnchor c : new ChainAnchor[] {singles.anchor(), decisions.anchor(), checkFiles.anchor()}) {
             if (c != null && c.length() > 0) {
                 out.add(c);
             }
@@ -228,7 +230,24 @@ public final class ResultStore implements AutoCloseable {
                 .filter(java.util.Objects::nonNull).forEach(out::add);
         anchored.stream().filter(a -> a.lot().equals(DecisionChain.ANCHOR_NAME)).map(decisions::anchorFinding)
                 .filter(java.util.Objects::nonNull).forEach(out::add);
+        anchored.stream().filter(a -> a.lot().equals(CheckFileRows.ANCHOR_NAME)).map(checkFiles::anchorFinding)
+                .filter(java.util.Objects::nonNull).forEach(out::add);
         return out;
+    }
+
+    /** Keeps the record of a file of a bench's checks, as the next link of the check files' chain. */
+    public void recordCheckFile(CheckFile f) {
+        checkFiles.record(f);
+    }
+
+    /** Every check file's record, in the order they were kept. */
+    public List<CheckFile> checkFiles() {
+        return checkFiles.all();
+    }
+
+    /** The check files' chain's breaks (empty when whole). */
+    public List<String> checkFileFindings() {
+        return checkFiles.findings();
     }
 
     /** The scheme decisions' chain's breaks (empty when whole). */

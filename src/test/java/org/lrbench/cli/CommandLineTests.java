@@ -36,7 +36,8 @@ class CommandLineTests {
     static Outcome run(String... given) {
         String[] args = given;
         List<String> list = List.of(given);
-        if (given.length > 0 && given[0].equals("run") && !list.contains("--data") && !list.contains("--store")) {
+        if (given.length > 0 && (given[0].equals("run") || given[0].equals("standard")) && !list.contains("--data")
+                && !list.contains("--store")) {
             // a single part is kept in a results store: each such test its own, never the working folder's
             try {
                 args = java.util.stream.Stream.concat(list.stream(), java.util.stream.Stream.of("--data",
@@ -521,7 +522,7 @@ class CommandLineTests {
         assertThat(first.err()).contains("not started").contains("QFD-REF-0001 has not been measured").contains("lrbench standard");
         assertThat(run("calibrate", PLAN, "--bench", bench, "--sim", HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(),
                 "--calibration", cal).code()).isZero();
-        Outcome check = run("standard", "--bench", bench, "--runs", runs, "--calibration", cal);
+        Outcome check = run("standard", "--bench", bench, "--runs", runs, "--calibration", cal, "--data", data);
         assertThat(check.code()).as(check.out() + check.err()).isZero();
         assertThat(check.out()).contains("in control").contains("En =");
         assertThat(dir.resolve("runs/check-standard/sim-bench-checked/chart.html")).exists();
@@ -536,7 +537,7 @@ class CommandLineTests {
         String[] offRun = lotRun.clone();
         offRun[3] = off.toString();
         offRun[5] = "C2";
-        Outcome bad = run("standard", "--bench", off.toString(), "--runs", runs, "--calibration", cal);
+        Outcome bad = run("standard", "--bench", off.toString(), "--runs", runs, "--calibration", cal, "--data", data);
         assertThat(bad.code()).isEqualTo(1);
         assertThat(bad.out()).contains("OUT OF CONTROL");
         Outcome refused = run(offRun);
@@ -551,6 +552,70 @@ class CommandLineTests {
         try (var files = Files.list(dir.resolve("runs/check-standard/sim-bench-checked/overrides"))) {
             assertThat(Files.readString(files.findFirst().orElseThrow())).contains("recertification").contains("C2");
         }
+        assertThat(run("verify", "--data", data, "--runs", runs).code()).isZero();
+    }
+
+    /**
+     * The check standard's readings and the overrides of its gate are links of the store's chain of check
+     * files: a reading forged in control (a copy of the last, edited) is named by verify and does not open
+     * the gate; an override removed is named by verify, and so is one cut from the store's chain.
+     */
+    @Test
+    void checkReadingsAndOverridesAreKeptInTheStoresChain(@TempDir Path dir) throws Exception {
+        String bench = HOME.resolve("simulator/bench-checked.yaml").toString();
+        String runs = dir.resolve("runs").toString();
+        String cal = dir.resolve("cal").toString();
+        String data = dir.resolve("data").toString();
+        Path off = dir.resolve("bench-off.yaml");
+        Files.writeString(off, Files.readString(Path.of(bench)).replace("inductance: 1.0000 mH", "inductance: 1.0200 mH")
+                .replace("plan: ../plans/", "plan: " + HOME.resolve("plans") + "/")
+                .replace("part: parts/", "part: " + HOME.resolve("simulator/parts") + "/"));
+        assertThat(run("calibrate", PLAN, "--bench", off.toString(), "--sim",
+                HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--calibration", cal).code()).isZero();
+        assertThat(run("standard", "--bench", off.toString(), "--runs", runs, "--calibration", cal, "--data", data)
+                .code()).isEqualTo(1);
+        String[] lotRun = {"run", PLAN, "--bench", off.toString(), "--lot", "C3", "--lot-size", "40", "--sim-lot",
+            HOME.resolve("simulator/demo-lot.yaml").toString(), "--runs", runs, "--calibration", cal, "--data", data,
+            "--override-check", "reference part sent for recertification"};
+        assertThat(run(lotRun).code()).isIn(0, 1);
+        Outcome whole = run("verify", "--data", data, "--runs", runs);
+        assertThat(whole.code()).as(whole.out()).isZero();
+        Path folder = dir.resolve("runs/check-standard/sim-bench-checked");
+        Path reading;
+        try (var files = Files.list(folder)) {
+            reading = files.filter(f -> f.toString().endsWith(".json")).findFirst().orElseThrow();
+        }
+        // a forged reading, in control, later than the real one
+        Path forged = folder.resolve("29991231T235959.000Z.json");
+        Files.writeString(forged, Files.readString(reading).replaceFirst("\"in_control\"\\s*:\\s*false", "\"in_control\":true")
+                .replaceFirst("\"taken_at\"\\s*:\\s*\"[^\"]+\"", "\"taken_at\":\"" + java.time.Instant.now() + "\""));
+        assertThat(Files.readString(forged)).contains("\"in_control\":true");
+        Outcome named = run("verify", "--data", data, "--runs", runs);
+        assertThat(named.code()).isNotZero();
+        assertThat(named.out()).contains(forged.getFileName().toString()).contains("no record");
+        String[] next = java.util.Arrays.copyOf(lotRun, lotRun.length - 2);
+        next[5] = "C4";
+        Outcome refused = run(next);
+        assertThat(refused.code()).as(refused.out() + refused.err()).isEqualTo(2);
+        assertThat(refused.err()).contains("not one the store recorded");
+        Files.delete(forged);
+        // the override removed: named as missing
+        Path override;
+        try (var files = Files.list(folder.resolve("overrides"))) {
+            override = files.findFirst().orElseThrow();
+        }
+        Files.delete(override);
+        Outcome missing = run("verify", "--data", data, "--runs", runs);
+        assertThat(missing.code()).isNotZero();
+        assertThat(missing.out()).contains(override.getFileName().toString()).contains("missing");
+        // and the override's link cut from the store with plain SQL: the chain's head names the cut
+        try (var c = java.sql.DriverManager.getConnection("jdbc:sqlite:" + dir.resolve("data/lrbench.db"));
+             var st = c.createStatement()) {
+            st.executeUpdate("DELETE FROM check_file WHERE kind = 'override'");
+        }
+        Outcome cut = run("verify", "--data", data, "--runs", runs);
+        assertThat(cut.code()).isNotZero();
+        assertThat(cut.out()).contains("check files").contains("head");
     }
 
     @Test

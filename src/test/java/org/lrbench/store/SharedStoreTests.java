@@ -32,7 +32,7 @@ class SharedStoreTests {
 
     static void reset(String url) throws Exception {
         try (var c = DriverManager.getConnection(url); var s = c.createStatement()) {
-            for (String table : List.of("decision_chain", "lot_hold", "single_part", "single_part_chain", "chain_record", "lot_chain", "attempt", "inspection", "part_result", "lot",
+            for (String table : List.of("check_file", "check_file_chain", "decision_chain", "lot_hold", "single_part", "single_part_chain", "chain_record", "lot_chain", "attempt", "inspection", "part_result", "lot",
                     "scheme_decision", "schema_version")) {
                 s.execute("DROP TABLE IF EXISTS " + table);
             }
