@@ -104,6 +104,12 @@ public final class CoverageBenchmark {
     /** As above, on the parts {@code parts} names (null: the whole matrix). */
     public static int run(PrintStream out, BenchConfig bench, Path drivers, int seeds, boolean benchErrors,
                           List<String> parts) throws Exception {
+        return run(out, bench, drivers, seeds, benchErrors, parts, false);
+    }
+
+    /** As above, every plan swept as one multisine when {@code multisine} (a part whose sweep cannot be one is named). */
+    public static int run(PrintStream out, BenchConfig bench, Path drivers, int seeds, boolean benchErrors,
+                          List<String> parts, boolean multisine) throws Exception {
         BenchAccuracy accuracy = benchErrors
                 ? new BenchAccuracy(SENSE_TOLERANCE, 0, 0, 0, RANGE_MATCH, Double.POSITIVE_INFINITY, null, null,
                         METER_ACCURACY, 0)
@@ -123,6 +129,7 @@ public final class CoverageBenchmark {
                 ? "each seed another bench: sense resistor (0.1 %), range stages (0.025 % per channel), meter (0.015 %)"
                 + " drawn within their specifications"
                 : "bench errors off (sense resistor, range stages and meter exact)");
+        out.printf(Locale.ROOT, "excitation: %s%n", multisine ? "one multisine (every plan's sweep at once)" : "stepped");
         out.printf(Locale.ROOT, "%-44s %-10s %9s %15s %9s %6s %8s%n", "part", "quantity", "coverage", "95 % interval",
                 "bias/sd", "sd/u", "errors");
         int misses = 0;
@@ -130,14 +137,22 @@ public final class CoverageBenchmark {
         Map<String, long[]> pooled = new LinkedHashMap<>();
         int pairs = 0;
         for (Case c : cases(parts)) {
-            Plan plan = PlanLoader.parse(c.plan(), "coverage.yaml", b.maxAmplitudeVolt());
+            Plan stepped = PlanLoader.parse(c.plan(), "coverage.yaml", b.maxAmplitudeVolt());
+            Plan plan = stepped.withSweep(stepped.sweep().withMultisine(multisine));
             double[] truth = {c.part().seriesResistanceOhm(), c.part().inductanceHenry(), c.part().parallelCapacitanceFarad(),
                 c.part().wireDiameterMetre() > 0 ? SkinEffect.coefficient(c.part().wireDiameterMetre()) : 0,
                 c.part().parallelResistanceOhm() > 0 ? 1 / c.part().parallelResistanceOhm() : 0};
             Map<String, List<double[]>> readings = new LinkedHashMap<>();
             int errors = 0;
-            for (int s = 0; s < seeds; s++) {
-                PartResult r = once(b, plan, c.part(), loader, 1000 + 2L * s);
+            String impossible = null;
+            for (int s = 0; s < seeds && impossible == null; s++) {
+                PartResult r;
+                try {
+                    r = once(b, plan, c.part(), loader, 1000 + 2L * s);
+                } catch (IllegalArgumentException e) {
+                    impossible = e.getMessage(); // a sweep no multisine of this generator holds
+                    break;
+                }
                 if (r.error() != null) {
                     errors++;
                     continue;
@@ -172,7 +187,10 @@ public final class CoverageBenchmark {
                 out.printf(Locale.ROOT, "%-44s %-10s %8.1f%% %6.1f-%5.1f %% %+9.2f %6.2f %8d%s%n", c.name(), e.getKey(),
                         coverage, wilson[0], wilson[1], bias, sd / rmsU, errors, miss ? "   MISS" : "");
             }
-            if (readings.isEmpty()) {
+            if (impossible != null) {
+                misses++;
+                out.printf(Locale.ROOT, "%-44s not measurable this way: %s   MISS%n", c.name(), impossible);
+            } else if (readings.isEmpty()) {
                 misses++;
                 out.printf(Locale.ROOT, "%-44s every run ended in error   MISS%n", c.name());
             }

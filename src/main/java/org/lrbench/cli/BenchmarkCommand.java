@@ -190,11 +190,19 @@ final class BenchmarkCommand implements Runnable {
                 + " one of these (e.g. '4.7 mH,22 mH'), to look closer at some with more seeds")
         List<String> parts;
 
+        @Option(names = "--excitation", defaultValue = "stepped", description = "stepped (default) or multisine: how"
+                + " every plan of the matrix sweeps")
+        String excitation;
+
         @picocli.CommandLine.Mixin
         BenchOptions benchOptions;
 
         @Override
         public Integer call() throws Exception {
+            if (!java.util.Set.of("stepped", "multisine").contains(excitation)) {
+                throw new BadInputException("--excitation '" + excitation + "': allowed are stepped, multisine");
+            }
+            boolean multisine = excitation.equals("multisine");
             if (parts != null && !CoverageBenchmark.names(parts)) {
                 throw new BadInputException("--parts " + String.join(",", parts) + ": no part of the matrix matches");
             }
@@ -207,11 +215,11 @@ final class BenchmarkCommand implements Runnable {
             int misses = 0;
             if (!benchErrors.equals("on")) {
                 misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, false,
-                        parts);
+                        parts, multisine);
             }
             if (!benchErrors.equals("off")) {
                 misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, true,
-                        parts);
+                        parts, multisine);
             }
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }
