@@ -22,8 +22,43 @@ public final class PartTime {
     private PartTime() {
     }
 
-    /** What was timed: the profile and the seconds per part stepped and as a multisine (NaN where it cannot). */
-    public record Estimate(SimTiming timing, double steppedSecond, double multisineSecond, String multisineRefused) {
+    /** The most a multisine's U may exceed the stepped sweep's for its speed to count. */
+    public static final double EQUAL_ENOUGH = 1.5;
+
+    /**
+     * What was timed: the profile and the seconds per part stepped and as a multisine (NaN where it cannot),
+     * and per limit U (k = 2) of each, stepped first, measured on the simulated bench calibrated for each.
+     */
+    public record Estimate(SimTiming timing, double steppedSecond, double multisineSecond, String multisineRefused,
+                           java.util.Map<String, double[]> expanded) {
+
+        /** The limit whose U the multisine worsens most, with the factor (null without a multisine). */
+        public java.util.Map.Entry<String, Double> worstRatio() {
+            java.util.Map.Entry<String, Double> worst = null;
+            for (var e : expanded.entrySet()) {
+                double r = e.getValue()[1] / e.getValue()[0];
+                if (worst == null || !(r <= worst.getValue())) {
+                    worst = java.util.Map.entry(e.getKey(), r);
+                }
+            }
+            return worst;
+        }
+
+        /** Which excitation to use, in words: the multisine only where it is faster at about the same U. */
+        public String advice() {
+            if (multisineRefused != null) {
+                return "stepped (this bench cannot play the multisine)";
+            }
+            var worst = worstRatio();
+            if (worst == null || !(worst.getValue() <= EQUAL_ENOUGH)) {
+                return String.format(java.util.Locale.ROOT, "stepped: the multisine's U(%s) is %.1fx the stepped"
+                        + " sweep's (its speed counts only within %.1fx)", worst == null ? "-" : worst.getKey(),
+                        worst == null ? Double.NaN : worst.getValue(), EQUAL_ENOUGH);
+            }
+            return multisineSecond < steppedSecond ? String.format(java.util.Locale.ROOT, "multisine: %.1fx faster with"
+                    + " every U within %.1fx of the stepped sweep's", steppedSecond / multisineSecond, EQUAL_ENOUGH)
+                    : "stepped: the multisine is not faster on this bench";
+        }
     }
 
     public static Estimate of(Plan plan, BenchConfig bench, DriverLoader drivers, boolean multisinePossible,
@@ -39,7 +74,42 @@ public final class PartTime {
         }
         double a = once(stepped, bench, drivers, part, timing);
         double b = multisinePossible ? once(multi, bench, drivers, part, timing) : Double.NaN;
-        return new Estimate(timing, a, b, multisinePossible ? null : whyNot);
+        java.util.Map<String, double[]> expanded = new java.util.LinkedHashMap<>();
+        if (multisinePossible) {
+            java.util.Map<String, Double> us = uncertainties(stepped, bench, drivers, part);
+            java.util.Map<String, Double> um = uncertainties(multi, bench, drivers, part);
+            us.forEach((k, v) -> {
+                if (um.containsKey(k)) {
+                    expanded.put(k, new double[] {v, um.get(k)});
+                }
+            });
+        }
+        return new Estimate(timing, a, b, multisinePossible ? null : whyNot, expanded);
+    }
+
+    /** U (k = 2) per limit of one nominal part, on the simulated bench calibrated for this plan first. */
+    static java.util.Map<String, Double> uncertainties(Plan plan, BenchConfig bench, DriverLoader drivers, PartModel part)
+            throws Exception {
+        SimBench calBench = new SimBench(bench.simulation(), plan.wiring(), part);
+        org.lrbench.calibration.Calibration corrections;
+        try (BenchInstruments inst = BenchInstruments.open(bench, drivers, calBench)) {
+            corrections = org.lrbench.run.CalibrationRun.calibrate(plan, inst, calBench::setPosition, BenchClock.NONE,
+                    bench.accuracy());
+        }
+        BenchConfig b = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 1));
+        SimBench sim = new SimBench(b.simulation(), plan.wiring(), part);
+        java.util.Map<String, Double> out = new java.util.LinkedHashMap<>();
+        try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
+            var r = PartRun.measure(new PartRun.Request(plan, "rehearsal", b, "REHEARSAL", "U", true, "rehearsal",
+                    corrections), inst, BenchClock.NONE, SweepListener.NONE);
+            for (var l : plan.limits()) {
+                var u = r.budgets().get(l.name());
+                if (u != null) {
+                    out.put(l.name(), u.expandedUncertainty());
+                }
+            }
+        }
+        return out;
     }
 
     /** Seconds for one part of {@code plan} on the simulated bench with {@code timing}. */
