@@ -249,11 +249,7 @@ public final class ThroughputBenchmark {
         Map<Boolean, List<String>> verdicts = new LinkedHashMap<>();
         for (boolean multisine : new boolean[] {false, true}) {
             Plan p = plan.withSweep(plan.sweep().withMultisine(multisine));
-            SimBench calBench = new SimBench(bench.simulation(), p.wiring(), lot.parts().get(0).model());
-            Calibration corrections;
-            try (BenchInstruments inst = BenchInstruments.open(bench, loader, calBench)) {
-                corrections = CalibrationRun.calibrate(p, inst, calBench::setPosition, BenchClock.NONE);
-            }
+            Calibration corrections = calibrated(bench, p, drivers, lot.parts().get(0).model());
             List<String> v = new ArrayList<>();
             int i = 0;
             for (SimLot.Part part : lot.parts()) {

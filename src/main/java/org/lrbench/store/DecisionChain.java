@@ -96,14 +96,6 @@ final class DecisionChain {
 
     /** Null when the link at the anchored length still has the anchored hash. */
     String anchorFinding(ChainAnchor a) {
-        try (PreparedStatement q = store.db.prepareStatement(
-                "SELECT record_sha256 FROM scheme_decision WHERE chain_seq = ?")) {
-            q.setInt(1, a.length());
-            try (ResultSet r = q.executeQuery()) {
-                return chain.anchorFinding(a, r.next() ? r.getString(1) : null);
-            }
-        } catch (SQLException e) {
-            throw new StoreException("reading the decisions' chain failed: " + StoreErrors.describe(e), e);
-        }
+        return chain.anchorFinding(a, "scheme_decision", "chain_seq");
     }
 }

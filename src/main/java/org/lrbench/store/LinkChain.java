@@ -99,6 +99,22 @@ final class LinkChain {
         }
     }
 
+    /**
+     * Against an anchor, the link at the anchored length read from {@code table}, whose {@code seqColumn}
+     * numbers the links: null when it still has the anchored hash.
+     */
+    String anchorFinding(ChainAnchor a, String table, String seqColumn) {
+        try (PreparedStatement q = store.db.prepareStatement(
+                "SELECT record_sha256 FROM " + table + " WHERE " + seqColumn + " = ?")) {
+            q.setInt(1, a.length());
+            try (ResultSet r = q.executeQuery()) {
+                return anchorFinding(a, r.next() ? r.getString(1) : null);
+            }
+        } catch (SQLException e) {
+            throw new StoreException("reading the " + label + "' chain failed: " + StoreErrors.describe(e), e);
+        }
+    }
+
     /** Against an anchor, given the record hash stored at the anchored length (null: no such link): null when kept. */
     String anchorFinding(ChainAnchor a, String recordAtLength) {
         if (a.length() == 0) {

@@ -110,7 +110,6 @@ final class SinglePartRows {
 
     /** Whether the record at the anchored length still has the anchored hash (null: it does). */
     String anchorFinding(ChainAnchor a) {
-        String at = rows().stream().filter(r -> r.seq() == a.length()).map(Row::link).findFirst().orElse(null);
-        return chain.anchorFinding(a, at);
+        return chain.anchorFinding(a, "single_part", "seq");
     }
 }
