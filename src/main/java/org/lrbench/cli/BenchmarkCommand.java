@@ -127,7 +127,7 @@ final class BenchmarkCommand implements Runnable {
             Plan plan = demoPlan(bench);
             // every digitizer dialect the simulator speaks, for the round trips of a whole part
             List<BenchConfig> dialects = new java.util.ArrayList<>();
-            for (String name : List.of("bench.yaml", "bench-pm12.yaml", "bench-div8.yaml")) {
+            for (String name : List.of("bench.yaml", "bench-pm12.yaml", "bench-div8.yaml", "bench-div8-polled.yaml")) {
                 dialects.add(Inputs.bench(Home.root().resolve("simulator").resolve(name)));
             }
             int misses = org.lrbench.benchmark.ThroughputBenchmark.run(System.out, bench, plan, Home.drivers(),

@@ -81,6 +81,11 @@ abstract class DrivenInstrument {
         }
     }
 
+    /** Whether settings are being held back for one message ({@link #batch}). */
+    protected boolean batching() {
+        return held != null;
+    }
+
     /** Parses one reply unit of a combined message as a number. */
     protected double number(String command, String reply) {
         try {

@@ -204,50 +204,25 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     /**
-     * With a digitizer that answers *OPC? once its record is complete: the time base, the changed
-     * ranges, the arming, *OPC? and the scaling of every ranged channel in one message (one round
-     * trip where there would be two), each read back in the reply. Otherwise the settings, then
-     * {@link #acquire}.
+     * The time base, the changed ranges and the arming in one message, each read back in the reply,
+     * with the completion the driver declares: *OPC? (and the scaling of every ranged channel) in the
+     * same message, the first poll (with the scaling) in the same message, or the fixed wait after it.
+     * One round trip where there would be two.
      */
     @Override
     public Timing setTimingAndRangesThenAcquire(double sampleIntervalSecond, int wanted, double peakToPeak1,
                                                 double peakToPeak2, double[] granted) {
-        if (traits.acquisition().complete() != DigitizerTraits.Completion.OPC) {
-            Timing t = setTimingAndRanges(sampleIntervalSecond, wanted, peakToPeak1, peakToPeak2, granted);
-            acquire();
-            return t;
-        }
         TimingMessage m = timingMessage(sampleIntervalSecond, wanted);
         RangeMessage r = rangeMessage(peakToPeak1, peakToPeak2);
         // a new time base voids every channel's scaling: ask each ranged channel's after the record
-        List<Integer> scaled = new ArrayList<>();
-        if (traits.scaling().source() == DigitizerTraits.ScaleSource.SCALE_QUERY) {
-            TreeSet<Integer> channels = new TreeSet<>(ranges.keySet());
-            channels.addAll(r.channels());
-            scaled.addAll(channels);
-        }
-        StringBuilder message = new StringBuilder(m.command()).append(r.command()).append(';')
-                .append(driver.command("acquire").render(Map.of())).append(";*OPC?");
-        for (int ch : scaled) {
-            message.append(';').append(driver.command("scale_query").render(channel(ch)));
-        }
-        List<String> replies = session.configure(message.toString(), driver.errorQuery());
-        int expected = 2 + r.channels().size() + 1 + scaled.size();
-        if (replies.size() != expected) {
-            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
-                    + " replies; expected " + expected);
-        }
-        Timing t = acceptTiming(m, replies.get(0), replies.get(1));
-        acceptRanges(r, replies.subList(2, 2 + r.channels().size()), granted);
-        int at = 2 + r.channels().size();
-        String opc = replies.get(at).trim();
-        if (!opc.equals("1") && !opc.equals("+1")) {
-            throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
-        }
-        for (int i = 0; i < scaled.size(); i++) {
-            scales.put(scaled.get(i), parseScale(message.toString(), replies.get(at + 1 + i).trim()));
-        }
-        return t;
+        TreeSet<Integer> channels = new TreeSet<>(ranges.keySet());
+        channels.addAll(r.channels());
+        Timing[] t = new Timing[1];
+        armAndWait(m.command() + r.command(), 2 + r.channels().size(), channels, replies -> {
+            t[0] = acceptTiming(m, replies.get(0), replies.get(1));
+            acceptRanges(r, replies.subList(2, replies.size()), granted);
+        });
+        return t[0];
     }
 
     /** The range settings and read-back queries of the channels whose request changed, each after a ';'. */
@@ -360,20 +335,80 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
 
     @Override
     public void acquire() {
+        armAndWait("", 0, ranges.keySet(), replies -> { });
+    }
+
+    /**
+     * The scaling queries of {@code channels} whose scaling the instrument gives and is not known
+     * yet, to go after a completion in the same message, and how many replies they take.
+     */
+    private record ScaleAsk(List<Integer> channels, List<String> queries, int perChannel) {
+        String suffix() {
+            return queries.isEmpty() ? "" : ";" + String.join(";", queries);
+        }
+    }
+
+    private ScaleAsk scaleAsk(java.util.Collection<Integer> candidates, boolean voided) {
+        List<Integer> channels = candidates.stream().filter(c -> voided || !scales.containsKey(c)).sorted().toList();
+        List<String> queries = new ArrayList<>();
+        int per;
+        switch (traits.scaling().source()) {
+            case SCALE_QUERY, REPLY_FIELDS -> {
+                per = 1;
+                channels.forEach(ch -> queries.add(driver.command("scale_query").render(channel(ch))));
+            }
+            case QUERIES -> {
+                Map<String, CommandTemplate> q = traits.scaling().queries();
+                List<String> names = q.keySet().stream().sorted().toList();
+                per = names.size();
+                channels.forEach(ch -> names.forEach(n -> queries.add(q.get(n).render(channel(ch)))));
+            }
+            default -> {
+                return new ScaleAsk(List.of(), List.of(), 0);
+            }
+        }
+        return new ScaleAsk(channels, queries, per);
+    }
+
+    /** Keeps the scaling replies of {@code ask}, in its order. */
+    private void takeScales(ScaleAsk ask, String message, List<String> replies) {
+        for (int i = 0; i < ask.channels().size(); i++) {
+            List<String> mine = replies.subList(i * ask.perChannel(), (i + 1) * ask.perChannel());
+            if (traits.scaling().source() == DigitizerTraits.ScaleSource.QUERIES) {
+                List<String> names = traits.scaling().queries().keySet().stream().sorted().toList();
+                Map<String, Double> v = new HashMap<>();
+                for (int k = 0; k < names.size(); k++) {
+                    v.put(names.get(k), number(ask.queries().get(i * ask.perChannel() + k), mine.get(k).trim()));
+                }
+                scales.put(ask.channels().get(i), scaleFrom(v, message));
+            } else {
+                scales.put(ask.channels().get(i), parseScale(message, mine.get(0).trim()));
+            }
+        }
+    }
+
+    /**
+     * Sends {@code settings} (possibly empty; {@code settingsReplies} replies of its own, given to
+     * {@code settled} before the scaling is taken), arms, and waits as the driver declares: *OPC? in
+     * the same message; polling, the first poll in the same message; or the fixed wait. The scaling of
+     * {@code channels} the instrument gives goes after *OPC? or after each poll (kept from the poll
+     * that finds the record complete: the instrument answers its queries in order).
+     */
+    private void armAndWait(String settings, int settingsReplies, java.util.Collection<Integer> channels,
+                            java.util.function.Consumer<List<String>> settled) {
         String arm = driver.command("acquire").render(Map.of());
+        String head = settings.isEmpty() ? arm : settings + ";" + arm;
         DigitizerTraits.Acquisition a = traits.acquisition();
+        boolean voided = settingsReplies > 0;
         switch (a.complete()) {
             case OPC -> {
                 // arm and wait in one message: *OPC? answers once the record is complete; the scaling
                 // the fetches will need is asked in the same message (one round trip, not two)
-                List<Integer> unscaled = scaleQueryChannels();
-                StringBuilder message = new StringBuilder(arm).append(";*OPC?");
-                for (int ch : unscaled) {
-                    message.append(';').append(driver.command("scale_query").render(channel(ch)));
-                }
+                ScaleAsk ask = scaleAsk(channels, voided);
+                String message = head + ";*OPC?" + ask.suffix();
                 List<String> replies;
                 try {
-                    replies = session.configure(message.toString(), driver.errorQuery());
+                    replies = session.configure(message, driver.errorQuery());
                 } catch (InstrumentException e) {
                     if (!timedOut(e)) {
                         throw e;
@@ -384,42 +419,52 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                             + " ..., until: ...} in its driver, one without *OPC? complete: wait; a record longer than"
                             + " the timeout needs a longer timeout", e);
                 }
-                if (replies.size() != 1 + unscaled.size()) {
-                    throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
-                            + " replies; expected " + (1 + unscaled.size()));
-                }
-                String opc = replies.get(0).trim();
+                expectReplies(message, replies, settingsReplies + 1 + ask.queries().size());
+                settled.accept(replies.subList(0, settingsReplies));
+                String opc = replies.get(settingsReplies).trim();
                 if (!opc.equals("1") && !opc.equals("+1")) {
                     throw new InstrumentException(session.instrument() + ": *OPC? after acquiring answered '" + opc + "'");
                 }
-                for (int i = 0; i < unscaled.size(); i++) {
-                    scales.put(unscaled.get(i), parseScale(message.toString(), replies.get(1 + i).trim()));
-                }
+                takeScales(ask, message, replies.subList(settingsReplies + 1, replies.size()));
             }
             case WAIT -> {
-                session.configure(arm, driver.errorQuery());
+                List<String> replies = session.configure(head, driver.errorQuery());
+                expectReplies(head, replies, settingsReplies);
+                settled.accept(replies);
                 pause(a.pause().toNanos());
             }
             case POLL -> {
                 // arming and the first poll in one message (with the error query: one round trip)
-                List<String> first = session.configure(arm + ";" + a.pollQuery(), driver.errorQuery());
-                String last = first.isEmpty() ? "" : first.get(first.size() - 1).trim();
-                if (last.equalsIgnoreCase(a.until())) {
-                    return;
-                }
-                pause(a.pause().toNanos());
+                ScaleAsk ask = scaleAsk(channels, voided);
+                String message = head + ";" + a.pollQuery() + ask.suffix();
+                List<String> first = session.configure(message, driver.errorQuery());
+                expectReplies(message, first, settingsReplies + 1 + ask.queries().size());
+                settled.accept(first.subList(0, settingsReplies));
+                String last = first.get(settingsReplies).trim();
+                List<String> scaling = first.subList(settingsReplies + 1, first.size());
                 long deadline = System.nanoTime() + driver.timeout().toNanos();
-                do {
-                    last = session.query(a.pollQuery()).trim();
-                    if (last.equalsIgnoreCase(a.until())) {
-                        return;
+                while (!last.equalsIgnoreCase(a.until())) {
+                    if (System.nanoTime() >= deadline) {
+                        throw new InstrumentException(session.instrument() + ": the acquisition did not complete: '"
+                                + a.pollQuery() + "' still answered '" + last + "' (waiting for '" + a.until() + "') after "
+                                + driver.timeout().toMillis() + " ms");
                     }
                     pause(a.pause().toNanos());
-                } while (System.nanoTime() < deadline);
-                throw new InstrumentException(session.instrument() + ": the acquisition did not complete: '" + a.pollQuery()
-                        + "' still answered '" + last + "' (waiting for '" + a.until() + "') after "
-                        + driver.timeout().toMillis() + " ms");
+                    String poll = a.pollQuery() + ask.suffix();
+                    List<String> replies = ScpiReplies.split(session.query(poll));
+                    expectReplies(poll, replies, 1 + ask.queries().size());
+                    last = replies.get(0).trim();
+                    scaling = replies.subList(1, replies.size());
+                }
+                takeScales(ask, message, scaling);
             }
+        }
+    }
+
+    private void expectReplies(String message, List<String> replies, int expected) {
+        if (replies.size() != expected) {
+            throw new InstrumentException(session.instrument() + ": '" + message + "' answered " + replies.size()
+                    + " replies; expected " + expected);
         }
     }
 
@@ -555,14 +600,6 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
             throw new IllegalStateException("the time base was never set");
         }
         return interval;
-    }
-
-    /** The ranged channels whose scaling must be asked with a scale query and is not known yet. */
-    private List<Integer> scaleQueryChannels() {
-        if (traits.scaling().source() != DigitizerTraits.ScaleSource.SCALE_QUERY) {
-            return List.of();
-        }
-        return ranges.keySet().stream().filter(c -> !scales.containsKey(c)).sorted().toList();
     }
 
     /** Asks the scaling of this channel and of every other ranged channel lacking it, in one message. */

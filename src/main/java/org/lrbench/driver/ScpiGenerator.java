@@ -13,6 +13,9 @@ import org.lrbench.scpi.ScpiSession;
 /** A generator that speaks SCPI through a source driver file. */
 public final class ScpiGenerator extends DrivenInstrument implements Generator {
 
+    /** The session's message count just after a confirmed output-off; -1 before the first. */
+    private volatile long offAfter = -1;
+
     public ScpiGenerator(ScpiSession session, DriverFile driver) {
         super(session, driver);
     }
@@ -128,8 +131,19 @@ public final class ScpiGenerator extends DrivenInstrument implements Generator {
         configure("output_on", Map.of());
     }
 
+    /**
+     * Switches the output off, unless the last message this session sent was an output-off the
+     * instrument confirmed without error: then it is off already (any message since, whatever it
+     * was, makes the next call send it again).
+     */
     @Override
     public void outputOff() {
+        if (!batching() && offAfter == session.messages()) {
+            return;
+        }
         configure("output_off", Map.of());
+        if (!batching()) {
+            offAfter = session.messages();
+        }
     }
 }

@@ -9,4 +9,10 @@ public interface Multimeter {
 
     /** The resistance in ohm; 4-wire leaves the test leads out of the reading. */
     double resistance(boolean fourWire);
+
+    /**
+     * The driver's preparation and one resistance reading in one message (one round trip where
+     * {@link #prepare()} and {@link #resistance(boolean)} take two), any error they caused named.
+     */
+    double preparedResistance(boolean fourWire);
 }

@@ -38,17 +38,6 @@ public final class RangeMemory {
         return p.equals(plan) && multisinePeaks != null ? multisinePeaks.clone() : null;
     }
 
-    /** How long the last time base sent in a message of its own took, seconds (0: none yet). */
-    private double timeBaseSecond;
-
-    synchronized double timeBaseSecond() {
-        return timeBaseSecond;
-    }
-
-    synchronized void rememberTimeBaseSecond(double seconds) {
-        timeBaseSecond = seconds;
-    }
-
     /** Whether this time base was granted as asked before: it may then go with the acquisition. */
     synchronized boolean grantedAsAsked(TimeBase.Request r) {
         return grantedAsAsked.contains(r);

@@ -129,9 +129,9 @@ public final class PartRun {
                 noMeter = true;
             } else {
                 try {
-                    instruments.multimeter().prepare();
                     identities.put("meter", instruments.multimeter().identity().toString());
-                    dcOhm = instruments.multimeter().resistance(plan.dcResistance().fourWire());
+                    // its preparation and the reading in one message
+                    dcOhm = instruments.multimeter().preparedResistance(plan.dcResistance().fourWire());
                 } catch (InstrumentException e) {
                     error = e.getMessage();
                 }

@@ -43,6 +43,7 @@ public final class ScpiSession implements AutoCloseable {
     private int limit;
     private boolean stale;
     private long queries;
+    private long messages;
     private long ioNanos;
     /** When the reply being read must be complete (System.nanoTime): the whole reply has one deadline. */
     private long deadline;
@@ -76,6 +77,11 @@ public final class ScpiSession implements AutoCloseable {
         return instrument;
     }
 
+    /** How many program messages this session has sent, queries or not. */
+    public synchronized long messages() {
+        return messages;
+    }
+
     /** How many queries this session has sent (each one a round trip to the instrument). */
     public synchronized long queries() {
         return queries;
@@ -89,6 +95,7 @@ public final class ScpiSession implements AutoCloseable {
     /** Sends one program message; the text must not carry its own terminator. */
     public synchronized void write(String command) {
         requireSingleMessage(command);
+        messages++;
         if (stale) {
             flushLateReplies();
             stale = false;

@@ -6,7 +6,8 @@ package org.lrbench.sim;
  * request rounded to the nearest step, the step in force read back) under {@code LANE<n>}; the
  * sample spacing (or the time per division, the instrument then choosing the spacing) and a record
  * length from a list (a request rounded up) under {@code TIMing}; an edge trigger under
- * {@code STARt}; a single capture that completes with {@code *OPC?}; the scaling as a seven-field
+ * {@code STARt}; a single capture that completes with {@code *OPC?} (or is polled with
+ * {@code CAPTure:STATe?}: BUSY, then READY); the scaling as a seven-field
  * reply (or one query per field) and signed 8-bit codes under {@code TRANsfer}.
  */
 final class PerDivisionDialect {
@@ -19,6 +20,8 @@ final class PerDivisionDialect {
     private final SimDigitizer d;
     /** The time per division last set (0: the spacing was set instead). */
     private double timePerDivision;
+    /** Set by a capture: the first state query after it still finds it busy. */
+    private boolean busy;
 
     private PerDivisionDialect(SimDigitizer d) {
         this.d = d;
@@ -35,7 +38,10 @@ final class PerDivisionDialect {
     }
 
     private void register() {
-        d.onReset(() -> timePerDivision = 0);
+        d.onReset(() -> {
+            timePerDivision = 0;
+            busy = false;
+        });
         d.on("LANE#:DIVision", false, c -> {
             c.expect(1, 1);
             double perDiv = c.number(0, 1e-6, 1e3, 1);
@@ -114,7 +120,17 @@ final class PerDivisionDialect {
         d.on("CAPTure:SINGle", false, c -> {
             c.expect(0, 0);
             d.acquire();
+            busy = true;
             return null;
+        });
+        // the first state query after a capture still finds it busy
+        d.on("CAPTure:STATe", true, c -> {
+            c.expect(0, 0);
+            if (busy) {
+                busy = false;
+                return "BUSY";
+            }
+            return "READY";
         });
         d.on("TRANsfer:XSTep", true, c -> SimDigitizer.nr3(d.interval));
         d.on("TRANsfer:YSTep", true, c -> SimDigitizer.nr3(d.range[d.channelParameter(c)] / 256));

@@ -43,4 +43,28 @@ class ThroughputBenchmarkTests {
                     .isLessThan(none.expanded().get(limit));
         }
     }
+
+    /**
+     * Round trips of a whole part (sweep, triangle, meter) per sweep point, on every digitizer
+     * dialect the simulator speaks: at most 5 on ours, at most 8 on a digitizer that needs polling or
+     * a scale reply per channel (the project's goals; counted, not timed, so the machine's load does
+     * not enter).
+     */
+    @Test
+    void aWholePartTakesFewRoundTripsAPointOnEveryDialect() throws Exception {
+        BenchConfig bench = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
+        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), bench.maxAmplitudeVolt());
+        PartModel part = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+        java.util.List<BenchConfig> dialects = new java.util.ArrayList<>();
+        for (String name : java.util.List.of("bench.yaml", "bench-pm12.yaml", "bench-div8.yaml", "bench-div8-polled.yaml")) {
+            dialects.add(BenchLoader.load(HOME.resolve("simulator").resolve(name)));
+        }
+        var text = new java.io.ByteArrayOutputStream();
+        int misses = ThroughputBenchmark.dialects(new java.io.PrintStream(text, true, java.nio.charset.StandardCharsets.UTF_8),
+                dialects, plan, HOME.resolve("drivers"), part);
+        String table = text.toString(java.nio.charset.StandardCharsets.UTF_8);
+        assertThat(table).contains("generic-digitizer").contains("sim-pm12-digitizer").contains("sim-div8-digitizer")
+                .contains("sim-div8-polled-digitizer");
+        assertThat(misses).as(table).isZero();
+    }
 }

@@ -34,6 +34,40 @@ class BatchTests {
         })).isInstanceOf(InstrumentException.class).hasMessageContaining("-222");
     }
 
+    /**
+     * An output-off the generator confirmed is not sent again while nothing else has been sent (the
+     * end of a part and the guard on its way out take one message, not two); any message since,
+     * whatever it was, makes the next one go out.
+     */
+    @Test
+    void aConfirmedOutputOffIsNotSentAgainUntilAnotherMessageIs() throws Exception {
+        TestBench b = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());
+        b.generator.prepare();
+        b.generator.outputOn();
+        assertThat(b.sim.generator().isOutputOn()).isTrue();
+        long before = b.generatorSession.queries();
+        b.generator.outputOff();
+        b.generator.outputOff();
+        assertThat(b.generatorSession.queries() - before).isEqualTo(1);
+        assertThat(b.sim.generator().isOutputOn()).isFalse();
+        // a query in between (nothing that switches it on) still counts as a message since
+        b.generatorSession.query("*IDN?");
+        long again = b.generatorSession.queries();
+        b.generator.outputOff();
+        assertThat(b.generatorSession.queries() - again).isEqualTo(1);
+        b.generator.outputOn();
+        b.generator.outputOff();
+        assertThat(b.sim.generator().isOutputOn()).isFalse();
+        // inside a batch the off goes with the batch and is not taken as confirmed on its own
+        b.generator.batch(() -> {
+            b.generator.outputOff();
+            b.generator.outputOn();
+        });
+        assertThat(b.sim.generator().isOutputOn()).isTrue();
+        b.generator.outputOff();
+        assertThat(b.sim.generator().isOutputOn()).isFalse();
+    }
+
     @Test
     void rangeLimitsAreAskedOnceInOneMessage() throws Exception {
         TestBench b = new TestBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0), TestBench.genericDigitizer());

@@ -49,7 +49,8 @@ class PersonalityTests {
         try (Stream<Path> files = Files.list(HOME.resolve("plans"))) {
             plans = files.filter(f -> f.toString().endsWith(".yaml")).sorted().toList();
         }
-        return Stream.of("simulator/bench.yaml", "simulator/bench-pm12.yaml", "simulator/bench-div8.yaml")
+        return Stream.of("simulator/bench.yaml", "simulator/bench-pm12.yaml", "simulator/bench-div8.yaml",
+                "simulator/bench-div8-polled.yaml")
                 .flatMap(b -> plans.stream().map(p -> Arguments.of(b, p.getFileName().toString())));
     }
 

@@ -5,6 +5,8 @@ import static org.assertj.core.api.Assertions.within;
 
 import java.util.List;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
 import org.lrbench.analysis.SeriesModel;
 import org.lrbench.analysis.SeriesModelFit;
 import org.lrbench.plan.Plan;
@@ -60,15 +62,17 @@ class RangeMemoryTests {
     }
 
     /**
-     * With a settle already over when a point is captured (the circuit rule's microseconds), a
-     * part after the first sends each point's time base in its acquisition's message: two round
-     * trips to the digitizer per point (acquire, both channels' traces in one message) where the first
-     * part takes three, and
-     * the same L (common practice, no source: 0.5 % as above).
+     * A part after the first sends each point's time base in its acquisition's message, whether the
+     * settle is over when the point is captured (the circuit rule's microseconds) or still running
+     * (the plan's fixed 1 ms): two round trips to the digitizer per point (acquire, both channels'
+     * traces in one message) where the first part takes three, and the same L (common practice, no
+     * source: 0.5 % as above).
      */
-    @Test
-    void aTimeBaseGrantedAsAskedBeforeGoesWithTheAcquisition() throws Exception {
-        Plan plan = PlanLoader.parse(PLAN.replace("settle: 1 ms", "settle: 0 s"), "t.yaml", 5.0);
+    @ParameterizedTest
+    @ValueSource(strings = {"0 s", "1 ms"})
+    void aTimeBaseGrantedAsAskedBeforeGoesWithTheAcquisition(String settle) throws Exception {
+        assertThat(PLAN).contains("settle: 1 ms");
+        Plan plan = PlanLoader.parse(PLAN.replace("settle: 1 ms", "settle: " + settle), "t.yaml", 5.0);
         SimBench sim = new SimBench(SimSettings.defaults().withSeed(12), 100, new PartModel(1e-3, 2.3, 0));
         TestBench bench = new TestBench(sim, TestBench.genericDigitizer());
         RangeMemory memory = new RangeMemory();

@@ -31,4 +31,37 @@ class MultimeterTests {
         assertThat(four).isCloseTo(2.3, within(1e-9));
         assertThat(two - four).isCloseTo(2 * 0.05, within(1e-9));
     }
+
+    /**
+     * The driver's preparation and the reading in one message: one round trip, the same reading as
+     * prepare-then-measure, and an error the preparation causes named (SCPI-1999 -113, undefined
+     * header, for a command the meter does not know).
+     */
+    @Test
+    void thePreparationAndTheReadingGoInOneMessage() throws Exception {
+        SimBench bench = new SimBench(SimSettings.defaults(), 100, new PartModel(1e-3, 2.3, 0));
+        var driver = DriverLoader.read(TestBench.home().resolve("drivers/generic-dmm.yaml"), "generic-dmm",
+                DriverKind.METER, new Problems("generic-dmm.yaml"));
+        ScpiSession session = new ScpiSession("meter", new InProcessTransport("sim://meter", bench.meter()),
+                Duration.ofSeconds(1));
+        ScpiMultimeter m = new ScpiMultimeter(session, driver);
+        m.identity();
+        long before = session.queries();
+        double together = m.preparedResistance(true);
+        assertThat(session.queries() - before).isEqualTo(1);
+        m.prepare();
+        assertThat(together).isEqualTo(m.resistance(true));
+
+        String yaml = java.nio.file.Files.readString(TestBench.home().resolve("drivers/generic-dmm.yaml"))
+                .replace("prepare: \"*RST;*CLS\"", "prepare: \"*RST;*CLS;:SENSe:NOTHing 1\"");
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("dmm");
+        java.nio.file.Path file = dir.resolve("broken-dmm.yaml");
+        java.nio.file.Files.writeString(file, yaml);
+        var broken = DriverLoader.read(file, "broken-dmm", DriverKind.METER, new Problems("broken-dmm.yaml"));
+        ScpiMultimeter b = new ScpiMultimeter(new ScpiSession("meter", new InProcessTransport("sim://meter",
+                bench.meter()), Duration.ofSeconds(1)), broken);
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> b.preparedResistance(true))
+                .isInstanceOf(org.lrbench.instrument.InstrumentException.class)
+                .hasMessageContaining("NOTHing").hasMessageContaining("-113");
+    }
 }
