@@ -67,4 +67,17 @@ class ThroughputBenchmarkTests {
                 .contains("sim-div8-polled-digitizer");
         assertThat(misses).as(table).isZero();
     }
+
+    /** The benchmark's loading process runs while it measures and is gone once closed. */
+    @Test
+    void theSecondProcessLoadsUntilClosed() throws Exception {
+        CoreLoad load = CoreLoad.start();
+        try {
+            Thread.sleep(300);
+            assertThat(load.running()).isTrue();
+        } finally {
+            load.close();
+        }
+        assertThat(load.running()).isFalse();
+    }
 }
