@@ -368,12 +368,14 @@ public final class ThroughputBenchmark {
         double seconds = (System.nanoTime() - t0) / 1e9;
         double minimum = 0;
         if (plan.sweep().multisine() && !points.isEmpty()) {
-            // one capture, after loading the waveform (nine characters a point in ASCII)
+            // one capture, after loading the waveform as the source driver sends it (nine characters a
+            // point in ASCII, two bytes a point in a definite block)
             PointResult p = points.get(0);
             int waveform = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
                     inst.generator().maxArbitrarySamples()).samples().length;
+            boolean ascii = loader.load(b.generator().driver(), DriverKind.SOURCE).arbitraryEncoding().equals("ascii");
             minimum += settle(plan, null) + capture(timing, p.samples(), p.sampleIntervalSecond(), bytesPerSample)
-                    + timing.transfer(9L * waveform) + timing.messageSecond();
+                    + timing.transfer((ascii ? 9L : 2L) * waveform) + timing.messageSecond();
         }
         for (int i = 0; i < (plan.sweep().multisine() ? 0 : points.size()); i++) {
             PointResult p = points.get(i);
