@@ -41,12 +41,13 @@ public record DigitizerTraits(Vertical vertical, Scaling scaling, Timebase timeb
      * @param divisions the screen's vertical divisions, for {@code per_division}
      * @param ranges    the instrument's ranges in its own unit, ascending; empty when its limits are queried
      * @param rounding  how the instrument rounds a requested range to one of its own (null: not declared)
+     * @param noiseVolt the input noise, RMS volts, the manual's figure (null: not declared)
      */
     public record Vertical(VerticalSetting setting, int divisions, List<Double> ranges,
-                           org.lrbench.instrument.RangeLimits.Rounding rounding) {
+                           org.lrbench.instrument.RangeLimits.Rounding rounding, Double noiseVolt) {
 
         public Vertical(VerticalSetting setting, int divisions, List<Double> ranges) {
-            this(setting, divisions, ranges, null);
+            this(setting, divisions, ranges, null, null);
         }
 
         /** Instrument value per volt of full-scale peak-to-peak range. */

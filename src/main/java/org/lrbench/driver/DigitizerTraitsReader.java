@@ -22,7 +22,7 @@ final class DigitizerTraitsReader {
     static DigitizerTraits read(YamlMap root, TraceEncoding encoding) {
         DigitizerTraits g = DigitizerTraits.GENERIC;
         DigitizerTraits.Vertical vertical = g.vertical();
-        YamlMap v = root.map("vertical", false, "setting", "divisions", "ranges", "rounding");
+        YamlMap v = root.map("vertical", false, "setting", "divisions", "ranges", "rounding", "noise");
         if (v != null) {
             DigitizerTraits.VerticalSetting setting = v.has("setting") ? v.choice("setting", true, Map.of(
                     "peak_to_peak", DigitizerTraits.VerticalSetting.PEAK_TO_PEAK,
@@ -46,8 +46,12 @@ final class DigitizerTraitsReader {
             RangeLimits.Rounding rounding = v.has("rounding") ? v.choice("rounding", true, Map.of(
                     "up", RangeLimits.Rounding.UP, "down", RangeLimits.Rounding.DOWN,
                     "nearest", RangeLimits.Rounding.NEAREST)) : null;
+            Double noise = v.quantity("noise", Dimension.VOLTAGE, false);
+            if (noise != null && !(noise > 0 && noise < 1)) {
+                v.problem("noise", "the input noise (RMS) must be above 0 V and below 1 V");
+            }
             vertical = new DigitizerTraits.Vertical(setting == null ? DigitizerTraits.VerticalSetting.PEAK_TO_PEAK : setting,
-                    divisions == null ? 1 : divisions, List.copyOf(ranges), rounding);
+                    divisions == null ? 1 : divisions, List.copyOf(ranges), rounding, noise);
         }
         DigitizerTraits.Scaling scaling = g.scaling();
         YamlMap s = root.map("scaling", false, "source", "fields", "queries", "zero_code", "full_scale_codes", "clip_codes");

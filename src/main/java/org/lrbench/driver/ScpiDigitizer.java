@@ -90,6 +90,24 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     @Override
+    public double inputNoiseVolt() {
+        Double declared = traits.vertical().noiseVolt();
+        return declared == null ? Digitizer.super.inputNoiseVolt() : declared;
+    }
+
+    @Override
+    public int maxRecordLength() {
+        Integer declared = driver.limits().maxRecordLength();
+        return declared == null ? Digitizer.super.maxRecordLength() : declared;
+    }
+
+    @Override
+    public double minIntervalSecond() {
+        Double declared = driver.limits().minIntervalSecond();
+        return declared == null ? Digitizer.super.minIntervalSecond() : declared;
+    }
+
+    @Override
     public double setRange(int channel, double peakToPeakVolt) {
         Double requested = requestedRanges.get(channel);
         if (requested != null && requested == peakToPeakVolt && ranges.containsKey(channel)) {

@@ -35,6 +35,24 @@ public interface Digitizer {
 
     void setCoupling(int channel, Coupling coupling);
 
+    /**
+     * The longest record this digitizer takes, samples per channel; where its driver declares none,
+     * 100000, a record most bench digitizers offer (common practice, no source).
+     */
+    default int maxRecordLength() {
+        return 100_000;
+    }
+
+    /** The shortest sample interval, seconds; where its driver declares none, 1 us (common practice, no source). */
+    default double minIntervalSecond() {
+        return 1e-6;
+    }
+
+    /** The input noise, RMS volts, as the instrument's manual states it; NaN where it is not declared. */
+    default double inputNoiseVolt() {
+        return Double.NaN;
+    }
+
     /** Sets sample interval and record length; returns the time base in effect. */
     Timing setTiming(double sampleIntervalSecond, int points);
 

@@ -39,6 +39,7 @@ public final class AutoRanger {
     static final double HIGH_FILL = 0.9;
     static final double TARGET_FILL = 0.75;
     static final int MAX_ACQUISITIONS = 10;
+    private Trace[] probed;
     private static final double SAME = 1e-9;
 
     private final Digitizer digitizer;
@@ -312,12 +313,23 @@ public final class AutoRanger {
         double[] granted = {0, set(1), set(2)};
         digitizer.acquire();
         Trace[] both = digitizer.fetchBoth();
+        probed = both;
         for (int ch = 1; ch <= 2; ch++) {
             Trace t = both[ch - 1];
             boolean clipped = t.clippedSamples() > 0 || t.excursion() >= granted[ch] / 2 * (1 - SAME);
             request[ch] = clamp(ch, clipped ? granted[ch] * 10 : 2 * t.excursion() / TARGET_FILL);
         }
         return 1;
+    }
+
+    /** Both channels' traces of the last {@link #probe}, or null before one. */
+    Trace[] probed() {
+        return probed;
+    }
+
+    /** The channel's smallest range, peak-to-peak volts. */
+    double minRange(int ch) {
+        return limits[ch].minVolt();
     }
 
     /** Starts the next capture at ranges that put these peak voltages at the target fill. */

@@ -26,7 +26,8 @@ import org.lrbench.plan.SineSweep;
 /**
  * The sweep as one multisine: every frequency on a bin of a common period
  * ({@link MultisineDesign}), loaded once into the generator's arbitrary-waveform memory at the
- * plan's amplitude as its peak, ranged on one period at a coarse rate, then captured once and fitted
+ * plan's amplitude as its peak, ranged on one period at a coarse rate, its record's samples sized
+ * from that probe for the stepped sweep's certainty ({@link MultisineRecord}), then captured once and fitted
  * at all tones together ({@link MultisineFit}). Each tone becomes a sweep point with the fit's own
  * covariance. Bins that carry no tone, at the second and third harmonics of each tone, are fitted
  * too: what a non-linear core puts there is each point's distortion figure.
@@ -66,8 +67,8 @@ public final class MultisineCapture {
     }
 
     /**
-     * Samples per common period of the capture: the plan's samples per cycle of the lowest tone (so
-     * the record holds as many samples as the stepped sweep's first point), raised to
+     * Samples per common period before {@link MultisineRecord} sizes the record for the stepped
+     * sweep's certainty: the plan's samples per cycle of the lowest tone, raised to
      * {@value MultisineDesign#MIN_CAPTURE_SAMPLES_PER_TOP_CYCLE} per cycle of the highest, which keeps
      * the highest tone's third harmonic below half the sample rate.
      */
@@ -86,23 +87,29 @@ public final class MultisineCapture {
         long on = clock.nanoTime();
         double[] known = memory == null ? null : memory.multisinePeaks(plan);
         int ranging = 0;
+        int perPeriod;
         if (known != null) {
-            // ranges from the part before on instruments kept open: no probe
+            // ranges and the record's samples from the part before on instruments kept open: no probe
             ranger.expect(known[0], known[1]);
+            perPeriod = (int) known[2];
         } else {
             TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), 1, RANGING_SAMPLES_PER_TOP_CYCLE * top(d));
             ranging = ranger.probe();
+            perPeriod = MultisineRecord.samplesPerPeriod(sweep, d, ranger.probed(),
+                    new double[] {ranger.range(1), ranger.range(2)}, new double[] {ranger.minRange(1), ranger.minRange(2)},
+                    digitizer.inputNoiseVolt(), samplesPerPeriod(sweep, d), periods(sweep, d), digitizer.maxRecordLength(),
+                    digitizer.minIntervalSecond());
         }
         double left = settleSecond - (clock.nanoTime() - on) / 1e9;
         if (left > 0) {
             clock.sleep(left);
         }
         // the record's time base and the ranges in one message
-        Timing timing = TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), periods(sweep, d), samplesPerPeriod(sweep, d));
+        Timing timing = TimeBase.setWithRanges(digitizer, ranger, d.baseHz(), periods(sweep, d), perPeriod);
         AutoRanger.Capture capture = ranger.acquire();
         if (memory != null) {
             memory.rememberMultisine(plan, new double[] {SweepRunner.peak(capture.sense().volts()),
-                SweepRunner.peak(capture.part().volts())});
+                SweepRunner.peak(capture.part().volts()), perPeriod});
         }
         double[][] v = SweepRunner.volts(plan, capture);
         double dt = capture.sense().intervalSecond();

@@ -33,7 +33,7 @@ public final class RangeMemory {
         return p.equals(plan) && trianglePeaks != null ? trianglePeaks.clone() : null;
     }
 
-    /** The previous part's multisine record peaks (channel volts) under this plan, or null. */
+    /** The previous part's multisine record peaks (channel volts) and its samples per period under this plan, or null. */
     synchronized double[] multisinePeaks(Plan p) {
         return p.equals(plan) && multisinePeaks != null ? multisinePeaks.clone() : null;
     }

@@ -240,8 +240,12 @@ public final class CalibrationRun {
                                                  List<PointResult> matched) {
         PointResult most = matched.stream().max(java.util.Comparator.comparingDouble(p -> p.senseFit().amplitude()))
                 .orElseThrow();
+        // the links are read with a sine: at the plan's amplitude it has the whole peak, where each
+        // tone of a multisine has its share of it
+        double share = plan.sweep().multisine() ? org.lrbench.analysis.MultisineDesign.of(plan.sweep().frequenciesHz(),
+                plan.sweep().multisineTolerance(), inst.generator().maxArbitrarySamples()).toneAmplitude() : 1;
         return RangeLinkCapture.measure(plan, inst.generator(), inst.digitizer(), clock,
-                most.impedance().frequencyHz(), most.senseFit().amplitude());
+                most.impedance().frequencyHz(), most.senseFit().amplitude() / share);
     }
 
     private static List<PointResult> sweep(Plan plan, BenchInstruments inst, FixtureChange change,

@@ -23,20 +23,22 @@ import org.lrbench.results.ResultFiles;
  * Every trace behind a part's verdict, in one file of our own format ({@code .lrtraces}):
  * <pre>
  *   4 bytes   "LRTA"
- *   2 bytes   format version, big-endian (1)
+ *   2 bytes   format version, big-endian (2; version 1 is read as well)
  *   4 bytes   length N of the header, big-endian
  *   N bytes   header, UTF-8 JSON: lot, serial, part number, sense resistor, the fixture's wiring (low
  *             side or not, each probe's attenuation; absent in older archives), instrument identities,
  *             and per point its frequency, sample interval, start time, and per channel its range,
- *             offset and sample count
- *   then      per point, channel 1 then channel 2: the samples in volts, IEEE 754 float64, big-endian
+ *             offset and sample count; {@code "shared_capture": true} (version 2) where every point is a
+ *             tone of one multisine capture
+ *   then      per point, channel 1 then channel 2: the samples in volts, IEEE 754 float64, big-endian;
+ *             with a shared capture its samples once (version 1 wrote them again for every point)
  *   4 bytes   CRC-32 of everything before it
  * </pre>
  * Reading checks the magic, the version, the lengths and the CRC, and names what is wrong.
  */
 public final class TraceArchive {
     static final byte[] MAGIC = "LRTA".getBytes(StandardCharsets.US_ASCII);
-    static final int VERSION = 1;
+    static final int VERSION = 2;
 
     private TraceArchive() {
     }
@@ -66,6 +68,7 @@ public final class TraceArchive {
         // one capture behind every point: the sweep was one multisine, its tones fitted together
         boolean oneCapture = points.size() > 1 && points.stream().allMatch(p -> p.senseTrace() == points.get(0).senseTrace());
         h.put("excitation", oneCapture ? "multisine" : "stepped");
+        h.put("shared_capture", oneCapture);
         ArrayNode pts = h.putArray("points");
         for (PointResult p : points) {
             ObjectNode o = pts.addObject();
@@ -82,7 +85,7 @@ public final class TraceArchive {
         out.writeShort(VERSION);
         out.writeInt(header.length);
         out.write(header);
-        for (PointResult p : points) {
+        for (PointResult p : oneCapture ? points.subList(0, 1) : points) {
             for (double v : p.senseTrace().volts()) {
                 out.writeDouble(v);
             }
@@ -117,8 +120,8 @@ public final class TraceArchive {
         }
         b.position(4);
         int version = b.getShort();
-        if (version != VERSION) {
-            throw new IOException(where + ": archive format version " + version + "; this lrbench reads " + VERSION);
+        if (version < 1 || version > VERSION) {
+            throw new IOException(where + ": archive format version " + version + "; this lrbench reads 1 to " + VERSION);
         }
         int n = b.getInt();
         if (n < 0 || n > all.length - 14) {
@@ -127,9 +130,20 @@ public final class TraceArchive {
         JsonNode header = ResultFiles.JSON.readTree(new String(all, 10, n, StandardCharsets.UTF_8));
         b.position(10 + n);
         List<Point> points = new ArrayList<>();
+        boolean shared = version >= 2 && header.path("shared_capture").asBoolean(false);
+        double[][] capture = null;
         for (JsonNode p : header.get("points")) {
-            double[] s = samples(b, p.get("sense").get("samples").asInt(), where);
-            double[] q = samples(b, p.get("part").get("samples").asInt(), where);
+            int ns = p.get("sense").get("samples").asInt();
+            int nq = p.get("part").get("samples").asInt();
+            if (capture != null && (ns != capture[0].length || nq != capture[1].length)) {
+                throw new IOException(where + ": a point of a shared capture names " + ns + " and " + nq
+                        + " samples; the capture has " + capture[0].length + " and " + capture[1].length);
+            }
+            double[] s = capture != null ? capture[0] : samples(b, ns, where);
+            double[] q = capture != null ? capture[1] : samples(b, nq, where);
+            if (shared) {
+                capture = new double[][] {s, q};
+            }
             points.add(new Point(p.get("frequency_hz").asDouble(), p.get("interval_s").asDouble(), p.get("start_s").asDouble(),
                     s, q, p.get("sense").get("range_v").asDouble(), p.get("part").get("range_v").asDouble()));
         }

@@ -80,4 +80,30 @@ class ThroughputBenchmarkTests {
         }
         assertThat(load.running()).isFalse();
     }
+
+    /**
+     * On the demo plan, each excitation on the bench calibrated for it, the multisine's record is
+     * sized for the stepped sweep's certainty: U (k = 2) of every limit within 1.5x the stepped
+     * sweep's (the project's goal; a speed figure counts only at an equal uncertainty), and the same
+     * verdict.
+     */
+    @Test
+    void theMultisineIsAsCertainAsTheSteppedSweepOnTheDemoPart() throws Exception {
+        BenchConfig bench = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
+        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), bench.maxAmplitudeVolt());
+        PartModel part = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+        Path drivers = HOME.resolve("drivers");
+        Plan stepped = plan.withSweep(plan.sweep().withMultisine(false));
+        Plan multi = plan.withSweep(plan.sweep().withMultisine(true));
+        ThroughputBenchmark.Figures a = ThroughputBenchmark.measure(bench, stepped, drivers, part, SimTiming.NONE, 1,
+                ThroughputBenchmark.calibrated(bench, stepped, drivers, part));
+        ThroughputBenchmark.Figures b = ThroughputBenchmark.measure(bench, multi, drivers, part, SimTiming.NONE, 1,
+                ThroughputBenchmark.calibrated(bench, multi, drivers, part));
+        assertThat(b.expanded()).containsOnlyKeys(a.expanded().keySet());
+        for (String limit : a.expanded().keySet()) {
+            assertThat(b.expanded().get(limit)).as("U(%s) of the multisine", limit)
+                    .isLessThanOrEqualTo(1.5 * a.expanded().get(limit));
+        }
+        assertThat(b.verdict()).isEqualTo(a.verdict());
+    }
 }

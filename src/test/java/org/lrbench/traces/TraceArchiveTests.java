@@ -156,7 +156,13 @@ public class TraceArchiveTests {
                 "--sim", home.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString(), "--runs", dir.toString(),
                 "--calibration", dir.resolve("none").toString());
         assertThat(code).isIn(0, 1);
-        assertThat(TraceArchive.read(dir.resolve("M/S.lrtraces")).header().get("excitation").asText()).isEqualTo("multisine");
+        TraceArchive.Contents archive = TraceArchive.read(dir.resolve("M/S.lrtraces"));
+        assertThat(archive.header().get("excitation").asText()).isEqualTo("multisine");
+        // the one capture is kept once, not once per tone: the file holds its two channels' samples and the header
+        int n = archive.points().get(0).sense().length + archive.points().get(0).part().length;
+        int header = archive.header().toString().getBytes(java.nio.charset.StandardCharsets.UTF_8).length;
+        assertThat(Files.size(dir.resolve("M/S.lrtraces"))).isLessThan(8L * n + 2L * header + 1000);
+        assertThat(archive.points()).allSatisfy(p -> assertThat(p.sense()).isSameAs(archive.points().get(0).sense()));
         String before = Files.readString(dir.resolve("M/S.json"));
         assertThat(Main.execute("analyze", "--archive", dir.resolve("M/S.lrtraces").toString(), "--calibration",
                 dir.resolve("none").toString())).isZero();
@@ -171,5 +177,30 @@ public class TraceArchiveTests {
             assertThat(points.get(i).get("inductance_h").asDouble()).isEqualTo(measured.get(i).get("inductance_h").asDouble());
             assertThat(points.get(i).get("resistance_ohm").asDouble()).isEqualTo(measured.get(i).get("resistance_ohm").asDouble());
         }
+    }
+
+    /** An archive of format version 1 (every point's samples written out) still reads, point by point. */
+    @Test
+    void aVersionOneArchiveStillReads(@TempDir Path dir) throws Exception {
+        List<PointResult> points = sweep();
+        byte[] v2 = TraceArchive.encode("L", "S", "T-1", 100, null, new ObjectMapper().createObjectNode(), points);
+        byte[] v1 = v2.clone();
+        v1[4] = 0;
+        v1[5] = 1;
+        java.util.zip.CRC32 crc = new java.util.zip.CRC32();
+        crc.update(v1, 0, v1.length - 4);
+        java.nio.ByteBuffer.wrap(v1).putInt(v1.length - 4, (int) crc.getValue());
+        Path f = dir.resolve("old.lrtraces");
+        Files.write(f, v1);
+        TraceArchive.Contents c = TraceArchive.read(f);
+        assertThat(c.points()).hasSize(2);
+        assertThat(c.points().get(1).part()).containsExactly(points.get(1).partTrace().volts());
+        byte[] v3 = v2.clone();
+        v3[5] = 3;
+        crc.reset();
+        crc.update(v3, 0, v3.length - 4);
+        java.nio.ByteBuffer.wrap(v3).putInt(v3.length - 4, (int) crc.getValue());
+        Files.write(f, v3);
+        assertThatThrownBy(() -> TraceArchive.read(f)).hasMessageContaining("version");
     }
 }
