@@ -61,6 +61,10 @@ class MultisineSweepTests {
         }
     }
 
+    private static double relative(org.lrbench.analysis.SineFitResult f) {
+        return Math.sqrt(f.componentVariance()) / f.amplitude();
+    }
+
     @Test
     void pointUncertaintyComesFromTheFitAndIsNearTheSteppedSweeps() throws Exception {
         TestBench a = new TestBench(SimSettings.defaults().withSeed(4), 100, new PartModel(1e-3, 2.3, 0),
@@ -72,15 +76,15 @@ class MultisineSweepTests {
         List<PointResult> stepped = new SweepRunner(b.generator, b.digitizer, BenchClock.NONE)
                 .run(plan("stepped"), SweepListener.NONE).points();
         for (int i = 0; i < 7; i++) {
-            double um = Math.sqrt(multi.get(i).partFit().componentVariance()) / multi.get(i).partFit().amplitude();
-            double us = Math.sqrt(stepped.get(i).partFit().componentVariance()) / stepped.get(i).partFit().amplitude();
+            // the impedance's relative uncertainty: both channels' phasors'
+            double um = Math.hypot(relative(multi.get(i).partFit()), relative(multi.get(i).senseFit()));
+            double us = Math.hypot(relative(stepped.get(i).partFit()), relative(stepped.get(i).senseFit()));
             // every tone shares channel 2's range, set by the highest tones where the inductor's voltage
-            // is largest: the low tones get less of the converter than a stepped point gets (measured
-            // here 4x to 11x at 200 Hz to 4.3 kHz, 1.0x at 20 kHz); the fit says so in its covariance
-            assertThat(um).as("point %d", i).isGreaterThan(us * 0.5).isLessThan(15 * us);
-            if (i == 6) {
-                assertThat(um).as("highest tone").isLessThan(1.5 * us);
-            }
+            // is largest: the low tones get less of the converter than a stepped point gets, and the
+            // record is made long enough (MultisineRecord) for each tone's phasor to be within 1.5x the
+            // point's by its estimate (measured here 0.5x to 1.9x: the estimate takes the stepped point
+            // at the ranger's target fill); the fit's covariance says how certain it is
+            assertThat(um).as("point %d", i).isGreaterThan(us * 0.1).isLessThan(2 * us);
         }
     }
 }
