@@ -13,6 +13,7 @@ import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.analysis.MultisineFit;
+import org.lrbench.analysis.MultisineQuantization;
 import org.lrbench.analysis.PhasorImpedance;
 import org.lrbench.analysis.Quantization;
 import org.lrbench.analysis.SineFitResult;
@@ -167,14 +168,22 @@ public final class MultisineCapture {
      */
     public static FixturePhasors.Result[] refit(double[] channel1, double[] channel2, double intervalSecond,
                                                 double[] tonesHz, double attenuation1, double attenuation2, boolean lowSide) {
-        double[] sense = new double[channel1.length];
-        double[] part = new double[channel2.length];
-        for (int i = 0; i < sense.length; i++) {
-            sense[i] = channel1[i] * attenuation1;
-            part[i] = channel2[i] * attenuation2 - (lowSide ? sense[i] : 0);
+        // each channel fitted as it came out of its quantizer, the repeatable quantization error taken off
+        SineFitResult[] raw1 = MultisineQuantization.corrected(channel1, intervalSecond, tonesHz,
+                MultisineFit.fit(channel1, intervalSecond, tonesHz));
+        SineFitResult[] raw2 = MultisineQuantization.corrected(channel2, intervalSecond, tonesHz,
+                MultisineFit.fit(channel2, intervalSecond, tonesHz));
+        SineFitResult[] s = new SineFitResult[tonesHz.length];
+        SineFitResult[] p = new SineFitResult[tonesHz.length];
+        for (int i = 0; i < tonesHz.length; i++) {
+            s[i] = raw1[i].scaled(attenuation1);
+            SineFitResult two = raw2[i].scaled(attenuation2);
+            // low side: channel 2 sees the part and the sense resistor
+            p[i] = !lowSide ? two : new SineFitResult(two.frequencyHz(), two.cosineCoefficient() - s[i].cosineCoefficient(),
+                    two.sineCoefficient() - s[i].sineCoefficient(), two.offset() - s[i].offset(), two.residualRms(),
+                    two.varianceCosine() + s[i].varianceCosine(), two.varianceSine() + s[i].varianceSine(),
+                    two.covarianceCosineSine() + s[i].covarianceCosineSine(), two.samples());
         }
-        SineFitResult[] s = MultisineFit.fit(sense, intervalSecond, tonesHz);
-        SineFitResult[] p = MultisineFit.fit(part, intervalSecond, tonesHz);
         FixturePhasors.Result[] out = new FixturePhasors.Result[tonesHz.length];
         for (int i = 0; i < out.length; i++) {
             out[i] = new FixturePhasors.Result(s[i], p[i], Quantization.Correction.NONE, Quantization.Correction.NONE);

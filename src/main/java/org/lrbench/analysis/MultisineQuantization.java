@@ -1,0 +1,85 @@
+package org.lrbench.analysis;
+
+import org.apache.commons.math3.special.Erf;
+
+/**
+ * The repeatable part of a converter's quantization error in a multisine fit. Through a uniform
+ * quantizer the sum of tones on one harmonic grid comes out with intermodulation products that fall
+ * on the grid, so on the tones' own bins: a fixed error for a given signal and range, which more
+ * samples do not average out, and which matters for a tone small beside the others on its channel
+ * (a few codes or less). With the step and the grid read from the samples and the noise ahead of
+ * the quantizer estimated by maximum likelihood (as {@link Quantization} does for one sine), the
+ * expected quantizer output of the fitted signal is worked out sample by sample, with the noise
+ * averaged over (E[rint(u + s z)] = m + sum_j Phi((u - m - j + 1/2) / s) - sum_j Phi((m - j + 1/2 - u) / s),
+ * m = rint(u), z standard normal); its difference from the fitted signal, fitted at the tones, is
+ * the error each tone's phasor carries, and is taken off (a known systematic effect corrected, JCGM
+ * 100:2008 3.2.4). Where the noise is near a step or more the quantization is dithered and the
+ * phasors are left as they are; so they are where the samples show no grid.
+ */
+public final class MultisineQuantization {
+    /** Thresholds either side of a sample's code that the noise can reach (beyond 8 sigma: none). */
+    private static final double REACH = 8;
+
+    private MultisineQuantization() {
+    }
+
+    /** The tones' phasors of samples {@code y} with the repeatable quantization error taken off. */
+    public static SineFitResult[] corrected(double[] y, double intervalSecond, double[] tonesHz, SineFitResult[] fit) {
+        double step = Quantization.codeStep(y);
+        if (!(step > 0) || fit.length == 0) {
+            return fit;
+        }
+        double[] model = synthesized(y.length, intervalSecond, tonesHz, fit);
+        double sigma = Quantization.noise(y, model, step);
+        if (sigma > 0.9 * step) {
+            return fit;
+        }
+        double origin = y[0];
+        double s = Math.max(sigma / step, 1e-6);
+        int reach = (int) Math.ceil(REACH * s) + 1;
+        double[] error = new double[y.length];
+        for (int i = 0; i < y.length; i++) {
+            double u = (model[i] - origin) / step;
+            double m = Math.rint(u);
+            double e = m;
+            for (int j = 1; j <= reach; j++) {
+                e += phi((u - m - j + 0.5) / s) - phi((m - j + 0.5 - u) / s);
+            }
+            error[i] = origin + step * e - model[i];
+        }
+        SineFitResult[] err = MultisineFit.fit(error, intervalSecond, tonesHz);
+        SineFitResult[] out = new SineFitResult[fit.length];
+        for (int k = 0; k < fit.length; k++) {
+            SineFitResult f = fit[k];
+            out[k] = new SineFitResult(f.frequencyHz(), f.cosineCoefficient() - err[k].cosineCoefficient(),
+                    f.sineCoefficient() - err[k].sineCoefficient(), f.offset() - err[k].offset(), f.residualRms(),
+                    f.varianceCosine(), f.varianceSine(), f.covarianceCosineSine(), f.samples());
+        }
+        return out;
+    }
+
+    private static double phi(double x) {
+        if (x > REACH) {
+            return 1;
+        }
+        if (x < -REACH) {
+            return 0;
+        }
+        return 0.5 * Erf.erfc(-x / Math.sqrt(2));
+    }
+
+    /** The fitted tones and offset, sample by sample. */
+    static double[] synthesized(int n, double dt, double[] tonesHz, SineFitResult[] fit) {
+        double[] s = new double[n];
+        java.util.Arrays.fill(s, fit[0].offset());
+        for (int k = 0; k < tonesHz.length; k++) {
+            double w = 2 * Math.PI * tonesHz[k] * dt;
+            double c = fit[k].cosineCoefficient();
+            double sn = fit[k].sineCoefficient();
+            for (int i = 0; i < n; i++) {
+                s[i] += c * Math.cos(w * i) + sn * Math.sin(w * i);
+            }
+        }
+        return s;
+    }
+}

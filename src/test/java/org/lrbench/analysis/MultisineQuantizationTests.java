@@ -1,0 +1,67 @@
+package org.lrbench.analysis;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+
+/**
+ * The repeatable quantization error of a multisine. Facts used: a uniform quantizer driven by a sum
+ * of tones on one harmonic grid puts intermodulation products on the grid (the quantizer is a fixed
+ * non-linear function of the signal; common practice, no source); without noise ahead of it the
+ * error repeats every period, so more periods do not average it out; noise near a code step dithers
+ * it away (Widrow and Kollar, Quantization Noise, 2008, from memory).
+ */
+class MultisineQuantizationTests {
+    private static final double DT = 1e-6;
+    /** Tones on bins of 100 Hz over 1 s records (100 whole periods), sampled at 1 MHz; the third at 2 f2 + f1, where a third-order product lands. */
+    private static final double[] TONES = {300, 4000, 8300};
+
+    /** Three tones: two large (tens of codes), one of {@code small} codes, through a step-1 quantizer with {@code sigma} noise. */
+    private static double[] record(double small, double sigma, long seed) {
+        Random r = new Random(seed);
+        double[] y = new double[1_000_000];
+        for (int i = 0; i < y.length; i++) {
+            double t = i * DT;
+            double v = 40 * Math.cos(2 * Math.PI * TONES[0] * t + 0.3) + 30 * Math.cos(2 * Math.PI * TONES[1] * t + 1.1)
+                    + small * Math.cos(2 * Math.PI * TONES[2] * t + 0.7) + sigma * r.nextGaussian();
+            y[i] = Math.rint(v);
+        }
+        return y;
+    }
+
+    /** The small tone's error against the truth, in codes (the phasor's distance). */
+    private static double error(SineFitResult f, double small) {
+        double c = small * Math.cos(0.7);
+        double s = -small * Math.sin(0.7);
+        return Math.hypot(f.cosineCoefficient() - c, f.sineCoefficient() - s);
+    }
+
+    @Test
+    void theSmallTonesRepeatableErrorIsTakenOff() {
+        double small = 0.6;
+        double[] y = record(small, 0.1, 7);
+        SineFitResult[] raw = MultisineFit.fit(y, DT, TONES);
+        SineFitResult[] corrected = MultisineQuantization.corrected(y, DT, TONES, raw);
+        double u = Math.sqrt(corrected[2].varianceCosine() + corrected[2].varianceSine());
+        // the raw fit is off the small tone by many times its own standard uncertainty; the corrected
+        // one is within a few of them, and much nearer the truth
+        assertThat(error(raw[2], small)).isGreaterThan(3 * u);
+        assertThat(error(corrected[2], small)).isLessThan(3 * u).isLessThan(error(raw[2], small) / 4);
+        // the large tones are hardly moved (a few thousandths of a code on tens of codes)
+        assertThat(Math.abs(corrected[0].amplitude() - raw[0].amplitude())).isLessThan(0.01);
+    }
+
+    @Test
+    void aDitheredRecordOrOneWithoutAGridIsLeftAsItIs() {
+        double[] dithered = record(0.6, 1.5, 8);
+        SineFitResult[] raw = MultisineFit.fit(dithered, DT, TONES);
+        assertThat(MultisineQuantization.corrected(dithered, DT, TONES, raw)).isSameAs(raw);
+        double[] smooth = new double[50_000];
+        for (int i = 0; i < smooth.length; i++) {
+            smooth[i] = Math.cos(2 * Math.PI * TONES[0] * i * DT) + 1e-3 * Math.cos(2 * Math.PI * TONES[2] * i * DT);
+        }
+        SineFitResult[] fit = MultisineFit.fit(smooth, DT, TONES);
+        assertThat(MultisineQuantization.corrected(smooth, DT, TONES, fit)).isSameAs(fit);
+    }
+}
