@@ -64,4 +64,14 @@ class MultisineQuantizationTests {
         SineFitResult[] fit = MultisineFit.fit(smooth, DT, TONES);
         assertThat(MultisineQuantization.corrected(smooth, DT, TONES, fit)).isSameAs(fit);
     }
+
+    /** The normal distribution function against Apache Commons Math's (a reference library). */
+    @Test
+    void theNormalDistributionFunctionIsTheReferenceLibrarys() {
+        org.apache.commons.math3.distribution.NormalDistribution n = new org.apache.commons.math3.distribution.NormalDistribution();
+        for (double x = -9; x <= 9; x += 0.37) {
+            assertThat(MultisineQuantization.phi(x)).as("x = %f", x)
+                    .isCloseTo(n.cumulativeProbability(x), org.assertj.core.api.Assertions.within(2e-7));
+        }
+    }
 }
