@@ -115,27 +115,15 @@ public final class MultisineCapture {
         double[][] v = SweepRunner.volts(plan, capture);
         double dt = capture.sense().intervalSecond();
         double[] tones = d.frequenciesHz();
-        // the phasors from the tones alone (as a re-analysis of the archive fits them); the current
-        // fitted again with the empty bins at the tones' harmonics for the distortion figure
+        // the phasors from the tones alone (as a re-analysis of the archive fits them), while another
+        // thread fits the current again with the empty bins at the tones' harmonics for the distortion figure
+        Map<Integer, Integer> watched = watchedBins(d, 0.45 / dt);
+        java.util.concurrent.CompletableFuture<double[]> distortionFit = java.util.concurrent.CompletableFuture
+                .supplyAsync(() -> distortion(v[0], dt, d, watched));
         FixturePhasors.Result[] fits = refit(capture.sense().volts(), capture.part().volts(), dt, tones,
                 SweepRunner.attenuation(plan, 1), SweepRunner.attenuation(plan, 2),
                 FixtureWiring.lowSide(plan.wiring()));
-        Map<Integer, Integer> watched = watchedBins(d, 0.45 / dt);
-        double[] distortion = new double[tones.length];
-        if (!watched.isEmpty()) {
-            double[] withWatched = new double[tones.length + watched.size()];
-            System.arraycopy(tones, 0, withWatched, 0, tones.length);
-            int j = tones.length;
-            for (int bin : watched.keySet()) {
-                withWatched[j++] = bin * d.baseHz();
-            }
-            SineFitResult[] all = MultisineFit.fit(v[0], dt, withWatched);
-            j = tones.length;
-            for (Map.Entry<Integer, Integer> e : watched.entrySet()) {
-                double a = all[j++].amplitude();
-                distortion[e.getValue()] += a * a;
-            }
-        }
+        double[] distortion = joined(distortionFit);
         List<PointResult> points = new ArrayList<>();
         double senseRange = capture.sense().rangeVolt() * SweepRunner.attenuation(plan, 1);
         double partRange = capture.part().rangeVolt() * SweepRunner.attenuation(plan, 2);
@@ -169,10 +157,13 @@ public final class MultisineCapture {
     public static FixturePhasors.Result[] refit(double[] channel1, double[] channel2, double intervalSecond,
                                                 double[] tonesHz, double attenuation1, double attenuation2, boolean lowSide) {
         // each channel fitted as it came out of its quantizer, the repeatable quantization error taken off
+        // (the two channels on two threads: each is independent, so the result is the same either way)
+        java.util.concurrent.CompletableFuture<SineFitResult[]> second = java.util.concurrent.CompletableFuture
+                .supplyAsync(() -> MultisineQuantization.corrected(channel2, intervalSecond, tonesHz,
+                        MultisineFit.fit(channel2, intervalSecond, tonesHz)));
         SineFitResult[] raw1 = MultisineQuantization.corrected(channel1, intervalSecond, tonesHz,
                 MultisineFit.fit(channel1, intervalSecond, tonesHz));
-        SineFitResult[] raw2 = MultisineQuantization.corrected(channel2, intervalSecond, tonesHz,
-                MultisineFit.fit(channel2, intervalSecond, tonesHz));
+        SineFitResult[] raw2 = joined(second);
         SineFitResult[] s = new SineFitResult[tonesHz.length];
         SineFitResult[] p = new SineFitResult[tonesHz.length];
         for (int i = 0; i < tonesHz.length; i++) {
@@ -189,6 +180,40 @@ public final class MultisineCapture {
             out[i] = new FixturePhasors.Result(s[i], p[i], Quantization.Correction.NONE, Quantization.Correction.NONE);
         }
         return out;
+    }
+
+    /** A worker's result, or what it threw as it was thrown (not wrapped). */
+    private static <T> T joined(java.util.concurrent.CompletableFuture<T> f) {
+        try {
+            return f.join();
+        } catch (java.util.concurrent.CompletionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            throw e;
+        }
+    }
+
+    /** Per tone, the summed squared amplitudes of its watched harmonics' bins in the current. */
+    private static double[] distortion(double[] current, double dt, MultisineDesign.Design d, Map<Integer, Integer> watched) {
+        double[] tones = d.frequenciesHz();
+        double[] distortion = new double[tones.length];
+        if (watched.isEmpty()) {
+            return distortion;
+        }
+        double[] withWatched = new double[tones.length + watched.size()];
+        System.arraycopy(tones, 0, withWatched, 0, tones.length);
+        int j = tones.length;
+        for (int bin : watched.keySet()) {
+            withWatched[j++] = bin * d.baseHz();
+        }
+        SineFitResult[] all = MultisineFit.fit(current, dt, withWatched);
+        j = tones.length;
+        for (Map.Entry<Integer, Integer> e : watched.entrySet()) {
+            double a = all[j++].amplitude();
+            distortion[e.getValue()] += a * a;
+        }
+        return distortion;
     }
 
     private static int top(MultisineDesign.Design d) {
