@@ -23,8 +23,9 @@ import org.lrbench.plan.SineSweep;
  * with the quantization of that range (one code step, seen in the probe's samples, over root 12,
  * the step taken proportional to the range). Without a declared noise the floor is the smallest
  * range's quantization: the stepped point then looks quieter than it is and the record comes out
- * longer than needed, never shorter. The factor is capped at {@value #MOST} and by the digitizer's
- * longest record and shortest interval; what it still lacks shows in the points' uncertainties.
+ * longer than needed, never shorter. The factor is capped at {@value #MOST}, at
+ * {@value #MOST_SAMPLES} samples and by the digitizer's longest record and shortest interval; what
+ * it still lacks shows in the points' uncertainties.
  */
 final class MultisineRecord {
     /**
@@ -35,6 +36,12 @@ final class MultisineRecord {
     static final double AIM = 1.5;
     /** The most samples per period, over the plan's: beyond it the stepped sweep is the better choice. */
     static final int MOST = 64;
+    /**
+     * The most samples a channel's record takes, whatever the digitizer allows: about 2 million, 16 MB a
+     * channel in the trace archive and a second or two of fitting; beyond it the stepped sweep is the
+     * better choice.
+     */
+    static final int MOST_SAMPLES = 1 << 21;
 
     private MultisineRecord() {
     }
@@ -106,7 +113,8 @@ final class MultisineRecord {
 
     private static int cap(double factor, int basePerPeriod, int periods, int maxRecord, double minInterval,
                            MultisineDesign.Design d) {
-        long byRecord = (maxRecord - 16L) / ((long) basePerPeriod * periods);
+        // a margin for the interval the digitizer grants (a shorter one takes more samples for the same record)
+        long byRecord = (long) (0.98 * Math.min(maxRecord, MOST_SAMPLES)) / ((long) basePerPeriod * periods);
         long byRate = (long) Math.floor(1 / (d.baseHz() * minInterval) / basePerPeriod);
         long most = Math.max(1, Math.min(byRecord, byRate));
         return (int) (basePerPeriod * Math.max(1, Math.min(most, (long) Math.min(factor, Integer.MAX_VALUE))));

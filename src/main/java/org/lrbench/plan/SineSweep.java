@@ -44,6 +44,12 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
                 distortionLimit, fromCircuit, multisine, multisineTolerance);
     }
 
+    /** The same sweep with its multisine's tones within {@code tolerance} (relative) of their requests. */
+    public SineSweep withMultisineTolerance(double tolerance) {
+        return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
+                distortionLimit, settleFromCircuit, multisine, tolerance);
+    }
+
     /** The same sweep stepped, or as one multisine. */
     public SineSweep withMultisine(boolean asMultisine) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
