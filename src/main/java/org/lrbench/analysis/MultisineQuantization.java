@@ -23,7 +23,7 @@ public final class MultisineQuantization {
 
     /** The tones' phasors of samples {@code y} with the repeatable quantization error taken off. */
     public static SineFitResult[] corrected(double[] y, double intervalSecond, double[] tonesHz, SineFitResult[] fit) {
-        double step = Quantization.codeStep(y);
+        double step = codeStep(y);
         if (!(step > 0) || fit.length == 0) {
             return fit;
         }
@@ -54,6 +54,36 @@ public final class MultisineQuantization {
                     f.varianceCosine(), f.varianceSine(), f.covarianceCosineSine(), f.samples());
         }
         return out;
+    }
+
+    /** Samples at most that the code step is read from (then every sample is checked against it). */
+    private static final int STEP_SAMPLES = 1 << 16;
+
+    /**
+     * The converter step of a long record: read from evenly spaced samples as {@link
+     * Quantization#codeStep} reads a record, then every sample checked to lie on that grid (to 1e-6
+     * of a step); NaN when one does not. Linear in the record's length, where sorting it is not.
+     */
+    static double codeStep(double[] y) {
+        if (y.length <= STEP_SAMPLES) {
+            return Quantization.codeStep(y);
+        }
+        int stride = (y.length + STEP_SAMPLES - 1) / STEP_SAMPLES;
+        double[] some = new double[(y.length + stride - 1) / stride];
+        for (int j = 0; j < some.length; j++) {
+            some[j] = y[j * stride];
+        }
+        double step = Quantization.codeStep(some);
+        if (!(step > 0)) {
+            return Double.NaN;
+        }
+        for (double v : y) {
+            double k = (v - y[0]) / step;
+            if (Math.abs(k - Math.rint(k)) > 1e-6) {
+                return Double.NaN;
+            }
+        }
+        return step;
     }
 
     /**

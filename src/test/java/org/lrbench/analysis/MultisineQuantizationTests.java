@@ -74,4 +74,13 @@ class MultisineQuantizationTests {
                     .isCloseTo(n.cumulativeProbability(x), org.assertj.core.api.Assertions.within(2e-7));
         }
     }
+
+    /** A long record's step read from some of its samples is the whole record's, and a record off the grid has none. */
+    @Test
+    void aLongRecordsStepIsTheWholeRecordsOne() {
+        double[] y = record(0.6, 0.1, 9);
+        assertThat(MultisineQuantization.codeStep(y)).isEqualTo(Quantization.codeStep(y));
+        y[777] += 0.25;
+        assertThat(MultisineQuantization.codeStep(y)).isNaN();
+    }
 }
