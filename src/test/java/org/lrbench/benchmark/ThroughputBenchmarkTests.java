@@ -24,11 +24,23 @@ import org.lrbench.sim.SimTiming;
 class ThroughputBenchmarkTests {
     private static final Path HOME = TestBench.home();
 
+    private static BenchConfig demoBench() throws Exception {
+        return BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
+    }
+
+    private static Plan demoPlan(BenchConfig bench) throws Exception {
+        return PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), bench.maxAmplitudeVolt());
+    }
+
+    private static PartModel demoPart() throws Exception {
+        return PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+    }
+
     @Test
     void theExcitationsAreComparedWithTheBenchsCorrections() throws Exception {
-        BenchConfig bench = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
-        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), bench.maxAmplitudeVolt());
-        PartModel part = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+        BenchConfig bench = demoBench();
+        Plan plan = demoPlan(bench);
+        PartModel part = demoPart();
         Path drivers = HOME.resolve("drivers");
         Calibration corrections = ThroughputBenchmark.calibrated(bench, plan, drivers, part);
         assertThat(corrections).isNotSameAs(Calibration.NONE);
@@ -52,9 +64,9 @@ class ThroughputBenchmarkTests {
      */
     @Test
     void aWholePartTakesFewRoundTripsAPointOnEveryDialect() throws Exception {
-        BenchConfig bench = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
-        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), bench.maxAmplitudeVolt());
-        PartModel part = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+        BenchConfig bench = demoBench();
+        Plan plan = demoPlan(bench);
+        PartModel part = demoPart();
         java.util.List<BenchConfig> dialects = new java.util.ArrayList<>();
         for (String name : java.util.List.of("bench.yaml", "bench-pm12.yaml", "bench-div8.yaml", "bench-div8-polled.yaml")) {
             dialects.add(BenchLoader.load(HOME.resolve("simulator").resolve(name)));
@@ -89,9 +101,9 @@ class ThroughputBenchmarkTests {
      */
     @Test
     void theMultisineIsAsCertainAsTheSteppedSweepOnTheDemoPart() throws Exception {
-        BenchConfig bench = BenchLoader.load(HOME.resolve("simulator/bench.yaml"));
-        Plan plan = PlanLoader.load(HOME.resolve("plans/qfd-ind-1m0.yaml"), bench.maxAmplitudeVolt());
-        PartModel part = PartFile.load(HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml"));
+        BenchConfig bench = demoBench();
+        Plan plan = demoPlan(bench);
+        PartModel part = demoPart();
         Path drivers = HOME.resolve("drivers");
         Plan stepped = plan.withSweep(plan.sweep().withMultisine(false));
         Plan multi = plan.withSweep(plan.sweep().withMultisine(true));
