@@ -595,15 +595,9 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     private double[] scale(int channel, double range, double offset) {
         DigitizerTraits.Scaling sc = traits.scaling();
         return switch (sc.source()) {
-            case SCALE_QUERY, REPLY_FIELDS -> {
+            case SCALE_QUERY, REPLY_FIELDS, QUERIES -> {
                 if (!scales.containsKey(channel)) {
-                    queryScales(channel);
-                }
-                yield scales.get(channel);
-            }
-            case QUERIES -> {
-                if (!scales.containsKey(channel)) {
-                    scales.put(channel, queryFields(channel));
+                    askScales(channel);
                 }
                 yield scales.get(channel);
             }
@@ -621,22 +615,14 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
     }
 
     /** Asks the scaling of this channel and of every other ranged channel lacking it, in one message. */
-    private void queryScales(int channel) {
-        List<Integer> channels = new ArrayList<>();
-        channels.add(channel);
-        ranges.keySet().stream().filter(c -> c != channel && !scales.containsKey(c)).sorted().forEach(channels::add);
-        StringBuilder command = new StringBuilder();
-        for (int ch : channels) {
-            command.append(command.length() == 0 ? "" : ";").append(driver.command("scale_query").render(channel(ch)));
-        }
-        List<String> replies = ScpiReplies.split(session.query(command.toString()));
-        if (replies.size() != channels.size()) {
-            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies.size()
-                    + " replies for " + channels.size() + " channels");
-        }
-        for (int i = 0; i < channels.size(); i++) {
-            scales.put(channels.get(i), parseScale(command.toString(), replies.get(i)));
-        }
+    private void askScales(int channel) {
+        java.util.Set<Integer> candidates = new TreeSet<>(ranges.keySet());
+        candidates.add(channel);
+        ScaleAsk ask = scaleAsk(candidates, false);
+        String message = String.join(";", ask.queries());
+        List<String> replies = ScpiReplies.split(session.query(message));
+        expectReplies(message, replies, ask.queries().size());
+        takeScales(ask, message, replies);
     }
 
     private double[] parseScale(String command, String reply) {
@@ -662,26 +648,6 @@ public final class ScpiDigitizer extends DrivenInstrument implements Digitizer {
                     + "' is not positive");
         }
         return out;
-    }
-
-    /** One query per scaling field, all in one message: volts = (code - y reference) * y increment + y origin. */
-    private double[] queryFields(int channel) {
-        Map<String, CommandTemplate> queries = traits.scaling().queries();
-        List<String> names = queries.keySet().stream().sorted().toList();
-        StringBuilder command = new StringBuilder();
-        for (String name : names) {
-            command.append(command.length() == 0 ? "" : ";").append(queries.get(name).render(channel(channel)));
-        }
-        List<String> replies = ScpiReplies.split(session.query(command.toString()));
-        if (replies.size() != names.size()) {
-            throw new InstrumentException(session.instrument() + ": '" + command + "' answered " + replies.size()
-                    + " replies for " + names.size() + " queries");
-        }
-        Map<String, Double> v = new HashMap<>();
-        for (int i = 0; i < names.size(); i++) {
-            v.put(names.get(i), number(command.toString(), replies.get(i)));
-        }
-        return scaleFrom(v, command.toString());
     }
 
     /** Fields picked by position from the scale query's reply: volts = (code - y reference) * y increment + y origin. */

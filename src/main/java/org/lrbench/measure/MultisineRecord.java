@@ -20,12 +20,12 @@ import org.lrbench.plan.SineSweep;
  * capture will use, against the stepped point's amplitude (the plan's, over the tone's share) on a
  * range at the auto-ranger's target fill (or the channel's smallest range). A channel's noise on a
  * range is the digitizer's input noise (its driver's {@code vertical.noise}, the manual's figure)
- * with the quantization of that range (one code step, seen in the probe's samples, over root 12,
- * the step taken proportional to the range). Without a declared noise the floor is the smallest
- * range's quantization: the stepped point then looks quieter than it is and the record comes out
- * longer than needed, never shorter. The factor is capped at {@value #MOST}, at
- * {@value #MOST_SAMPLES} samples and by the digitizer's longest record and shortest interval; what
- * it still lacks shows in the points' uncertainties.
+ * with the quantization of that range (one code step, the smallest gap between the probe's
+ * samples, over root 12, the step taken proportional to the range). Without a declared noise
+ * the floor is the smallest range's quantization: the stepped point then looks quieter than it is
+ * and the record comes out longer than needed, never shorter. The factor is capped at
+ * {@value #MOST}, at {@value #MOST_SAMPLES} samples and by the digitizer's longest record and
+ * shortest interval; what it still lacks shows in the points' uncertainties.
  */
 final class MultisineRecord {
     /**
@@ -87,6 +87,9 @@ final class MultisineRecord {
     /** A channel's noise variance on a range: the input noise and the range's quantization. */
     private record Noise(double floorVariance, double stepPerRange) {
         static Noise of(Trace probe, double minRange, double declared) {
+            // the smallest gap between sample values: unlike Quantization.codeStep, which refuses a
+            // record with more distinct values than half its samples, this holds for a probe of one
+            // short period too (on data without a grid it is tiny and adds nothing)
             double[] v = probe.volts().clone();
             java.util.Arrays.sort(v);
             double step = Double.POSITIVE_INFINITY;
