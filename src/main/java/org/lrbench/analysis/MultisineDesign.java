@@ -150,4 +150,29 @@ public final class MultisineDesign {
         }
         return true;
     }
+
+    /**
+     * The frequency of the common period of tones that each lie on one of its bins (as a design
+     * places them, bin times base): the largest base of which every tone is a whole multiple, found as
+     * the lowest tone over the smallest whole divisor that makes it so (within a millionth of a bin).
+     * Tones on no common grid of up to 2^24 bins below the lowest are refused.
+     */
+    public static double commonBase(double[] tonesHz) {
+        double lowest = Arrays.stream(tonesHz).min().orElseThrow();
+        for (int k = 1; k <= 1 << 24; k++) {
+            double base = lowest / k;
+            boolean all = true;
+            for (double f : tonesHz) {
+                double bin = f / base;
+                if (Math.abs(bin - Math.rint(bin)) > 1e-6) {
+                    all = false;
+                    break;
+                }
+            }
+            if (all) {
+                return base;
+            }
+        }
+        throw new IllegalArgumentException("the tones " + Arrays.toString(tonesHz) + " lie on no common period's bins");
+    }
 }

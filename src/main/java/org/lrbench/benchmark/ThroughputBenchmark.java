@@ -13,7 +13,6 @@ import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.PointResult;
-import org.lrbench.measure.Settle;
 import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
@@ -401,28 +400,16 @@ public final class ThroughputBenchmark {
         long t0 = System.nanoTime();
         PartResult r = PartRun.measure(req, inst, BenchClock.REAL, listener);
         double seconds = (System.nanoTime() - t0) / 1e9;
-        double minimum = 0;
-        if (plan.sweep().multisine() && !points.isEmpty()) {
-            // one capture, after loading the waveform as the source driver sends it (nine characters a
-            // point in ASCII, two bytes a point in a definite block)
-            PointResult p = points.get(0);
+        long waveformBytes = 0;
+        if (plan.sweep().multisine()) {
+            // the waveform as the source driver sends it (nine characters a point in ASCII, two bytes a
+            // point in a definite block)
             int waveform = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
                     inst.generator().maxArbitrarySamples()).samples().length;
             boolean ascii = loader.load(b.generator().driver(), DriverKind.SOURCE).arbitraryEncoding().equals("ascii");
-            minimum += settle(plan, null) + capture(timing, p.samples(), p.sampleIntervalSecond(), bytesPerSample)
-                    + timing.transfer((ascii ? 9L : 2L) * waveform) + timing.messageSecond();
+            waveformBytes = (ascii ? 9L : 2L) * waveform;
         }
-        for (int i = 0; i < (plan.sweep().multisine() ? 0 : points.size()); i++) {
-            PointResult p = points.get(i);
-            minimum += settle(plan, i == 0 ? null : points.get(i - 1))
-                    + capture(timing, p.samples(), p.sampleIntervalSecond(), bytesPerSample);
-        }
-        if (plan.triangle() != null && !points.isEmpty()) {
-            var tri = plan.triangle();
-            int n = tri.cycles() * tri.samplesPerCycle() + 1;
-            minimum += settle(plan, points.get(points.size() - 1))
-                    + capture(timing, n, 1 / (tri.frequencyHz() * tri.samplesPerCycle()), bytesPerSample);
-        }
+        double minimum = org.lrbench.rehearsal.PhysicalTime.of(plan, points, timing, bytesPerSample, waveformBytes);
         int max = 0;
         long total = 0;
         for (int i = 1; i < marks.size(); i++) {
@@ -449,16 +436,6 @@ public final class ThroughputBenchmark {
     }
 
     /** The settle the plan's rule asks for at a point. */
-    private static double settle(Plan plan, PointResult previous) {
-        return Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), previous == null ? null : previous.impedance(), 0);
-    }
-
-    /** One capture's unavoidable time: frequency change, arming, the record, both traces over the link, four messages. */
-    private static double capture(SimTiming t, int samples, double interval, int bytesPerSample) {
-        return t.frequencyChangeSecond() + t.armSecond() + samples * interval
-                + t.transfer(2L * samples * bytesPerSample) + 4 * t.messageSecond();
-    }
-
     private static long queries(BenchInstruments inst) {
         return inst.sessions().stream().mapToLong(ScpiSession::queries).sum();
     }

@@ -50,6 +50,8 @@ final class CalibrateCommand implements Callable<Integer> {
         BenchConfig b = benchOptions.load();
         Plan p = Inputs.plan(plan, b);
         Inputs.requireFit(p, b, benchOptions.loader());
+        // calibrated for the excitation the runs will use (the same choice: it depends on plan and bench only)
+        p = Inputs.excitation(p, b, benchOptions.loader());
         SimBench simBench = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");

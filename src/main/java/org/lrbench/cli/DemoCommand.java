@@ -74,12 +74,14 @@ final class DemoCommand implements Callable<Integer> {
         SimLot lot = SimLot.load(lotPath);
         Inputs.name("lot", lot.lot());
         BenchConfig b = benchOptions.load();
-        Plan plan = Inputs.plan(lot.plan(), b);
         DriverLoader drivers = benchOptions.loader();
+        Plan plan = Inputs.plan(lot.plan(), b);
         double qAt = ResultText.qFrequency(plan);
         System.out.printf("lot %s: %d parts of %s (%s), plan %s, simulated bench %s%n%n", lot.lot(), lot.parts().size(),
                 plan.partNumber(), plan.description(), Home.root().relativize(lot.plan().toAbsolutePath()), b.name());
-        // a bench is calibrated before a lot: channel match and fixture, here on the simulated bench
+        // the excitation chosen for this bench (where the plan leaves it open), then a bench is calibrated
+        // before a lot: channel match and fixture, here on the simulated bench
+        plan = Inputs.excitation(plan, b, drivers);
         System.out.println("calibrating the simulated bench at the plan's frequencies:");
         CalibrateCommand.calibrate(plan, b, drivers, new SimBench(b.simulation(), plan.wiring(),
                 lot.parts().get(0).model()), calibrationOption.calibration);

@@ -1,5 +1,7 @@
 package org.lrbench.cli;
 
+import org.lrbench.rehearsal.ExcitationChoice;
+
 import java.nio.file.Files;
 import java.nio.file.Path;
 import org.lrbench.bench.BenchConfig;
@@ -28,6 +30,18 @@ final class Inputs {
     static Plan plan(Path file, BenchConfig bench) throws ProblemsException {
         requireFile(file, "plan");
         return PlanLoader.load(file, bench.maxAmplitudeVolt());
+    }
+
+    /**
+     * The plan as it runs on this bench: where it leaves its excitation open, the one chosen for the
+     * bench ({@link ExcitationChoice}), the choice and its reason printed.
+     */
+    static Plan excitation(Plan plan, BenchConfig bench, DriverLoader drivers) throws ProblemsException {
+        ExcitationChoice.Choice c = ExcitationChoice.of(plan, bench, drivers);
+        if (c.said() != null) {
+            System.out.println("excitation: " + c.said());
+        }
+        return c.plan();
     }
 
     /**

@@ -161,6 +161,7 @@ final class RunCommand implements Callable<Integer> {
         b = addresses.applyTo(b);
         Plan p = Inputs.plan(plan, b);
         Inputs.requireFit(p, b, benchOptions.loader());
+        p = Inputs.excitation(p, b, benchOptions.loader());
         SimulatedPart simulated = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
@@ -284,6 +285,9 @@ final class RunCommand implements Callable<Integer> {
         try (ResultStore store = location.open();
              LotHoldKeeper hold = LotHoldKeeper.take(store, location::open, lot, b.name())) {
             LotStart.Ready ready = start(request, store);
+            if (ready.excitation() != null) {
+                System.out.println("excitation: " + ready.excitation());
+            }
             LotRunner.Setup setup = ready.setup().withStop(stop);
             ResultText.severity(System.out, setup.scheme(), setup.template().simulated());
             ResultText.samplingPlans(System.out, lotSize, setup.sampling());

@@ -35,6 +35,11 @@ public final class DriverLoader {
     }
 
     /** Loads a driver by name from the drivers folder. */
+    /** The folder the driver files are read from. */
+    public Path directory() {
+        return directory;
+    }
+
     public DriverFile load(String name, DriverKind expected) throws ProblemsException {
         return load(name, expected, null);
     }

@@ -16,6 +16,7 @@ import org.lrbench.plan.PlanIdentity;
 import org.lrbench.plan.PlanLoader;
 import org.lrbench.records.CheckStandardLog;
 import org.lrbench.records.StoreLedger;
+import org.lrbench.rehearsal.ExcitationChoice;
 import org.lrbench.results.Attempt;
 import org.lrbench.results.Inspection;
 import org.lrbench.results.Names;
@@ -51,10 +52,11 @@ public final class LotStart {
     /**
      * A lot ready to run. {@code closed} is the decided inspection when the lot is closed (nothing
      * is to be measured); {@code alreadyMeasured} the parts judged before this run; {@code override}
-     * the check standard's refusal that was overridden (recorded), or null.
+     * the check standard's refusal that was overridden (recorded), or null; {@code excitation} the
+     * excitation chosen for the bench and why, where the plan left it open (else null).
      */
     public record Ready(LotRunner.Setup setup, StoreLedger ledger, Inspection closed, int alreadyMeasured,
-                        String override, Path overrideRecord) {
+                        String override, Path overrideRecord, String excitation) {
 
         public Plan plan() {
             return setup.template().plan();
@@ -75,7 +77,8 @@ public final class LotStart {
      */
     public static Ready prepare(Request q, ResultStore store) throws ProblemsException, IOException {
         validate(q);
-        Plan plan = loadPlan(q);
+        ExcitationChoice.Choice chosen = loadPlan(q);
+        Plan plan = chosen.plan();
         // loaded once: the check gate and every part's corrections are the same ones
         Calibration corrections = new CalibrationStore(q.folders().calibration(), q.bench().name()).load();
         String refusal = checkRefusal(q, corrections, store);
@@ -99,7 +102,7 @@ public final class LotStart {
             CheckStandardLog.keep(store, q.folders().runs(), q.bench().name(), CheckFile.OVERRIDE, overrideRecord);
         }
         return new Ready(setup, ledger, closed, closed != null ? 0 : measured, closed == null ? refusal : null,
-                overrideRecord);
+                overrideRecord, chosen.said());
     }
 
     private static void validate(Request q) {
@@ -135,7 +138,7 @@ public final class LotStart {
     }
 
     /** The plan, checked against the bench's ceiling and against what its drivers declare. */
-    private static Plan loadPlan(Request q) throws ProblemsException {
+    private static ExcitationChoice.Choice loadPlan(Request q) throws ProblemsException {
         if (!Files.isRegularFile(q.planFile())) {
             throw bad("plan " + q.planFile() + ": no such file");
         }
@@ -148,7 +151,8 @@ public final class LotStart {
         if (!problems.isEmpty()) {
             throw bad(String.join("\n", problems));
         }
-        return plan;
+        // an excitation left open: the one chosen for this bench, as calibrate chose it
+        return ExcitationChoice.of(plan, q.bench(), q.drivers());
     }
 
     /**

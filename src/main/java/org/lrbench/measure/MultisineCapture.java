@@ -117,9 +117,8 @@ public final class MultisineCapture {
         double[] tones = d.frequenciesHz();
         // the phasors from the tones alone (as a re-analysis of the archive fits them), while another
         // thread fits the current again with the empty bins at the tones' harmonics for the distortion figure
-        Map<Integer, Integer> watched = watchedBins(d, 0.45 / dt);
         java.util.concurrent.CompletableFuture<double[]> distortionFit = java.util.concurrent.CompletableFuture
-                .supplyAsync(() -> distortion(v[0], dt, d, watched));
+                .supplyAsync(() -> distortion(v[0], dt, d.frequenciesHz()));
         FixturePhasors.Result[] fits = refit(capture.sense().volts(), capture.part().volts(), dt, tones,
                 SweepRunner.attenuation(plan, 1), SweepRunner.attenuation(plan, 2),
                 FixtureWiring.lowSide(plan.wiring()));
@@ -194,9 +193,32 @@ public final class MultisineCapture {
         }
     }
 
-    /** Per tone, the summed squared amplitudes of its watched harmonics' bins in the current. */
-    private static double[] distortion(double[] current, double dt, MultisineDesign.Design d, Map<Integer, Integer> watched) {
-        double[] tones = d.frequenciesHz();
+    /**
+     * Per tone, the current's distortion figure as the sweep records it: the root of the summed squared
+     * amplitudes of its watched harmonics' bins over the tone's own amplitude ({@code toneAmplitudes},
+     * the current's fitted phasors at the fixture).
+     */
+    public static double[] currentThd(double[] current, double dt, double[] tonesHz, double[] toneAmplitudes) {
+        double[] d = distortion(current, dt, tonesHz);
+        double[] out = new double[d.length];
+        for (int i = 0; i < d.length; i++) {
+            out[i] = Math.sqrt(d[i]) / toneAmplitudes[i];
+        }
+        return out;
+    }
+
+    /**
+     * Per tone, the summed squared amplitudes of its watched harmonics' bins in the current. The bins
+     * are found from the tones themselves (their common period), so that a re-analysis of the archive,
+     * which keeps the tones but not the design, finds the very same ones.
+     */
+    private static double[] distortion(double[] current, double dt, double[] tones) {
+        double baseHz = MultisineDesign.commonBase(tones);
+        int[] bins = new int[tones.length];
+        for (int i = 0; i < tones.length; i++) {
+            bins[i] = (int) Math.round(tones[i] / baseHz);
+        }
+        Map<Integer, Integer> watched = watchedBins(bins, baseHz, 0.45 / dt);
         double[] distortion = new double[tones.length];
         if (watched.isEmpty()) {
             return distortion;
@@ -205,7 +227,7 @@ public final class MultisineCapture {
         System.arraycopy(tones, 0, withWatched, 0, tones.length);
         int j = tones.length;
         for (int bin : watched.keySet()) {
-            withWatched[j++] = bin * d.baseHz();
+            withWatched[j++] = bin * baseHz;
         }
         SineFitResult[] all = MultisineFit.fit(current, dt, withWatched);
         j = tones.length;
@@ -225,15 +247,19 @@ public final class MultisineCapture {
      * each with the tone it belongs to (a bin two tones share goes to the lower).
      */
     static Map<Integer, Integer> watchedBins(MultisineDesign.Design d, double bandHz) {
+        return watchedBins(d.bins(), d.baseHz(), bandHz);
+    }
+
+    private static Map<Integer, Integer> watchedBins(int[] bins, double baseHz, double bandHz) {
         Set<Integer> toneBins = new HashSet<>();
-        for (int b : d.bins()) {
+        for (int b : bins) {
             toneBins.add(b);
         }
         Map<Integer, Integer> out = new LinkedHashMap<>();
         for (int h : WATCHED_HARMONICS) {
-            for (int i = 0; i < d.bins().length; i++) {
-                long bin = (long) h * d.bins()[i];
-                if (bin * d.baseHz() < bandHz && !toneBins.contains((int) bin)) {
+            for (int i = 0; i < bins.length; i++) {
+                long bin = (long) h * bins[i];
+                if (bin * baseHz < bandHz && !toneBins.contains((int) bin)) {
                     out.putIfAbsent((int) bin, i);
                 }
             }

@@ -281,16 +281,18 @@ public final class PlanLoader {
             }
             distortion = q == null || !q.relative() ? null : q.value();
         }
-        // stepped: one frequency after another; multisine: all of them in one arbitrary waveform
-        Boolean multisine = s.has("excitation") ? s.choice("excitation", true,
-                new java.util.TreeMap<>(Map.of("stepped", false, "multisine", true))) : Boolean.FALSE;
+        // stepped: one frequency after another; multisine: all of them in one arbitrary waveform; auto (the
+        // default): lrbench chooses for the bench (ExcitationChoice), stepped until it has
+        String excitation = s.has("excitation") ? s.choice("excitation", true,
+                new java.util.TreeMap<>(Map.of("stepped", "stepped", "multisine", "multisine", "auto", "auto"))) : "auto";
+        Boolean multisine = excitation == null ? null : excitation.equals("multisine");
         Double tolerance = SineSweep.DEFAULT_MULTISINE_TOLERANCE;
         if (s.has("multisine_tolerance")) {
             var q = s.anyQuantity("multisine_tolerance", true);
             if (q != null && (!q.relative() || !(q.value() > 0) || q.value() > 0.1)) {
                 s.problem("multisine_tolerance", "must be a percentage above 0 % and at most 10 %, such as 2 %");
-            } else if (q != null && !Boolean.TRUE.equals(multisine)) {
-                s.problem("multisine_tolerance", "only a sweep with excitation: multisine has tones to place");
+            } else if (q != null && "stepped".equals(excitation)) {
+                s.problem("multisine_tolerance", "a sweep with excitation: stepped has no tones to place");
             }
             tolerance = q == null || !q.relative() ? null : q.value();
         }
@@ -299,7 +301,7 @@ public final class PlanLoader {
             return null;
         }
         return new SineSweep(amplitude, off, frequencies, cycles, spc == null ? MIN_SAMPLES_PER_CYCLE : spc, settle,
-                terms, distortion, fromCircuit, multisine, tolerance);
+                terms, distortion, fromCircuit, multisine, tolerance, excitation.equals("auto"));
     }
 
     private static final Map<String, LumpedParameter> TERMS = Map.of(

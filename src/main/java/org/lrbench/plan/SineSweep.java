@@ -13,12 +13,22 @@ import org.lrbench.analysis.LumpedParameter;
  * at once as a multisine whose tones lie within {@code multisineTolerance} (relative) of the
  * requested frequencies; a multisine capture holds {@code cycles} cycles of its lowest tone, in
  * whole periods, at {@code samplesPerCycle} samples per cycle of its lowest tone and no fewer than
- * ten per cycle of its highest.
+ * ten per cycle of its highest. {@code excitationOpen}: the plan left the excitation to lrbench
+ * ({@code excitation: auto}, or no excitation key); such a sweep is stepped until
+ * {@code org.lrbench.rehearsal.ExcitationChoice} chooses for a bench.
  */
 public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
                         int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms,
                         double distortionLimit, boolean settleFromCircuit, boolean multisine,
-                        double multisineTolerance) {
+                        double multisineTolerance, boolean excitationOpen) {
+
+    /** A sweep whose excitation is given (stepped or multisine). */
+    public SineSweep(double amplitudeVolt, double offsetVolt, List<Double> frequenciesHz, int cycles,
+                     int samplesPerCycle, double settleSecond, Set<LumpedParameter> modelTerms, double distortionLimit,
+                     boolean settleFromCircuit, boolean multisine, double multisineTolerance) {
+        this(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms, distortionLimit,
+                settleFromCircuit, multisine, multisineTolerance, false);
+    }
 
     /** The tolerance a multisine's tones keep from the requested frequencies when the plan gives none. */
     public static final double DEFAULT_MULTISINE_TOLERANCE = 0.02;
@@ -41,19 +51,19 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
     /** The same sweep with the settle taken from the circuit (the plan's settle the ceiling) or fixed. */
     public SineSweep withSettleFromCircuit(boolean fromCircuit) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
-                distortionLimit, fromCircuit, multisine, multisineTolerance);
+                distortionLimit, fromCircuit, multisine, multisineTolerance, excitationOpen);
     }
 
     /** The same sweep with its multisine's tones within {@code tolerance} (relative) of their requests. */
     public SineSweep withMultisineTolerance(double tolerance) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
-                distortionLimit, settleFromCircuit, multisine, tolerance);
+                distortionLimit, settleFromCircuit, multisine, tolerance, excitationOpen);
     }
 
-    /** The same sweep stepped, or as one multisine. */
+    /** The same sweep stepped, or as one multisine: the excitation given, no longer open. */
     public SineSweep withMultisine(boolean asMultisine) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
-                distortionLimit, settleFromCircuit, asMultisine, multisineTolerance);
+                distortionLimit, settleFromCircuit, asMultisine, multisineTolerance, false);
     }
 
     /**

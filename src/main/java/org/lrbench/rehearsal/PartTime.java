@@ -90,26 +90,7 @@ public final class PartTime {
     /** U (k = 2) per limit of one nominal part, on the simulated bench calibrated for this plan first. */
     static java.util.Map<String, Double> uncertainties(Plan plan, BenchConfig bench, DriverLoader drivers, PartModel part)
             throws Exception {
-        SimBench calBench = new SimBench(bench.simulation(), plan.wiring(), part);
-        org.lrbench.calibration.Calibration corrections;
-        try (BenchInstruments inst = BenchInstruments.open(bench, drivers, calBench)) {
-            corrections = org.lrbench.run.CalibrationRun.calibrate(plan, inst, calBench::setPosition, BenchClock.NONE,
-                    bench.accuracy());
-        }
-        BenchConfig b = bench.withSimulation(bench.simulation().withSeed(bench.simulation().seed() + 1));
-        SimBench sim = new SimBench(b.simulation(), plan.wiring(), part);
-        java.util.Map<String, Double> out = new java.util.LinkedHashMap<>();
-        try (BenchInstruments inst = BenchInstruments.open(b, drivers, sim)) {
-            var r = PartRun.measure(new PartRun.Request(plan, "rehearsal", b, "REHEARSAL", "U", true, "rehearsal",
-                    corrections), inst, BenchClock.NONE, SweepListener.NONE);
-            for (var l : plan.limits()) {
-                var u = r.budgets().get(l.name());
-                if (u != null) {
-                    out.put(l.name(), u.expandedUncertainty());
-                }
-            }
-        }
-        return out;
+        return ExcitationChoice.Twin.measure(plan, bench, drivers, part).expanded();
     }
 
     /** Seconds for one part of {@code plan} on the simulated bench with {@code timing}. */

@@ -105,13 +105,23 @@ public final class Reanalysis {
                         c.points().get(0).intervalSecond(),
                         c.points().stream().mapToDouble(TraceArchive.Point::frequencyHz).toArray(), a1, a2, lowSide)
                 : null;
+        // a multisine's distortion figures from the current's watched bins, as the sweep found them
+        double[] toneThd = null;
+        if (multisine) {
+            double[] amplitudes = new double[tones.length];
+            for (int i = 0; i < tones.length; i++) {
+                amplitudes[i] = tones[i].sense().amplitude();
+            }
+            toneThd = MultisineCapture.currentThd(scaled(c.points().get(0).sense(), a1), c.points().get(0).intervalSecond(),
+                    c.points().stream().mapToDouble(TraceArchive.Point::frequencyHz).toArray(), amplitudes);
+        }
         List<Row> rows = new ArrayList<>();
         for (int i = 0; i < c.points().size(); i++) {
             TraceArchive.Point p = c.points().get(i);
             FixturePhasors.Result phasors = tones != null ? tones[i]
                     : FixturePhasors.of(p.sense(), p.part(), p.intervalSecond(), p.frequencyHz(), a1, a2, lowSide);
             ImpedancePoint z = PhasorImpedance.of(p.frequencyHz(), phasors.sense(), phasors.part(), rs);
-            double thd = multisine ? Double.NaN : SweepRunner.currentThd(scaled(p.sense(), a1), p.intervalSecond(),
+            double thd = multisine ? toneThd[i] : SweepRunner.currentThd(scaled(p.sense(), a1), p.intervalSecond(),
                     p.frequencyHz());
             Double oldR = old != null && old.size() > i ? old.get(i).get("resistance_ohm").asDouble() : null;
             Double oldL = old != null && old.size() > i ? old.get(i).get("inductance_h").asDouble() : null;

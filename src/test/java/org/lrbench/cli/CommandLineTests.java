@@ -472,6 +472,11 @@ class CommandLineTests {
         Outcome peak = run("check", plan.toString(), "--bench", HOME.resolve("simulator/bench-pm12.yaml").toString());
         assertThat(peak.code()).isEqualTo(2);
         assertThat(peak.err()).contains("excitation multisine needs arbitrary-waveform commands");
+        // the demo plan leaves its excitation open: there it is not refused but stepped, and check says why
+        Outcome open = run("check", PLAN, "--bench", HOME.resolve("simulator/bench-pm12.yaml").toString());
+        assertThat(open.code()).isZero();
+        assertThat(open.out()).contains("excitation: stepped (excitation auto): the multisine is not possible here")
+                .contains("arbitrary-waveform commands");
         // a waveform memory too small for 200 Hz to 20 kHz on bins within 2 %
         Path drivers = copyOfDrivers(dir);
         Path source = drivers.resolve("generic-source.yaml");
@@ -479,13 +484,13 @@ class CommandLineTests {
         Outcome small = run("check", plan.toString(), "--drivers", drivers.toString());
         assertThat(small.code()).isEqualTo(2);
         assertThat(small.err()).contains("waveform samples; the generator takes 1024");
-        // a tolerance belongs to a multisine only
+        // a tolerance belongs to a sweep that may be a multisine: not to one that says it is stepped
         Path stepped = dir.resolve("stepped.yaml");
         Files.writeString(stepped, Files.readString(Path.of(PLAN)).replace("  settle: 20 ms",
-                "  settle: 20 ms\n  multisine_tolerance: 1 %"));
+                "  settle: 20 ms\n  excitation: stepped\n  multisine_tolerance: 1 %"));
         Outcome tol = run("check", stepped.toString());
         assertThat(tol.code()).isEqualTo(2);
-        assertThat(tol.err()).contains("multisine_tolerance").contains("only a sweep with excitation: multisine");
+        assertThat(tol.err()).contains("multisine_tolerance").contains("excitation: stepped has no tones to place");
     }
 
     @Test
