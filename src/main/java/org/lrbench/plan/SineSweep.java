@@ -60,6 +60,12 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
                 distortionLimit, settleFromCircuit, multisine, tolerance, excitationOpen);
     }
 
+    /** The same sweep at other frequencies, in the order given. */
+    public SineSweep withFrequencies(List<Double> frequencies) {
+        return new SineSweep(amplitudeVolt, offsetVolt, List.copyOf(frequencies), cycles, samplesPerCycle, settleSecond,
+                modelTerms, distortionLimit, settleFromCircuit, multisine, multisineTolerance, excitationOpen);
+    }
+
     /** The same sweep stepped, or as one multisine: the excitation given, no longer open. */
     public SineSweep withMultisine(boolean asMultisine) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,

@@ -23,6 +23,7 @@ import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.measure.SweepRunner;
 import org.lrbench.plan.Plan;
+import org.lrbench.plan.SineSweep;
 
 /**
  * Measures a bench's corrections at a plan's sweep frequencies: the channel match (both channels
@@ -240,12 +241,10 @@ public final class CalibrationRun {
                                                  List<PointResult> matched) {
         PointResult most = matched.stream().max(java.util.Comparator.comparingDouble(p -> p.senseFit().amplitude()))
                 .orElseThrow();
-        // the links are read with a sine: at the plan's amplitude it has the whole peak, where each
-        // tone of a multisine has its share of it
-        double share = plan.sweep().multisine() ? org.lrbench.analysis.MultisineDesign.of(plan.sweep().frequenciesHz(),
-                plan.sweep().multisineTolerance(), inst.generator().maxArbitrarySamples()).toneAmplitude() : 1;
+        // the links are read with a sine of the plan's amplitude, as the matched points were (a multisine
+        // plan's too: see sweep)
         return RangeLinkCapture.measure(plan, inst.generator(), inst.digitizer(), clock,
-                most.impedance().frequencyHz(), most.senseFit().amplitude() / share);
+                most.impedance().frequencyHz(), most.senseFit().amplitude());
     }
 
     private static List<PointResult> sweep(Plan plan, BenchInstruments inst, FixtureChange change,
@@ -262,7 +261,7 @@ public final class CalibrationRun {
             guard.switchOff();
             change.moveTo(position);
             Plan sweepOnly = new Plan(plan.source(), plan.partNumber(), plan.description(), plan.senseResistanceOhm(),
-                    plan.sweep(), null, plan.limits(), plan.sampling(), plan.wiring(), null);
+                    readingSweep(plan.sweep(), inst), null, plan.limits(), plan.sampling(), plan.wiring(), null);
             List<PointResult> points = new SweepRunner(inst.generator(), inst.digitizer(), sleeper, open)
                     .run(sweepOnly, SweepListener.NONE).points();
             after.accept(points);
@@ -273,6 +272,23 @@ public final class CalibrationRun {
                 throw new InstrumentException(guard.failure());
             }
         }
+    }
+
+    /**
+     * The sweep the corrections are read with: the plan's own, or for a multisine the stepped sweep at
+     * its tones' frequencies. A correction is read once and applied to every part, so it is read the
+     * slower, surer way: each frequency with the plan's whole amplitude on ranges fitted to it, where a
+     * tone of the multisine has a share of it (a channel match read from the multisine itself gave a
+     * skew ten times less certain, which became most of U of R and Q); the range links carry the
+     * match to the multisine's ranges.
+     */
+    static SineSweep readingSweep(SineSweep sweep, BenchInstruments inst) {
+        if (!sweep.multisine()) {
+            return sweep;
+        }
+        double[] tones = org.lrbench.analysis.MultisineDesign.of(sweep.frequenciesHz(), sweep.multisineTolerance(),
+                inst.generator().maxArbitrarySamples()).frequenciesHz();
+        return sweep.withMultisine(false).withFrequencies(java.util.Arrays.stream(tones).boxed().toList());
     }
 
     private static double[] ranges(PointResult p) {
