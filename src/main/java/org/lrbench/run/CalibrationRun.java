@@ -279,7 +279,7 @@ public final class CalibrationRun {
      * its tones' frequencies. A correction is read once and applied to every part, so it is read the
      * slower, surer way: each frequency with the plan's whole amplitude on ranges fitted to it, where a
      * tone of the multisine has a share of it (a channel match read from the multisine itself gave a
-     * skew ten times less certain, which became most of U of R and Q); the range links carry the
+     * skew about twice as uncertain, which became most of U of R and Q); the range links carry the
      * match to the multisine's ranges.
      */
     static SineSweep readingSweep(SineSweep sweep, BenchInstruments inst) {
