@@ -400,15 +400,8 @@ public final class ThroughputBenchmark {
         long t0 = System.nanoTime();
         PartResult r = PartRun.measure(req, inst, BenchClock.REAL, listener);
         double seconds = (System.nanoTime() - t0) / 1e9;
-        long waveformBytes = 0;
-        if (plan.sweep().multisine()) {
-            // the waveform as the source driver sends it (nine characters a point in ASCII, two bytes a
-            // point in a definite block)
-            int waveform = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
-                    inst.generator().maxArbitrarySamples()).samples().length;
-            boolean ascii = loader.load(b.generator().driver(), DriverKind.SOURCE).arbitraryEncoding().equals("ascii");
-            waveformBytes = (ascii ? 9L : 2L) * waveform;
-        }
+        long waveformBytes = org.lrbench.rehearsal.PhysicalTime.waveformBytes(plan,
+                loader.load(b.generator().driver(), DriverKind.SOURCE));
         double minimum = org.lrbench.rehearsal.PhysicalTime.of(plan, points, timing, bytesPerSample, waveformBytes);
         int max = 0;
         long total = 0;

@@ -6,7 +6,6 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.ConcurrentHashMap;
-import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverFile;
@@ -139,12 +138,8 @@ public final class ExcitationChoice {
         DriverFile digitizer = drivers.load(bench.digitizer().driver(), DriverKind.DIGITIZER);
         DriverFile source = drivers.load(bench.generator().driver(), DriverKind.SOURCE);
         int bytes = digitizer.traceEncoding().bytesOnWire();
-        Integer memory = source.limits().maxArbitrarySamples();
-        int waveform = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
-                memory == null ? Integer.MAX_VALUE : memory).samples().length;
-        long waveformBytes = (source.arbitraryEncoding().equals("ascii") ? 9L : 2L) * waveform;
         double ts = PhysicalTime.of(stepped, s.points(), link, bytes, 0);
-        double tm = PhysicalTime.of(multi, m.points(), link, bytes, waveformBytes);
+        double tm = PhysicalTime.of(multi, m.points(), link, bytes, PhysicalTime.waveformBytes(multi, source));
         String times = String.format(Locale.ROOT, "%.0f ms a part against %.0f ms stepped on a %s link (settles, records,"
                 + " transfers; the multisine's record %d samples a channel)", 1e3 * tm, 1e3 * ts, link.name(),
                 m.points().isEmpty() ? 0 : m.points().get(0).samples());

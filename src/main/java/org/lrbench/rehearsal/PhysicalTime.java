@@ -49,6 +49,20 @@ public final class PhysicalTime {
         return seconds;
     }
 
+    /**
+     * A multisine's waveform as the generator's driver sends it: nine characters a point in ASCII, two
+     * bytes a point in a definite block of 16-bit words; 0 for a stepped sweep.
+     */
+    public static long waveformBytes(Plan plan, org.lrbench.driver.DriverFile source) {
+        if (!plan.sweep().multisine()) {
+            return 0;
+        }
+        Integer memory = source.limits().maxArbitrarySamples();
+        int points = org.lrbench.analysis.MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
+                memory == null ? Integer.MAX_VALUE : memory).samples().length;
+        return (source.arbitraryEncoding().equals("ascii") ? 9L : 2L) * points;
+    }
+
     private static double settle(Plan plan, PointResult previous) {
         return Settle.seconds(plan.sweep(), plan.senseResistanceOhm(), previous == null ? null : previous.impedance(), 0);
     }
