@@ -37,7 +37,14 @@ final class Inputs {
      * bench ({@link ExcitationChoice}), the choice and its reason printed.
      */
     static Plan excitation(Plan plan, BenchConfig bench, DriverLoader drivers) throws ProblemsException {
-        ExcitationChoice.Choice c = ExcitationChoice.of(plan, bench, drivers);
+        return excitation(plan, bench, drivers, null);
+    }
+
+    /** As above, held to the corrections in force (see {@link ExcitationChoice#of(Plan, BenchConfig, DriverLoader,
+     * org.lrbench.calibration.Calibration)}). */
+    static Plan excitation(Plan plan, BenchConfig bench, DriverLoader drivers,
+                           org.lrbench.calibration.Calibration corrections) throws ProblemsException {
+        ExcitationChoice.Choice c = ExcitationChoice.of(plan, bench, drivers, corrections);
         if (c.said() != null) {
             System.out.println("excitation: " + c.said());
         }

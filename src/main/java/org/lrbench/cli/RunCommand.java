@@ -161,14 +161,15 @@ final class RunCommand implements Callable<Integer> {
         b = addresses.applyTo(b);
         Plan p = Inputs.plan(plan, b);
         Inputs.requireFit(p, b, benchOptions.loader());
-        p = Inputs.excitation(p, b, benchOptions.loader());
+        Calibration corrections = new CalibrationStore(calibrationOption.calibration, b.name()).load();
+        p = Inputs.excitation(p, b, benchOptions.loader(), corrections);
         SimulatedPart simulated = null;
         if (sim != null) {
             Inputs.requireFile(sim, "simulated part");
             simulated = SimulatedPart.load(sim);
         }
         PartRun.Request request = new PartRun.Request(p, PlanIdentity.sha256(plan), b, lot, serial, sim != null,
-                Home.version(), new CalibrationStore(calibrationOption.calibration, b.name()).load());
+                Home.version(), corrections);
         SinglePart.Outcome o;
         try {
             o = SinglePart.measure(new SinglePart.Request(request, benchOptions.loader(), simulated, operatorName(),

@@ -77,10 +77,10 @@ public final class LotStart {
      */
     public static Ready prepare(Request q, ResultStore store) throws ProblemsException, IOException {
         validate(q);
-        ExcitationChoice.Choice chosen = loadPlan(q);
-        Plan plan = chosen.plan();
-        // loaded once: the check gate and every part's corrections are the same ones
+        // loaded once: the check gate, the excitation and every part's corrections are the same ones
         Calibration corrections = new CalibrationStore(q.folders().calibration(), q.bench().name()).load();
+        ExcitationChoice.Choice chosen = loadPlan(q, corrections);
+        Plan plan = chosen.plan();
         String refusal = checkRefusal(q, corrections, store);
         PartRun.Request template = new PartRun.Request(plan, PlanIdentity.sha256(q.planFile()), q.bench(), q.lot(), "-",
                 q.simulated(), q.programVersion(), corrections);
@@ -138,7 +138,7 @@ public final class LotStart {
     }
 
     /** The plan, checked against the bench's ceiling and against what its drivers declare. */
-    private static ExcitationChoice.Choice loadPlan(Request q) throws ProblemsException {
+    private static ExcitationChoice.Choice loadPlan(Request q, Calibration corrections) throws ProblemsException {
         if (!Files.isRegularFile(q.planFile())) {
             throw bad("plan " + q.planFile() + ": no such file");
         }
@@ -152,7 +152,7 @@ public final class LotStart {
             throw bad(String.join("\n", problems));
         }
         // an excitation left open: the one chosen for this bench, as calibrate chose it
-        return ExcitationChoice.of(plan, q.bench(), q.drivers());
+        return ExcitationChoice.of(plan, q.bench(), q.drivers(), corrections);
     }
 
     /**

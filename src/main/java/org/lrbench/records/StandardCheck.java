@@ -80,7 +80,8 @@ public final class StandardCheck {
             throw new Refused(String.join("\n", misfit));
         }
         // an excitation left open: the one chosen for this bench, as for a lot of the same plan
-        p = org.lrbench.rehearsal.ExcitationChoice.of(p, b, drivers).plan();
+        p = org.lrbench.rehearsal.ExcitationChoice.of(p, b, drivers, new CalibrationStore(calibration, b.name()).load())
+                .plan();
         Limit limit = p.firstLimit(Characteristic.INDUCTANCE).orElseThrow(() -> new Refused(planFile
                 + ": the check standard's plan needs an inductance limit"));
         SimulatedPart sim = null;

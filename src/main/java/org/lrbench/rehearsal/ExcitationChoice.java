@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.ConcurrentHashMap;
+import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.bench.BenchConfig;
 import org.lrbench.calibration.Calibration;
 import org.lrbench.driver.DriverFile;
@@ -76,6 +77,34 @@ public final class ExcitationChoice {
         }
         CHOSEN.put(key, c);
         return c;
+    }
+
+    /**
+     * As {@link #of(Plan, BenchConfig, DriverLoader)}, held to the corrections in force: a multisine
+     * chosen where the bench's fixture compensation has a reading at every stepped frequency and not at
+     * every tone (corrections read before the choice, or for the plan stepped) would measure each part
+     * and then end it in error; the stepped sweep runs instead, and the reason says how to get the
+     * multisine. Anything else (no corrections, corrections for neither) is left to the run to judge.
+     */
+    public static Choice of(Plan plan, BenchConfig bench, DriverLoader drivers, Calibration corrections)
+            throws ProblemsException {
+        Choice c = of(plan, bench, drivers);
+        if (!c.plan().sweep().multisine() || c.said() == null || corrections == null || corrections.fixture() == null) {
+            return c;
+        }
+        var fixture = corrections.fixture();
+        Integer memory = drivers.load(bench.generator().driver(), DriverKind.SOURCE).limits().maxArbitrarySamples();
+        double[] tones = MultisineDesign.of(plan.sweep().frequenciesHz(), plan.sweep().multisineTolerance(),
+                memory == null ? Integer.MAX_VALUE : memory).frequenciesHz();
+        boolean forTones = java.util.Arrays.stream(tones).allMatch(fixture::covers);
+        boolean forSteps = plan.sweep().frequenciesHz().stream().allMatch(fixture::covers);
+        if (forTones || !forSteps) {
+            return c;
+        }
+        return new Choice(plan.withSweep(plan.sweep().withMultisine(false)), "stepped (excitation auto): the"
+                + " corrections in force (fixture of " + fixture.measuredAt() + ") were read at the stepped sweep's"
+                + " frequencies, not at the multisine's tones; lrbench calibrate with this plan reads them for the"
+                + " multisine, which this bench would run otherwise");
     }
 
     /** Forgets the choices made in this process (a test that makes one twice). */

@@ -494,6 +494,32 @@ class CommandLineTests {
     }
 
     @Test
+    void correctionsReadForTheSteppedSweepKeepAnOpenPlanStepped(@TempDir Path dir) throws Exception {
+        // a bench calibrated before its plans' excitation was chosen (or with the plan stepped): the multisine
+        // this bench would choose has tones the fixture compensation was not read at, so every part would be
+        // measured and then end in error; the run is stepped instead, and says how to get the multisine
+        Path stepped = dir.resolve("stepped.yaml");
+        Files.writeString(stepped, Files.readString(Path.of(PLAN)).replace("  settle: 20 ms",
+                "  settle: 20 ms\n  excitation: stepped"));
+        String part = HOME.resolve("simulator/parts/qfd-ind-1m0-nominal.yaml").toString();
+        Outcome cal = run("calibrate", stepped.toString(), "--sim", part, "--calibration", dir.resolve("cal").toString());
+        assertThat(cal.code()).as(cal.out() + cal.err()).isZero();
+        Outcome r = run("run", PLAN, "--lot", "LS", "--serial", "S1", "--sim", part, "--runs",
+                dir.resolve("runs").toString(), "--data", dir.resolve("data").toString(), "--calibration",
+                dir.resolve("cal").toString());
+        assertThat(r.code()).as(r.out() + r.err()).isZero();
+        assertThat(r.out()).contains("excitation: stepped (excitation auto): the corrections in force")
+                .contains("lrbench calibrate with this plan");
+        // calibrated with the open plan itself, the multisine runs
+        assertThat(run("calibrate", PLAN, "--sim", part, "--calibration", dir.resolve("cal").toString()).code()).isZero();
+        Outcome again = run("run", PLAN, "--lot", "LS", "--serial", "S2", "--sim", part, "--runs",
+                dir.resolve("runs").toString(), "--data", dir.resolve("data").toString(), "--calibration",
+                dir.resolve("cal").toString());
+        assertThat(again.code()).as(again.out() + again.err()).isZero();
+        assertThat(again.out()).contains("excitation: multisine (excitation auto)");
+    }
+
+    @Test
     void aStudyOfTheDemoPlanShowsTheSimulatedBenchFitAndSaysWhy(@TempDir Path dir) throws Exception {
         // the figures' definitions are checked in study.GaugeStudyTests; here the command end to end
         Outcome o = run("study", PLAN, "--benches", HOME.resolve("simulator/bench.yaml") + "," + HOME.resolve("simulator/bench-div8.yaml"),
