@@ -78,12 +78,20 @@ public final class MultisineCapture {
     }
 
     /**
-     * Ranges on one period, captures the plan's record, and returns one point per tone. The probe
-     * runs while the output settles (it only sets ranges): the capture starts once
-     * {@code settleSecond} has passed since the output came on, probe included.
+     * The multisine's record as the digitizer gave it, not yet analysed: what {@link #analyse} needs,
+     * so the instruments can go on (to the triangle check) while its tones are fitted.
      */
-    static List<PointResult> measure(Plan plan, MultisineDesign.Design d, Digitizer digitizer, AutoRanger ranger,
-                                     BenchClock clock, double settleSecond, boolean openCircuit, RangeMemory memory) {
+    record Taken(Plan plan, MultisineDesign.Design design, AutoRanger.Capture capture, Timing timing, int ranging,
+                 boolean openCircuit) {
+    }
+
+    /**
+     * Ranges on one period and captures the plan's record. The probe runs while the output settles
+     * (it only sets ranges): the capture starts once {@code settleSecond} has passed since the output
+     * came on, probe included.
+     */
+    static Taken capture(Plan plan, MultisineDesign.Design d, Digitizer digitizer, AutoRanger ranger,
+                         BenchClock clock, double settleSecond, boolean openCircuit, RangeMemory memory) {
         SineSweep sweep = plan.sweep();
         long on = clock.nanoTime();
         double[] known = memory == null ? null : memory.multisinePeaks(plan);
@@ -112,6 +120,20 @@ public final class MultisineCapture {
             memory.rememberMultisine(plan, new double[] {SweepRunner.peak(capture.sense().volts()),
                 SweepRunner.peak(capture.part().volts()), perPeriod});
         }
+        return new Taken(plan, d, capture, timing, ranging, openCircuit);
+    }
+
+    /**
+     * One point per tone of a captured record. Computing only, no instrument: it may run on a thread
+     * of its own while the instruments go on.
+     */
+    static List<PointResult> analyse(Taken taken) {
+        Plan plan = taken.plan();
+        MultisineDesign.Design d = taken.design();
+        AutoRanger.Capture capture = taken.capture();
+        Timing timing = taken.timing();
+        int ranging = taken.ranging();
+        boolean openCircuit = taken.openCircuit();
         double[][] v = SweepRunner.volts(plan, capture);
         double dt = capture.sense().intervalSecond();
         double[] tones = d.frequenciesHz();

@@ -1,7 +1,9 @@
 package org.lrbench.measure;
 
 /**
- * Hears a sweep as it runs. Each point is reported once, after it is measured, in sweep order.
+ * Hears a sweep as it runs. Each point is reported once, after it is measured, in sweep order; a
+ * multisine's points come from the thread that fitted them (while the instruments go on), every
+ * call before the sweep returns.
  * Every method is an empty default, so a listener implements only what it needs. A listener
  * observes and never steers: the sweep calls it through {@link #isolated}, so whatever it throws
  * is logged with its name and changes neither the measurement nor its result. Stopping is a

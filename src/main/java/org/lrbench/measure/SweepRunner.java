@@ -17,7 +17,8 @@ import org.lrbench.plan.SineSweep;
  * Runs a plan's sweep on a generator and a digitizer: sets both instruments up, switches the
  * output on, measures the sweep by its excitation ({@link SteppedSweep}, one frequency after
  * another; {@link MultisineCapture}, every frequency in one record), hands the points over
- * ({@link AfterSweep}), then the plan's triangle check ({@link TriangleCapture}); each record is
+ * ({@link AfterSweep}), then the plan's triangle check ({@link TriangleCapture}; a multisine's tones
+ * are fitted while it is measured, {@link MultisineAhead}); each record is
  * taken by {@link TimedCapture}. On instruments kept open the ranges of a part's first capture
  * come from the part before ({@link RangeMemory}). The caller owns the generator output's safety:
  * this class switches it on and off, and the caller switches it off again on every exit path.
@@ -112,25 +113,21 @@ public final class SweepRunner {
                 generator.outputOn();
             });
             long outputOnAt = clock.nanoTime();
-            List<PointResult> points;
             if (multisine != null) {
                 stop.checkpoint();
-                points = MultisineCapture.measure(plan, multisine, digitizer, ranger, clock,
+                MultisineCapture.Taken taken = MultisineCapture.capture(plan, multisine, digitizer, ranger, clock,
                         Settle.seconds(sweep, plan.senseResistanceOhm(), null, generator.frequencySettleSecond()),
                         openCircuit, memory);
-                for (int i = 0; i < points.size(); i++) {
-                    listener.pointMeasured(i, points.size(), points.get(i));
-                }
-            } else {
-                points = new SteppedSweep(bench, plan).run(ranger, listener, stop, outputOnAt, triangle);
+                return new MultisineAhead(taken, listener, afterSweep).thenTriangle(triangle, stop, memory, plan);
             }
+            List<PointResult> points = new SteppedSweep(bench, plan).run(ranger, listener, stop, outputOnAt, triangle);
             afterSweep.sweepComplete(List.copyOf(points));
             stop.checkpoint();
             double[] peaks = new double[2];
             TriangleExtraction.Result t = triangle.wanted()
                     ? triangle.measure(points.get(points.size() - 1).impedance(), peaks) : null;
-            if (memory != null && (multisine == null || t != null)) {
-                // a multisine keeps its own ranges (MultisineCapture); the stepped sweep its first point's
+            if (memory != null) {
+                // the stepped sweep's first point's ranges (a multisine keeps its own: MultisineAhead)
                 memory.remember(plan, points.get(0).impedance(), t == null ? null : peaks);
             }
             return new Measurement(List.copyOf(points), t);
