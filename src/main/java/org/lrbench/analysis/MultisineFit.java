@@ -93,7 +93,7 @@ public final class MultisineFit {
     }
 
     /** {sum y cos(n p), sum y sin(n p)}: a phasor turned by p per sample, set exactly every ANCHOR samples. */
-    private static double[] dataSums(double[] y, double p) {
+    static double[] dataSums(double[] y, double p) {
         double cp = Math.cos(p);
         double sp = Math.sin(p);
         double syc = 0;

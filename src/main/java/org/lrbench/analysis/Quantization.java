@@ -271,7 +271,31 @@ public final class Quantization {
     static double noise(double[] y, double[] s, double step) {
         // at most SUBSET samples, evenly spaced through the record: enough for a correction that
         // hardly depends on sigma where sigma is small
-        int stride = Math.max(1, (y.length + SUBSET - 1) / SUBSET);
+        return noise(y, s, step, SUBSET, Math.log(1e-3 * step), Math.log(step), 22);
+    }
+
+    /**
+     * The same from at most {@code samples} samples, evenly spaced through the record: first from
+     * {@value #SUBSET}, then searched again from all of them within a factor {@value #REFINE} of that
+     * first estimate, to 0.2 % (where more samples make the estimate surer, its search need not start
+     * from the whole range again).
+     */
+    static double noise(double[] y, double[] s, double step, int samples) {
+        if (samples <= SUBSET) {
+            return noise(y, s, step, samples, Math.log(1e-3 * step), Math.log(step), 22);
+        }
+        double rough = noise(y, s, step, SUBSET);
+        double lo = Math.max(Math.log(1e-3 * step), Math.log(rough / REFINE));
+        double hi = Math.min(Math.log(step), Math.log(rough * REFINE));
+        return noise(y, s, step, samples, lo, hi, 14);
+    }
+
+    /** How far from the first estimate the second search looks (a factor either way). */
+    private static final double REFINE = 2.5;
+
+    /** Golden-section search of the likelihood over log sigma in [lo, hi], {@code iterations} steps. */
+    private static double noise(double[] y, double[] s, double step, int samples, double lo, double hi, int iterations) {
+        int stride = Math.max(1, (y.length + samples - 1) / samples);
         int m = (y.length + stride - 1) / stride;
         double[] toUpper = new double[m];
         double[] toLower = new double[m];
@@ -280,14 +304,12 @@ public final class Quantization {
             toUpper[j] = y[i] + step / 2 - s[i];
             toLower[j] = y[i] - step / 2 - s[i];
         }
-        double lo = Math.log(1e-3 * step);
-        double hi = Math.log(step);
         double r = (Math.sqrt(5) - 1) / 2;
         double x1 = hi - r * (hi - lo);
         double x2 = lo + r * (hi - lo);
         double f1 = logLikelihood(toUpper, toLower, Math.exp(x1));
         double f2 = logLikelihood(toUpper, toLower, Math.exp(x2));
-        for (int i = 0; i < 22; i++) {
+        for (int i = 0; i < iterations; i++) {
             if (f1 > f2) {
                 hi = x2;
                 x2 = x1;

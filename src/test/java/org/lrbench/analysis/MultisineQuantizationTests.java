@@ -83,4 +83,35 @@ class MultisineQuantizationTests {
         y[777] += 0.25;
         assertThat(MultisineQuantization.codeStep(y)).isNaN();
     }
+
+    /**
+     * The corrected phasors' standard uncertainty against their scatter over records that differ
+     * only in the noise: a Monte Carlo check of an uncertainty (JCGM 101:2008, GUM Supplement 1,
+     * propagation of distributions by a Monte Carlo method). Noise a twentieth of a step, the two
+     * large tones and a small one of three codes, 30 records: the scatter over the reported u within
+     * 0.75 to 1.33 for every tone (an estimate from 30 records is good to about 13 %). Failed before:
+     * the fit's own u, worked out from a residual that holds the repeatable error, was 1.7 times the
+     * scatter, and the correction, made with the noise estimated from 256 samples, scattered the
+     * phasors by up to 1.8 times that u.
+     */
+    @Test
+    void theCorrectedPhasorsUncertaintyIsTheirScatter() {
+        int records = 30;
+        double[][] cosine = new double[TONES.length][records];
+        double[] variance = new double[TONES.length];
+        for (int r = 0; r < records; r++) {
+            double[] y = record(3, 0.05, 100 + r);
+            SineFitResult[] f = MultisineQuantization.corrected(y, DT, TONES, MultisineFit.fit(y, DT, TONES));
+            for (int k = 0; k < TONES.length; k++) {
+                cosine[k][r] = f[k].cosineCoefficient();
+                variance[k] += f[k].varianceCosine() / records;
+            }
+        }
+        for (int k = 0; k < TONES.length; k++) {
+            double mean = java.util.Arrays.stream(cosine[k]).average().orElseThrow();
+            double scatter = Math.sqrt(java.util.Arrays.stream(cosine[k]).map(x -> (x - mean) * (x - mean)).sum()
+                    / (records - 1));
+            assertThat(scatter / Math.sqrt(variance[k])).as("tone %d", k).isBetween(0.75, 1.33);
+        }
+    }
 }
