@@ -52,10 +52,13 @@ public final class ExcitationChoice {
     public record Choice(Plan plan, String said) {
     }
 
-    /** Choices made in this process, by plan, bench and driver folder: a lot's parts all get the same. */
+    /**
+     * Choices made in this process, by plan, bench, driver folder and the instruments' driver files'
+     * text: a lot's parts all get the same.
+     */
     private static final Map<List<Object>, Choice> CHOSEN = new ConcurrentHashMap<>();
 
-    /** The twin's two measurements, by plan, bench (its timing aside) and driver folder. */
+    /** The twin's two measurements, by plan, bench (its timing aside), driver folder and driver files' text. */
     private static final Map<List<Object>, Twin[]> TWINS = new ConcurrentHashMap<>();
 
     private ExcitationChoice() {
@@ -66,7 +69,7 @@ public final class ExcitationChoice {
         if (!plan.sweep().excitationOpen()) {
             return new Choice(plan, null);
         }
-        List<Object> key = List.of(plan, bench, drivers.directory());
+        List<Object> key = List.of(plan, bench, drivers.directory(), driverTexts(bench, drivers));
         Choice known = CHOSEN.get(key);
         if (known != null) {
             return known;
@@ -107,6 +110,23 @@ public final class ExcitationChoice {
                 + " multisine, which this bench would run otherwise");
     }
 
+    /**
+     * The generator's and the digitizer's driver files as they are now: part of what a choice is
+     * remembered by, so that a long-running service sees a driver file edited under it (an unreadable
+     * file is left for the choice itself to report).
+     */
+    private static List<String> driverTexts(BenchConfig bench, DriverLoader drivers) {
+        List<String> texts = new ArrayList<>();
+        for (String name : List.of(bench.generator().driver(), bench.digitizer().driver())) {
+            try {
+                texts.add(java.nio.file.Files.readString(drivers.directory().resolve(name + ".yaml")));
+            } catch (java.io.IOException | RuntimeException e) {
+                texts.add("unreadable: " + e);
+            }
+        }
+        return texts;
+    }
+
     /** Forgets the choices made in this process (a test that makes one twice). */
     static void forget() {
         CHOSEN.clear();
@@ -128,7 +148,7 @@ public final class ExcitationChoice {
             // the twin's instruments answer at once whatever the bench's link: one pair of measurements
             // serves every link
             List<Object> key = List.of(plan, bench.withSimulation(bench.simulation().withTiming(SimTiming.NONE)),
-                    drivers.directory());
+                    drivers.directory(), driverTexts(bench, drivers));
             Twin[] pair = TWINS.get(key);
             if (pair == null) {
                 PartModel part = Rehearsal.nominal(plan);

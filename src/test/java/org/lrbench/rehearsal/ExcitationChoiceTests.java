@@ -86,6 +86,27 @@ class ExcitationChoiceTests {
                 .contains("arbitrary-waveform commands");
     }
 
+    /**
+     * A long-running service remembers its choices: a driver file edited under it (here the generator's
+     * arbitrary-waveform commands taken out) is a new bench, chosen for again, not the old answer.
+     */
+    @Test
+    void aDriverFileEditedUnderTheProcessIsChosenForAgain(@org.junit.jupiter.api.io.TempDir Path dir) throws Exception {
+        for (String name : new String[] {"generic-source", "generic-digitizer", "generic-dmm", "generic-switch"}) {
+            java.nio.file.Files.copy(HOME.resolve("drivers").resolve(name + ".yaml"), dir.resolve(name + ".yaml"));
+        }
+        DriverLoader folder = new DriverLoader(dir);
+        BenchConfig b = bench("bench.yaml", SimTiming.LAN);
+        assertThat(ExcitationChoice.of(demoPlan(null), b, folder).plan().sweep().multisine()).isTrue();
+        Path source = dir.resolve("generic-source.yaml");
+        String text = java.nio.file.Files.readString(source);
+        java.nio.file.Files.writeString(source, text.lines().filter(l -> !l.trim().startsWith("arbitrary_"))
+                .collect(java.util.stream.Collectors.joining("\n", "", "\n")));
+        var again = ExcitationChoice.of(demoPlan(null), b, folder);
+        assertThat(again.plan().sweep().multisine()).as(again.said()).isFalse();
+        assertThat(again.said()).startsWith("stepped (excitation auto): the multisine is not possible here");
+    }
+
     @Test
     void aSerialLinkIsTakenAtItsBaudRate() throws Exception {
         BenchConfig b = bench("bench.yaml", SimTiming.NONE);
