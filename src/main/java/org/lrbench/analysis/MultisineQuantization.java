@@ -47,8 +47,9 @@ public final class MultisineQuantization {
         int reach = (int) Math.ceil(REACH * s) + 1;
         double[] error = new double[y.length];
         // each sample's squared departure from its expected code: what is left random once the
-        // repeatable error is known (the noise as the quantizer passes it on, and anything unmodelled)
-        double[] departure = new double[y.length];
+        // repeatable error is known (the noise as the quantizer passes it on, and anything unmodelled);
+        // kept in the model's array, each sample's model being needed no more once its error is known
+        double[] departure = model;
         double rss = 0;
         for (int i = 0; i < y.length; i++) {
             double u = (model[i] - origin) / step;
@@ -58,10 +59,10 @@ public final class MultisineQuantization {
                 e += phi((u - m - j + 0.5) / s) - phi((m - j + 0.5 - u) / s);
             }
             error[i] = origin + step * e - model[i];
-            double d = y[i] - origin - step * e;
-            departure[i] = d * d;
             double r = y[i] - model[i];
             rss += r * r;
+            double d = y[i] - origin - step * e;
+            departure[i] = d * d;
         }
         SineFitResult[] err = MultisineFit.fit(error, intervalSecond, tonesHz);
         SineFitResult[] out = new SineFitResult[fit.length];
