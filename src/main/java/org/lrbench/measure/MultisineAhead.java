@@ -2,7 +2,6 @@ package org.lrbench.measure;
 
 import java.util.List;
 import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.CompletionException;
 import org.lrbench.analysis.TriangleExtraction;
 import org.lrbench.plan.Plan;
 
@@ -71,17 +70,7 @@ final class MultisineAhead {
 
     /** The fitted points, waiting for them; a fit that failed throws its own reason here. */
     private List<PointResult> points() {
-        try {
-            return points.join();
-        } catch (CompletionException e) {
-            if (e.getCause() instanceof RuntimeException r) {
-                throw r;
-            }
-            if (e.getCause() instanceof Error r) {
-                throw r;
-            }
-            throw e;
-        }
+        return MultisineCapture.joined(points);
     }
 
     /** What the fit threw, once it has ended; null when it succeeded. */

@@ -204,11 +204,14 @@ public final class MultisineCapture {
     }
 
     /** A worker's result, or what it threw as it was thrown (not wrapped). */
-    private static <T> T joined(java.util.concurrent.CompletableFuture<T> f) {
+    static <T> T joined(java.util.concurrent.CompletableFuture<T> f) {
         try {
             return f.join();
         } catch (java.util.concurrent.CompletionException e) {
             if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error r) {
                 throw r;
             }
             throw e;

@@ -17,6 +17,11 @@ import org.lrbench.sim.SimSettings;
 class MultisineSweepTests {
 
     private static Plan plan(String excitation) throws Exception {
+        return plan(excitation, "fixed", "");
+    }
+
+    /** The sweep with this excitation and settle rule, and {@code more} (plan lines) after it. */
+    private static Plan plan(String excitation, String settleRule, String more) throws Exception {
         return PlanLoader.parse("""
                 plan_format: 1
                 part_number: T-1
@@ -27,9 +32,10 @@ class MultisineSweepTests {
                   cycles: 10
                   samples_per_cycle: 200
                   settle: 1 ms
+                  settle_rule: %s
                   excitation: %s
-                limits: [{characteristic: inductance, nominal: 1 mH, tolerance: 10 %%}]
-                """.formatted(excitation), "t.yaml", 5.0);
+                %slimits: [{characteristic: inductance, nominal: 1 mH, tolerance: 10 %%}]
+                """.formatted(settleRule, excitation, more), "t.yaml", 5.0);
     }
 
     @Test
@@ -88,22 +94,9 @@ class MultisineSweepTests {
         }
     }
 
-    private static Plan withTriangle(String settle) throws Exception {
-        return PlanLoader.parse("""
-                plan_format: 1
-                part_number: T-1
-                fixture: {sense_resistor: 100 ohm}
-                sine_sweep:
-                  amplitude: 3 V
-                  log_sweep: {start: 200 Hz, stop: 20 kHz, points: 7}
-                  cycles: 10
-                  samples_per_cycle: 200
-                  settle: 1 ms
-                  settle_rule: %s
-                  excitation: multisine
-                triangle_check: {amplitude: 3 V, frequency: 500 Hz, cycles: 10, samples_per_cycle: 400, harmonics: 31}
-                limits: [{characteristic: inductance, nominal: 1 mH, tolerance: 10 %%}]
-                """.formatted(settle), "t.yaml", 5.0);
+    private static Plan withTriangle(String settleRule) throws Exception {
+        return plan("multisine", settleRule,
+                "triangle_check: {amplitude: 3 V, frequency: 500 Hz, cycles: 10, samples_per_cycle: 400, harmonics: 31}\n");
     }
 
     /**
