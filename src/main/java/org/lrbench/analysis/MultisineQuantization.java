@@ -23,7 +23,7 @@ public final class MultisineQuantization {
      * depends on it where the noise is well under a step (the expected code's slope is steep near
      * each threshold): from 256 samples, as a single sine's gain takes it, the estimate scattered by
      * a quarter from record to record at a twentieth of a step and the corrected phasors by up to
-     * four times the fit's own scatter; from 65536 by about 2 %, and the corrected phasors scatter as
+     * four times the fit's own scatter; from 32768 by about 2 to 3 %, and the corrected phasors scatter as
      * the fit's (measured on three-tone records, MultisineQuantizationTests).
      */
     static final int NOISE_SAMPLES = 1 << 15;
@@ -31,7 +31,16 @@ public final class MultisineQuantization {
     private MultisineQuantization() {
     }
 
-    /** The tones' phasors of samples {@code y} with the repeatable quantization error taken off. */
+    /**
+     * The tones' phasors of samples {@code y} with the repeatable quantization error taken off. The
+     * error is worked out twice: about the fitted phasors, then again about the phasors once corrected
+     * (the noise held at its first estimate), and that second error is the one taken off the fit. The
+     * fitted phasors carry the error itself, so an error worked out about them is off where the expected
+     * code is steep; on the 100 mH part resonating in its sweep some tones kept one to two standard
+     * uncertainties of it the same way on every record, within about half a u after the second. (Repeated
+     * further with the noise estimated afresh each time, the correction diverged: the noise estimate
+     * follows the model it is made about.)
+     */
     public static SineFitResult[] corrected(double[] y, double intervalSecond, double[] tonesHz, SineFitResult[] fit) {
         double step = codeStep(y);
         if (!(step > 0) || fit.length == 0) {
@@ -42,15 +51,43 @@ public final class MultisineQuantization {
         if (sigma > 0.9 * step) {
             return fit;
         }
+        int n = y.length;
+        double rss = 0;
+        for (int i = 0; i < n; i++) {
+            double r = y[i] - model[i];
+            rss += r * r;
+        }
+        // the fit's own residual variance, whose covariance the departures' estimate rescales
+        double fitVariance = rss / (n - 2 * tonesHz.length - 1);
+        SineFitResult[] first = minus(fit, MultisineFit.fit(expectedError(y, model, step, sigma, null), intervalSecond,
+                tonesHz), null);
+        double[] again = synthesized(n, intervalSecond, tonesHz, first);
+        double[] departure = new double[n];
+        SineFitResult[] err = MultisineFit.fit(expectedError(y, again, step, sigma, departure), intervalSecond, tonesHz);
+        double sum = 0;
+        for (double d : departure) {
+            sum += d;
+        }
+        double[][] covariance = new double[fit.length][];
+        for (int k = 0; k < fit.length; k++) {
+            double[] twice = MultisineFit.dataSums(departure, 4 * Math.PI * tonesHz[k] * intervalSecond);
+            covariance[k] = covariance(fit[k], n, fitVariance, sum, twice);
+        }
+        return minus(fit, err, covariance);
+    }
+
+    /**
+     * Each sample's expected quantizer output about {@code model} (the noise ahead of the quantizer
+     * averaged over) less the model: the repeatable error, sample by sample. With {@code departure}
+     * given, each sample's squared departure from its expected code goes there: what is left random
+     * once the repeatable error is known (the noise as the quantizer passes it on, and anything
+     * unmodelled).
+     */
+    private static double[] expectedError(double[] y, double[] model, double step, double sigma, double[] departure) {
         double origin = y[0];
         double s = Math.max(sigma / step, 1e-6);
         int reach = (int) Math.ceil(REACH * s) + 1;
         double[] error = new double[y.length];
-        // each sample's squared departure from its expected code: what is left random once the
-        // repeatable error is known (the noise as the quantizer passes it on, and anything unmodelled);
-        // kept in the model's array, each sample's model being needed no more once its error is known
-        double[] departure = model;
-        double rss = 0;
         for (int i = 0; i < y.length; i++) {
             double u = (model[i] - origin) / step;
             double m = Math.rint(u);
@@ -59,23 +96,21 @@ public final class MultisineQuantization {
                 e += phi((u - m - j + 0.5) / s) - phi((m - j + 0.5 - u) / s);
             }
             error[i] = origin + step * e - model[i];
-            double r = y[i] - model[i];
-            rss += r * r;
-            double d = y[i] - origin - step * e;
-            departure[i] = d * d;
+            if (departure != null) {
+                double d = y[i] - origin - step * e;
+                departure[i] = d * d;
+            }
         }
-        SineFitResult[] err = MultisineFit.fit(error, intervalSecond, tonesHz);
+        return error;
+    }
+
+    /** The fit less the error's phasors; with its covariance replaced where one is given. */
+    private static SineFitResult[] minus(SineFitResult[] fit, SineFitResult[] err, double[][] covariance) {
         SineFitResult[] out = new SineFitResult[fit.length];
-        int n = y.length;
-        double fitVariance = rss / (n - 2 * tonesHz.length - 1);
-        double sum = 0;
-        for (double d : departure) {
-            sum += d;
-        }
         for (int k = 0; k < fit.length; k++) {
             SineFitResult f = fit[k];
-            double[] twice = MultisineFit.dataSums(departure, 4 * Math.PI * tonesHz[k] * intervalSecond);
-            double[] c = covariance(f, n, fitVariance, sum, twice);
+            double[] c = covariance == null ? new double[] {f.varianceCosine(), f.varianceSine(), f.covarianceCosineSine()}
+                    : covariance[k];
             out[k] = new SineFitResult(f.frequencyHz(), f.cosineCoefficient() - err[k].cosineCoefficient(),
                     f.sineCoefficient() - err[k].sineCoefficient(), f.offset() - err[k].offset(), f.residualRms(),
                     c[0], c[1], c[2], f.samples());
