@@ -260,7 +260,6 @@ public final class ThroughputBenchmark {
         return misses;
     }
 
-    /** Whether the plan's multisine fits the simulated generator's waveform memory. */
     /**
      * The multisine plan with its tolerance widened as the refusal of a design that needs more waveform
      * samples than the simulated generator holds advises (5 %, then the plan format's 10 %); the plan itself
@@ -276,6 +275,7 @@ public final class ThroughputBenchmark {
         return p;
     }
 
+    /** Whether the plan's multisine fits the simulated generator's waveform memory. */
     private static boolean fits(Plan p) {
         try {
             MultisineDesign.of(p.sweep().frequenciesHz(), p.sweep().multisineTolerance(),
@@ -443,7 +443,7 @@ public final class ThroughputBenchmark {
                 seconds, queries(inst) - q0, points.size(), expanded);
     }
 
-    /** The settle the plan's rule asks for at a point. */
+    /** Queries sent so far on the instruments' sessions. */
     private static long queries(BenchInstruments inst) {
         return inst.sessions().stream().mapToLong(ScpiSession::queries).sum();
     }

@@ -60,9 +60,7 @@ final class CheckCommand implements Callable<Integer> {
                 Units.format(p.sweep().highestHz(), Dimension.FREQUENCY),
                 p.limits().size(), b.name());
         System.out.println("drivers: " + String.join("; ", loaded));
-        String said = org.lrbench.rehearsal.ExcitationChoice.of(p, b, loader).said();
-        System.out.println("excitation: " + (said != null ? said
-                : (p.sweep().multisine() ? "multisine" : "stepped") + " (the plan's)"));
+        System.out.println("excitation: " + org.lrbench.rehearsal.ExcitationChoice.of(p, b, loader).described());
         for (String w : PlanAdvice.warnings(p)) {
             System.out.println("warning: " + plan + ": " + w);
         }

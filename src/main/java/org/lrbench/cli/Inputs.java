@@ -1,7 +1,5 @@
 package org.lrbench.cli;
 
-import org.lrbench.rehearsal.ExcitationChoice;
-
 import java.nio.file.Files;
 import java.nio.file.Path;
 import org.lrbench.bench.BenchConfig;
@@ -10,6 +8,7 @@ import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.PlanFit;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
+import org.lrbench.rehearsal.ExcitationChoice;
 import org.lrbench.transport.Address;
 import org.lrbench.transport.AddressException;
 import org.lrbench.transport.Transports;

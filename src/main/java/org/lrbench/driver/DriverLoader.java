@@ -34,12 +34,12 @@ public final class DriverLoader {
         this.directory = directory;
     }
 
-    /** Loads a driver by name from the drivers folder. */
     /** The folder the driver files are read from. */
     public Path directory() {
         return directory;
     }
 
+    /** Loads a driver by name from the drivers folder. */
     public DriverFile load(String name, DriverKind expected) throws ProblemsException {
         return load(name, expected, null);
     }

@@ -38,11 +38,11 @@ final class MultisineAhead {
             return new SweepRunner.Measurement(List.copyOf(points()), null);
         }
         triangle.set();
-        stop.checkpoint();
         double[] peaks = new double[2];
         List<PointResult> p;
         TriangleExtraction.Result t;
         try {
+            stop.checkpoint();
             if (plan.sweep().settleFromCircuit()) {
                 p = points();
                 t = triangle.measure(p.get(p.size() - 1).impedance(), peaks);
@@ -51,6 +51,10 @@ final class MultisineAhead {
                 t = triangle.measure(null, peaks);
                 p = points();
             }
+        } catch (MeasurementStopped e) {
+            // stopped: the fit still ends (and reports its points) before the sweep does
+            failure();
+            throw e;
         } catch (RuntimeException e) {
             // the record came first: a fault its fit found (no current: an open fixture) is the reason,
             // not what the triangle met after it

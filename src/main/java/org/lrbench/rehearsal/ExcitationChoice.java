@@ -50,6 +50,15 @@ public final class ExcitationChoice {
 
     /** The plan with its excitation given, and what was chosen and why in one sentence (null: the plan's own). */
     public record Choice(Plan plan, String said) {
+        /** What runs and why: the reason for the choice, or that the plan gave it. */
+        public String described() {
+            return ExcitationChoice.described(plan, said);
+        }
+    }
+
+    /** What runs and why, for a plan as it runs and the reason it was chosen (null: the plan gave it). */
+    public static String described(Plan plan, String said) {
+        return said != null ? said : (plan.sweep().multisine() ? "multisine" : "stepped") + " (the plan's)";
     }
 
     /**

@@ -228,8 +228,8 @@ public final class BenchService implements AutoCloseable {
                 "severity", setup.scheme().severity().word(), "severity_reason", setup.scheme().why(),
                 "supplier", setup.scheme().supplier()));
         started.put("corrections", setup.template().calibration().inForce());
-        started.put("excitation", ready.excitation() != null ? ready.excitation()
-                : setup.template().plan().sweep().multisine() ? "multisine (the plan's)" : "stepped (the plan's)");
+        started.put("excitation", org.lrbench.rehearsal.ExcitationChoice.described(setup.template().plan(),
+                ready.excitation()));
         r.events.add("run_started", started);
         LotRunner.Setup go = setup.withListener(points);
         r.thread = new Thread(() -> {

@@ -139,6 +139,33 @@ class MultisineSweepTests {
     }
 
     /**
+     * A stop asked once the record is in (the operator's, between the record and the triangle): the
+     * sweep ends stopped, with the output off, and only after the tones' fit has reported every point,
+     * so no observer hears of the sweep after it ended. Common practice, no source: a stopped run
+     * leaves nothing running behind it.
+     */
+    @Test
+    void aStopAfterTheRecordEndsTheSweepOnlyOnceItsPointsAreReported() throws Exception {
+        TestBench bench = new TestBench(SimSettings.defaults().withSeed(7), 100, new PartModel(1e-3, 2.3, 0),
+                TestBench.genericDigitizer());
+        java.util.concurrent.atomic.AtomicInteger asked = new java.util.concurrent.atomic.AtomicInteger();
+        java.util.concurrent.atomic.AtomicInteger reported = new java.util.concurrent.atomic.AtomicInteger();
+        // the first check is before the record, the second after it
+        StopToken stop = () -> asked.incrementAndGet() >= 2;
+        SweepListener listener = new SweepListener() {
+            @Override
+            public void pointMeasured(int index, int count, PointResult point) {
+                reported.incrementAndGet();
+            }
+        };
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> new SweepRunner(bench.generator, bench.digitizer,
+                        BenchClock.NONE).run(withTriangle("fixed"), listener, stop, AfterSweep.NOTHING))
+                .isInstanceOf(MeasurementStopped.class);
+        assertThat(reported.get()).as("points reported when the sweep ended").isEqualTo(7);
+        assertThat(bench.sim.generator().isOutputOn()).isFalse();
+    }
+
+    /**
      * On an open fixture the record shows no current: that is the reason given, not whatever the
      * triangle check met after it while the tones were being fitted.
      */
