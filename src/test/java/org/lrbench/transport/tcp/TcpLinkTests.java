@@ -129,6 +129,7 @@ class TcpLinkTests {
             int code = Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
                     "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
                     "--digitizer", "tcp://127.0.0.1:" + proxy.port(), "--runs", dir.toString(),
+                    "--data", dir.resolve("data").toString(),
                     "--calibration", dir.resolve("none").toString());
             assertThat(code).isEqualTo(3);
             assertThat(sim.generator().isOutputOn()).isFalse();
@@ -150,6 +151,7 @@ class TcpLinkTests {
             int code = Main.execute("run", HOME.resolve("plans/qfd-ind-1m0.yaml").toString(),
                     "--lot", "L", "--serial", "S", "--generator", "tcp://127.0.0.1:" + server.generatorPort(),
                     "--digitizer", "tcp://127.0.0.1:1?connect_timeout_ms=500", "--runs", dir.toString(),
+                    "--data", dir.resolve("data").toString(),
                     "--calibration", dir.resolve("none").toString());
             assertThat(code).isEqualTo(3);
             assertThat(sim.generator().isOutputOn()).isFalse();
