@@ -7,6 +7,7 @@ import org.apache.commons.math3.complex.Complex;
 import org.lrbench.analysis.FixturePhasors;
 import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.PhasorImpedance;
+import org.lrbench.analysis.RecordFrequency;
 import org.lrbench.analysis.SineFitResult;
 import org.lrbench.fixture.FixtureWiring;
 import org.lrbench.instrument.Timing;
@@ -117,8 +118,11 @@ final class SteppedSweep {
         Timing timing = c.timing();
         double[][] v = SweepRunner.volts(plan, capture);
         FixtureWiring w = plan.wiring();
+        // the sines at the frequency the record shows where the runner asks for it (long records), else the setting
+        double fitHz = bench.frequencyFromRecord() ? RecordFrequency.of(capture.sense().volts(), capture.part().volts(),
+                capture.sense().intervalSecond(), f) : f;
         FixturePhasors.Result phasors = FixturePhasors.of(capture.sense().volts(), capture.part().volts(),
-                capture.sense().intervalSecond(), f, SweepRunner.attenuation(plan, 1), SweepRunner.attenuation(plan, 2),
+                capture.sense().intervalSecond(), fitHz, SweepRunner.attenuation(plan, 1), SweepRunner.attenuation(plan, 2),
                 FixtureWiring.lowSide(w));
         SineFitResult sense = phasors.sense();
         SineFitResult part = phasors.part();

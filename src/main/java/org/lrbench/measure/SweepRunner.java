@@ -39,6 +39,7 @@ public final class SweepRunner {
 
     private final boolean openCircuit;
     private final RangeMemory memory;
+    private final boolean frequencyFromRecord;
 
     public SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock) {
         this(generator, digitizer, clock, false);
@@ -59,11 +60,26 @@ public final class SweepRunner {
 
     private SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock, boolean openCircuit,
                         RangeMemory memory) {
+        this(generator, digitizer, clock, openCircuit, memory, false);
+    }
+
+    private SweepRunner(Generator generator, Digitizer digitizer, BenchClock clock, boolean openCircuit,
+                        RangeMemory memory, boolean frequencyFromRecord) {
         this.generator = generator;
         this.digitizer = digitizer;
         this.clock = clock;
         this.openCircuit = openCircuit;
         this.memory = openCircuit ? null : memory;
+        this.frequencyFromRecord = frequencyFromRecord;
+    }
+
+    /**
+     * The same runner with each stepped point's sines fitted at the frequency its record shows (see
+     * {@link org.lrbench.analysis.RecordFrequency}) rather than the generator's setting: for records of hundreds of cycles,
+     * where a generator whose time base is off the digitizer's by a few ppm walks a visible phase.
+     */
+    public SweepRunner fittingFrequency() {
+        return new SweepRunner(generator, digitizer, clock, openCircuit, memory, true);
     }
 
     /** The sweep points and, when the plan asks for it, the triangle-wave check. */
@@ -97,7 +113,7 @@ public final class SweepRunner {
         // no node of this passive circuit exceeds the source EMF: start both channels above it
         double start = START_RANGE_PER_PEAK * sweep.peakEmfVolt();
         AutoRanger ranger = new AutoRanger(digitizer, start, start);
-        SweepBench bench = new SweepBench(generator, digitizer, clock, memory, openCircuit);
+        SweepBench bench = new SweepBench(generator, digitizer, clock, memory, openCircuit, frequencyFromRecord);
         TriangleCapture triangle = new TriangleCapture(bench, plan);
         try {
             generator.batch(() -> {

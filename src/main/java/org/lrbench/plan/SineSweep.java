@@ -66,6 +66,12 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
                 modelTerms, distortionLimit, settleFromCircuit, multisine, multisineTolerance, excitationOpen);
     }
 
+    /** The same sweep with this many cycles in each capture. */
+    public SineSweep withCycles(int count) {
+        return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, count, samplesPerCycle, settleSecond, modelTerms,
+                distortionLimit, settleFromCircuit, multisine, multisineTolerance, excitationOpen);
+    }
+
     /** The same sweep stepped, or as one multisine: the excitation given, no longer open. */
     public SineSweep withMultisine(boolean asMultisine) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,

@@ -72,9 +72,11 @@ public final class CalibrationRun {
                     points.get(i).quantizationRelativeUncertainty());
         }
         String at = now();
+        RangeLinkCapture.Result read = linked[0];
         ChannelMatch m = ChannelMatch.fit(at, f, ratio, u).withRangePairs(points.stream()
                 .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList())
-                .withLinks(RangeLinks.solve(at, linked[0]));
+                .withLinks(RangeLinks.solve(at, read.frequencyHz(), withMatchReadings(read.readings(), points, ratio, u),
+                        read.unread()));
         double finest = points.stream().mapToDouble(PointResult::sampleIntervalSecond).min().orElse(0);
         List<String> problems = Plausibility.channelMatch(m, f, ratio, u, accuracy, finest);
         if (!problems.isEmpty()) {
@@ -82,6 +84,41 @@ public final class CalibrationRun {
                     + " sense resistor? Channel 2 still across the part reads the part, not the channels");
         }
         return m;
+    }
+
+    /**
+     * The range links' readings and the match's own points, each one more reading of its range pair (the
+     * magnitude of V2 / V1 with its relative standard uncertainty), so that the least-squares solution
+     * gives a pair the match read directly the weight of those readings. Without them a pair's ratio came
+     * from the links alone: on a low-side fixture, where the short is the small difference of two large
+     * channel readings, the links' ratio for the match's own range pair was 2.5e-4 off the match's
+     * readings on it (twice the links' uncertainty, eight times the readings'), and every short read 25
+     * mohm low. A point's ranges are put on the links' own range values where they agree to 1e-6.
+     */
+    static List<RangeLinkCapture.Reading> withMatchReadings(List<RangeLinkCapture.Reading> links,
+                                                            List<PointResult> points, List<Complex> ratio, double[] u) {
+        List<RangeLinkCapture.Reading> all = new ArrayList<>(links);
+        for (int i = 0; i < points.size(); i++) {
+            if (!(u[i] > 0) || !Double.isFinite(u[i]) || !(ratio.get(i).abs() > 0)) {
+                continue;
+            }
+            double r1 = onLinks(links, 1, points.get(i).senseRangeVolt());
+            double r2 = onLinks(links, 2, points.get(i).partRangeVolt());
+            all.add(new RangeLinkCapture.Reading(1, r1, 2, r2, ratio.get(i).abs(), u[i]));
+        }
+        return all;
+    }
+
+    /** The links' value of a channel's range equal to this one to 1e-6, or this one where they read none. */
+    private static double onLinks(List<RangeLinkCapture.Reading> links, int channel, double range) {
+        for (RangeLinkCapture.Reading r : links) {
+            for (double[] node : new double[][] {{r.channelA(), r.rangeA()}, {r.channelB(), r.rangeB()}}) {
+                if (node[0] == channel && Math.abs(node[1] - range) <= 1e-6 * range) {
+                    return node[1];
+                }
+            }
+        }
+        return range;
     }
 
     /**
@@ -263,7 +300,7 @@ public final class CalibrationRun {
             Plan sweepOnly = new Plan(plan.source(), plan.partNumber(), plan.description(), plan.senseResistanceOhm(),
                     readingSweep(plan.sweep(), inst), null, plan.limits(), plan.sampling(), plan.wiring(), null);
             List<PointResult> points = new SweepRunner(inst.generator(), inst.digitizer(), sleeper, open)
-                    .run(sweepOnly, SweepListener.NONE).points();
+                    .fittingFrequency().run(sweepOnly, SweepListener.NONE).points();
             after.accept(points);
             return points;
         } finally {
@@ -275,20 +312,36 @@ public final class CalibrationRun {
     }
 
     /**
-     * The sweep the corrections are read with: the plan's own, or for a multisine the stepped sweep at
-     * its tones' frequencies. A correction is read once and applied to every part, so it is read the
-     * slower, surer way: each frequency with the plan's whole amplitude on ranges fitted to it, where a
-     * tone of the multisine has a share of it (a channel match read from the multisine itself gave a
-     * skew about twice as uncertain, which became most of U of R and Q); the range links carry the
-     * match to the multisine's ranges.
+     * The fewest cycles each correction's record holds: with its noise (and the converter's
+     * quantization error, which spreads like noise over a record whose samples fall at phases all over
+     * the period) about a sixth of a 10-cycle part reading's.
+     */
+    static final int CORRECTION_CYCLES = 400;
+
+    /**
+     * The sweep the corrections are read with. A correction is read once and applied to every part, so
+     * its error is the same in every part measured with it and never averages away: it is read the
+     * slower, surer way. Each frequency's record holds at least {@value #CORRECTION_CYCLES} cycles (the
+     * plan's where more; as many as the digitizer's longest record holds at the plan's samples per cycle,
+     * where fewer), and its sines are fitted at the frequency the record shows ({@link
+     * SweepRunner#fittingFrequency}). At the plan's 10 cycles, an 8-bit digitizer's quantization error
+     * left the channels' skew about 800 ps uncertain on a 1 mH part swept to 20 kHz (four times a bench's
+     * usual 200 ps specification), and the skew's error, of either sign, pulled the part's winding
+     * resistance low through the model's skin-effect term (0.8 sigma in the coverage benchmark); at 400
+     * cycles it is about 80 ps. A multisine plan's corrections are the stepped sweep at its tones'
+     * frequencies: each frequency with the plan's whole amplitude on ranges fitted to it, where a tone of
+     * the multisine has a share of it; the range links carry the match to the multisine's ranges.
      */
     static SineSweep readingSweep(SineSweep sweep, BenchInstruments inst) {
-        if (!sweep.multisine()) {
-            return sweep;
+        SineSweep s = sweep;
+        if (sweep.multisine()) {
+            double[] tones = org.lrbench.analysis.MultisineDesign.of(sweep.frequenciesHz(), sweep.multisineTolerance(),
+                    inst.generator().maxArbitrarySamples()).frequenciesHz();
+            s = sweep.withMultisine(false).withFrequencies(java.util.Arrays.stream(tones).boxed().toList());
         }
-        double[] tones = org.lrbench.analysis.MultisineDesign.of(sweep.frequenciesHz(), sweep.multisineTolerance(),
-                inst.generator().maxArbitrarySamples()).frequenciesHz();
-        return sweep.withMultisine(false).withFrequencies(java.util.Arrays.stream(tones).boxed().toList());
+        long held = Math.max(1, (inst.digitizer().maxRecordLength() - 2L) / s.samplesPerCycle());
+        int cycles = (int) Math.max(s.cycles(), Math.min(CORRECTION_CYCLES, held));
+        return s.withCycles(cycles);
     }
 
     private static double[] ranges(PointResult p) {

@@ -140,7 +140,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
 
     @Override
     public double fundamentalHz() {
-        return generator.frequency();
+        return generator.outputFrequency();
     }
 
     @Override
@@ -149,7 +149,7 @@ public final class SimBench implements AnalogInputs, PeerSet {
         if (!generator.isOutputOn()) {
             return out;
         }
-        double f = generator.frequency();
+        double f = generator.outputFrequency();
         for (Harmonic h : generator.emfLines(bandLimit)) {
             double omega = 2 * Math.PI * h.k() * f;
             PartModel connected = connectedPart();

@@ -70,6 +70,16 @@ public final class SimGenerator extends ScpiDevice {
     double arbitraryRate;
 
     private double frequencyChangeSecond;
+    private double timeBaseError;
+
+    /**
+     * How far the generator's time base is off the digitizer's (relative): every frequency it puts out is
+     * the one set times (1 + e), while it reports the one set, as a generator without a shared reference
+     * clock does (a few ppm is usual; common practice, no source).
+     */
+    public synchronized void setTimeBaseError(double e) {
+        this.timeBaseError = e;
+    }
 
     /** How long the output takes to settle after a frequency change (0: at once). */
     public void setFrequencyChangeSecond(double seconds) {
@@ -203,6 +213,11 @@ public final class SimGenerator extends ScpiDevice {
     /** The signal's repetition frequency: the set frequency, or an arbitrary waveform's rate over its points. */
     public synchronized double frequency() {
         return waveform == Waveform.ARBITRARY ? arbitraryRate / arbitraryPoints : frequency;
+    }
+
+    /** The repetition frequency the output really has, on the digitizer's time base. */
+    public synchronized double outputFrequency() {
+        return frequency() * (1 + timeBaseError);
     }
 
     /** Open-circuit peak EMF; zero while the output is off. */
