@@ -14,6 +14,7 @@ import org.lrbench.analysis.ImpedancePoint;
 import org.lrbench.analysis.MultisineDesign;
 import org.lrbench.analysis.MultisineFit;
 import org.lrbench.analysis.MultisineQuantization;
+import org.lrbench.analysis.MultisineTimeBase;
 import org.lrbench.analysis.PhasorImpedance;
 import org.lrbench.analysis.Quantization;
 import org.lrbench.analysis.SineFitResult;
@@ -173,17 +174,21 @@ public final class MultisineCapture {
 
     /**
      * The tones of an archived multisine capture fitted again as the sweep fitted them: the channels
-     * at the fixture (probe attenuations, low-side difference), all tones together.
+     * at the fixture (probe attenuations, low-side difference), all tones together, each at the frequency
+     * the record shows ({@link MultisineTimeBase}; the points keep the design frequencies).
      */
     public static FixturePhasors.Result[] refit(double[] channel1, double[] channel2, double intervalSecond,
                                                 double[] tonesHz, double attenuation1, double attenuation2, boolean lowSide) {
+        // the tones where the record holds them: a generator off the digitizer's time base plays them all
+        // a few ppm off their design (see MultisineTimeBase)
+        double[] seen = MultisineTimeBase.tones(channel1, channel2, intervalSecond, tonesHz);
         // each channel fitted as it came out of its quantizer, the repeatable quantization error taken off
         // (the two channels on two threads: each is independent, so the result is the same either way)
         java.util.concurrent.CompletableFuture<SineFitResult[]> second = java.util.concurrent.CompletableFuture
-                .supplyAsync(() -> MultisineQuantization.corrected(channel2, intervalSecond, tonesHz,
-                        MultisineFit.fit(channel2, intervalSecond, tonesHz)));
-        SineFitResult[] raw1 = MultisineQuantization.corrected(channel1, intervalSecond, tonesHz,
-                MultisineFit.fit(channel1, intervalSecond, tonesHz));
+                .supplyAsync(() -> MultisineQuantization.corrected(channel2, intervalSecond, seen,
+                        MultisineFit.fit(channel2, intervalSecond, seen)));
+        SineFitResult[] raw1 = MultisineQuantization.corrected(channel1, intervalSecond, seen,
+                MultisineFit.fit(channel1, intervalSecond, seen));
         SineFitResult[] raw2 = joined(second);
         SineFitResult[] s = new SineFitResult[tonesHz.length];
         SineFitResult[] p = new SineFitResult[tonesHz.length];

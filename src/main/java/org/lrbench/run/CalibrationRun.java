@@ -62,18 +62,20 @@ public final class CalibrationRun {
                 matched -> linked[0] = links(asWired, inst, sleeper, matched));
         double[] f = new double[points.size()];
         double[] u = new double[points.size()];
+        double[] phaseU = new double[points.size()];
         List<Complex> ratio = new ArrayList<>();
         for (int i = 0; i < points.size(); i++) {
             ImpedancePoint z = points.get(i).impedance();
             f[i] = z.frequencyHz();
             ratio.add(z.impedanceOhm().divide(plan.senseResistanceOhm()));
-            // each point's relative standard uncertainty, its phasors' scatter and its quantization correction's
-            u[i] = Math.hypot(z.componentUncertaintyOhm() / z.impedanceOhm().abs(),
-                    points.get(i).quantizationRelativeUncertainty());
+            // each point's magnitude: its phasors' scatter along Z and its quantization correction's; its
+            // phase: the scatter across Z alone (the correction scales amplitudes, not phases)
+            phaseU[i] = across(z);
+            u[i] = Math.hypot(along(z), points.get(i).quantizationRelativeUncertainty());
         }
         String at = now();
         RangeLinkCapture.Result read = linked[0];
-        ChannelMatch m = ChannelMatch.fit(at, f, ratio, u).withRangePairs(points.stream()
+        ChannelMatch m = ChannelMatch.fit(at, f, ratio, u, phaseU).withRangePairs(points.stream()
                 .map(p -> new double[] {p.senseRangeVolt(), p.partRangeVolt()}).toList())
                 .withLinks(RangeLinks.solve(at, read.frequencyHz(), withMatchReadings(read.readings(), points, ratio, u),
                         read.unread()));
@@ -84,6 +86,22 @@ public final class CalibrationRun {
                     + " sense resistor? Channel 2 still across the part reads the part, not the channels");
         }
         return m;
+    }
+
+    /** The relative standard uncertainty of |Z| from the point's covariance: its scatter along Z. */
+    static double along(ImpedancePoint z) {
+        Complex unit = z.impedanceOhm().divide(z.impedanceOhm().abs());
+        double v = unit.getReal() * unit.getReal() * z.varianceR() + unit.getImaginary() * unit.getImaginary()
+                * z.varianceX() + 2 * unit.getReal() * unit.getImaginary() * z.covarianceRX();
+        return Math.sqrt(Math.max(0, v)) / z.impedanceOhm().abs();
+    }
+
+    /** The standard uncertainty of Z's phase (radians) from the point's covariance: its scatter across Z. */
+    static double across(ImpedancePoint z) {
+        Complex unit = z.impedanceOhm().divide(z.impedanceOhm().abs());
+        double v = unit.getImaginary() * unit.getImaginary() * z.varianceR() + unit.getReal() * unit.getReal()
+                * z.varianceX() - 2 * unit.getReal() * unit.getImaginary() * z.covarianceRX();
+        return Math.sqrt(Math.max(0, v)) / z.impedanceOhm().abs();
     }
 
     /**
