@@ -16,8 +16,9 @@ import java.util.Comparator;
  * between the middles), and e is the weighted least-squares slope of those phase gains against
  * 2 pi f D, each weighted by the inverse of its variance from the two half fits. Tones are taken from
  * the lowest up and each phase gain unwrapped to the one the slope so far predicts, so a long record
- * whose top tone walks more than half a turn is read right. Both channels are read and combined by
- * their variances (the current is lost in noise on an open fixture). No tone's frequency moves where
+ * whose top tone walks more than half a turn is read right. Channel 1 is read, and channel 2 too where
+ * channel 1's reading is not sure to a tenth of a ppm (the current is lost in noise on an open
+ * fixture); the surer one counts. No tone's frequency moves where
  * the estimate lands more than {@value #FARTHEST} from 0: no bench's time bases differ by that much.
  */
 public final class MultisineTimeBase {
@@ -32,26 +33,26 @@ public final class MultisineTimeBase {
     public record Estimate(double error, double uncertainty) {
     }
 
-    /** The tones as the record holds them: each design frequency times (1 + e) read from both channels. */
+    /**
+     * The tones as the record holds them: each design frequency times (1 + e), e read from channel 1 (the
+     * current, clear on any part), or from channel 2 where channel 1's reading is less sure (an open fixture).
+     */
     public static double[] tones(double[] channel1, double[] channel2, double intervalSecond, double[] tonesHz) {
         Estimate a = estimate(channel1, intervalSecond, tonesHz);
-        Estimate b = estimate(channel2, intervalSecond, tonesHz);
-        double wa = weight(a);
-        double wb = weight(b);
-        if (!(wa + wb > 0)) {
-            return tonesHz.clone();
+        Estimate best = a;
+        if (!(a.uncertainty() <= CLEAR)) {
+            Estimate b = estimate(channel2, intervalSecond, tonesHz);
+            best = b.uncertainty() < a.uncertainty() ? b : a;
         }
-        double e = ((wa > 0 ? wa * a.error() : 0) + (wb > 0 ? wb * b.error() : 0)) / (wa + wb);
-        if (!(Math.abs(e) <= FARTHEST)) {
+        double e = best.error();
+        if (!Double.isFinite(e) || !(Math.abs(e) <= FARTHEST)) {
             return tonesHz.clone();
         }
         return Arrays.stream(tonesHz).map(f -> f * (1 + e)).toArray();
     }
 
-    private static double weight(Estimate e) {
-        return Double.isFinite(e.error()) && e.uncertainty() > 0 && Double.isFinite(e.uncertainty())
-                ? 1 / (e.uncertainty() * e.uncertainty()) : 0;
-    }
+    /** A reading of e this sure needs no second channel's (a tenth of a ppm). */
+    static final double CLEAR = 1e-7;
 
     /** e from one channel's record. */
     public static Estimate estimate(double[] y, double intervalSecond, double[] tonesHz) {
@@ -60,8 +61,16 @@ public final class MultisineTimeBase {
         if (n1 <= 2 * tonesHz.length + 1 || n2 <= 2 * tonesHz.length + 1) {
             return new Estimate(Double.NaN, Double.POSITIVE_INFINITY);
         }
+        // the halves on two threads (the multisine's fit is on the whole part's critical path)
+        java.util.concurrent.CompletableFuture<SineFitResult[]> later = java.util.concurrent.CompletableFuture
+                .supplyAsync(() -> MultisineFit.fit(Arrays.copyOfRange(y, n1, y.length), intervalSecond, tonesHz));
         SineFitResult[] first = MultisineFit.fit(Arrays.copyOfRange(y, 0, n1), intervalSecond, tonesHz);
-        SineFitResult[] second = MultisineFit.fit(Arrays.copyOfRange(y, n1, y.length), intervalSecond, tonesHz);
+        SineFitResult[] second;
+        try {
+            second = later.join();
+        } catch (java.util.concurrent.CompletionException e) {
+            throw e.getCause() instanceof RuntimeException r ? r : e;
+        }
         // between the two halves' middles
         double d = intervalSecond * (n1 + (n2 - 1) / 2.0 - (n1 - 1) / 2.0);
         Integer[] order = new Integer[tonesHz.length];
