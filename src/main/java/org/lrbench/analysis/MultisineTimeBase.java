@@ -11,10 +11,10 @@ import java.util.Comparator;
  * walks 0.06 rad, and the residual the fit counts as noise made U of the winding resistance 2.7 times
  * as large. The walk itself is common to both channels and cancels in Z = Rs V2 / V1.
  * <p>
- * e is read from the record: each tone fitted on its two halves, the phase it gained from the first
- * half's middle to the second's beyond what its design frequency gives is 2 pi f e D (D the time
- * between the middles), and e is the weighted least-squares slope of those phase gains against
- * 2 pi f D, each weighted by the inverse of its variance from the two half fits. Tones are taken from
+ * e is read from the record: each tone fitted on the record's first and last quarters, the phase it
+ * gained from the first quarter's middle to the last's beyond what its design frequency gives is
+ * 2 pi f e D (D the time between the middles), and e is the weighted least-squares slope of those
+ * phase gains against 2 pi f D, each weighted by the inverse of its variance from the two fits. Tones are taken from
  * the lowest up and each phase gain unwrapped to the one the slope so far predicts, so a long record
  * whose top tone walks more than half a turn is read right. Channel 1 is read, and channel 2 too where
  * channel 1's reading is not sure to a tenth of a ppm (the current is lost in noise on an open
@@ -56,23 +56,25 @@ public final class MultisineTimeBase {
 
     /** e from one channel's record. */
     public static Estimate estimate(double[] y, double intervalSecond, double[] tonesHz) {
-        int n1 = y.length / 2;
-        int n2 = y.length - n1;
-        if (n1 <= 2 * tonesHz.length + 1 || n2 <= 2 * tonesHz.length + 1) {
+        // the record's first and last quarters: half the samples of its two halves and, their middles three
+        // quarters of the record apart instead of one half, 9/8 of the halves' information on e
+        int q = y.length / 4;
+        int start = y.length - q;
+        if (q <= 2 * tonesHz.length + 1) {
             return new Estimate(Double.NaN, Double.POSITIVE_INFINITY);
         }
-        // the halves on two threads (the multisine's fit is on the whole part's critical path)
+        // the two quarters on two threads (the multisine's fit is on the whole part's critical path)
         java.util.concurrent.CompletableFuture<SineFitResult[]> later = java.util.concurrent.CompletableFuture
-                .supplyAsync(() -> MultisineFit.fit(Arrays.copyOfRange(y, n1, y.length), intervalSecond, tonesHz));
-        SineFitResult[] first = MultisineFit.fit(Arrays.copyOfRange(y, 0, n1), intervalSecond, tonesHz);
+                .supplyAsync(() -> MultisineFit.fit(Arrays.copyOfRange(y, start, y.length), intervalSecond, tonesHz));
+        SineFitResult[] first = MultisineFit.fit(Arrays.copyOfRange(y, 0, q), intervalSecond, tonesHz);
         SineFitResult[] second;
         try {
             second = later.join();
         } catch (java.util.concurrent.CompletionException e) {
             throw e.getCause() instanceof RuntimeException r ? r : e;
         }
-        // between the two halves' middles
-        double d = intervalSecond * (n1 + (n2 - 1) / 2.0 - (n1 - 1) / 2.0);
+        // between the two quarters' middles, and the last quarter's own time origin
+        double d = intervalSecond * start;
         Integer[] order = new Integer[tonesHz.length];
         for (int i = 0; i < order.length; i++) {
             order[i] = i;
@@ -86,14 +88,14 @@ public final class MultisineTimeBase {
             if (!(a1 > 0) || !(a2 > 0)) {
                 continue;
             }
-            // each half's phase variance: its phasor's component variance over its amplitude squared
+            // each quarter's phase variance: its phasor's component variance over its amplitude squared
             double v = first[i].componentVariance() / (a1 * a1) + second[i].componentVariance() / (a2 * a2);
             if (!(v > 0) || !Double.isFinite(v)) {
                 continue;
             }
             double x = 2 * Math.PI * tonesHz[i] * d;
             double gained = SineFit.phasor(second[i]).getArgument() - SineFit.phasor(first[i]).getArgument()
-                    - 2 * Math.PI * tonesHz[i] * n1 * intervalSecond;
+                    - 2 * Math.PI * tonesHz[i] * start * intervalSecond;
             double predicted = sxx > 0 ? x * sxy / sxx : 0;
             gained -= 2 * Math.PI * Math.rint((gained - predicted) / (2 * Math.PI));
             sxx += x * x / v;

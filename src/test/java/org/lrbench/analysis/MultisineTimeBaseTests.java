@@ -39,8 +39,8 @@ class MultisineTimeBaseTests {
 
     @Test
     void aTopToneThatWalksManyTurnsIsUnwrappedFromTheLowerOnes() {
-        // 1 s at 1 MHz: at 40 ppm the 100 kHz tone gains 12.6 rad between the halves' middles, the 100 Hz
-        // one 0.013 rad
+        // 1 s at 1 MHz: at 40 ppm the 100 kHz tone gains 18.8 rad between the first and last quarters'
+        // middles, the 100 Hz one 0.019 rad
         double[] hz = {100, 1000, 10000, 100000};
         double e = 40e-6;
         double[] y = record(hz, e, 1_000_000, 1e-6, 1e-3, 11);
