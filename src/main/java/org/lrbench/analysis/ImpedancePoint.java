@@ -21,6 +21,22 @@ public record ImpedancePoint(double frequencyHz, Complex impedanceOhm, Complex c
         return Math.sqrt((varianceR + varianceX) / 2);
     }
 
+    /** The relative standard uncertainty of |Z|: the covariance's scatter along Z. */
+    public double magnitudeRelativeUncertainty() {
+        Complex unit = impedanceOhm.divide(impedanceOhm.abs());
+        double v = unit.getReal() * unit.getReal() * varianceR + unit.getImaginary() * unit.getImaginary() * varianceX
+                + 2 * unit.getReal() * unit.getImaginary() * covarianceRX;
+        return Math.sqrt(Math.max(0, v)) / impedanceOhm.abs();
+    }
+
+    /** The standard uncertainty of Z's phase, radians: the covariance's scatter across Z over |Z|. */
+    public double phaseUncertainty() {
+        Complex unit = impedanceOhm.divide(impedanceOhm.abs());
+        double v = unit.getImaginary() * unit.getImaginary() * varianceR + unit.getReal() * unit.getReal() * varianceX
+                - 2 * unit.getReal() * unit.getImaginary() * covarianceRX;
+        return Math.sqrt(Math.max(0, v)) / impedanceOhm.abs();
+    }
+
     public double resistanceOhm() {
         return impedanceOhm.getReal();
     }

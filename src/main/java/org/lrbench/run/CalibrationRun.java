@@ -70,8 +70,8 @@ public final class CalibrationRun {
             ratio.add(z.impedanceOhm().divide(plan.senseResistanceOhm()));
             // each point's magnitude: its phasors' scatter along Z and its quantization correction's; its
             // phase: the scatter across Z alone (the correction scales amplitudes, not phases)
-            phaseU[i] = across(z);
-            u[i] = Math.hypot(along(z), points.get(i).quantizationRelativeUncertainty());
+            phaseU[i] = z.phaseUncertainty();
+            u[i] = Math.hypot(z.magnitudeRelativeUncertainty(), points.get(i).quantizationRelativeUncertainty());
         }
         String at = now();
         RangeLinkCapture.Result read = linked[0];
@@ -86,22 +86,6 @@ public final class CalibrationRun {
                     + " sense resistor? Channel 2 still across the part reads the part, not the channels");
         }
         return m;
-    }
-
-    /** The relative standard uncertainty of |Z| from the point's covariance: its scatter along Z. */
-    static double along(ImpedancePoint z) {
-        Complex unit = z.impedanceOhm().divide(z.impedanceOhm().abs());
-        double v = unit.getReal() * unit.getReal() * z.varianceR() + unit.getImaginary() * unit.getImaginary()
-                * z.varianceX() + 2 * unit.getReal() * unit.getImaginary() * z.covarianceRX();
-        return Math.sqrt(Math.max(0, v)) / z.impedanceOhm().abs();
-    }
-
-    /** The standard uncertainty of Z's phase (radians) from the point's covariance: its scatter across Z. */
-    static double across(ImpedancePoint z) {
-        Complex unit = z.impedanceOhm().divide(z.impedanceOhm().abs());
-        double v = unit.getImaginary() * unit.getImaginary() * z.varianceR() + unit.getReal() * unit.getReal()
-                * z.varianceX() - 2 * unit.getReal() * unit.getImaginary() * z.covarianceRX();
-        return Math.sqrt(Math.max(0, v)) / z.impedanceOhm().abs();
     }
 
     /**

@@ -56,6 +56,17 @@ class ImpedanceCovarianceTests {
     }
 
     @Test
+    void theMagnitudeAndPhaseUncertaintiesAreTheScatterAlongAndAcrossZ() {
+        // first-order propagation (JCGM 102:2011 6.2): for Z = 3 + 4j, d|Z| = (3 dR + 4 dX) / 5 and
+        // d(arg Z) = (3 dX - 4 dR) / 25; with var R = 4e-6, var X = 1e-6 and cov 1e-6
+        ImpedancePoint z = new ImpedancePoint(1e3, new Complex(3, 4), Complex.ONE, 4e-6, 1e-6, 1e-6);
+        double magnitude = Math.sqrt((9 * 4e-6 + 16 * 1e-6 + 24 * 1e-6) / 25) / 5;
+        double phase = Math.sqrt(16 * 4e-6 + 9 * 1e-6 - 24 * 1e-6) / 25;
+        assertThat(z.magnitudeRelativeUncertainty()).isCloseTo(magnitude, within(1e-12));
+        assertThat(z.phaseUncertainty()).isCloseTo(phase, within(1e-12));
+    }
+
+    @Test
     void aQuarterTurnSwapsTheVariancesAndNegatesTheCovariance() {
         // multiplying by j maps (R, X) to (-X, R): linear algebra, no source needed beyond that
         ImpedancePoint p = new ImpedancePoint(1e3, new Complex(2, 5), Complex.ONE, 4, 1, 0.5);
