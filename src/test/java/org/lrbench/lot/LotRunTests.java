@@ -246,8 +246,10 @@ public class LotRunTests {
             Path output = work.resolve("child.txt");
             Process p = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(output.toFile()).start();
             long deadline = System.currentTimeMillis() + 60_000;
+            // the signal goes once the first part is shown: the seven after it (about 2 s of a multisine lot
+            // whose analysis keeps both cores busy) leave the signal time to arrive mid-lot
             while (p.isAlive() && System.currentTimeMillis() < deadline
-                    && Files.readAllLines(output).stream().noneMatch(l -> l.startsWith("HC0417-0002"))) {
+                    && Files.readAllLines(output).stream().noneMatch(l -> l.startsWith("HC0417-0001"))) {
                 Thread.sleep(10);
             }
             new ProcessBuilder("kill", "-" + signal, String.valueOf(p.pid())).start().waitFor(10, TimeUnit.SECONDS);
