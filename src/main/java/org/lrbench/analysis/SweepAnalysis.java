@@ -77,12 +77,23 @@ public final class SweepAnalysis {
         double inf = Double.POSITIVE_INFINITY;
         double matchDof = accuracy.channelMatchDegreesOfFreedom();
         BenchAccuracy.TracedSense traced = accuracy.tracedSense();
-        Perturbation senseLine = traced == null
-                ? new Perturbation("sense resistor tolerance (nominal, not traced: no meter reading)",
-                        Distribution.RECTANGULAR, accuracy.senseTolerance(), "relative", inf, d -> scale(points, 1 + d))
-                : new Perturbation("sense resistor, traced by the bench's meter (4-wire, DC)", Distribution.NORMAL,
-                        traced.relativeUncertainty(), "relative", inf, d -> scale(points, 1 + d));
-        List<Perturbation> effects = new ArrayList<>(List.of(senseLine));
+        List<Perturbation> effects = new ArrayList<>();
+        if (traced == null) {
+            effects.add(new Perturbation("sense resistor tolerance (nominal, not traced: no meter reading)",
+                    Distribution.RECTANGULAR, accuracy.senseTolerance(), "relative", inf, d -> scale(points, 1 + d)));
+        } else {
+            // the meter's specification is a rectangle, its readings' scatter normal: two lines, so the
+            // coverage factor sees the rectangle's shape
+            if (traced.meterHalfWidth() > 0) {
+                effects.add(new Perturbation("sense resistor traced by the bench's meter (4-wire, DC): the meter's"
+                        + " specification", Distribution.RECTANGULAR, traced.meterHalfWidth(), "relative", inf,
+                        d -> scale(points, 1 + d)));
+            }
+            if (traced.scatter() > 0) {
+                effects.add(new Perturbation("sense resistor traced by the bench's meter: the readings' scatter",
+                        Distribution.NORMAL, traced.scatter(), "relative", inf, d -> scale(points, 1 + d)));
+            }
+        }
         if (max(rangePair) > 0) {
             effects.add(new Perturbation("channel gain ratio of each point's range pair (channel match, range links)",
                     Distribution.NORMAL, 1, "u", matchDof, d -> scaleEach(points, rangePair, d)));
@@ -177,7 +188,8 @@ public final class SweepAnalysis {
             // with equal weights, and the average's unconditional standard uncertainty (Buckland,
             // Burnham and Augustin, Biometrics 53, 1997, eq. 9, from memory) is carried as the
             // fit's line and this one in quadrature; terms left out one after another are taken
-            // from the last left out (whose "without" is the final fit) back to the first
+            // from the last left out (whose "without" is the final fit) back to the first; the line is
+            // two-point: the truth lies near one model or the other, not spread as a normal about their mean
             List<LumpedFit.Omitted> omitted = fit.omitted();
             double[] without = p;
             double uCombined = uA;
@@ -198,7 +210,7 @@ public final class SweepAnalysis {
                 double line = Math.sqrt(Math.max(0, averaged * averaged - uCombined * uCombined));
                 value += change / 2;
                 lines.add(new Contribution("model term " + o.term().key() + " that the test could not decide on"
-                        + " (the models with and without it averaged)", "B", Distribution.NORMAL, line, ev.unit(),
+                        + " (the models with and without it averaged)", "B", Distribution.TWO_POINT, line, ev.unit(),
                         1.0, line, Double.POSITIVE_INFINITY, 0));
                 uCombined = averaged;
             }

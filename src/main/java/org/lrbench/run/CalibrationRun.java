@@ -378,7 +378,8 @@ public final class CalibrationRun {
         change.moveTo(FixturePosition.PART);
         double mean = java.util.Arrays.stream(r).average().orElseThrow();
         double var = java.util.Arrays.stream(r).map(x -> (x - mean) * (x - mean)).sum() / (r.length - 1);
-        double u = Math.sqrt(Math.pow(accuracy.meterAccuracy() * mean / Math.sqrt(3), 2) + var / r.length);
+        double limit = accuracy.meterAccuracy() * mean;
+        double u = Math.sqrt(Math.pow(limit / Math.sqrt(3), 2) + var / r.length);
         double nominal = plan.senseResistanceOhm();
         if (!(Math.abs(mean / nominal - 1) <= accuracy.senseTolerance() + 3 * u / nominal)) {
             throw new CalibrationRefused("the sense resistor's reading", java.util.List.of(String.format(
@@ -386,6 +387,6 @@ public final class CalibrationRun {
                     + " within %.3g %%", mean, u, nominal, 100 * accuracy.senseTolerance())),
                     "Were the meter's four leads on the sense resistor, with the part's place empty?");
         }
-        return new SenseTrace(now(), nominal, mean, u, r.length, plan.source());
+        return new SenseTrace(now(), nominal, mean, u, r.length, plan.source(), limit);
     }
 }

@@ -248,8 +248,8 @@ public final class PartRun {
             accuracy = accuracy.withFixture(null);
         }
         if (traced != null) {
-            accuracy = accuracy.withTracedSense(new BenchAccuracy.TracedSense(traced.relativeUncertainty(),
-                    accuracy.senseAcDc()));
+            accuracy = accuracy.withTracedSense(new BenchAccuracy.TracedSense(traced.meterRelativeHalfWidth(),
+                    traced.scatterRelativeUncertainty(), accuracy.senseAcDc()));
         }
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), accuracy,

@@ -29,11 +29,12 @@ public record BenchAccuracy(double senseTolerance, double gainAccuracy, double s
     }
 
     /**
-     * The sense resistor as traced by the bench's meter: its relative standard uncertainty (the
-     * meter's specification and the readings' scatter), and the bound on its AC/DC difference over the
-     * plan's frequencies (rectangular half-width, relative). Null: only the nominal and its tolerance.
+     * The sense resistor as traced by the bench's meter: the meter's specification (rectangular
+     * half-width, relative), the relative standard uncertainty of the readings' scatter, and the bound on
+     * its AC/DC difference over the plan's frequencies (rectangular half-width, relative). Null: only the
+     * nominal and its tolerance.
      */
-    public record TracedSense(double relativeUncertainty, double acDcBound) {
+    public record TracedSense(double meterHalfWidth, double scatter, double acDcBound) {
     }
 
     /** The same specifications with the sense resistor traced (its line replaces the tolerance's). */

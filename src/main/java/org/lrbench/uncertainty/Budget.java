@@ -7,11 +7,15 @@ import java.util.List;
  * The uncertainty budget of one reported quantity by the law of propagation of uncertainty for
  * uncorrelated inputs (JCGM 100:2008, GUM 5.1.2): u_c^2 = sum (c_i u(x_i))^2; effective degrees of
  * freedom by the Welch-Satterthwaite formula (GUM G.4.1, equation G.2b):
- * nu_eff = u_c^4 / sum (u_i^4 / nu_i); expanded uncertainty U = k u_c with k = 2.
+ * nu_eff = u_c^4 / sum (u_i^4 / nu_i); expanded uncertainty U = k u_c with k from the output's
+ * distribution ({@link CoverageFactor}): the half-width of the interval holding 95.45 % of it, k = 2
+ * for a normal output, less where rectangular or two-point lines dominate. The normal lines are taken
+ * as normal whatever their degrees of freedom (nu_eff is reported, not used for k).
  */
 public record Budget(String quantity, double value, List<Contribution> contributions, double standardUncertainty,
                      double effectiveDegreesOfFreedom, double coverageFactor, double expandedUncertainty) {
 
+    /** The coverage factor of a normal output at {@link CoverageFactor#PROBABILITY}. */
     public static final double K = 2.0;
 
     /** Combines contributions (shares are filled in). */
@@ -31,7 +35,8 @@ public record Budget(String quantity, double value, List<Contribution> contribut
         for (Contribution c : contributions) {
             shared.add(c.withShare(variance > 0 ? c.contribution() * c.contribution() / variance : 0));
         }
-        return new Budget(quantity, value, List.copyOf(shared), u, nu, K, K * u);
+        double k = CoverageFactor.of(contributions);
+        return new Budget(quantity, value, List.copyOf(shared), u, nu, k, k * u);
     }
 
     /** GUM G.2b; infinite when every contribution is type B (or u is 0). */

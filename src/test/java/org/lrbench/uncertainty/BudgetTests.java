@@ -38,7 +38,10 @@ class BudgetTests {
                 new Contribution("a", "B", Distribution.RECTANGULAR, 3, "", 1, 3, Double.POSITIVE_INFINITY, 0),
                 new Contribution("b", "A", Distribution.NORMAL, 4, "", 1, 4, 10, 0)));
         assertThat(b.standardUncertainty()).isCloseTo(5, within(1e-12));
-        assertThat(b.expandedUncertainty()).isCloseTo(10, within(1e-12));
+        // U = k u_c with k from the output's distribution (CoverageFactorTests): between the rectangle's
+        // p sqrt(3) and the normal's 2 for a normal and a rectangle together
+        assertThat(b.coverageFactor()).isBetween(1.66, 2.0);
+        assertThat(b.expandedUncertainty()).isCloseTo(b.coverageFactor() * 5, within(1e-12));
         assertThat(b.contributions().get(0).share()).isCloseTo(9.0 / 25, within(1e-12));
     }
 
