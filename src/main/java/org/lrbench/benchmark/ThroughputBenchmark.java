@@ -156,7 +156,7 @@ public final class ThroughputBenchmark {
      * parts on instruments kept open, on a bench calibrated first for each excitation (a speed figure
      * counts only at an equal uncertainty, and without corrections the channel-gain specification
      * hides the difference): the sweep's time (from its first instrument command to its last point),
-     * the whole part's, U (k = 2) of every limit's quantity, and the verdicts. Goals: every U at most
+     * the whole part's, U (95 %) of every limit's quantity, and the verdicts. Goals: every U at most
      * 1.5x the stepped sweep's and the same verdict; the speed is reported at that condition only.
      */
     static int excitations(PrintStream out, BenchConfig bench, Plan plan, Path drivers, PartModel part,
@@ -205,14 +205,14 @@ public final class ThroughputBenchmark {
     static final int U_SEEDS = 3;
 
     /**
-     * U (k = 2) of L, R and the third quantity (Q, or the self-resonance) with the multisine over the
+     * U (95 %) of L, R and the third quantity (Q, or the self-resonance) with the multisine over the
      * stepped sweep's, on the coverage benchmark's parts and plans (a 10 uH high-Q part, a lossy core,
      * a part resonating in the sweep), each calibrated and measured as the coverage benchmark does
      * (bench errors off), the mean over {@value #U_SEEDS} seeds; and the readings' scatter ratio.
      * Goal: every U at most 1.5x.
      */
     static int partUncertainties(PrintStream out, BenchConfig bench, Path drivers) throws Exception {
-        out.printf(Locale.ROOT, "%nU (k = 2) of the multisine over the stepped sweep's, calibrated, per part (mean of %d"
+        out.printf(Locale.ROOT, "%nU (95 %%) of the multisine over the stepped sweep's, calibrated, per part (mean of %d"
                 + " seeds; in brackets the scatter of the readings, multisine over stepped)%n", U_SEEDS);
         var sim = bench.simulation().withSenseError(0).withRangeGainSpread(0).withMeterError(0);
         BenchConfig b = new BenchConfig(bench.source(), bench.name(), bench.maxAmplitudeVolt(), bench.generator(),

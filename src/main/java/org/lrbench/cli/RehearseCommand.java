@@ -51,7 +51,7 @@ final class RehearseCommand implements Callable<Integer> {
             System.out.println("  one multisine    not on this bench: " + t.multisineRefused());
         }
         if (!t.expanded().isEmpty()) {
-            System.out.println("U (k = 2) of the nominal part, each excitation on the simulated bench calibrated for it:");
+            System.out.println("U (95 %) of the nominal part, each excitation on the simulated bench calibrated for it:");
             t.expanded().forEach((limit, u) -> System.out.printf(Locale.ROOT, "  %-24s stepped %.4g, multisine %.4g (%.2fx)%n",
                     limit, u[0], u[1], u[1] / u[0]));
         }

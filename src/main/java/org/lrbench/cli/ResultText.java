@@ -51,7 +51,7 @@ final class ResultText {
         }
         if (r.inductanceH() != null) {
             // each value to the digits its expanded uncertainty supports
-            out.printf("  %s: L = %s, R_dc = %s (expanded, k = 2)%n", r.model().name(),
+            out.printf("  %s: L = %s, R_dc = %s (expanded, 95 %% coverage)%n", r.model().name(),
                     withU(r.inductanceH(), r.inductanceExpandedUncertaintyH(), Dimension.INDUCTANCE),
                     withU(r.seriesResistanceOhm(), r.seriesResistanceExpandedUncertaintyOhm(), Dimension.RESISTANCE));
             if (r.selfResonanceHz() != null) {

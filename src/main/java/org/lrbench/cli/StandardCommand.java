@@ -62,7 +62,7 @@ final class StandardCommand implements Callable<Integer> {
             return ExitCodes.INSTRUMENT;
         }
         var reading = o.reading();
-        System.out.printf(Locale.ROOT, "check standard %s on %s: %s %s (U, k = 2); certified %s; reading less certified %s%n",
+        System.out.printf(Locale.ROOT, "check standard %s on %s: %s %s (U, 95 %%); certified %s; reading less certified %s%n",
                 cs.serial(), q.bench().name(), q.limit().name(),
                 Units.formatWithUncertainty(reading.value(), reading.expandedUncertainty(), Dimension.INDUCTANCE),
                 Units.formatWithUncertainty(cs.certifiedHenry(), cs.certifiedExpandedHenry(), Dimension.INDUCTANCE),

@@ -236,7 +236,7 @@ public final class ExcitationChoice {
 
     /**
      * One measurement of the nominal part on the bench's simulated twin, calibrated for the plan first:
-     * U (k = 2) per limit and the points it took.
+     * U (95 %) per limit and the points it took.
      */
     record Twin(Map<String, Double> expanded, List<PointResult> points) {
 

@@ -27,7 +27,7 @@ public final class PartTime {
 
     /**
      * What was timed: the profile and the seconds per part stepped and as a multisine (NaN where it cannot),
-     * and per limit U (k = 2) of each, stepped first, measured on the simulated bench calibrated for each.
+     * and per limit U (95 %) of each, stepped first, measured on the simulated bench calibrated for each.
      */
     public record Estimate(SimTiming timing, double steppedSecond, double multisineSecond, String multisineRefused,
                            java.util.Map<String, double[]> expanded) {
@@ -87,7 +87,7 @@ public final class PartTime {
         return new Estimate(timing, a, b, multisinePossible ? null : whyNot, expanded);
     }
 
-    /** U (k = 2) per limit of one nominal part, on the simulated bench calibrated for this plan first. */
+    /** U (95 %) per limit of one nominal part, on the simulated bench calibrated for this plan first. */
     static java.util.Map<String, Double> uncertainties(Plan plan, BenchConfig bench, DriverLoader drivers, PartModel part)
             throws Exception {
         return ExcitationChoice.Twin.measure(plan, bench, drivers, part).expanded();

@@ -92,8 +92,8 @@ public final class LotReport {
         h.append("</table>\n");
         sampling(h, l);
         limits(h, parts);
-        h.append("<h2>Parts</h2><table id=\"parts\"><tr><th>#</th><th>serial</th><th>verdict</th><th>L &plusmn; U (k = 2)</th>"
-                + "<th>R_dc &plusmn; U (k = 2), as measured at the bench</th><th>reason</th></tr>");
+        h.append("<h2>Parts</h2><table id=\"parts\"><tr><th>#</th><th>serial</th><th>verdict</th><th>L &plusmn; U (95 %)</th>"
+                + "<th>R_dc &plusmn; U (95 %), as measured at the bench</th><th>reason</th></tr>");
         int i = 1;
         for (PartResult p : parts) {
             h.append("<tr><td>").append(i++).append("</td><td>").append(esc(p.serial())).append("</td><td class=\"")
@@ -252,7 +252,7 @@ public final class LotReport {
                 }
             }
         }
-        h.append("<h2>Limits per part</h2>\n<p>Each cell: value &plusmn; U (k = 2), zone, margin, result.</p>\n"
+        h.append("<h2>Limits per part</h2>\n<p>Each cell: value &plusmn; U (95 % coverage), zone, margin, result.</p>\n"
                 + "<table id=\"limits-wide\"><tr><th>serial</th>");
         for (String n : names) {
             PartResult.LimitRecord r = first.get(n);
@@ -289,7 +289,7 @@ public final class LotReport {
     }
 
     private static void perPartRows(StringBuilder h, List<PartResult> parts) {
-        h.append("<h2>Limits per part</h2>\n<table id=\"limits\"><tr><th>serial</th><th>limit</th><th>value &plusmn; U (k = 2)</th>"
+        h.append("<h2>Limits per part</h2>\n<table id=\"limits\"><tr><th>serial</th><th>limit</th><th>value &plusmn; U (95 %)</th>"
                 + "<th>specification</th><th>decision rule</th><th>zone</th><th>margin</th><th>result</th></tr>");
         for (PartResult p : parts) {
             for (PartResult.LimitRecord r : p.limits()) {
