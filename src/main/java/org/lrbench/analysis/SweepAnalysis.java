@@ -184,35 +184,40 @@ public final class SweepAnalysis {
                 lines.add(new Contribution(e.source, "B", e.distribution, u, e.unit, c, Math.abs(c) * u,
                         e.degreesOfFreedom, 0));
             }
-            // a term the test could not decide on: the models with and without it are averaged
-            // with equal weights, and the average's unconditional standard uncertainty (Buckland,
-            // Burnham and Augustin, Biometrics 53, 1997, eq. 9, from memory) is carried as the
-            // fit's line and this one in quadrature; terms left out one after another are taken
-            // from the last left out (whose "without" is the final fit) back to the first; the line is
-            // two-point: the truth lies near one model or the other, not spread as a normal about their mean
+            // a term the test could not decide on: the models with and without it are averaged with
+            // equal weights, and the average's mean squared error is carried as the fit's line and this
+            // one in quadrature. Its noise is the fit's without the term plus a quarter of the change's,
+            // and the change between nested least-squares fits has variance u_with^2 - u_without^2 (the
+            // fit without the term efficient where the term is absent: Hausman, Econometrica 46, 1978,
+            // from memory); where the term is real the average is off by half the true change, whose
+            // square half^2 less that noise estimates without bias. So u^2 = u_without^2 +
+            // max((u_with^2 - u_without^2) / 4, half^2). (Adding half^2 to the variances of both fits, as
+            // the model-averaging variance does, counts the change's noise twice: U of Q of a 10 uH part
+            // was then 1.8 times its readings' scatter.) Terms left out one after another are taken from
+            // the last left out (whose "without" is the final fit) back to the first
             List<LumpedFit.Omitted> omitted = fit.omitted();
             double[] without = p;
-            double uCombined = uA;
+            double uWithout = uA;
             for (int k = omitted.size() - 1; k >= 0; k--) {
                 LumpedFit.Omitted o = omitted.get(k);
                 double with = ev.at(o.parametersWith());
                 double change = with - ev.at(without);
                 without = o.parametersWith();
-                if (!Double.isFinite(change) || change == 0) {
-                    continue;
-                }
                 double scaleWith = Math.max(1, o.reducedChiSquareWith() * o.degreesOfFreedomWith()
                         / (o.degreesOfFreedomWith() + explained));
                 double uWith = typeA(ev, o.parametersWith(),
                         (x, y) -> o.covarianceWith()[x.ordinal()][y.ordinal()] * scaleWith, o.freeWith());
+                double noise = Math.max(0, uWith * uWith - uWithout * uWithout) / 4;
+                uWithout = uWith;
+                if (!Double.isFinite(change) || change == 0) {
+                    continue;
+                }
                 double half = Math.abs(change) / 2;
-                double averaged = (Math.hypot(uCombined, half) + Math.hypot(uWith, half)) / 2;
-                double line = Math.sqrt(Math.max(0, averaged * averaged - uCombined * uCombined));
+                double line = Math.sqrt(Math.max(noise, half * half));
                 value += change / 2;
                 lines.add(new Contribution("model term " + o.term().key() + " that the test could not decide on"
-                        + " (the models with and without it averaged)", "B", Distribution.TWO_POINT, line, ev.unit(),
+                        + " (the models with and without it averaged)", "B", Distribution.NORMAL, line, ev.unit(),
                         1.0, line, Double.POSITIVE_INFINITY, 0));
-                uCombined = averaged;
             }
             budgets.put(ev.name(), Budget.of(ev.name(), value, lines));
         }

@@ -9,7 +9,7 @@ import java.util.List;
  * of propagation of uncertainty uses, JCGM 100:2008 5.1.2), each input independent and of its own
  * shape: the normal lines together one normal of their combined u; a rectangular line a rectangle of
  * half-width sqrt(3) u_i; a triangular one a triangle of half-width sqrt(6) u_i (two rectangles of
- * half that width); a two-point line +/- u_i with equal weights. The output's density is the
+ * half that width). The output's density is the
  * convolution of these (the propagation of distributions, JCGM 101:2008 5.1, evaluated here on a grid
  * instead of by Monte Carlo, so the same budget always gives the same k). U = k u_c is the half-width
  * of the symmetric interval holding {@link #PROBABILITY} of it: k = 2 for a normal output, p sqrt(3) =
@@ -39,7 +39,7 @@ public final class CoverageFactor {
             throw new IllegalArgumentException("coverage probability " + probability + ": allowed is 0 < p < 1");
         }
         double normalVariance = 0;
-        List<double[]> shapes = new ArrayList<>(); // {half-width, 0 rectangle | 1 two-point}
+        List<Double> rectangles = new ArrayList<>(); // half-widths
         for (Contribution c : lines) {
             double u = Math.abs(c.contribution());
             if (!(u > 0) || !Double.isFinite(u)) {
@@ -47,27 +47,26 @@ public final class CoverageFactor {
             }
             switch (c.distribution()) {
                 case NORMAL -> normalVariance += u * u;
-                case RECTANGULAR -> shapes.add(new double[] {Math.sqrt(3) * u, 0});
+                case RECTANGULAR -> rectangles.add(Math.sqrt(3) * u);
                 case TRIANGULAR -> {
-                    shapes.add(new double[] {Math.sqrt(6) * u / 2, 0});
-                    shapes.add(new double[] {Math.sqrt(6) * u / 2, 0});
+                    rectangles.add(Math.sqrt(6) * u / 2);
+                    rectangles.add(Math.sqrt(6) * u / 2);
                 }
-                case TWO_POINT -> shapes.add(new double[] {u, 1});
             }
         }
         double variance = normalVariance;
         double span = NORMAL_SPAN * Math.sqrt(normalVariance);
-        for (double[] s : shapes) {
-            variance += s[1] == 1 ? s[0] * s[0] : s[0] * s[0] / 3;
-            span += s[0];
+        for (double a : rectangles) {
+            variance += a * a / 3;
+            span += a;
         }
         if (!(variance > 0)) {
             return Budget.K;
         }
-        return halfWidth(Math.sqrt(normalVariance), shapes, span, probability) / Math.sqrt(variance);
+        return halfWidth(Math.sqrt(normalVariance), rectangles, span, probability) / Math.sqrt(variance);
     }
 
-    private static double halfWidth(double sigma, List<double[]> shapes, double span, double probability) {
+    private static double halfWidth(double sigma, List<Double> rectangles, double span, double probability) {
         double h = 2 * span / (POINTS - 1);
         double[] f = new double[POINTS];
         int centre = POINTS / 2;
@@ -81,12 +80,12 @@ public final class CoverageFactor {
             // (its shape is lost at this resolution; its width is kept)
             f[centre] = 1 / h;
             if (sigma > 0) {
-                shapes = new ArrayList<>(shapes);
-                shapes.add(new double[] {Math.sqrt(3) * sigma, 0});
+                rectangles = new ArrayList<>(rectangles);
+                rectangles.add(Math.sqrt(3) * sigma);
             }
         }
-        for (double[] s : shapes) {
-            f = s[1] == 1 ? twoPoint(f, s[0] / h) : box(f, s[0] / h);
+        for (double a : rectangles) {
+            f = box(f, a / h);
         }
         double[] cdf = cumulative(f, h);
         double total = cdf[POINTS - 1];
@@ -111,15 +110,6 @@ public final class CoverageFactor {
         double[] out = new double[f.length];
         for (int i = 0; i < f.length; i++) {
             out[i] = (at(cdf, i + a) - at(cdf, i - a)) / (2 * a);
-        }
-        return out;
-    }
-
-    /** The density convolved with +/- {@code a} grid steps, each with weight 1/2. */
-    private static double[] twoPoint(double[] f, double a) {
-        double[] out = new double[f.length];
-        for (int i = 0; i < f.length; i++) {
-            out[i] = (at(f, i - a) + at(f, i + a)) / 2;
         }
         return out;
     }

@@ -3,15 +3,12 @@ package org.lrbench.uncertainty;
 /**
  * How an input quantity's possible values are spread, and the standard uncertainty that follows
  * from its half-width a (JCGM 100:2008, GUM 4.3.7 and 4.3.9): rectangular u = a / sqrt(3),
- * triangular u = a / sqrt(6); a normal input is given by its standard uncertainty directly; a
- * two-point input is +a or -a with equal weights, u = a (the models with and without a term averaged,
- * the truth near one of them).
+ * triangular u = a / sqrt(6); a normal input is given by its standard uncertainty directly.
  */
 public enum Distribution {
     NORMAL(1.0),
     RECTANGULAR(Math.sqrt(3)),
-    TRIANGULAR(Math.sqrt(6)),
-    TWO_POINT(1.0);
+    TRIANGULAR(Math.sqrt(6));
 
     private final double divisor;
 
@@ -19,7 +16,7 @@ public enum Distribution {
         this.divisor = divisor;
     }
 
-    /** Standard uncertainty of an input of half-width {@code a} (for NORMAL and TWO_POINT, a is already u). */
+    /** Standard uncertainty of an input of half-width {@code a} (for NORMAL, a is already u). */
     public double standardUncertainty(double a) {
         return a / divisor;
     }
