@@ -186,34 +186,26 @@ public final class SweepAnalysis {
             }
             // a term the test could not decide on: the models with and without it are averaged with
             // equal weights, and the average's mean squared error is carried as the fit's line and this
-            // one in quadrature. Its noise is the fit's without the term plus a quarter of the change's,
-            // and the change between nested least-squares fits has variance u_with^2 - u_without^2 (the
-            // fit without the term efficient where the term is absent: Hausman, Econometrica 46, 1978,
-            // from memory); where the term is real the average is off by half the true change, whose
-            // square half^2 less that noise estimates without bias. So u^2 = u_without^2 +
-            // max((u_with^2 - u_without^2) / 4, half^2). (Adding half^2 to the variances of both fits, as
-            // the model-averaging variance does, counts the change's noise twice: U of Q of a 10 uH part
-            // was then 1.8 times its readings' scatter.) Terms left out one after another are taken from
-            // the last left out (whose "without" is the final fit) back to the first
+            // one in quadrature: u^2 = u_without^2 + half^2, half the change between the fits. The change
+            // between nested least-squares fits has variance u_with^2 - u_without^2 (the fit without the
+            // term efficient where the term is absent: Hausman, Econometrica 46, 1978, from memory), so the
+            // average's variance is u_without^2 + (u_with^2 - u_without^2) / 4; where the term is real it
+            // is also off by half the true change; half^2 estimates the sum of both without bias. (The
+            // model-averaging variance, which adds half^2 to both fits' variances, counts the change's
+            // noise twice: U of Q of the 10 uH coverage part was then 1.8 times its readings' scatter.)
+            // Terms left out one after another are taken from the last left out (whose "without" is the
+            // final fit) back to the first
             List<LumpedFit.Omitted> omitted = fit.omitted();
             double[] without = p;
-            double uWithout = uA;
             for (int k = omitted.size() - 1; k >= 0; k--) {
                 LumpedFit.Omitted o = omitted.get(k);
                 double with = ev.at(o.parametersWith());
                 double change = with - ev.at(without);
                 without = o.parametersWith();
-                double scaleWith = Math.max(1, o.reducedChiSquareWith() * o.degreesOfFreedomWith()
-                        / (o.degreesOfFreedomWith() + explained));
-                double uWith = typeA(ev, o.parametersWith(),
-                        (x, y) -> o.covarianceWith()[x.ordinal()][y.ordinal()] * scaleWith, o.freeWith());
-                double noise = Math.max(0, uWith * uWith - uWithout * uWithout) / 4;
-                uWithout = uWith;
                 if (!Double.isFinite(change) || change == 0) {
                     continue;
                 }
-                double half = Math.abs(change) / 2;
-                double line = Math.sqrt(Math.max(noise, half * half));
+                double line = Math.abs(change) / 2;
                 value += change / 2;
                 lines.add(new Contribution("model term " + o.term().key() + " that the test could not decide on"
                         + " (the models with and without it averaged)", "B", Distribution.NORMAL, line, ev.unit(),
