@@ -40,7 +40,8 @@ class RehearsalTests {
         }
         assertThat(t.steppedSecond()).isGreaterThan(floor);
         assertThat(t.multisineSecond()).isGreaterThan(p.sweep().settleSecond() + p.sweep().cycles() / p.sweep().lowestHz());
-        assertThat(t.multisineSecond()).isLessThan(t.steppedSecond());
+        // which is faster is wall time with lrbench's processing in it, so a matter for the throughput
+        // benchmark (quiet machine, side by side), not for a unit test on a machine that may be busy
     }
 
     @Test
