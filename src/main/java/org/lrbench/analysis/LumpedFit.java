@@ -204,7 +204,13 @@ public final class LumpedFit {
     public static double[] refit(List<ImpedancePoint> points, Set<LumpedParameter> free, double[] from) {
         SeriesModel series = SeriesModelFit.fit(points);
         double[] scale = scales(points, series);
-        return expand(fitOnce(points, free, from, scale).parameters(), free, scale);
+        // from the unperturbed fit, and from the starts the fit itself uses: a step as large as a bench
+        // bound near a self-resonance can leave the first in another minimum (a stray capacitance's line
+        // on a 68 mH part read 3x too small), so the least chi-square of them is kept
+        List<double[]> starts = new ArrayList<>();
+        starts.add(from);
+        starts.addAll(starts(points, series));
+        return expand(best(points, free, starts, scale).parameters(), free, scale);
     }
 
     /**

@@ -98,8 +98,11 @@ class CommandLineTests {
         }
         assertThat(Math.sqrt(sum)).isCloseTo(budget.get("standard_uncertainty").asDouble(),
                 Assertions.within(1e-12));
+        // U = k u_c with the budget's own k, between a rectangle's p sqrt(3) and a normal's 2 (JCGM 100:2008 4.3.7, G.3)
+        double k = budget.get("coverage_factor").asDouble();
+        assertThat(k).isBetween(0.9545 * Math.sqrt(3), 2.0 + 1e-9);
         assertThat(budget.get("expanded_uncertainty").asDouble())
-                .isCloseTo(2 * budget.get("standard_uncertainty").asDouble(), Assertions.within(1e-15));
+                .isCloseTo(k * budget.get("standard_uncertainty").asDouble(), Assertions.within(1e-15));
         assertThat(r.get("inductance_expanded_uncertainty_h").asDouble()).isPositive();
         assertThat(r.get("methods").get("inductance_h").asText()).contains("sweep fit");
         assertThat(r.get("model").get("parameters").has("inductance")).isTrue();
