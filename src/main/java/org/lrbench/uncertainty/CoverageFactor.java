@@ -9,9 +9,9 @@ import java.util.List;
  * of propagation of uncertainty uses, JCGM 100:2008 5.1.2), each input independent and of its own
  * shape: the normal lines together one normal of their combined u; a rectangular line a rectangle of
  * half-width sqrt(3) u_i; a triangular one a triangle of half-width sqrt(6) u_i (two rectangles of
- * half that width). The output's density is the
- * convolution of these (the propagation of distributions, JCGM 101:2008 5.1, evaluated here on a grid
- * instead of by Monte Carlo, so the same budget always gives the same k). U = k u_c is the half-width
+ * half that width). The output's density is the convolution of these (the propagation of
+ * distributions of JCGM 101:2008, clause 5 from memory, evaluated here on a grid instead of by Monte
+ * Carlo, so the same budget always gives the same k). U = k u_c is the half-width
  * of the symmetric interval holding {@link #PROBABILITY} of it: k = 2 for a normal output, p sqrt(3) =
  * 1.653 for a rectangle alone. A budget that one rectangular line dominates therefore gets a smaller
  * k than 2, which for such a budget would cover the whole rectangle (JCGM 100:2008 G.2.3 and G.6.5
