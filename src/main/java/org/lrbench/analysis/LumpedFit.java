@@ -197,9 +197,20 @@ public final class LumpedFit {
     }
 
     /**
-     * Fits with exactly these free parameters, dropping none, starting from {@code from} (the
-     * unperturbed fit): for re-fitting perturbed data in an uncertainty budget, where the model must
-     * stay the same.
+     * Fits with exactly these free parameters, dropping none, from {@code from} (the unperturbed fit)
+     * only: the quick re-fit of perturbed data in an uncertainty budget, where the model must stay the
+     * same. It may end in another minimum than the fit's own after a large step ({@link #refit}).
+     */
+    public static double[] refitFrom(List<ImpedancePoint> points, Set<LumpedParameter> free, double[] from) {
+        SeriesModel series = SeriesModelFit.fit(points);
+        double[] scale = scales(points, series);
+        return expand(fitOnce(points, free, from, scale).parameters(), free, scale);
+    }
+
+    /**
+     * Fits with exactly these free parameters, dropping none, from {@code from} and from every start
+     * the fit itself uses, keeping the least chi-square: for re-fitting perturbed data in an
+     * uncertainty budget, where the model must stay the same.
      */
     public static double[] refit(List<ImpedancePoint> points, Set<LumpedParameter> free, double[] from) {
         SeriesModel series = SeriesModelFit.fit(points);
