@@ -73,8 +73,12 @@ public final class LumpedFit {
         }
     }
 
-    /** A model term the test could not decide on, with the parameters of the fit that still had it. */
-    public record Omitted(LumpedParameter term, double[] parametersWith) {
+    /**
+     * A model term the test could not decide on, with the fit that still had it: its parameters,
+     * their covariance (unscaled), its free parameters, reduced chi-square and degrees of freedom.
+     */
+    public record Omitted(LumpedParameter term, double[] parametersWith, double[][] covarianceWith,
+                          Set<LumpedParameter> freeWith, double reducedChiSquareWith, int degreesOfFreedomWith) {
     }
 
     public static Result fit(List<ImpedancePoint> points, Set<LumpedParameter> wanted) {
@@ -162,7 +166,8 @@ public final class LumpedFit {
             if (drop != null) {
                 if (mayBeThere || weakest < Double.POSITIVE_INFINITY) {
                     // left out by the test, not for an unphysical sign: it may still be there
-                    omitted.add(new Omitted(drop, full.clone()));
+                    omitted.add(new Omitted(drop, full.clone(), cov, EnumSet.copyOf(free), chi,
+                            r.degreesOfFreedom()));
                 }
                 free.remove(drop);
                 dropped.add(reason);

@@ -184,19 +184,14 @@ public final class SweepAnalysis {
                 lines.add(new Contribution(e.source, "B", e.distribution, u, e.unit, c, Math.abs(c) * u,
                         e.degreesOfFreedom, 0));
             }
-            // a term the test could not decide on: the models with and without it are averaged with
-            // equal weights, and the average's mean squared error is carried as the fit's line and this
-            // one in quadrature: u^2 = u_without^2 + half^2, half the change between the fits. The change
-            // between nested least-squares fits has variance u_with^2 - u_without^2 (the fit without the
-            // term efficient where the term is absent: Hausman, Econometrica 46, 1978, from memory), so the
-            // average's variance is u_without^2 + (u_with^2 - u_without^2) / 4; where the term is real it
-            // is also off by half the true change; half^2 estimates the sum of both without bias. (The
-            // model-averaging variance, which adds half^2 to both fits' variances, counts the change's
-            // noise twice: U of Q of the 10 uH coverage part was then 1.8 times its readings' scatter.)
-            // Terms left out one after another are taken from the last left out (whose "without" is the
-            // final fit) back to the first
+            // a term the test could not decide on: the models with and without it are averaged
+            // with equal weights, and the average's unconditional standard uncertainty (Buckland,
+            // Burnham and Augustin, Biometrics 53, 1997, eq. 9, from memory) is carried as the
+            // fit's line and this one in quadrature; terms left out one after another are taken
+            // from the last left out (whose "without" is the final fit) back to the first
             List<LumpedFit.Omitted> omitted = fit.omitted();
             double[] without = p;
+            double uCombined = uA;
             for (int k = omitted.size() - 1; k >= 0; k--) {
                 LumpedFit.Omitted o = omitted.get(k);
                 double with = ev.at(o.parametersWith());
@@ -205,11 +200,18 @@ public final class SweepAnalysis {
                 if (!Double.isFinite(change) || change == 0) {
                     continue;
                 }
-                double line = Math.abs(change) / 2;
+                double scaleWith = Math.max(1, o.reducedChiSquareWith() * o.degreesOfFreedomWith()
+                        / (o.degreesOfFreedomWith() + explained));
+                double uWith = typeA(ev, o.parametersWith(),
+                        (x, y) -> o.covarianceWith()[x.ordinal()][y.ordinal()] * scaleWith, o.freeWith());
+                double half = Math.abs(change) / 2;
+                double averaged = (Math.hypot(uCombined, half) + Math.hypot(uWith, half)) / 2;
+                double line = Math.sqrt(Math.max(0, averaged * averaged - uCombined * uCombined));
                 value += change / 2;
                 lines.add(new Contribution("model term " + o.term().key() + " that the test could not decide on"
                         + " (the models with and without it averaged)", "B", Distribution.NORMAL, line, ev.unit(),
                         1.0, line, Double.POSITIVE_INFINITY, 0));
+                uCombined = averaged;
             }
             budgets.put(ev.name(), Budget.of(ev.name(), value, lines));
         }

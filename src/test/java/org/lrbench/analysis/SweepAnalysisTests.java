@@ -63,56 +63,6 @@ class SweepAnalysisTests {
     }
 
     /**
-     * A term that is not there at all fails the test in most runs, and the fits with and without it
-     * are averaged: the average's standard uncertainty must then match its scatter over runs, and U
-     * cover the truth about as often as it promises. The change between nested least-squares fits has
-     * variance u_with^2 - u_without^2 (Hausman, Econometrica 46, 1978, from memory), so u_without^2 plus
-     * half the change squared estimates the average's mean squared error without bias whether the term
-     * is absent or real; the model-averaging variance (Buckland, Burnham and Augustin, Biometrics 53,
-     * 1997, from memory), which adds half the change squared to both fits' variances, counts the
-     * change's noise twice and put Q's scatter at 0.57-0.59 of its u here.
-     */
-    @Test
-    void theAveragesUncertaintyMatchesItsScatterWhenTheTermIsAbsent() {
-        Evaluation q = new Evaluation("Q", "", p -> {
-            var z = LumpedModel.impedance(p, 10e3);
-            return z.getImaginary() / z.getReal();
-        });
-        for (Object[] c : new Object[][] {{new PartModel(1e-3, 2.3, 0), LumpedParameter.C_P, 200.0, 20e3},
-                {new PartModel(10e-6, 5e-3, 0), LumpedParameter.SKIN, 1e3, 100e3},
-                {new PartModel(1e-3, 2.3, 0), LumpedParameter.SKIN, 200.0, 20e3}}) {
-            PartModel part = (PartModel) c[0];
-            double[] truth = {part.seriesResistanceOhm(), part.inductanceHenry(), 0, 0, 0};
-            for (Evaluation ev : List.of(L, q)) {
-                int runs = 300;
-                double[] values = new double[runs];
-                double variance = 0;
-                int n = 0;
-                int covered = 0;
-                for (int k = 0; k < runs; k++) {
-                    List<ImpedancePoint> pts = LumpedFitTests.sweep(part, (Double) c[2], (Double) c[3], 11, 1e-4, 900 + k);
-                    SweepAnalysis.Result r = SweepAnalysis.analyse(pts, EnumSet.of((LumpedParameter) c[1]), List.of(ev),
-                            new BenchAccuracy(0, 0, 0, 0));
-                    if (r.fit().omitted().isEmpty()) {
-                        continue;
-                    }
-                    Budget b = r.budgets().get(ev.name());
-                    values[n++] = b.value();
-                    variance += b.standardUncertainty() * b.standardUncertainty();
-                    covered += Math.abs(b.value() - ev.at(truth)) <= b.expandedUncertainty() ? 1 : 0;
-                }
-                String what = c[1] + " absent, " + ev.name() + " of " + part.inductanceHenry() + " H";
-                assertThat(n).as(what + ": runs averaged").isGreaterThan(runs / 2);
-                // a standard deviation over n > 150 runs is known to about 1 / sqrt(2 n) < 6 %
-                assertThat(sd(java.util.Arrays.copyOf(values, n)) / Math.sqrt(variance / n)).as(what + ": sd/u")
-                        .isBetween(0.85, 1.15);
-                // U is meant to cover 95.45 % (JCGM 100:2008 G.3); over n > 150 runs that scatters by under 1.7 %
-                assertThat(covered / (double) n).as(what + ": coverage").isBetween(0.92, 0.995);
-            }
-        }
-    }
-
-    /**
      * An uncompensated stray capacitance's bound (10 pF) on a part resonating in its sweep (68 mH, 53 pF,
      * 83.8 kHz): f = 1 / (2 pi sqrt(L C)) moves by f / (2 C) per farad (circuit theory), so the line's
      * sensitivity must be that, whichever minimum a re-fit started from the unperturbed fit would reach

@@ -64,16 +64,11 @@ class RehearsalTests {
         assertThat(r.guarded()).anySatisfy(g -> assertThat(g.acceptedBefore()).isLessThan(g.runs()));
     }
 
-    /**
-     * 50 kohm for a 1 mH part: the part's voltage at the lowest frequency is below the digitizer's noise
-     * and the winding resistance and Q are read with a test uncertainty ratio near 2. (At 20 kohm the
-     * ratios were under 4 only while U took k = 2 whatever its budget's distribution; they are 4.4 now.)
-     */
     @Test
     void aSenseResistorFarTooLargeIsFlagged() throws Exception {
-        Rehearsal.Result r = Rehearsal.rehearse(plan("sense_resistor: 100 ohm", "sense_resistor: 50 kohm"), BENCH,
+        Rehearsal.Result r = Rehearsal.rehearse(plan("sense_resistor: 100 ohm", "sense_resistor: 20 kohm"), BENCH,
                 new DriverLoader(TestBench.home().resolve("drivers")), 1);
-        assertThat(r.warnings()).anyMatch(w -> w.contains("the sense resistor (50.00 kohm) is the largest impedance"));
+        assertThat(r.warnings()).anyMatch(w -> w.contains("the sense resistor (20.00 kohm) is the largest impedance"));
         assertThat(r.warnings()).anyMatch(w -> w.contains("test uncertainty ratio"));
     }
 
