@@ -1,6 +1,7 @@
 package org.lrbench.analysis;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -8,6 +9,8 @@ import java.util.Set;
 import java.util.function.DoubleFunction;
 import java.util.function.UnaryOperator;
 import org.apache.commons.math3.complex.Complex;
+import org.apache.commons.math3.linear.Array2DRowRealMatrix;
+import org.apache.commons.math3.linear.EigenDecomposition;
 import org.lrbench.uncertainty.BenchAccuracy;
 import org.lrbench.uncertainty.Budget;
 import org.lrbench.uncertainty.Contribution;
@@ -58,19 +61,20 @@ public final class SweepAnalysis {
      */
     public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
                                  BenchAccuracy accuracy, double[] quantization) {
-        return analyse(points, terms, evaluations, accuracy, quantization, new double[points.size()], null);
+        return analyse(points, terms, evaluations, accuracy, quantization, new double[points.size()][points.size()], null);
     }
 
     /**
      * As above, with each point's channel gain ratio taken from the channel match of its own range
-     * pair, known to relative standard uncertainty {@code rangePair[i]}: one line, all points moved
-     * together by their own amounts (the pairs' ratios come from one least-squares solution and share
-     * its readings, so they are taken as fully correlated: the larger of the possible sums); the bench's
-     * bound for a gain ratio on ranges the match did not cover moves only the points marked in
+     * pair, the ratios' relative errors of covariance {@code rangePair} (point by point: pairs solved
+     * from the same readings err together). One line: the covariance's principal directions, each an
+     * independent perturbation of all points by their own amounts, re-fitted, their effects added in
+     * quadrature (u^2 = c' V c, GUM 5.2.2, with c the sensitivities to each point's gain ratio); the
+     * bench's bound for a gain ratio on ranges the match did not cover moves only the points marked in
      * {@code uncovered} (null: all of them).
      */
     public static Result analyse(List<ImpedancePoint> points, Set<LumpedParameter> terms, List<Evaluation> evaluations,
-                                 BenchAccuracy accuracy, double[] quantization, double[] rangePair, double[] uncovered) {
+                                 BenchAccuracy accuracy, double[] quantization, double[][] rangePair, double[] uncovered) {
         LumpedFit.Result fit = LumpedFit.fit(points, terms);
         Set<LumpedParameter> free = fit.free();
         double[] p = fit.parameters();
@@ -94,11 +98,11 @@ public final class SweepAnalysis {
                         Distribution.NORMAL, traced.scatter(), "relative", inf, d -> scale(points, 1 + d)));
             }
         }
-        if (max(rangePair) > 0) {
-            effects.add(new Perturbation("channel gain ratio of each point's range pair (channel match, range links)",
-                    Distribution.NORMAL, 1, "u", matchDof, d -> scaleEach(points, rangePair, d)));
+        List<double[]> directions = principalDirections(rangePair);
+        for (double[] w : directions) {
+            effects.add(new Perturbation(RANGE_PAIR, Distribution.NORMAL, 1, "u", matchDof, d -> scaleEach(points, w, d)));
         }
-        if (accuracy.gainAccuracy() > 0 || max(rangePair) == 0) {
+        if (accuracy.gainAccuracy() > 0 || directions.isEmpty()) {
             // the ratio of two channels each within +/- a: the difference of two rectangles is a
             // triangle of half-width 2a (GUM 4.3.9); after a channel match, its own u with n - 1
             // degrees of freedom
@@ -176,11 +180,20 @@ public final class SweepAnalysis {
             List<Contribution> lines = new ArrayList<>();
             lines.add(new Contribution("noise and quantization, random part (fit covariance)", "A", Distribution.NORMAL,
                     Double.NaN, "", 1.0, uA, dof, 0));
+            double rangePairSquared = 0;
             for (int i = 0; i < effects.size(); i++) {
                 Perturbation e = effects.get(i);
                 double step = perturbed.get(3 * i)[0];
                 double c = (ev.at(perturbed.get(3 * i + 1)) - ev.at(perturbed.get(3 * i + 2))) / (2 * step);
                 double u = e.distribution.standardUncertainty(e.halfWidth);
+                if (e.source.equals(RANGE_PAIR)) {
+                    // the principal directions are independent: one line, their effects in quadrature
+                    rangePairSquared += c * c;
+                    if (i + 1 < effects.size() && effects.get(i + 1).source.equals(RANGE_PAIR)) {
+                        continue;
+                    }
+                    c = Math.sqrt(rangePairSquared);
+                }
                 lines.add(new Contribution(e.source, "B", e.distribution, u, e.unit, c, Math.abs(c) * u,
                         e.degreesOfFreedom, 0));
             }
@@ -264,6 +277,35 @@ public final class SweepAnalysis {
                 }
             }
             without = with;
+        }
+        return out;
+    }
+
+    private static final String RANGE_PAIR = "channel gain ratio of each point's range pair (channel match, range links)";
+
+    /**
+     * The principal directions of a covariance of the points' relative gain errors: each eigenvector scaled
+     * by the root of its eigenvalue, so that the directions are independent unit perturbations whose sum of
+     * outer products is the covariance; directions under 1e-12 of the largest are left out. None for a
+     * covariance of zeros.
+     */
+    static List<double[]> principalDirections(double[][] covariance) {
+        List<double[]> out = new ArrayList<>();
+        int n = covariance.length;
+        double largest = 0;
+        for (int i = 0; i < n; i++) {
+            largest = Math.max(largest, covariance[i][i]);
+        }
+        if (!(largest > 0)) {
+            return out;
+        }
+        EigenDecomposition eigen = new EigenDecomposition(new Array2DRowRealMatrix(covariance));
+        double[] values = eigen.getRealEigenvalues();
+        double top = Arrays.stream(values).max().orElse(0);
+        for (int k = 0; k < values.length; k++) {
+            if (values[k] > 1e-12 * top) {
+                out.add(eigen.getEigenvector(k).mapMultiply(Math.sqrt(values[k])).toArray());
+            }
         }
         return out;
     }

@@ -254,7 +254,7 @@ public final class PartRun {
         SweepAnalysis.Result sweep = SweepAnalysis.analyse(z, plan.sweep().modelTerms(),
                 Readings.evaluations(plan.limits()), accuracy,
                 points.stream().mapToDouble(PointResult::quantizationRelativeUncertainty).toArray(),
-                ranges.perPointUncertainty(), ranges.uncoveredPoints());
+                ranges.pointCovariance(), ranges.uncoveredPoints());
         return new SweepFit(calibration, z, sweep, List.copyOf(points), ranges.warnings());
     }
 

@@ -114,6 +114,65 @@ class SweepAnalysisTests {
         assertThat(b.contributions()).anyMatch(c -> c.source().contains("skew") && c.contribution() > 0);
     }
 
+    /**
+     * Range pairs linked through a chain of readings err like a random walk along the sweep: the gain
+     * error of point i is the sum of i + 1 independent steps, covariance s^2 (min(i, j) + 1). The range
+     * pairs' line must be what those errors do to L and R: checked against Monte Carlo draws of the
+     * correlated errors, each sweep re-fitted (JCGM 101:2008, propagation of distributions; 600 draws
+     * estimate a standard deviation to 2.9 %). Fully correlated errors (one scale for every point)
+     * move L by L times the scale (Z scaled: circuit theory).
+     */
+    @Test
+    void theRangePairsLineFollowsTheirCorrelation() {
+        PartModel part = new PartModel(1e-3, 2.3, 0);
+        double s = 1e-4;
+        // exact impedances, each known to s of its magnitude (the fit's weights)
+        List<ImpedancePoint> pts = LumpedFitTests.sweep(part, 200, 20e3, 11, 0, 1).stream()
+                .map(p -> new ImpedancePoint(p.frequencyHz(), p.impedanceOhm(), s * p.impedanceOhm().abs(), Complex.ONE))
+                .toList();
+        int n = pts.size();
+        double[][] walk = new double[n][n];
+        for (int i = 0; i < n; i++) {
+            for (int j = 0; j < n; j++) {
+                walk[i][j] = s * s * (Math.min(i, j) + 1);
+            }
+        }
+        Evaluation r = new Evaluation("R", "ohm", p -> p[LumpedParameter.R_DC.ordinal()]);
+        var none = EnumSet.noneOf(LumpedParameter.class);
+        SweepAnalysis.Result res = SweepAnalysis.analyse(pts, none, List.of(L, r), new BenchAccuracy(0, 0, 0, 0),
+                new double[n], walk, null);
+        java.util.Random rnd = new java.util.Random(7);
+        int draws = 600;
+        double[] ls = new double[draws];
+        double[] rs = new double[draws];
+        for (int k = 0; k < draws; k++) {
+            List<ImpedancePoint> moved = new ArrayList<>();
+            double e = 0;
+            for (ImpedancePoint p : pts) {
+                e += s * rnd.nextGaussian();
+                moved.add(p.times(new Complex(1 + e, 0)));
+            }
+            double[] fitted = LumpedFit.fit(moved, none).parameters();
+            ls[k] = fitted[LumpedParameter.L.ordinal()];
+            rs[k] = fitted[LumpedParameter.R_DC.ordinal()];
+        }
+        assertThat(rangePairLine(res.budgets().get("L"))).isCloseTo(sd(ls), within(0.1 * sd(ls)));
+        assertThat(rangePairLine(res.budgets().get("R"))).isCloseTo(sd(rs), within(0.1 * sd(rs)));
+
+        double[][] whole = new double[n][n];
+        for (double[] row : whole) {
+            java.util.Arrays.fill(row, s * s);
+        }
+        SweepAnalysis.Result one = SweepAnalysis.analyse(pts, none, List.of(L), new BenchAccuracy(0, 0, 0, 0),
+                new double[n], whole, null);
+        assertThat(rangePairLine(one.budgets().get("L"))).isCloseTo(1e-3 * s, within(1e-3 * 1e-3 * s));
+    }
+
+    private static double rangePairLine(Budget b) {
+        return b.contributions().stream().filter(c -> c.source().startsWith("channel gain ratio of each point"))
+                .mapToDouble(c -> c.contribution()).sum();
+    }
+
     private static double mean(double[] v) {
         double s = 0;
         for (double x : v) {

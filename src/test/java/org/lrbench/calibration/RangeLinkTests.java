@@ -1,6 +1,7 @@
 package org.lrbench.calibration;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
 
 import java.util.List;
 import org.junit.jupiter.api.Test;
@@ -10,6 +11,7 @@ import org.lrbench.bench.BenchLoader;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.measure.BenchClock;
 import org.lrbench.measure.RangeLadder;
+import org.lrbench.measure.RangeLinkCapture;
 import org.lrbench.measure.SweepListener;
 import org.lrbench.plan.Plan;
 import org.lrbench.plan.PlanLoader;
@@ -146,5 +148,28 @@ class RangeLinkTests {
         assertThat(skewU[1]).isLessThan(1.5 * skewU[0]);
         // the fixture read at the multisine's tones, which a multisine run looks up (200 Hz moved to its bin)
         assertThat(lowest[1]).isNotEqualTo(lowest[0]).isCloseTo(200.0, org.assertj.core.data.Percentage.withPercentage(2));
+    }
+
+    /**
+     * Two pairs solved through a chain: channel 2 on 1 V read against channel 1 on 1 V (u1), and channel 2 on
+     * 2 V against itself on 1 V (u2). The pair (1 V, 2 V) is the sum of both readings' ln ratios, the pair
+     * (1 V, 1 V) the first alone: their covariance is u1^2 and their correlation u1 / sqrt(u1^2 + u2^2)
+     * (the law of propagation for correlated outputs, JCGM 100:2008 F.1.2.3; with u1 = u2, 1 / sqrt 2).
+     */
+    @Test
+    void pairsSolvedThroughAChainAreCorrelatedAsThePropagationLawSays() {
+        double u1 = 2e-4;
+        double u2 = 3e-4;
+        RangeLinks links = RangeLinks.solve("now", 1e3, List.of(
+                new RangeLinkCapture.Reading(1, 1.0, 2, 1.0, 1.0002, u1),
+                new RangeLinkCapture.Reading(2, 1.0, 2, 2.0, 0.9997, u2)), List.of());
+        double[][] r = links.correlation(List.of(new double[] {1.0, 1.0}, new double[] {1.0, 2.0}));
+        assertThat(r[0][0]).isEqualTo(1);
+        assertThat(r[0][1]).isCloseTo(u1 / Math.hypot(u1, u2), within(1e-12));
+        assertThat(r[1][0]).isEqualTo(r[0][1]);
+        // the stored uncertainties are the same solution's: u1 and sqrt(u1^2 + u2^2)
+        assertThat(links.pair(1.0, 2.0).relativeUncertainty()).isCloseTo(Math.hypot(u1, u2), within(1e-12));
+        // a pair the readings never solved: no correlation to give
+        assertThat(links.correlation(List.of(new double[] {1.0, 5.0}))).isNull();
     }
 }
