@@ -40,8 +40,9 @@ final class RehearseCommand implements Callable<Integer> {
                 loader.load(b.generator().driver(), DriverKind.SOURCE), loader.load(b.digitizer().driver(), DriverKind.DIGITIZER));
         PartTime.Estimate t = PartTime.of(p, b, loader, refused.isEmpty(), String.join("; ", refused));
         System.out.printf(Locale.ROOT, "time per part, one nominal part on the simulated bench with '%s' timing%s"
-                        + " (lrbench's processing and the plan's settles included):%n", t.timing().name(),
-                b.simulation().timing().none() ? " (the bench file sets none)" : "");
+                        + " (lrbench's processing and the plan's settles included; the least of %d runs on this"
+                        + " computer):%n", t.timing().name(),
+                b.simulation().timing().none() ? " (the bench file sets none)" : "", PartTime.TIMED_RUNS);
         System.out.printf(Locale.ROOT, "  stepped sweep    %6.0f ms  (%.0f parts per hour)%s%n", 1e3 * t.steppedSecond(),
                 3600 / t.steppedSecond(), p.sweep().multisine() ? "" : "  <- this plan");
         if (t.multisineRefused() == null) {
@@ -55,7 +56,7 @@ final class RehearseCommand implements Callable<Integer> {
             t.expanded().forEach((limit, u) -> System.out.printf(Locale.ROOT, "  %-24s stepped %.4g, multisine %.4g (%.2fx)%n",
                     limit, u[0], u[1], u[1] / u[0]));
         }
-        System.out.println("advice: " + t.advice());
+        System.out.println("advice, as excitation: auto would choose on this bench: " + t.advice());
     }
 
     @Override

@@ -72,6 +72,12 @@ public record SineSweep(double amplitudeVolt, double offsetVolt, List<Double> fr
                 distortionLimit, settleFromCircuit, multisine, multisineTolerance, excitationOpen);
     }
 
+    /** The same sweep with its excitation left to lrbench, as {@code excitation: auto}: stepped until chosen. */
+    public SineSweep withExcitationOpen() {
+        return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,
+                distortionLimit, settleFromCircuit, false, multisineTolerance, true);
+    }
+
     /** The same sweep stepped, or as one multisine: the excitation given, no longer open. */
     public SineSweep withMultisine(boolean asMultisine) {
         return new SineSweep(amplitudeVolt, offsetVolt, frequenciesHz, cycles, samplesPerCycle, settleSecond, modelTerms,

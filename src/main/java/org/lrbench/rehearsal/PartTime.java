@@ -14,7 +14,8 @@ import org.lrbench.sim.SimTiming;
 /**
  * The time a plan takes per part: one nominal part measured on the simulated bench whose
  * instruments take time ({@link SimTiming}), wall time from the first command to the verdict,
- * lrbench's own processing included, with the plan's settles really waited. The bench file's
+ * lrbench's own processing included, with the plan's settles really waited; after an untimed part
+ * of each, the least of {@link #TIMED_RUNS} alternated runs. The bench file's
  * timing profile is used, or {@code lan} where it sets none.
  */
 public final class PartTime {
@@ -27,42 +28,20 @@ public final class PartTime {
 
     /**
      * What was timed: the profile and the seconds per part stepped and as a multisine (NaN where it cannot),
-     * and per limit U (95 %) of each, stepped first, measured on the simulated bench calibrated for each.
+     * per limit U (95 %) of each, stepped first, measured on the simulated bench calibrated for each; and the
+     * advice, which is the choice {@code excitation: auto} makes on this bench ({@link ExcitationChoice}: from
+     * the bench's physical times, not from these wall times, which change with the computer's load).
      */
     public record Estimate(SimTiming timing, double steppedSecond, double multisineSecond, String multisineRefused,
-                           java.util.Map<String, double[]> expanded) {
-
-        /** The limit whose U the multisine worsens most, with the factor (null without a multisine). */
-        public java.util.Map.Entry<String, Double> worstRatio() {
-            java.util.Map.Entry<String, Double> worst = null;
-            for (var e : expanded.entrySet()) {
-                double r = e.getValue()[1] / e.getValue()[0];
-                if (worst == null || !(r <= worst.getValue())) {
-                    worst = java.util.Map.entry(e.getKey(), r);
-                }
-            }
-            return worst;
-        }
-
-        /** Which excitation to use, in words: the multisine only where it is faster at about the same U. */
-        public String advice() {
-            if (multisineRefused != null) {
-                return "stepped (this bench cannot play the multisine)";
-            }
-            var worst = worstRatio();
-            if (worst == null || !(worst.getValue() <= EQUAL_ENOUGH)) {
-                return String.format(java.util.Locale.ROOT, "stepped: the multisine's U(%s) is %.1fx the stepped"
-                        + " sweep's (its speed counts only within %.1fx)", worst == null ? "-" : worst.getKey(),
-                        worst == null ? Double.NaN : worst.getValue(), EQUAL_ENOUGH);
-            }
-            return multisineSecond < steppedSecond ? String.format(java.util.Locale.ROOT, "multisine: %.1fx faster with"
-                    + " every U within %.1fx of the stepped sweep's", steppedSecond / multisineSecond, EQUAL_ENOUGH)
-                    : "stepped: the multisine is not faster on this bench";
-        }
+                           java.util.Map<String, double[]> expanded, String advice) {
     }
+
+    /** Timed runs of each excitation, alternated; the least is kept (the run least disturbed by other work). */
+    public static final int TIMED_RUNS = 3;
 
     public static Estimate of(Plan plan, BenchConfig bench, DriverLoader drivers, boolean multisinePossible,
                               String whyNot) throws Exception {
+        String advice = ExcitationChoice.of(plan.withSweep(plan.sweep().withExcitationOpen()), bench, drivers).said();
         SimTiming timing = bench.simulation().timing().none() ? SimTiming.LAN : bench.simulation().timing();
         PartModel part = Rehearsal.nominal(plan);
         Plan stepped = plan.withSweep(plan.sweep().withMultisine(false));
@@ -72,8 +51,14 @@ public final class PartTime {
         if (multisinePossible) {
             once(multi, bench, drivers, part, SimTiming.NONE);
         }
-        double a = once(stepped, bench, drivers, part, timing);
-        double b = multisinePossible ? once(multi, bench, drivers, part, timing) : Double.NaN;
+        double a = Double.POSITIVE_INFINITY;
+        double b = multisinePossible ? Double.POSITIVE_INFINITY : Double.NaN;
+        for (int i = 0; i < TIMED_RUNS; i++) {
+            a = Math.min(a, once(stepped, bench, drivers, part, timing));
+            if (multisinePossible) {
+                b = Math.min(b, once(multi, bench, drivers, part, timing));
+            }
+        }
         java.util.Map<String, double[]> expanded = new java.util.LinkedHashMap<>();
         if (multisinePossible) {
             java.util.Map<String, Double> us = uncertainties(stepped, bench, drivers, part);
@@ -84,7 +69,7 @@ public final class PartTime {
                 }
             });
         }
-        return new Estimate(timing, a, b, multisinePossible ? null : whyNot, expanded);
+        return new Estimate(timing, a, b, multisinePossible ? null : whyNot, expanded, advice);
     }
 
     /** U (95 %) per limit of one nominal part, on the simulated bench calibrated for this plan first. */
