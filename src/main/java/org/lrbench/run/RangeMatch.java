@@ -16,7 +16,9 @@ import org.lrbench.uncertainty.BenchAccuracy;
  * gain ratio and its standard uncertainty, its linked pair's where the range links solve it, else the
  * match's; how the points' gain ratios err together (pairs solved from the same readings share their
  * errors as the links' least-squares solution says; points on the match's own ratio share one number;
- * the two kinds are separate measurements); and for the points on pairs
+ * the two kinds are taken as independent: the match's readings enter the links too, but how much of
+ * the match's own ratio a linked pair shares is not kept, and a point on a pair no link solved is
+ * rare, a pair no signal could fill); and for the points on pairs
  * neither linked nor matched, the bench's bound for a gain ratio on other ranges, with the pairs named
  * in a warning.
  *
