@@ -10,6 +10,7 @@ import org.lrbench.driver.DriverKind;
 import org.lrbench.driver.DriverLoader;
 import org.lrbench.driver.PlanFit;
 import org.lrbench.plan.Plan;
+import org.lrbench.rehearsal.ExcitationChoice;
 import org.lrbench.rehearsal.PartTime;
 import org.lrbench.rehearsal.Rehearsal;
 import picocli.CommandLine.Command;
@@ -39,15 +40,17 @@ final class RehearseCommand implements Callable<Integer> {
         List<String> refused = PlanFit.problems(p.withSweep(p.sweep().withMultisine(true)),
                 loader.load(b.generator().driver(), DriverKind.SOURCE), loader.load(b.digitizer().driver(), DriverKind.DIGITIZER));
         PartTime.Estimate t = PartTime.of(p, b, loader, refused.isEmpty(), String.join("; ", refused));
+        // what this plan runs on this bench: its own excitation, or the one auto chooses
+        boolean multisine = ExcitationChoice.of(p, b, loader).plan().sweep().multisine();
         System.out.printf(Locale.ROOT, "time per part, one nominal part on the simulated bench with '%s' timing%s"
                         + " (lrbench's processing and the plan's settles included; the least of %d runs on this"
                         + " computer):%n", t.timing().name(),
                 b.simulation().timing().none() ? " (the bench file sets none)" : "", PartTime.TIMED_RUNS);
         System.out.printf(Locale.ROOT, "  stepped sweep    %6.0f ms  (%.0f parts per hour)%s%n", 1e3 * t.steppedSecond(),
-                3600 / t.steppedSecond(), p.sweep().multisine() ? "" : "  <- this plan");
+                3600 / t.steppedSecond(), multisine ? "" : "  <- this plan");
         if (t.multisineRefused() == null) {
             System.out.printf(Locale.ROOT, "  one multisine    %6.0f ms  (%.0f parts per hour)%s%n", 1e3 * t.multisineSecond(),
-                    3600 / t.multisineSecond(), p.sweep().multisine() ? "  <- this plan" : "");
+                    3600 / t.multisineSecond(), multisine ? "  <- this plan" : "");
         } else {
             System.out.println("  one multisine    not on this bench: " + t.multisineRefused());
         }
