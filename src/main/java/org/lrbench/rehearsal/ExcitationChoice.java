@@ -154,19 +154,7 @@ public final class ExcitationChoice {
         Twin s;
         Twin m;
         try {
-            // the twin's instruments answer at once whatever the bench's link: one pair of measurements
-            // serves every link
-            List<Object> key = List.of(plan, bench.withSimulation(bench.simulation().withTiming(SimTiming.NONE)),
-                    drivers.directory(), driverTexts(bench, drivers));
-            Twin[] pair = TWINS.get(key);
-            if (pair == null) {
-                PartModel part = Rehearsal.nominal(plan);
-                pair = new Twin[] {Twin.measure(stepped, bench, drivers, part), Twin.measure(multi, bench, drivers, part)};
-                if (TWINS.size() > 16) {
-                    TWINS.clear();
-                }
-                TWINS.put(key, pair);
-            }
+            Twin[] pair = twins(plan, bench, drivers);
             s = pair[0];
             m = pair[1];
         } catch (ProblemsException e) {
@@ -207,6 +195,28 @@ public final class ExcitationChoice {
         return new Choice(multi, String.format(Locale.ROOT, "multisine (excitation auto): %s, every U within %.1fx of the"
                 + " stepped sweep's on the bench's simulated twin (worst %s, %.2fx)", times, PartTime.EQUAL_ENOUGH,
                 worst, ratio));
+    }
+
+    /**
+     * The plan's nominal part measured stepped and as a multisine on the bench's simulated twin, each
+     * calibrated for it; remembered, since the twin's instruments answer at once whatever the bench's
+     * link: one pair of measurements serves every link and every caller (the choice, rehearse's table).
+     */
+    static Twin[] twins(Plan plan, BenchConfig bench, DriverLoader drivers) throws Exception {
+        Plan open = plan.withSweep(plan.sweep().withExcitationOpen());
+        List<Object> key = List.of(open, bench.withSimulation(bench.simulation().withTiming(SimTiming.NONE)),
+                drivers.directory(), driverTexts(bench, drivers));
+        Twin[] pair = TWINS.get(key);
+        if (pair == null) {
+            PartModel part = Rehearsal.nominal(plan);
+            pair = new Twin[] {Twin.measure(plan.withSweep(plan.sweep().withMultisine(false)), bench, drivers, part),
+                Twin.measure(plan.withSweep(plan.sweep().withMultisine(true)), bench, drivers, part)};
+            if (TWINS.size() > 16) {
+                TWINS.clear();
+            }
+            TWINS.put(key, pair);
+        }
+        return pair;
     }
 
     /**

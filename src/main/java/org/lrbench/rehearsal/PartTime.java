@@ -61,8 +61,10 @@ public final class PartTime {
         }
         java.util.Map<String, double[]> expanded = new java.util.LinkedHashMap<>();
         if (multisinePossible) {
-            java.util.Map<String, Double> us = uncertainties(stepped, bench, drivers, part);
-            java.util.Map<String, Double> um = uncertainties(multi, bench, drivers, part);
+            // the same twins the advice was chosen on (measured once)
+            ExcitationChoice.Twin[] twins = ExcitationChoice.twins(plan, bench, drivers);
+            java.util.Map<String, Double> us = twins[0].expanded();
+            java.util.Map<String, Double> um = twins[1].expanded();
             us.forEach((k, v) -> {
                 if (um.containsKey(k)) {
                     expanded.put(k, new double[] {v, um.get(k)});
@@ -70,12 +72,6 @@ public final class PartTime {
             });
         }
         return new Estimate(timing, a, b, multisinePossible ? null : whyNot, expanded, advice);
-    }
-
-    /** U (95 %) per limit of one nominal part, on the simulated bench calibrated for this plan first. */
-    static java.util.Map<String, Double> uncertainties(Plan plan, BenchConfig bench, DriverLoader drivers, PartModel part)
-            throws Exception {
-        return ExcitationChoice.Twin.measure(plan, bench, drivers, part).expanded();
     }
 
     /** Seconds for one part of {@code plan} on the simulated bench with {@code timing}. */
