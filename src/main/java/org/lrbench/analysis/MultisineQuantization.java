@@ -1,5 +1,8 @@
 package org.lrbench.analysis;
 
+import java.util.ArrayList;
+import java.util.List;
+
 /**
  * The repeatable part of a converter's quantization error in a multisine fit. Through a uniform
  * quantizer the sum of tones on one harmonic grid comes out with intermodulation products that fall
@@ -263,53 +266,105 @@ public final class MultisineQuantization {
     private static final int ANCHOR = 256;
 
     /**
-     * The fitted tones and offset, sample by sample: each tone's phasor turned by one complex
-     * multiplication a sample, its phase computed exactly every {@value #ANCHOR} samples.
+     * The fitted tones and offset, sample by sample: each tone by the recurrence of a sampled sinusoid,
+     * v[i + 1] = 2 cos(w) v[i] - v[i - 1], in Reinsch's form for a step under a quarter turn (the
+     * difference d[i + 1] = v[i + 1] - v[i] = d[i] - 4 sin^2(w / 2) v[i] carried instead of v[i - 1], so
+     * that a step near zero, where 2 cos(w) is near 2, does not magnify rounding: Stoer and Bulirsch,
+     * Introduction to Numerical Analysis, 1980, section 2.3.4, from memory), one multiplication and two
+     * additions a sample, started exactly every {@value #ANCHOR} samples; four tones side by side in one
+     * pass so their recurrences overlap.
      */
     static double[] synthesized(int n, double dt, double[] tonesHz, SineFitResult[] fit) {
         double[] s = new double[n];
         java.util.Arrays.fill(s, fit[0].offset());
-        int k = 0;
-        for (; k + 2 <= tonesHz.length; k += 2) {
-            addTwo(s, dt, tonesHz[k], fit[k], tonesHz[k + 1], fit[k + 1]);
+        List<Integer> small = new ArrayList<>();
+        for (int k = 0; k < tonesHz.length; k++) {
+            double w = 2 * Math.PI * tonesHz[k] * dt;
+            if (Math.cos(w) >= 0) {
+                small.add(k);
+            } else {
+                addLarge(s, w, fit[k]);
+            }
         }
-        for (; k < tonesHz.length; k++) {
-            addTwo(s, dt, tonesHz[k], fit[k], 0, null);
+        for (int j = 0; j < small.size(); j += 4) {
+            double[] w = new double[4];
+            SineFitResult[] f = new SineFitResult[4];
+            for (int i = 0; i < 4 && j + i < small.size(); i++) {
+                int k = small.get(j + i);
+                w[i] = 2 * Math.PI * tonesHz[k] * dt;
+                f[i] = fit[k];
+            }
+            addFour(s, w, f);
         }
         return s;
     }
 
-    /**
-     * Two tones added to {@code s} in one pass (their phasors turned side by side, which keeps the
-     * processor's arithmetic busy where one phasor's turn waits on its last); {@code second} null: one.
-     */
-    private static void addTwo(double[] s, double dt, double firstHz, SineFitResult first, double secondHz,
-                               SineFitResult second) {
-        int n = s.length;
-        double w1 = 2 * Math.PI * firstHz * dt;
-        double a1 = first.cosineCoefficient();
-        double b1 = first.sineCoefficient();
-        double w2 = 2 * Math.PI * secondHz * dt;
-        double a2 = second == null ? 0 : second.cosineCoefficient();
-        double b2 = second == null ? 0 : second.sineCoefficient();
-        double cd1 = Math.cos(w1);
-        double sd1 = Math.sin(w1);
-        double cd2 = Math.cos(w2);
-        double sd2 = Math.sin(w2);
-        for (int start = 0; start < n; start += ANCHOR) {
-            double c1 = Math.cos(w1 * start);
-            double s1 = Math.sin(w1 * start);
-            double c2 = Math.cos(w2 * start);
-            double s2 = Math.sin(w2 * start);
-            int end = Math.min(n, start + ANCHOR);
+    /** Up to four tones of steps under a quarter turn added to {@code s} in Reinsch's form (a null fit: no tone). */
+    private static void addFour(double[] s, double[] w, SineFitResult[] f) {
+        double[] a = new double[4];
+        double[] b = new double[4];
+        double[] h = new double[4];
+        double[] lambda = new double[4];
+        for (int t = 0; t < 4; t++) {
+            a[t] = f[t] == null ? 0 : f[t].cosineCoefficient();
+            b[t] = f[t] == null ? 0 : f[t].sineCoefficient();
+            h[t] = Math.sin(w[t] / 2);
+            lambda[t] = -4 * h[t] * h[t];
+        }
+        double[] v = new double[4];
+        double[] d = new double[4];
+        for (int start = 0; start < s.length; start += ANCHOR) {
+            for (int t = 0; t < 4; t++) {
+                v[t] = a[t] * Math.cos(w[t] * start) + b[t] * Math.sin(w[t] * start);
+                // v[start] - v[start - 1] from the sum-to-product forms, without cancellation
+                d[t] = 2 * h[t] * (b[t] * Math.cos(w[t] * (start - 0.5)) - a[t] * Math.sin(w[t] * (start - 0.5)));
+            }
+            double v0 = v[0];
+            double v1 = v[1];
+            double v2 = v[2];
+            double v3 = v[3];
+            double d0 = d[0];
+            double d1 = d[1];
+            double d2 = d[2];
+            double d3 = d[3];
+            double l0 = lambda[0];
+            double l1 = lambda[1];
+            double l2 = lambda[2];
+            double l3 = lambda[3];
+            int end = Math.min(s.length, start + ANCHOR);
             for (int i = start; i < end; i++) {
-                s[i] += (a1 * c1 + b1 * s1) + (a2 * c2 + b2 * s2);
-                double next1 = c1 * cd1 - s1 * sd1;
-                s1 = s1 * cd1 + c1 * sd1;
-                c1 = next1;
-                double next2 = c2 * cd2 - s2 * sd2;
-                s2 = s2 * cd2 + c2 * sd2;
-                c2 = next2;
+                s[i] += (v0 + v1) + (v2 + v3);
+                d0 += l0 * v0;
+                d1 += l1 * v1;
+                d2 += l2 * v2;
+                d3 += l3 * v3;
+                v0 += d0;
+                v1 += d1;
+                v2 += d2;
+                v3 += d3;
+            }
+        }
+    }
+
+    /**
+     * A tone of a step of a quarter turn or more (none in a multisine's record, which holds several
+     * samples a cycle of its highest tone's harmonics) added to {@code s} by a phasor turned each sample,
+     * which keeps its accuracy at any step where the recurrence near half a turn does not.
+     */
+    private static void addLarge(double[] s, double w, SineFitResult fit) {
+        double a = fit.cosineCoefficient();
+        double b = fit.sineCoefficient();
+        double cd = Math.cos(w);
+        double sd = Math.sin(w);
+        for (int start = 0; start < s.length; start += ANCHOR) {
+            double c = Math.cos(w * start);
+            double sn = Math.sin(w * start);
+            int end = Math.min(s.length, start + ANCHOR);
+            for (int i = start; i < end; i++) {
+                s[i] += a * c + b * sn;
+                double next = c * cd - sn * sd;
+                sn = sn * cd + c * sd;
+                c = next;
             }
         }
     }
