@@ -194,11 +194,19 @@ final class BenchmarkCommand implements Runnable {
                 + " every plan of the matrix sweeps")
         String excitation;
 
+        @Option(names = "--first-seed", defaultValue = "1000", description = {"seed of the first run (each run takes"
+                + " two: calibration and measurement; default: ${DEFAULT-VALUE});",
+                "every part draws the same noise from one set, so another set tells a set's luck from the budget"})
+        long firstSeed;
+
         @picocli.CommandLine.Mixin
         BenchOptions benchOptions;
 
         @Override
         public Integer call() throws Exception {
+            if (firstSeed < 0) {
+                throw new BadInputException("--first-seed " + firstSeed + ": allowed are 0 and above");
+            }
             if (!java.util.Set.of("stepped", "multisine").contains(excitation)) {
                 throw new BadInputException("--excitation '" + excitation + "': allowed are stepped, multisine");
             }
@@ -215,11 +223,11 @@ final class BenchmarkCommand implements Runnable {
             int misses = 0;
             if (!benchErrors.equals("on")) {
                 misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, false,
-                        parts, multisine);
+                        parts, multisine, firstSeed);
             }
             if (!benchErrors.equals("off")) {
                 misses += CoverageBenchmark.run(System.out, benchOptions.load(), benchOptions.driverFolder(), seeds, true,
-                        parts, multisine);
+                        parts, multisine, firstSeed);
             }
             return misses == 0 ? ExitCodes.PASS : ExitCodes.FAIL;
         }

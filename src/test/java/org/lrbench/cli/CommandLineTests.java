@@ -769,6 +769,17 @@ class CommandLineTests {
         assertThat(completion.out()).contains("complete").contains("--reinspect").contains("verify");
     }
 
+    /** The coverage benchmark refuses a bad option before it measures anything, naming the option and what is allowed. */
+    @Test
+    void theCoverageBenchmarkRefusesABadFirstSeedOrExcitation() {
+        Outcome seed = run("benchmark", "coverage", "--first-seed", "-4", "--seeds", "5");
+        assertThat(seed.code()).as(seed.err()).isEqualTo(2);
+        assertThat(seed.err()).contains("--first-seed -4").contains("0 and above");
+        Outcome excitation = run("benchmark", "coverage", "--excitation", "chirp", "--seeds", "5");
+        assertThat(excitation.code()).as(excitation.err()).isEqualTo(2);
+        assertThat(excitation.err()).contains("--excitation 'chirp'").contains("stepped, multisine");
+    }
+
     /** A copy of the shipped driver files to edit in a test. */
     static Path copyOfDrivers(Path dir) throws IOException {
         Path drivers = dir.resolve("drivers");
