@@ -170,24 +170,6 @@ public final class MultisineFit {
         out[2 * t + 1] -= im * c - re * s;
     }
 
-    /** {sum y cos(n p), sum y sin(n p)}: {@link #dataSums(double[], double[])} of one step. */
-    static double[] dataSums(double[] y, double p) {
-        double k = 2 * Math.cos(p);
-        double[] out = new double[2];
-        for (int block = 0; block < y.length; block += ANCHOR) {
-            int end = Math.min(y.length, block + ANCHOR);
-            double a = 0;
-            double b = 0;
-            for (int i = block; i < end; i++) {
-                double next = y[i] + k * a - b;
-                b = a;
-                a = next;
-            }
-            addBlock(out, 0, p, a, b, end - 1);
-        }
-        return out;
-    }
-
     /**
      * {sum cos(n t), sum sin(n t)} for n = 0 .. N-1 from exp(j (N-1) t / 2) sin(N t / 2) / sin(t / 2),
      * with t first brought into (-pi, pi] so that sin(t / 2) keeps its relative precision near a
