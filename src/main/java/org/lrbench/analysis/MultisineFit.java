@@ -14,8 +14,8 @@ import org.apache.commons.math3.linear.RealVector;
  * {@code y[n] - (C + sum_i A_i cos(w_i t[n]) + B_i sin(w_i t[n]))}, {@code t[n] = n dt} (the
  * three-parameter fit of IEEE Std 1057 4.1.3.1 extended to several known frequencies). It does not
  * need whole periods in the record. The design's own sums have closed forms (geometric series of
- * the sum and difference frequencies); the data sums are taken by Goertzel's recurrence in blocks of {@value #ANCHOR} samples,
- * each block turned to its exact phase. Covariances are the residual
+ * the sum and difference frequencies); the data sums are taken by Goertzel's recurrence in blocks
+ * of {@value #ANCHOR} samples, each block turned to its exact phase. Covariances are the residual
  * variance times the inverse normal matrix (white noise).
  */
 public final class MultisineFit {
